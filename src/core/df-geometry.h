@@ -1,0 +1,54 @@
+/* df-geometry.h: the local differential geometry of a surface at a chart point: metric,
+ * Christoffel symbols and their derivatives, the Riemann tensor, second fundamental form,
+ * Gaussian, mean and principal curvatures. Index conventions: ../shared/GEOMETRY.md.
+ * Plain C + libm; no GLib. */
+#pragma once
+
+#include <stdbool.h>
+
+#include "df-surface.h"
+
+#define DF_DIM 2
+
+typedef struct
+{
+  double u, v;
+  double point[3];
+  double normal[3];                         /* unit N = X_u x X_v / |.|; its limit at a pole */
+  double xu[3], xv[3];
+  double g[DF_DIM][DF_DIM];                 /* g_ij = X_i . X_j */
+  double ginv[DF_DIM][DF_DIM];
+  double det_g;
+  double gamma[DF_DIM][DF_DIM][DF_DIM];     /* gamma[k][i][j] = Gamma^k_ij */
+  double dgamma[DF_DIM][DF_DIM][DF_DIM][DF_DIM]; /* dgamma[l][k][i][j] = d_l Gamma^k_ij */
+  double riemann[DF_DIM][DF_DIM][DF_DIM][DF_DIM]; /* riemann[r][s][m][n] = R^r_smn */
+  double second_form[DF_DIM][DF_DIM];       /* II_ij = X_ij . N */
+  double K, H;                              /* Gaussian, mean = (k1 + k2) / 2 */
+  double k1, k2;                            /* principal curvatures, k1 >= k2 */
+  /* At a chart singularity (a pole) only point, normal, K, H, k1, k2 are valid (as limits);
+   * metric-dependent fields are zero and chart_regular is false. */
+  bool   chart_regular;
+} df_point_geometry;
+
+/* Fills out at (u, v). At a pole returns DF_OK with chart_regular = false. */
+df_status df_surface_geometry (const df_surface  *surface,
+                               double             u,
+                               double             v,
+                               df_point_geometry *out,
+                               df_diag           *diag);
+
+/* Just Gamma^k_ij (and optionally the unit normal) from a second-order evaluation: the hot
+ * path of the transport ODE. DF_E_SINGULAR where det g vanishes. */
+df_status df_surface_christoffel (const df_surface *surface,
+                                  double            u,
+                                  double            v,
+                                  double            gamma[DF_DIM][DF_DIM][DF_DIM],
+                                  df_diag          *diag);
+
+/* Gaussian curvature times sqrt(det g) at (u, v): the integrand of the enclosed curvature. */
+df_status df_surface_k_area   (const df_surface *surface,
+                               double            u,
+                               double            v,
+                               double           *k_sqrt_g,
+                               double           *sqrt_g,
+                               df_diag          *diag);

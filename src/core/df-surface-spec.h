@@ -1,0 +1,72 @@
+/* df-surface-spec.h: the user's description of a surface (preset or formulas, ranges, named
+ * parameters, units), its GLib key file form (`.surface`, group [surface] and [parameters]) and
+ * the presets. It is what is edited and saved; df_surface_spec_build() turns it into a
+ * df_surface. Reader layer: GLib allowed.
+ *
+ * Key file:
+ *   [surface]
+ *   kind=revolution            # or graph
+ *   r=R*sin(t)                 # revolution: r, z, t-min, t-max
+ *   z=R*cos(t)
+ *   t-min=0
+ *   t-max=pi
+ *   units=mm                   # optional, default mm
+ *   [parameters]               # optional, in order; values may use earlier parameters
+ *   R=120
+ * A graph has z=f(x, y) and x-min, x-max, y-min, y-max. Range values are expressions too. */
+#pragma once
+
+#include <glib.h>
+
+#include "df-expr-parse.h"
+#include "df-surface.h"
+
+typedef struct
+{
+  df_surface_type kind;
+  char      *preset;        /* preset name it came from, or NULL */
+  char      *r_text;        /* revolution profile */
+  char      *z_text;        /* revolution: z(t); graph: z(x, y) */
+  char      *range_text[4]; /* t-min, t-max, (unused, unused)  or  x-min, x-max, y-min, y-max */
+  df_params *params;
+  char      *units;         /* "mm" unless given */
+} df_surface_spec;
+
+df_surface_spec *df_surface_spec_new_revolution (const char *r_text, const char *z_text,
+                                                 const char *t_min_text, const char *t_max_text);
+df_surface_spec *df_surface_spec_new_graph      (const char *z_text,
+                                                 const char *x_min_text, const char *x_max_text,
+                                                 const char *y_min_text, const char *y_max_text);
+df_surface_spec *df_surface_spec_copy           (const df_surface_spec *spec);
+void             df_surface_spec_free           (df_surface_spec *spec);   /* NULL: no-op */
+
+/* Builds the surface. Errors name the key: "r: column 5: expected an operand after '*'",
+ * "t-max: must be greater than t-min (0)", or the core's geometry complaint with its t. */
+df_surface      *df_surface_spec_build          (const df_surface_spec *spec, GError **error);
+
+/* Key file group [surface] (+ [parameters]); source names the file in messages
+ * ("lamp.surface: [surface] r: column 5: ..."). */
+df_surface_spec *df_surface_spec_from_key_file  (GKeyFile *key_file, const char *source,
+                                                 GError **error);
+void             df_surface_spec_to_key_file    (const df_surface_spec *spec, GKeyFile *key_file);
+df_surface_spec *df_surface_spec_load           (const char *path, GError **error);
+gboolean         df_surface_spec_save           (const df_surface_spec *spec, const char *path,
+                                                 GError **error);
+
+/* Presets: plane, sphere, torus, catenoid, pseudosphere, cone, paraboloid, saddle, bump and
+ * more; each written so that N points outward. */
+typedef struct
+{
+  const char *name;         /* "sphere" */
+  const char *title;        /* "Sphere" */
+  const char *description;  /* one sentence */
+} df_preset_info;
+
+/* NULL-terminated by a zero entry. */
+const df_preset_info *df_presets_list           (void);
+/* A fresh spec with the preset's default parameters; error VALUE for an unknown name (the
+ * message lists the known ones). */
+df_surface_spec *df_surface_spec_new_preset     (const char *name, GError **error);
+/* Sets one parameter from "KEY=VALUE" text or key and value; error for an unknown key. */
+gboolean         df_surface_spec_set_param      (df_surface_spec *spec, const char *key,
+                                                 const char *value_text, GError **error);
