@@ -1,0 +1,130 @@
+/* df-jet.c: arithmetic on bivariate Taylor polynomials truncated at total degree 3 (df-jet.h),
+ * the number type behind exact chart derivatives. This is the inner loop of the transport ODE
+ * (millions of calls per loop), so every product is written out term by term, nothing
+ * allocates, and outputs may alias inputs. Plain C + libm; no GLib. */
+#include "df-jet.h"
+
+#include <string.h>
+
+/* Index of each monomial: 0:1  1:x  2:y  3:x^2  4:xy  5:y^2  6:x^3  7:x^2y  8:xy^2  9:y^3. */
+
+void
+df_jet_const (df_jet *out, double value)
+{
+  memset (out, 0, sizeof *out);
+  out->c[0] = value;
+}
+
+void
+df_jet_var (df_jet *out, double value, int which)
+{
+  df_jet_const (out, value);
+  out->c[which == 0 ? DF_JET_DX : DF_JET_DY] = 1.0;
+}
+
+double
+df_jet_deriv (const df_jet *a, df_jet_index index)
+{
+  /* Taylor coefficient of x^i y^j is f_(x^i y^j) / (i! j!): multiply back by i! j!. */
+  static const double factor[DF_JET_N] = { 1, 1, 1, 2, 1, 2, 6, 2, 2, 6 };
+
+  if ((int) index < 0 || (int) index >= DF_JET_N)
+    return 0.0;
+  return a->c[index] * factor[index];
+}
+
+void
+df_jet_add (const df_jet *a, const df_jet *b, df_jet *out)
+{
+  for (int i = 0; i < DF_JET_N; i++)
+    out->c[i] = a->c[i] + b->c[i];
+}
+
+void
+df_jet_sub (const df_jet *a, const df_jet *b, df_jet *out)
+{
+  for (int i = 0; i < DF_JET_N; i++)
+    out->c[i] = a->c[i] - b->c[i];
+}
+
+void
+df_jet_neg (const df_jet *a, df_jet *out)
+{
+  for (int i = 0; i < DF_JET_N; i++)
+    out->c[i] = -a->c[i];
+}
+
+void
+df_jet_scale (const df_jet *a, double s, df_jet *out)
+{
+  for (int i = 0; i < DF_JET_N; i++)
+    out->c[i] = a->c[i] * s;
+}
+
+void
+df_jet_mul (const df_jet *a, const df_jet *b, df_jet *out)
+{
+  const double *p = a->c, *q = b->c;
+  double r[DF_JET_N];
+
+  /* Cauchy product of the two polynomials, keeping monomials of total degree <= 3.
+   * Written into a local first because out may be a or b. */
+  r[0] = p[0] * q[0];
+  r[1] = p[0] * q[1] + p[1] * q[0];
+  r[2] = p[0] * q[2] + p[2] * q[0];
+  r[3] = p[0] * q[3] + p[1] * q[1] + p[3] * q[0];
+  r[4] = p[0] * q[4] + p[1] * q[2] + p[2] * q[1] + p[4] * q[0];
+  r[5] = p[0] * q[5] + p[2] * q[2] + p[5] * q[0];
+  r[6] = p[0] * q[6] + p[1] * q[3] + p[3] * q[1] + p[6] * q[0];
+  r[7] = p[0] * q[7] + p[1] * q[4] + p[2] * q[3] + p[3] * q[2] + p[4] * q[1] + p[7] * q[0];
+  r[8] = p[0] * q[8] + p[1] * q[5] + p[2] * q[4] + p[4] * q[2] + p[5] * q[1] + p[8] * q[0];
+  r[9] = p[0] * q[9] + p[2] * q[5] + p[5] * q[2] + p[9] * q[0];
+  memcpy (out->c, r, sizeof r);
+}
+
+void
+df_jet_compose (const df_jet *a, double f0, double f1, double f2, double f3, df_jet *out)
+{
+  const double *h = a->c;   /* h[0] is ignored: h is the non-constant part of a */
+  double s[DF_JET_N];       /* h^2, degrees 2 and 3 only */
+  double t6, t7, t8, t9;    /* h^3, degree 3 only */
+  double g2 = 0.5 * f2, g3 = f3 / 6.0;
+
+  s[3] = h[1] * h[1];
+  s[4] = 2.0 * h[1] * h[2];
+  s[5] = h[2] * h[2];
+  s[6] = 2.0 * h[1] * h[3];
+  s[7] = 2.0 * (h[1] * h[4] + h[2] * h[3]);
+  s[8] = 2.0 * (h[1] * h[5] + h[2] * h[4]);
+  s[9] = 2.0 * h[2] * h[5];
+
+  t6 = s[3] * h[1];
+  t7 = 3.0 * s[3] * h[2];
+  t8 = 3.0 * h[1] * s[5];
+  t9 = s[5] * h[2];
+
+  /* out may alias a: every read of h happens before the first write. */
+  out->c[6] = f1 * h[6] + g2 * s[6] + g3 * t6;
+  out->c[7] = f1 * h[7] + g2 * s[7] + g3 * t7;
+  out->c[8] = f1 * h[8] + g2 * s[8] + g3 * t8;
+  out->c[9] = f1 * h[9] + g2 * s[9] + g3 * t9;
+  out->c[3] = f1 * h[3] + g2 * s[3];
+  out->c[4] = f1 * h[4] + g2 * s[4];
+  out->c[5] = f1 * h[5] + g2 * s[5];
+  out->c[1] = f1 * h[1];
+  out->c[2] = f1 * h[2];
+  out->c[0] = f0;
+}
+
+void
+df_jet_div (const df_jet *a, const df_jet *b, df_jet *out)
+{
+  double inv = 1.0 / b->c[0];
+  double inv2 = inv * inv;
+  df_jet r;
+
+  /* 1/x has derivatives 1/x, -1/x^2, 2/x^3, -6/x^4. b->c[0] == 0 gives infinities: callers
+   * that can meet a zero divisor (df-expr.c) check it first and report it. */
+  df_jet_compose (b, inv, -inv2, 2.0 * inv2 * inv, -6.0 * inv2 * inv2, &r);
+  df_jet_mul (a, &r, out);
+}
