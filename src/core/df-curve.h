@@ -29,6 +29,8 @@ typedef struct
   bool   at_pole;       /* u is a pole: v is arbitrary there */
   double p[2], dp[2], ddp[2];  /* plane coordinates of the interpolation and d/dtau, d2/dtau2 */
   double x[3], dx[3], ddx[3];  /* space point and d/dtau, d2/dtau2 */
+  double normal[3];            /* unit N (its limit at a pole) */
+  double dnormal[3];           /* dN/dtau */
 } df_curve_point;
 
 /* Exact curve: plane coordinates (see coords) and their first two derivatives at tau. */
@@ -64,6 +66,9 @@ df_status df_curve_new_function       (const df_surface *surface,
 
 void      df_curve_free        (df_curve *curve);     /* NULL is a no-op */
 
+/* The surface the curve lies on (the curve keeps its own copy). */
+const df_surface *df_curve_get_surface (const df_curve *curve);
+
 bool      df_curve_is_closed   (const df_curve *curve);
 df_curve_coords df_curve_get_coords (const df_curve *curve);
 void      df_curve_get_range   (const df_curve *curve, double *tau0, double *tau1);
@@ -71,6 +76,10 @@ void      df_curve_get_range   (const df_curve *curve, double *tau0, double *tau
 size_t    df_curve_get_breaks  (const df_curve *curve, const double **breaks);
 /* Number of interpolation nodes and their parameters (NULL for an exact curve). */
 size_t    df_curve_get_nodes   (const df_curve *curve, const double **taus);
+
+/* Only the plane coordinates and their derivatives: cheap, no surface evaluation. */
+void      df_curve_eval_plane  (const df_curve *curve, double tau, double p[2], double dp[2],
+                                double ddp[2]);
 
 /* Evaluates at tau (clamped to the range; wrapped when closed). DF_E_DOMAIN if the point
  * leaves the surface's domain. */

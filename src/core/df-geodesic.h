@@ -21,7 +21,7 @@ typedef struct
 {
   double length;                 /* reached; < requested when stopped early */
   bool   stopped_early;
-  char   stop_reason[200];
+  char   stop_reason[400];
   size_t n_samples;
   df_geodesic_sample *samples;   /* owned, evenly spaced in s */
 } df_geodesic_result;

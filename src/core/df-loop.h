@@ -21,9 +21,9 @@ typedef struct
   double normal[3];
   double vector[3];     /* carried unit vector */
   double partner[3];    /* N x vector: the frame's second arrow */
-  double angle_rad;     /* rotation of the carried vector since the start, about N, measured
-                         * against the curve's unit tangent and accumulated continuously:
-                         * angle(T, V)(s) - angle(T, V)(0) */
+  double angle_rad;     /* angle from the path's unit tangent T to the carried vector V about N,
+                         * followed continuously from 0 at the start (it changes by -k_g ds):
+                         * the fibre angle to the path a straight-laid tow would show */
   double k_g;           /* geodesic curvature of the curve, 1/length, + turning left about N */
   double K;             /* Gaussian curvature, 1/length^2 */
 } df_loop_sample;
@@ -67,8 +67,8 @@ df_status df_loop_measure     (const df_curve        *curve,
 
 void      df_loop_result_clear (df_loop_result *result);
 
-/* Path dependence: carries the same start vector (chart components, NULL = path A's unit
- * tangent) along two open curves with common ends and returns the rotation from the vector
+/* Path dependence: carries the same start vector (in space, projected to the tangent plane;
+ * NULL = path A's unit tangent) along two open curves with common ends and returns the rotation from the vector
  * carried along A to the one carried along B at the end, about N, in (-pi, pi].
  * DF_E_INPUT when the ends differ by more than 1e-6 x surface size. */
 df_status df_compare_paths    (const df_curve             *path_a,

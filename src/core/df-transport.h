@@ -48,10 +48,10 @@ typedef struct
   df_transport_sample *samples;          /* n_samples, owned */
 } df_transport_result;
 
-/* Carries the unit tangent vector of chart components v0 (normalised first; v0 = NULL takes
- * the curve's unit tangent at its start) from tau0 to tau1. */
+/* Carries the vector v0 (in space: projected to the tangent plane at the start and normalised;
+ * v0 = NULL takes the curve's unit tangent at its start) from tau0 to tau1. */
 df_status df_transport_run  (const df_curve             *curve,
-                             const double               *v0,
+                             const double               *v0_space,
                              const df_transport_options *options,
                              df_transport_result        *out,
                              df_diag                    *diag);

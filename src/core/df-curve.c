@@ -1,0 +1,813 @@
+/* df-curve.c: curves on a surface: cubic splines through chart points (periodic when closed,
+ * not-a-knot when open) parametrised by cumulative chord length in space, or exact curves
+ * given by a function; evaluated to the space point, its first two derivatives, the normal and
+ * its derivative. Near a pole of a revolution surface the curve lives in pole-centred polar
+ * coordinates, a chart regular at a smooth pole.
+ * GSL has no not-a-knot spline and keeps a mutable accelerator per spline, so the slopes are
+ * solved here with GSL's tridiagonal solvers and evaluation is a read-only binary search:
+ * a curve may be evaluated from several threads.
+ * Plain C + libm + GSL; no GLib. */
+#include "df-curve.h"
+
+#include <gsl/gsl_linalg.h>
+#include <gsl/gsl_vector.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* Below this distance from the pole (in t) q = r / rho is taken from its Taylor series,
+ * where the quotient would lose digits. */
+#define POLE_TAYLOR_FRACTION 1e-4
+/* A point this close to a pole (fraction of the t range) switches the curve to polar
+ * coordinates. */
+#define POLE_NEAR_FRACTION 0.1
+
+struct df_curve
+{
+  df_surface     *surface;      /* own copy */
+  df_curve_coords coords;
+  bool            closed;
+  double          tau0, tau1;
+  double          pole_t;       /* polar coordinates: the pole's t */
+  double          pole_sign;    /* dt/drho: +1 at u_min, -1 at u_max */
+  double          t_range;
+  double          pole_r[4];    /* the profile's r and t-derivatives at the pole */
+  bool            pole_smooth;  /* the pole is smooth (not a cone apex) */
+  /* spline */
+  size_t          n_nodes;      /* distinct nodes; closed: the period adds one more */
+  double         *taus;         /* n_nodes + 1 when closed */
+  double         *coef[2];      /* per segment 4 coefficients a, b, c, d of each coordinate */
+  double          drift;        /* chart coords, closed: v grows by drift * tau per lap */
+  /* exact function */
+  df_curve_fn     fn;
+  void           *user;
+  double         *breaks;
+  size_t          n_breaks;
+  int             winding;
+};
+
+static double
+dot3 (const double a[3], const double b[3])
+{
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+}
+
+static void
+cross3 (const double a[3], const double b[3], double out[3])
+{
+  out[0] = a[1] * b[2] - a[2] * b[1];
+  out[1] = a[2] * b[0] - a[0] * b[2];
+  out[2] = a[0] * b[1] - a[1] * b[0];
+}
+
+static df_curve *
+curve_alloc (const df_surface *surface)
+{
+  df_curve *c = calloc (1, sizeof *c);
+
+  if (c == NULL)
+    return NULL;
+  c->surface = df_surface_copy (surface);
+  if (c->surface == NULL)
+    {
+      free (c);
+      return NULL;
+    }
+  return c;
+}
+
+void
+df_curve_free (df_curve *c)
+{
+  if (c == NULL)
+    return;
+  df_surface_free (c->surface);
+  free (c->taus);
+  free (c->coef[0]);
+  free (c->coef[1]);
+  free (c->breaks);
+  free (c);
+}
+
+/* --- plane coordinates <-> chart ------------------------------------------------------- */
+
+static void
+setup_coords (df_curve *c, df_curve_coords coords)
+{
+  double u_min, u_max;
+
+  df_surface_get_domain (c->surface, &u_min, &u_max, NULL, NULL);
+  c->coords = coords;
+  c->t_range = u_max - u_min;
+  c->pole_t = coords == DF_COORDS_POLAR_MAX ? u_max : u_min;
+  c->pole_sign = coords == DF_COORDS_POLAR_MAX ? -1.0 : 1.0;
+  if (coords != DF_COORDS_CHART)
+    {
+      df_chart_jet j;
+      df_pole poles[2];
+
+      if (df_surface_eval (c->surface, c->pole_t, 0.0, 3, &j, NULL) == DF_OK)
+        {
+          c->pole_r[0] = j.x[0];
+          c->pole_r[1] = j.d1[0][0];
+          c->pole_r[2] = j.d2[0][0];
+          c->pole_r[3] = j.d3[0][0];
+        }
+      df_surface_get_poles (c->surface, poles);
+      c->pole_smooth = poles[coords == DF_COORDS_POLAR_MAX].sin_alpha > 1.0 - 1e-9;
+    }
+}
+
+static void
+chart_to_plane (const df_curve *c, double u, double v, double p[2])
+{
+  if (c->coords == DF_COORDS_CHART)
+    {
+      p[0] = u;
+      p[1] = v;
+      return;
+    }
+  {
+    double rho = fmax (0.0, c->pole_sign * (u - c->pole_t));
+
+    p[0] = rho * cos (v);
+    p[1] = rho * sin (v);
+  }
+}
+
+/* --- cubic spline slopes --------------------------------------------------------------- */
+
+/* Slopes s_i of the C2 cubic through (x_i, y_i), i < n. Closed: periodic with period
+ * x[n] - x[0] and y[n] = y[0]; open: not-a-knot ends (n = 2: the line, n = 3: the parabola).
+ * Equations: h_i s_{i-1} + 2 (h_{i-1} + h_i) s_i + h_{i-1} s_{i+1} = 3 (h_i d_{i-1} + h_{i-1} d_i)
+ * with h_i = x_{i+1} - x_i, d_i = (y_{i+1} - y_i) / h_i; the not-a-knot rows as in de Boor,
+ * A Practical Guide to Splines, ch. IV (from memory). */
+static int
+spline_slopes (const double *x, const double *y, size_t n, bool closed, double *s)
+{
+  size_t m = closed ? n : n;
+  size_t nseg = closed ? n : n - 1;
+  double *h = malloc (nseg * sizeof *h), *d = malloc (nseg * sizeof *d);
+  gsl_vector *diag = gsl_vector_alloc (m), *rhs = gsl_vector_alloc (m);
+  gsl_vector *above = gsl_vector_alloc (closed ? m : m - 1);
+  gsl_vector *below = gsl_vector_alloc (closed ? m : m - 1);
+  gsl_vector_view sol = gsl_vector_view_array (s, m);
+  int rc = 0;
+
+  if (!h || !d || !diag || !rhs || !above || !below)
+    {
+      rc = -1;
+      goto out;
+    }
+  for (size_t i = 0; i < nseg; i++)
+    {
+      h[i] = x[i + 1] - x[i];
+      d[i] = (y[(i + 1) % n] - y[i]) / h[i];
+    }
+  if (closed)
+    {
+      for (size_t i = 0; i < n; i++)
+        {
+          size_t im = (i + n - 1) % n;
+
+          gsl_vector_set (diag, i, 2 * (h[im] + h[i]));
+          gsl_vector_set (rhs, i, 3 * (h[i] * d[im] + h[im] * d[i]));
+          gsl_vector_set (above, i, h[im]);              /* coefficient of s_{i+1} in row i */
+          gsl_vector_set (below, im, h[i]);              /* coefficient of s_{i-1} in row i */
+        }
+      rc = gsl_linalg_solve_cyc_tridiag (diag, above, below, rhs, &sol.vector);
+      goto out;
+    }
+  if (n == 2)
+    {
+      s[0] = s[1] = d[0];
+      goto out;
+    }
+  if (n == 3)
+    {
+      /* The parabola through three points. */
+      double c2 = (d[1] - d[0]) / (h[0] + h[1]);
+
+      s[0] = d[0] - c2 * h[0];
+      s[1] = d[0] + c2 * h[0];
+      s[2] = d[1] + c2 * h[1];
+      goto out;
+    }
+  gsl_vector_set (diag, 0, h[1]);
+  gsl_vector_set (above, 0, h[0] + h[1]);
+  gsl_vector_set (rhs, 0, ((h[0] + 2 * (h[0] + h[1])) * h[1] * d[0] + h[0] * h[0] * d[1])
+                          / (h[0] + h[1]));
+  for (size_t i = 1; i + 1 < n; i++)
+    {
+      gsl_vector_set (below, i - 1, h[i]);
+      gsl_vector_set (diag, i, 2 * (h[i - 1] + h[i]));
+      gsl_vector_set (above, i, h[i - 1]);
+      gsl_vector_set (rhs, i, 3 * (h[i] * d[i - 1] + h[i - 1] * d[i]));
+    }
+  {
+    size_t k = n - 1;
+    double a = h[k - 2], b = h[k - 1];
+
+    gsl_vector_set (below, k - 1, a + b);
+    gsl_vector_set (diag, k, a);
+    gsl_vector_set (rhs, k, (b * b * d[k - 2] + (2 * (a + b) + b) * a * d[k - 1]) / (a + b));
+  }
+  rc = gsl_linalg_solve_tridiag (diag, above, below, rhs, &sol.vector);
+
+out:
+  free (h);
+  free (d);
+  if (diag) gsl_vector_free (diag);
+  if (rhs) gsl_vector_free (rhs);
+  if (above) gsl_vector_free (above);
+  if (below) gsl_vector_free (below);
+  return rc;
+}
+
+/* Per-segment cubic coefficients a + b dt + c dt^2 + d dt^3 from values and slopes. */
+static void
+spline_coefficients (const double *x, const double *y, const double *s, size_t nseg, size_t n,
+                     double *coef)
+{
+  for (size_t i = 0; i < nseg; i++)
+    {
+      double h = x[i + 1] - x[i];
+      double y1 = y[(i + 1) % n], s1 = s[(i + 1) % n];
+      double del = (y1 - y[i]) / h;
+
+      coef[4 * i + 0] = y[i];
+      coef[4 * i + 1] = s[i];
+      coef[4 * i + 2] = (3 * del - 2 * s[i] - s1) / h;
+      coef[4 * i + 3] = (s[i] + s1 - 2 * del) / (h * h);
+    }
+}
+
+static size_t
+segment_of (const df_curve *c, double tau)
+{
+  size_t nseg = c->closed ? c->n_nodes : c->n_nodes - 1;
+  size_t lo = 0, hi = nseg;
+
+  /* Largest i with taus[i] <= tau, clamped to [0, nseg - 1]. */
+  while (hi - lo > 1)
+    {
+      size_t mid = (lo + hi) / 2;
+
+      if (c->taus[mid] <= tau)
+        lo = mid;
+      else
+        hi = mid;
+    }
+  return lo;
+}
+
+static double
+wrap_tau (const df_curve *c, double tau, int *laps)
+{
+  double period = c->tau1 - c->tau0;
+
+  *laps = 0;
+  if (c->closed && (tau < c->tau0 || tau > c->tau1))
+    {
+      double k = floor ((tau - c->tau0) / period);
+
+      *laps = (int) k;
+      tau -= k * period;
+    }
+  if (tau < c->tau0)
+    tau = c->tau0;
+  if (tau > c->tau1)
+    tau = c->tau1;
+  return tau;
+}
+
+void
+df_curve_eval_plane (const df_curve *c, double tau, double p[2], double dp[2], double ddp[2])
+{
+  int laps;
+
+  tau = wrap_tau (c, tau, &laps);
+  if (c->fn != NULL)
+    {
+      c->fn (tau, c->user, p, dp, ddp);
+      return;
+    }
+  {
+    size_t i = segment_of (c, tau);
+    double dt = tau - c->taus[i];
+
+    for (int k = 0; k < 2; k++)
+      {
+        const double *q = &c->coef[k][4 * i];
+
+        p[k] = q[0] + dt * (q[1] + dt * (q[2] + dt * q[3]));
+        dp[k] = q[1] + dt * (2 * q[2] + dt * 3 * q[3]);
+        ddp[k] = 2 * q[2] + 6 * dt * q[3];
+      }
+    if (c->coords == DF_COORDS_CHART && c->closed)
+      {
+        p[1] += c->drift * (tau - c->tau0 + laps * (c->tau1 - c->tau0));
+        dp[1] += c->drift;
+      }
+  }
+}
+
+/* --- evaluation to space ----------------------------------------------------------------- */
+
+static df_status
+eval_chart (const df_curve *c, df_curve_point *o, df_diag *diag)
+{
+  df_chart_jet j;
+  double du = o->dp[0], dv = o->dp[1], n[3], len, g[2][2], det, ii[2][2], w[2][2];
+  df_status st;
+
+  o->u = o->p[0];
+  o->v = o->p[1];
+  o->at_pole = false;
+  if ((st = df_surface_eval (c->surface, o->u, o->v, 2, &j, diag)) != DF_OK)
+    return st;
+  for (int k = 0; k < 3; k++)
+    {
+      o->x[k] = j.x[k];
+      o->dx[k] = j.d1[0][k] * du + j.d1[1][k] * dv;
+      o->ddx[k] = j.d2[0][k] * du * du + 2 * j.d2[1][k] * du * dv + j.d2[2][k] * dv * dv
+                  + j.d1[0][k] * o->ddp[0] + j.d1[1][k] * o->ddp[1];
+    }
+  cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (dot3 (n, n));
+  for (int a = 0; a < 2; a++)
+    for (int b = 0; b < 2; b++)
+      g[a][b] = dot3 (j.d1[a], j.d1[b]);
+  det = g[0][0] * g[1][1] - g[0][1] * g[0][1];
+  if (!(len > 0) || !(det > 0))
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, o->u, o->v,
+                            "the curve runs through a singular point of the chart");
+  for (int k = 0; k < 3; k++)
+    o->normal[k] = n[k] / len;
+  ii[0][0] = dot3 (j.d2[0], o->normal);
+  ii[0][1] = ii[1][0] = dot3 (j.d2[1], o->normal);
+  ii[1][1] = dot3 (j.d2[2], o->normal);
+  /* Weingarten: N_i = -II_ij g^jk X_k, so dN/dtau = -(II g^-1)_ik u'^i X_k. */
+  {
+    double gi[2][2] = { { g[1][1] / det, -g[0][1] / det }, { -g[0][1] / det, g[0][0] / det } };
+
+    for (int a = 0; a < 2; a++)
+      for (int b = 0; b < 2; b++)
+        w[a][b] = ii[a][0] * gi[0][b] + ii[a][1] * gi[1][b];
+  }
+  for (int k = 0; k < 3; k++)
+    {
+      double c0 = -(du * w[0][0] + dv * w[1][0]);
+      double c1 = -(du * w[0][1] + dv * w[1][1]);
+
+      o->dnormal[k] = c0 * j.d1[0][k] + c1 * j.d1[1][k];
+    }
+  return DF_OK;
+}
+
+/* Profile values at t: r, z and their first three t-derivatives, from the chart at phi = 0. */
+static df_status
+profile (const df_curve *c, double t, double r[4], double z[4], df_diag *diag)
+{
+  df_chart_jet j;
+  df_status st = df_surface_eval (c->surface, t, 0.0, 3, &j, diag);
+
+  if (st != DF_OK)
+    return st;
+  r[0] = j.x[0]; r[1] = j.d1[0][0]; r[2] = j.d2[0][0]; r[3] = j.d3[0][0];
+  z[0] = j.x[2]; z[1] = j.d1[0][2]; z[2] = j.d2[0][2]; z[3] = j.d3[0][2];
+  return DF_OK;
+}
+
+static df_status
+eval_polar (const df_curve *c, df_curve_point *o, df_diag *diag)
+{
+  const double sg = c->pole_sign;
+  const double tiny = 1e-12 * c->t_range;
+  double rho = hypot (o->p[0], o->p[1]);
+  double r[4], z[4], q, q1, q2, rho_d, rho_dd, er[2] = { 0, 0 }, er_d[2] = { 0, 0 };
+  double sp, sp_t, nr, nz, nr_t, nz_t, nr_over_rho, t;
+  const double p1 = sg * c->pole_r[1], p2 = c->pole_r[2], p3 = sg * c->pole_r[3];
+  df_status st;
+
+  t = c->pole_t + sg * rho;
+  o->u = t;
+  o->v = atan2 (o->p[1], o->p[0]);
+  o->at_pole = rho <= tiny;
+  if ((st = profile (c, t, r, z, diag)) != DF_OK)
+    return st;
+
+  /* X = (q p_1, q p_2, z) with q = r / rho. r and z come straight from the formulas, so r / rho
+   * keeps its digits; its rho-derivatives lose them as rho -> 0 and are taken from the Taylor
+   * series of r about the pole (r(pole) = 0) there. d/drho = sg d/dt. */
+  q = rho > tiny ? r[0] / rho : p1;
+  if (rho < POLE_TAYLOR_FRACTION * c->t_range)
+    {
+      q1 = p2 / 2 + p3 * rho / 3;
+      q2 = p3 / 3;
+    }
+  else
+    {
+      double r_rho = sg * r[1];
+
+      q1 = (r_rho * rho - r[0]) / (rho * rho);
+      q2 = (r[2] * rho * rho - 2 * r_rho * rho + 2 * r[0]) / (rho * rho * rho);
+    }
+  if (rho > tiny)
+    {
+      rho_d = (o->p[0] * o->dp[0] + o->p[1] * o->dp[1]) / rho;
+      rho_dd = (o->dp[0] * o->dp[0] + o->dp[1] * o->dp[1] + o->p[0] * o->ddp[0]
+                + o->p[1] * o->ddp[1] - rho_d * rho_d) / rho;
+      er[0] = o->p[0] / rho;
+      er[1] = o->p[1] / rho;
+      er_d[0] = (o->dp[0] - er[0] * rho_d) / rho;
+      er_d[1] = (o->dp[1] - er[1] * rho_d) / rho;
+    }
+  else
+    {
+      /* On the pole rho is not differentiable; the terms that use rho_d or rho_dd are
+       * multiplied by p = 0, or belong to z, which is flat at a smooth pole. */
+      rho_d = 0.0;
+      rho_dd = 0.0;
+    }
+  for (int k = 0; k < 2; k++)
+    {
+      o->x[k] = q * o->p[k];
+      o->dx[k] = q1 * rho_d * o->p[k] + q * o->dp[k];
+      o->ddx[k] = q2 * rho_d * rho_d * o->p[k] + q1 * rho_dd * o->p[k]
+                  + 2 * q1 * rho_d * o->dp[k] + q * o->ddp[k];
+    }
+  o->x[2] = z[0];
+  o->dx[2] = sg * z[1] * rho_d;
+  o->ddx[2] = z[2] * rho_d * rho_d + sg * z[1] * rho_dd;
+  if (rho <= tiny)
+    {
+      /* z = z0 + z''/2 rho^2 + ... at a smooth pole: z'' |p'|^2 is its second derivative. */
+      o->dx[2] = 0.0;
+      o->ddx[2] = z[2] * (o->dp[0] * o->dp[0] + o->dp[1] * o->dp[1]);
+    }
+
+  /* N = n_r(t) e_r + n_z(t) e_z with (n_r, n_z) = (-z', r') / |(r', z')|. */
+  sp = hypot (r[1], z[1]);
+  sp_t = (r[1] * r[2] + z[1] * z[2]) / sp;
+  nr = -z[1] / sp;
+  nz = r[1] / sp;
+  nr_t = -(z[2] * sp - z[1] * sp_t) / (sp * sp);
+  nz_t = (r[2] * sp - r[1] * sp_t) / (sp * sp);
+  /* n_r vanishes at a smooth pole, so n_r / rho has the limit sg n_r'; at a cone apex it has
+   * none (the normal jumps there). */
+  nr_over_rho = rho > tiny ? nr / rho : (c->pole_smooth ? sg * nr_t : 0.0);
+  if (rho > tiny)
+    {
+      o->normal[0] = nr * er[0];
+      o->normal[1] = nr * er[1];
+      o->normal[2] = nz;
+    }
+  else
+    {
+      o->normal[0] = o->normal[1] = 0.0;
+      o->normal[2] = nz >= 0 ? 1.0 : -1.0;
+    }
+  /* dN/dtau = n_r' t' e_r + n_r e_r' + n_z' t' e_z, t' = sg rho', e_r' = (p' - e_r rho') / rho. */
+  for (int k = 0; k < 2; k++)
+    o->dnormal[k] = rho > tiny ? nr_t * sg * rho_d * er[k] + nr_over_rho * rho * er_d[k]
+                               : nr_over_rho * o->dp[k];
+  o->dnormal[2] = nz_t * sg * rho_d;
+  return DF_OK;
+}
+
+df_status
+df_curve_eval (const df_curve *c, double tau, df_curve_point *o, df_diag *diag)
+{
+  df_status st;
+
+  memset (o, 0, sizeof *o);
+  o->tau = tau;
+  df_curve_eval_plane (c, tau, o->p, o->dp, o->ddp);
+  st = c->coords == DF_COORDS_CHART ? eval_chart (c, o, diag) : eval_polar (c, o, diag);
+  if (st == DF_OK)
+    {
+      const double *all = o->x;
+
+      for (int k = 0; k < 15; k++)
+        if (!isfinite (all[k]))
+          return df_diag_fail_at (diag, DF_E_NONFINITE, -1, o->u, o->v,
+                                  "the curve's point or derivative is not finite");
+    }
+  return st;
+}
+
+/* --- construction ----------------------------------------------------------------------- */
+
+static int
+compute_winding (const df_curve *c)
+{
+  double tau0 = c->tau0, tau1 = c->tau1, total = 0.0, prev;
+  double p[2], dp[2], ddp[2];
+  const int n = 4096;
+
+  if (!c->closed || df_surface_get_kind (c->surface) != DF_SURFACE_REVOLUTION)
+    return 0;
+  if (c->coords == DF_COORDS_CHART)
+    {
+      double p1[2];
+
+      df_curve_eval_plane (c, tau0, p, dp, ddp);
+      df_curve_eval_plane (c, tau1, p1, dp, ddp);
+      return (int) lround ((p1[1] - p[1]) / (2 * M_PI));
+    }
+  df_curve_eval_plane (c, tau0, p, dp, ddp);
+  prev = atan2 (p[1], p[0]);
+  for (int i = 1; i <= n; i++)
+    {
+      double a, d;
+
+      df_curve_eval_plane (c, tau0 + (tau1 - tau0) * i / n, p, dp, ddp);
+      a = atan2 (p[1], p[0]);
+      d = a - prev;
+      d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+      total += d;
+      prev = a;
+    }
+  return (int) lround (total / (2 * M_PI));
+}
+
+df_status
+df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], size_t n,
+                             bool closed, df_curve **out, df_diag *diag)
+{
+  df_curve *c;
+  double (*pts)[2] = NULL, *y = NULL, *slope = NULL, size = df_surface_size (surface);
+  double (*xs)[3] = NULL;
+  df_pole poles[2];
+  bool revolution = df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION;
+  bool near[2] = { false, false };
+  double u_min, u_max;
+  df_status st = DF_OK;
+  size_t nseg;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (n < 2)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "a path needs at least 2 points, got %zu", n);
+  c = curve_alloc (surface);
+  if (c == NULL)
+    return DF_E_NOMEM;
+  c->closed = closed;
+  df_surface_get_domain (surface, &u_min, &u_max, NULL, NULL);
+  df_surface_get_poles (surface, poles);
+
+  pts = malloc ((n + 1) * sizeof *pts);
+  xs = malloc ((n + 1) * sizeof *xs);
+  if (pts == NULL || xs == NULL)
+    {
+      st = DF_E_NOMEM;
+      goto fail;
+    }
+  for (size_t i = 0; i < n; i++)
+    {
+      df_chart_jet j;
+
+      if (!isfinite (uv[i][0]) || !isfinite (uv[i][1]))
+        {
+          st = df_diag_fail (diag, DF_E_INPUT, (long) i, "the point is not a finite number");
+          goto fail;
+        }
+      if ((st = df_surface_eval (surface, uv[i][0], uv[i][1], 0, &j, diag)) != DF_OK)
+        {
+          if (diag)
+            diag->index = (long) i;
+          goto fail;
+        }
+      memcpy (xs[i], j.x, sizeof xs[i]);
+      pts[i][0] = uv[i][0];
+      pts[i][1] = uv[i][1];
+    }
+  /* A closing point that repeats the first is dropped: the curve joins them anyway. */
+  if (closed && n > 1)
+    {
+      double d[3] = { xs[n - 1][0] - xs[0][0], xs[n - 1][1] - xs[0][1], xs[n - 1][2] - xs[0][2] };
+
+      if (sqrt (dot3 (d, d)) <= 1e-9 * size)
+        n--;
+    }
+  if (closed && n < 3)
+    {
+      st = df_diag_fail (diag, DF_E_INPUT, -1, "a loop needs at least 3 distinct points, got %zu",
+                         n);
+      goto fail;
+    }
+  for (size_t i = 0; i + 1 < (closed ? n + 1 : n); i++)
+    {
+      size_t k = (i + 1) % n;
+      double d[3] = { xs[k][0] - xs[i][0], xs[k][1] - xs[i][1], xs[k][2] - xs[i][2] };
+
+      if (sqrt (dot3 (d, d)) <= 1e-12 * size)
+        {
+          st = df_diag_fail (diag, DF_E_INPUT, (long) k,
+                             "point %zu repeats point %zu: consecutive points must differ",
+                             k + 1, i + 1);
+          goto fail;
+        }
+    }
+
+  /* Unwrap phi so each step lies in (-pi, pi]; points on the axis take the next one's phi. */
+  if (revolution)
+    {
+      for (size_t i = 0; i < n; i++)
+        for (int e = 0; e < 2; e++)
+          if (poles[e].on_axis && fabs (pts[i][0] - poles[e].t) < POLE_NEAR_FRACTION * (u_max - u_min))
+            near[e] = true;
+      if (near[0] && near[1])
+        {
+          st = df_diag_fail (diag, DF_E_INPUT, -1, "the path comes near both poles; split it "
+                             "into pieces that each stay near one pole");
+          goto fail;
+        }
+      for (size_t i = 1; i < n; i++)
+        {
+          double d = pts[i][1] - pts[i - 1][1];
+
+          d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+          if (d == -M_PI)
+            d = M_PI;
+          pts[i][1] = pts[i - 1][1] + d;
+        }
+    }
+  setup_coords (c, near[0] ? DF_COORDS_POLAR_MIN : near[1] ? DF_COORDS_POLAR_MAX
+                                                           : DF_COORDS_CHART);
+
+  /* Cumulative chord length in space. */
+  nseg = closed ? n : n - 1;
+  c->n_nodes = n;
+  c->taus = malloc ((n + 1) * sizeof *c->taus);
+  c->coef[0] = malloc (4 * nseg * sizeof (double));
+  c->coef[1] = malloc (4 * nseg * sizeof (double));
+  y = malloc ((n + 1) * sizeof *y);
+  slope = malloc ((n + 1) * sizeof *slope);
+  if (!c->taus || !c->coef[0] || !c->coef[1] || !y || !slope)
+    {
+      st = DF_E_NOMEM;
+      goto fail;
+    }
+  c->taus[0] = 0.0;
+  for (size_t i = 0; i < nseg; i++)
+    {
+      size_t k = (i + 1) % n;
+      double d[3] = { xs[k][0] - xs[i][0], xs[k][1] - xs[i][1], xs[k][2] - xs[i][2] };
+
+      c->taus[i + 1] = c->taus[i] + sqrt (dot3 (d, d));
+    }
+  c->tau0 = 0.0;
+  c->tau1 = c->taus[nseg];
+
+  if (c->coords == DF_COORDS_CHART && closed && revolution)
+    {
+      /* The lap's total phi step: wrapped last -> first step added to the unwrapped run. */
+      double d = pts[0][1] - pts[n - 1][1];
+      double total;
+
+      d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+      if (d == -M_PI)
+        d = M_PI;
+      total = pts[n - 1][1] + d - pts[0][1];
+      c->drift = total / c->tau1;
+    }
+  for (int k = 0; k < 2; k++)
+    {
+      for (size_t i = 0; i < n; i++)
+        {
+          double p[2];
+
+          chart_to_plane (c, pts[i][0], pts[i][1], p);
+          y[i] = p[k];
+          if (k == 1 && c->coords == DF_COORDS_CHART && closed)
+            y[i] -= c->drift * c->taus[i];
+        }
+      if (spline_slopes (c->taus, y, n, closed, slope) != 0)
+        {
+          st = df_diag_fail (diag, DF_E_INPUT, -1, "the spline through the points is singular");
+          goto fail;
+        }
+      spline_coefficients (c->taus, y, slope, nseg, n, c->coef[k]);
+    }
+  c->winding = compute_winding (c);
+
+  /* Check the interpolant stays on the surface between the points. */
+  for (size_t i = 0; i < nseg; i++)
+    for (int h = 1; h < 4; h++)
+      {
+        double tau = c->taus[i] + (c->taus[i + 1] - c->taus[i]) * h / 4.0, p[2], dp[2], ddp[2];
+        df_curve_point cp;
+
+        df_curve_eval_plane (c, tau, p, dp, ddp);
+        if ((st = df_curve_eval (c, tau, &cp, diag)) != DF_OK)
+          {
+            if (diag)
+              {
+                diag->index = (long) i;
+                snprintf (diag->detail, sizeof diag->detail,
+                          "the curve between points %zu and %zu leaves the surface's domain",
+                          i + 1, (i + 1) % n + 1);
+              }
+            goto fail;
+          }
+      }
+  free (pts);
+  free (xs);
+  free (y);
+  free (slope);
+  *out = c;
+  return DF_OK;
+
+fail:
+  free (pts);
+  free (xs);
+  free (y);
+  free (slope);
+  df_curve_free (c);
+  return st == DF_OK ? DF_E_INTERNAL : st;
+}
+
+df_status
+df_curve_new_function (const df_surface *surface, df_curve_coords coords, double tau0,
+                       double tau1, const double *breaks, size_t n_breaks, bool closed,
+                       df_curve_fn fn, void *user, df_curve **out, df_diag *diag)
+{
+  df_curve *c;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (fn == NULL || !(tau0 < tau1))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "an exact curve needs a function and tau0 < tau1");
+  if (coords != DF_COORDS_CHART && df_surface_get_kind (surface) != DF_SURFACE_REVOLUTION)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "polar coordinates need a surface of revolution");
+  c = curve_alloc (surface);
+  if (c == NULL)
+    return DF_E_NOMEM;
+  setup_coords (c, coords);
+  c->closed = closed;
+  c->tau0 = tau0;
+  c->tau1 = tau1;
+  c->fn = fn;
+  c->user = user;
+  if (n_breaks > 0)
+    {
+      c->breaks = malloc (n_breaks * sizeof *c->breaks);
+      if (c->breaks == NULL)
+        {
+          df_curve_free (c);
+          return DF_E_NOMEM;
+        }
+      memcpy (c->breaks, breaks, n_breaks * sizeof *c->breaks);
+      c->n_breaks = n_breaks;
+    }
+  c->winding = compute_winding (c);
+  *out = c;
+  return DF_OK;
+}
+
+const df_surface *
+df_curve_get_surface (const df_curve *c)
+{
+  return c->surface;
+}
+
+bool
+df_curve_is_closed (const df_curve *c)
+{
+  return c->closed;
+}
+
+df_curve_coords
+df_curve_get_coords (const df_curve *c)
+{
+  return c->coords;
+}
+
+void
+df_curve_get_range (const df_curve *c, double *tau0, double *tau1)
+{
+  *tau0 = c->tau0;
+  *tau1 = c->tau1;
+}
+
+size_t
+df_curve_get_breaks (const df_curve *c, const double **breaks)
+{
+  *breaks = c->breaks;
+  return c->n_breaks;
+}
+
+size_t
+df_curve_get_nodes (const df_curve *c, const double **taus)
+{
+  *taus = c->fn ? NULL : c->taus;
+  return c->fn ? 0 : c->n_nodes;
+}
+
+int
+df_curve_axis_winding (const df_curve *c)
+{
+  return c->winding;
+}

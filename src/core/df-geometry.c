@@ -1,0 +1,264 @@
+/* df-geometry.c: metric, Christoffel symbols (and their derivatives), Riemann tensor, second
+ * fundamental form and curvatures at a chart point, from the exact chart derivatives.
+ * Index conventions: ../shared/GEOMETRY.md. Plain C + libm; no GLib. */
+#include "df-geometry.h"
+
+#include <math.h>
+#include <string.h>
+
+static double
+dot3 (const double a[3], const double b[3])
+{
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+}
+
+static void
+cross3 (const double a[3], const double b[3], double out[3])
+{
+  out[0] = a[1] * b[2] - a[2] * b[1];
+  out[1] = a[2] * b[0] - a[0] * b[2];
+  out[2] = a[0] * b[1] - a[1] * b[0];
+}
+
+/* X_ij and X_ijm by index: the number of v's among the indices picks the stored derivative. */
+#define X2(j, a, b)    ((j)->d2[(a) + (b)])
+#define X3(j, a, b, c) ((j)->d3[(a) + (b) + (c)])
+
+/* Whether the metric is too degenerate to invert: det g against the scale of its diagonal. */
+static bool
+metric_singular (double det, double g11, double g22)
+{
+  double scale = (g11 + g22) * (g11 + g22);
+
+  return !(det > 1e-24 * scale) || !(scale > 0);
+}
+
+/* Unit normal of a revolution surface from its profile: finite on the axis, where X_u x X_v
+ * vanishes, and equal there to the limit of N. */
+static void
+revolution_normal (const df_chart_jet *j, double v, double n[3])
+{
+  double c = cos (v), s = sin (v);
+  double dr = j->d1[0][0] * c + j->d1[0][1] * s;  /* r' from X_t = (r' cos, r' sin, z') */
+  double dz = j->d1[0][2];
+  double sp = hypot (dr, dz);
+
+  n[0] = -dz / sp * c;
+  n[1] = -dz / sp * s;
+  n[2] = dr / sp;
+}
+
+static void
+shape_curvatures (double K, double H, double *k1, double *k2)
+{
+  double disc = H * H - K;
+
+  /* Rounding can make H^2 - K slightly negative at an umbilic; the true value is >= 0. */
+  disc = disc > 0 ? sqrt (disc) : 0.0;
+  *k1 = H + disc;
+  *k2 = H - disc;
+}
+
+static df_status
+pole_geometry (const df_surface *s, double u, double v, const df_chart_jet *j,
+               df_point_geometry *out, df_diag *diag)
+{
+  double u_min, u_max, h, sign;
+  df_point_geometry a, b;
+  df_status st;
+
+  memset (out, 0, sizeof *out);
+  out->u = u;
+  out->v = v;
+  memcpy (out->point, j->x, sizeof out->point);
+  revolution_normal (j, v, out->normal);
+  out->chart_regular = false;
+  /* Curvatures at a pole are limits: Richardson extrapolation from two nearby rings, exact
+   * for curvature varying linearly in t near the pole. */
+  df_surface_get_domain (s, &u_min, &u_max, NULL, NULL);
+  sign = (u - u_min < u_max - u) ? 1.0 : -1.0;
+  h = 1e-4 * (u_max - u_min);
+  if ((st = df_surface_geometry (s, u + sign * h, v, &a, diag)) != DF_OK)
+    return st;
+  if ((st = df_surface_geometry (s, u + sign * 2 * h, v, &b, diag)) != DF_OK)
+    return st;
+  if (!a.chart_regular || !b.chart_regular)
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "no regular point near the pole");
+  out->K = 2 * a.K - b.K;
+  out->H = 2 * a.H - b.H;
+  shape_curvatures (out->K, out->H, &out->k1, &out->k2);
+  return DF_OK;
+}
+
+df_status
+df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry *out,
+                     df_diag *diag)
+{
+  df_chart_jet j;
+  double n[3], len, gl[2][2][2], dgl[2][2][2][2], dg[2][2][2], dginv[2][2][2];
+  df_status st;
+
+  if ((st = df_surface_eval (s, u, v, 3, &j, diag)) != DF_OK)
+    return st;
+  memset (out, 0, sizeof *out);
+  out->u = u;
+  out->v = v;
+  memcpy (out->point, j.x, sizeof out->point);
+  memcpy (out->xu, j.d1[0], sizeof out->xu);
+  memcpy (out->xv, j.d1[1], sizeof out->xv);
+  for (int a = 0; a < 2; a++)
+    for (int b = 0; b < 2; b++)
+      out->g[a][b] = dot3 (j.d1[a], j.d1[b]);
+  out->det_g = out->g[0][0] * out->g[1][1] - out->g[0][1] * out->g[1][0];
+  if (metric_singular (out->det_g, out->g[0][0], out->g[1][1]))
+    {
+      if (df_surface_get_kind (s) == DF_SURFACE_REVOLUTION)
+        return pole_geometry (s, u, v, &j, out, diag);
+      return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the metric is degenerate");
+    }
+  out->chart_regular = true;
+  out->ginv[0][0] = out->g[1][1] / out->det_g;
+  out->ginv[1][1] = out->g[0][0] / out->det_g;
+  out->ginv[0][1] = out->ginv[1][0] = -out->g[0][1] / out->det_g;
+
+  cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (dot3 (n, n));
+  for (int k = 0; k < 3; k++)
+    out->normal[k] = n[k] / len;
+
+  /* Christoffel symbols of the first kind Gamma_{l,ij} = X_ij . X_l, which equal
+   * 1/2 (d_i g_jl + d_j g_il - d_l g_ij), and their derivatives
+   * d_m Gamma_{l,ij} = X_ijm . X_l + X_ij . X_lm. */
+  for (int l = 0; l < 2; l++)
+    for (int a = 0; a < 2; a++)
+      for (int b = 0; b < 2; b++)
+        {
+          gl[l][a][b] = dot3 (X2 (&j, a, b), j.d1[l]);
+          for (int m = 0; m < 2; m++)
+            dgl[m][l][a][b] = dot3 (X3 (&j, a, b, m), j.d1[l]) + dot3 (X2 (&j, a, b),
+                                                                      X2 (&j, l, m));
+        }
+  /* d_m g_ab = X_am . X_b + X_a . X_bm; d_m g^kl = -g^ka (d_m g_ab) g^bl. */
+  for (int m = 0; m < 2; m++)
+    for (int a = 0; a < 2; a++)
+      for (int b = 0; b < 2; b++)
+        dg[m][a][b] = dot3 (X2 (&j, a, m), j.d1[b]) + dot3 (j.d1[a], X2 (&j, b, m));
+  for (int m = 0; m < 2; m++)
+    for (int k = 0; k < 2; k++)
+      for (int l = 0; l < 2; l++)
+        {
+          double acc = 0.0;
+
+          for (int a = 0; a < 2; a++)
+            for (int b = 0; b < 2; b++)
+              acc -= out->ginv[k][a] * dg[m][a][b] * out->ginv[b][l];
+          dginv[m][k][l] = acc;
+        }
+  for (int k = 0; k < 2; k++)
+    for (int a = 0; a < 2; a++)
+      for (int b = 0; b < 2; b++)
+        {
+          double acc = 0.0;
+
+          for (int l = 0; l < 2; l++)
+            acc += out->ginv[k][l] * gl[l][a][b];
+          out->gamma[k][a][b] = acc;
+          for (int m = 0; m < 2; m++)
+            {
+              double d = 0.0;
+
+              for (int l = 0; l < 2; l++)
+                d += dginv[m][k][l] * gl[l][a][b] + out->ginv[k][l] * dgl[m][l][a][b];
+              out->dgamma[m][k][a][b] = d;
+            }
+        }
+
+  /* R^r_smn = d_m Gamma^r_ns - d_n Gamma^r_ms + Gamma^r_ml Gamma^l_ns - Gamma^r_nl Gamma^l_ms,
+   * written for any dimension (DF_DIM). */
+  for (int r = 0; r < DF_DIM; r++)
+    for (int sg = 0; sg < DF_DIM; sg++)
+      for (int m = 0; m < DF_DIM; m++)
+        for (int nn = 0; nn < DF_DIM; nn++)
+          {
+            double acc = out->dgamma[m][r][nn][sg] - out->dgamma[nn][r][m][sg];
+
+            for (int l = 0; l < DF_DIM; l++)
+              acc += out->gamma[r][m][l] * out->gamma[l][nn][sg]
+                     - out->gamma[r][nn][l] * out->gamma[l][m][sg];
+            out->riemann[r][sg][m][nn] = acc;
+          }
+
+  for (int a = 0; a < 2; a++)
+    for (int b = 0; b < 2; b++)
+      out->second_form[a][b] = dot3 (X2 (&j, a, b), out->normal);
+  out->K = (out->second_form[0][0] * out->second_form[1][1]
+            - out->second_form[0][1] * out->second_form[1][0]) / out->det_g;
+  out->H = 0.5 * (out->ginv[0][0] * out->second_form[0][0]
+                  + 2 * out->ginv[0][1] * out->second_form[0][1]
+                  + out->ginv[1][1] * out->second_form[1][1]);
+  shape_curvatures (out->K, out->H, &out->k1, &out->k2);
+  if (df_surface_get_kind (s) == DF_SURFACE_REVOLUTION)
+    revolution_normal (&j, v, out->normal);
+  return DF_OK;
+}
+
+df_status
+df_surface_christoffel (const df_surface *s, double u, double v,
+                        double gamma[DF_DIM][DF_DIM][DF_DIM], df_diag *diag)
+{
+  df_chart_jet j;
+  double g[2][2], det, ginv[2][2], gl[2][2][2];
+  df_status st;
+
+  if ((st = df_surface_eval (s, u, v, 2, &j, diag)) != DF_OK)
+    return st;
+  for (int a = 0; a < 2; a++)
+    for (int b = 0; b < 2; b++)
+      g[a][b] = dot3 (j.d1[a], j.d1[b]);
+  det = g[0][0] * g[1][1] - g[0][1] * g[1][0];
+  if (metric_singular (det, g[0][0], g[1][1]))
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the chart is singular here");
+  ginv[0][0] = g[1][1] / det;
+  ginv[1][1] = g[0][0] / det;
+  ginv[0][1] = ginv[1][0] = -g[0][1] / det;
+  for (int l = 0; l < 2; l++)
+    for (int a = 0; a < 2; a++)
+      for (int b = a; b < 2; b++)
+        gl[l][a][b] = dot3 (X2 (&j, a, b), j.d1[l]);
+  for (int k = 0; k < 2; k++)
+    for (int a = 0; a < 2; a++)
+      for (int b = a; b < 2; b++)
+        gamma[k][a][b] = gamma[k][b][a] = ginv[k][0] * gl[0][a][b] + ginv[k][1] * gl[1][a][b];
+  return DF_OK;
+}
+
+df_status
+df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, double *sqrt_g,
+                   df_diag *diag)
+{
+  df_chart_jet j;
+  double n[3], len, det, ii[3];
+  df_status st;
+
+  if ((st = df_surface_eval (s, u, v, 2, &j, diag)) != DF_OK)
+    return st;
+  cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (dot3 (n, n));           /* = sqrt(det g) */
+  if (!(len > 0))
+    {
+      /* On the axis of a revolution surface the area element vanishes. */
+      *k_sqrt_g = 0.0;
+      if (sqrt_g)
+        *sqrt_g = 0.0;
+      return DF_OK;
+    }
+  for (int a = 0; a < 3; a++)
+    ii[a] = dot3 (j.d2[a], n) / len;
+  det = len * len;
+  /* K sqrt(det g) = det II / sqrt(det g). */
+  *k_sqrt_g = (ii[0] * ii[2] - ii[1] * ii[1]) / len;
+  (void) det;
+  if (sqrt_g)
+    *sqrt_g = len;
+  return DF_OK;
+}

@@ -1,0 +1,514 @@
+/* df-surface.c: surfaces of revolution and graphs as const method tables over formula jets:
+ * X and its partial derivatives to third order, exactly, from forward-mode differentiation.
+ * Plain C + libm; no GLib. */
+#include "df-surface.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* Samples used to check a profile and to find the bounding box. Dense enough to catch a
+ * profile that dips below the axis between two checks in any practical part. */
+#define PROFILE_CHECK_SAMPLES 2049
+#define GRAPH_CHECK_SAMPLES   97
+
+typedef struct
+{
+  const char     *name;
+  df_surface_type type;
+  df_status     (*eval) (const df_surface *s, double u, double v, int order, df_chart_jet *out,
+                         df_diag *diag);
+} df_surface_kind;
+
+struct df_surface
+{
+  const df_surface_kind *kind;
+  df_expr *e[2];          /* revolution: r, z; graph: f, NULL */
+  double   dom[4];        /* u_min, u_max, v_min, v_max */
+  double   margin[2];     /* tolerated excess beyond the u and v ranges */
+  double   lo[3], hi[3];
+  double   size;
+  df_pole  poles[2];
+  char     normal_side[200];
+};
+
+static df_status
+eval_expr_jet (const df_expr *e, const df_jet *vars, df_jet *out, const char *what, double u,
+               double v, df_diag *diag)
+{
+  df_diag local;
+  df_status st = df_expr_eval_jet (e, vars, out, &local);
+
+  if (st != DF_OK)
+    return df_diag_fail_at (diag, st, -1, u, v, "%s: %s", what, local.detail);
+  return DF_OK;
+}
+
+static df_status
+revolution_eval (const df_surface *s, double t, double phi, int order, df_chart_jet *out,
+                 df_diag *diag)
+{
+  df_jet tj, rj, zj;
+  double r[4], z[4], c, sn;
+  df_status st;
+
+  df_jet_var (&tj, t, 0);
+  if ((st = eval_expr_jet (s->e[0], &tj, &rj, "r(t)", t, phi, diag)) != DF_OK)
+    return st;
+  if ((st = eval_expr_jet (s->e[1], &tj, &zj, "z(t)", t, phi, diag)) != DF_OK)
+    return st;
+  r[0] = rj.c[DF_JET_D];
+  z[0] = zj.c[DF_JET_D];
+  r[1] = df_jet_deriv (&rj, DF_JET_DX);
+  z[1] = df_jet_deriv (&zj, DF_JET_DX);
+  r[2] = df_jet_deriv (&rj, DF_JET_DXX);
+  z[2] = df_jet_deriv (&zj, DF_JET_DXX);
+  r[3] = df_jet_deriv (&rj, DF_JET_DXXX);
+  z[3] = df_jet_deriv (&zj, DF_JET_DXXX);
+  c = cos (phi);
+  sn = sin (phi);
+
+  memset (out, 0, sizeof *out);
+  out->x[0] = r[0] * c; out->x[1] = r[0] * sn; out->x[2] = z[0];
+  if (order >= 1)
+    {
+      out->d1[0][0] = r[1] * c; out->d1[0][1] = r[1] * sn; out->d1[0][2] = z[1];
+      out->d1[1][0] = -r[0] * sn; out->d1[1][1] = r[0] * c;
+    }
+  if (order >= 2)
+    {
+      out->d2[0][0] = r[2] * c; out->d2[0][1] = r[2] * sn; out->d2[0][2] = z[2];
+      out->d2[1][0] = -r[1] * sn; out->d2[1][1] = r[1] * c;
+      out->d2[2][0] = -r[0] * c; out->d2[2][1] = -r[0] * sn;
+    }
+  if (order >= 3)
+    {
+      out->d3[0][0] = r[3] * c; out->d3[0][1] = r[3] * sn; out->d3[0][2] = z[3];
+      out->d3[1][0] = -r[2] * sn; out->d3[1][1] = r[2] * c;
+      out->d3[2][0] = -r[1] * c; out->d3[2][1] = -r[1] * sn;
+      out->d3[3][0] = r[0] * sn; out->d3[3][1] = -r[0] * c;
+    }
+  return DF_OK;
+}
+
+static df_status
+graph_eval (const df_surface *s, double x, double y, int order, df_chart_jet *out, df_diag *diag)
+{
+  df_jet vars[2], f;
+  df_status st;
+
+  df_jet_var (&vars[0], x, 0);
+  df_jet_var (&vars[1], y, 1);
+  if ((st = eval_expr_jet (s->e[0], vars, &f, "z(x, y)", x, y, diag)) != DF_OK)
+    return st;
+
+  memset (out, 0, sizeof *out);
+  out->x[0] = x; out->x[1] = y; out->x[2] = f.c[DF_JET_D];
+  if (order >= 1)
+    {
+      out->d1[0][0] = 1.0; out->d1[0][2] = df_jet_deriv (&f, DF_JET_DX);
+      out->d1[1][1] = 1.0; out->d1[1][2] = df_jet_deriv (&f, DF_JET_DY);
+    }
+  if (order >= 2)
+    {
+      out->d2[0][2] = df_jet_deriv (&f, DF_JET_DXX);
+      out->d2[1][2] = df_jet_deriv (&f, DF_JET_DXY);
+      out->d2[2][2] = df_jet_deriv (&f, DF_JET_DYY);
+    }
+  if (order >= 3)
+    {
+      out->d3[0][2] = df_jet_deriv (&f, DF_JET_DXXX);
+      out->d3[1][2] = df_jet_deriv (&f, DF_JET_DXXY);
+      out->d3[2][2] = df_jet_deriv (&f, DF_JET_DXYY);
+      out->d3[3][2] = df_jet_deriv (&f, DF_JET_DYYY);
+    }
+  return DF_OK;
+}
+
+static const df_surface_kind revolution_kind = { "revolution", DF_SURFACE_REVOLUTION,
+                                                 revolution_eval };
+static const df_surface_kind graph_kind = { "graph", DF_SURFACE_GRAPH, graph_eval };
+
+static bool
+jet_finite (const df_chart_jet *j)
+{
+  const double *p = &j->x[0];
+  size_t n = sizeof *j / sizeof (double);
+
+  for (size_t i = 0; i < n; i++)
+    if (!isfinite (p[i]))
+      return false;
+  return true;
+}
+
+bool
+df_surface_contains (const df_surface *s, double u, double v)
+{
+  if (!(u >= s->dom[0] - s->margin[0] && u <= s->dom[1] + s->margin[0]))
+    return false;
+  if (s->kind->type == DF_SURFACE_REVOLUTION)
+    return isfinite (v);
+  return v >= s->dom[2] - s->margin[1] && v <= s->dom[3] + s->margin[1];
+}
+
+df_status
+df_surface_eval (const df_surface *s, double u, double v, int order, df_chart_jet *out,
+                 df_diag *diag)
+{
+  df_status st;
+
+  if (!df_surface_contains (s, u, v))
+    {
+      if (s->kind->type == DF_SURFACE_REVOLUTION)
+        return df_diag_fail_at (diag, DF_E_DOMAIN, -1, u, v, "t outside [%.6g, %.6g]",
+                                s->dom[0], s->dom[1]);
+      return df_diag_fail_at (diag, DF_E_DOMAIN, -1, u, v,
+                              "(x, y) outside [%.6g, %.6g] x [%.6g, %.6g]",
+                              s->dom[0], s->dom[1], s->dom[2], s->dom[3]);
+    }
+  st = s->kind->eval (s, u, v, order, out, diag);
+  if (st != DF_OK)
+    return st;
+  if (!jet_finite (out))
+    return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "the surface or a derivative is "
+                            "not finite there");
+  return DF_OK;
+}
+
+static void
+bbox_add (df_surface *s, const double x[3])
+{
+  for (int k = 0; k < 3; k++)
+    {
+      if (x[k] < s->lo[k])
+        s->lo[k] = x[k];
+      if (x[k] > s->hi[k])
+        s->hi[k] = x[k];
+    }
+}
+
+static void
+bbox_finish (df_surface *s)
+{
+  double d2 = 0.0;
+
+  for (int k = 0; k < 3; k++)
+    d2 += (s->hi[k] - s->lo[k]) * (s->hi[k] - s->lo[k]);
+  s->size = sqrt (d2);
+}
+
+static df_surface *
+surface_alloc (const df_surface_kind *kind, df_expr *a, df_expr *b)
+{
+  df_surface *s = calloc (1, sizeof *s);
+
+  if (s == NULL)
+    return NULL;
+  s->kind = kind;
+  s->e[0] = a;
+  s->e[1] = b;
+  for (int k = 0; k < 3; k++)
+    {
+      s->lo[k] = INFINITY;
+      s->hi[k] = -INFINITY;
+    }
+  return s;
+}
+
+/* Profile speed |(r', z')| and dr/ds at t. */
+static df_status
+profile_at (const df_surface *s, double t, double *r, double *speed, double *drds, double *dzds,
+            df_diag *diag)
+{
+  df_chart_jet j;
+  df_status st = s->kind->eval (s, t, 0.0, 1, &j, diag);
+
+  if (st != DF_OK)
+    return st;
+  if (!jet_finite (&j))
+    return df_diag_fail_at (diag, DF_E_NONFINITE, -1, t, 0.0, "the profile is not finite at "
+                            "t = %.6g", t);
+  *r = j.x[0];
+  *speed = hypot (j.d1[0][0], j.d1[0][2]);
+  *drds = *speed > 0 ? j.d1[0][0] / *speed : 0.0;
+  *dzds = *speed > 0 ? j.d1[0][2] / *speed : 0.0;
+  return DF_OK;
+}
+
+df_status
+df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, df_surface **out,
+                           df_diag *diag)
+{
+  df_surface *s;
+  double rs[PROFILE_CHECK_SAMPLES], speed_max = 0.0, r_max = 0.0;
+  df_status st;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (r == NULL || z == NULL)
+    {
+      df_expr_free (r);
+      df_expr_free (z);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "missing profile formula");
+    }
+  if (!(isfinite (t_min) && isfinite (t_max) && t_min < t_max))
+    {
+      df_expr_free (r);
+      df_expr_free (z);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "t-min (%.6g) must be less than t-max (%.6g)",
+                           t_min, t_max);
+    }
+  s = surface_alloc (&revolution_kind, r, z);
+  if (s == NULL)
+    {
+      df_expr_free (r);
+      df_expr_free (z);
+      return DF_E_NOMEM;
+    }
+  s->dom[0] = t_min;
+  s->dom[1] = t_max;
+  s->dom[2] = -M_PI;
+  s->dom[3] = M_PI;
+  s->margin[0] = 1e-9 * (t_max - t_min);
+  s->margin[1] = 0.0;
+
+  for (int i = 0; i < PROFILE_CHECK_SAMPLES; i++)
+    {
+      double t = t_min + (t_max - t_min) * i / (PROFILE_CHECK_SAMPLES - 1);
+      double speed, drds, dzds;
+      df_chart_jet j;
+
+      st = profile_at (s, t, &rs[i], &speed, &drds, &dzds, diag);
+      if (st != DF_OK)
+        {
+          df_surface_free (s);
+          return st;
+        }
+      if (speed > speed_max)
+        speed_max = speed;
+      if (fabs (rs[i]) > r_max)
+        r_max = fabs (rs[i]);
+      s->kind->eval (s, t, 0.0, 0, &j, NULL);
+      bbox_add (s, j.x);
+      j.x[0] = -j.x[0];
+      bbox_add (s, j.x);
+    }
+  if (!(r_max > 0.0))
+    {
+      df_surface_free (s);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "the profile lies on the axis (r = 0 everywhere)");
+    }
+  /* The y extent of a full turn equals the x extent. */
+  s->lo[1] = s->lo[0];
+  s->hi[1] = s->hi[0];
+  bbox_finish (s);
+
+  for (int i = 0; i < PROFILE_CHECK_SAMPLES; i++)
+    {
+      double t = t_min + (t_max - t_min) * i / (PROFILE_CHECK_SAMPLES - 1);
+      double rr, speed, drds, dzds;
+      bool end = (i == 0 || i == PROFILE_CHECK_SAMPLES - 1);
+
+      profile_at (s, t, &rr, &speed, &drds, &dzds, NULL);
+      if (rs[i] < -1e-12 * r_max)
+        {
+          df_surface_free (s);
+          return df_diag_fail_at (diag, DF_E_SINGULAR, -1, t, 0.0,
+                                  "the profile has r = %.6g < 0 at t = %.6g", rs[i], t);
+        }
+      if (!end && fabs (rs[i]) <= 1e-12 * r_max)
+        {
+          df_surface_free (s);
+          return df_diag_fail_at (diag, DF_E_SINGULAR, -1, t, 0.0,
+                                  "the profile touches the axis inside its range, at t = %.6g;"
+                                  " split it there", t);
+        }
+      if (speed <= 1e-12 * speed_max)
+        {
+          df_surface_free (s);
+          return df_diag_fail_at (diag, DF_E_SINGULAR, -1, t, 0.0,
+                                  "the profile has zero speed (r' = z' = 0) at t = %.6g", t);
+        }
+    }
+
+  for (int e = 0; e < 2; e++)
+    {
+      double t = e == 0 ? t_min : t_max;
+      double rr, speed, drds, dzds;
+      df_pole *p = &s->poles[e];
+
+      profile_at (s, t, &rr, &speed, &drds, &dzds, NULL);
+      p->t = t;
+      p->on_axis = fabs (rr) <= 1e-12 * r_max;
+      if (p->on_axis)
+        {
+          p->sin_alpha = fmin (1.0, fabs (drds));
+          p->concentrated = 2.0 * M_PI * (1.0 - p->sin_alpha);
+        }
+    }
+
+  {
+    double t = 0.5 * (t_min + t_max), rr, speed, drds, dzds;
+    const char *side;
+
+    profile_at (s, t, &rr, &speed, &drds, &dzds, NULL);
+    /* N = (-z' e_r + r' e_z) / |(r', z')|: the profile direction turned a quarter turn
+     * counter-clockwise in the (r, z) half-plane. */
+    if (-dzds > 0.2)
+      side = "away from the axis";
+    else if (-dzds < -0.2)
+      side = "toward the axis";
+    else if (drds > 0)
+      side = "upward (+z)";
+    else
+      side = "downward (-z)";
+    snprintf (s->normal_side, sizeof s->normal_side,
+              "N points %s at mid-profile (t = %.4g): it lies to the left of the profile as t "
+              "increases, in the (r, z) half-plane", side, t);
+  }
+  *out = s;
+  return DF_OK;
+}
+
+df_status
+df_surface_new_graph (df_expr *f, double x_min, double x_max, double y_min, double y_max,
+                      df_surface **out, df_diag *diag)
+{
+  df_surface *s;
+  df_status st;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (f == NULL)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "missing formula z(x, y)");
+  if (!(isfinite (x_min) && isfinite (x_max) && x_min < x_max))
+    {
+      df_expr_free (f);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "x-min (%.6g) must be less than x-max (%.6g)",
+                           x_min, x_max);
+    }
+  if (!(isfinite (y_min) && isfinite (y_max) && y_min < y_max))
+    {
+      df_expr_free (f);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "y-min (%.6g) must be less than y-max (%.6g)",
+                           y_min, y_max);
+    }
+  s = surface_alloc (&graph_kind, f, NULL);
+  if (s == NULL)
+    {
+      df_expr_free (f);
+      return DF_E_NOMEM;
+    }
+  s->dom[0] = x_min;
+  s->dom[1] = x_max;
+  s->dom[2] = y_min;
+  s->dom[3] = y_max;
+  s->margin[0] = 1e-9 * (x_max - x_min);
+  s->margin[1] = 1e-9 * (y_max - y_min);
+  for (int i = 0; i < GRAPH_CHECK_SAMPLES; i++)
+    for (int k = 0; k < GRAPH_CHECK_SAMPLES; k++)
+      {
+        double x = x_min + (x_max - x_min) * i / (GRAPH_CHECK_SAMPLES - 1);
+        double y = y_min + (y_max - y_min) * k / (GRAPH_CHECK_SAMPLES - 1);
+        df_chart_jet j;
+
+        st = df_surface_eval (s, x, y, 2, &j, diag);
+        if (st != DF_OK)
+          {
+            df_surface_free (s);
+            return st;
+          }
+        bbox_add (s, j.x);
+      }
+  bbox_finish (s);
+  snprintf (s->normal_side, sizeof s->normal_side,
+            "N points upward (+z side of the graph z = f(x, y))");
+  *out = s;
+  return DF_OK;
+}
+
+df_surface *
+df_surface_copy (const df_surface *s)
+{
+  df_surface *c;
+
+  if (s == NULL)
+    return NULL;
+  c = malloc (sizeof *c);
+  if (c == NULL)
+    return NULL;
+  *c = *s;
+  c->e[0] = df_expr_copy (s->e[0]);
+  c->e[1] = s->e[1] ? df_expr_copy (s->e[1]) : NULL;
+  if (c->e[0] == NULL || (s->e[1] != NULL && c->e[1] == NULL))
+    {
+      df_surface_free (c);
+      return NULL;
+    }
+  return c;
+}
+
+void
+df_surface_free (df_surface *s)
+{
+  if (s == NULL)
+    return;
+  df_expr_free (s->e[0]);
+  df_expr_free (s->e[1]);
+  free (s);
+}
+
+df_surface_type
+df_surface_get_kind (const df_surface *s)
+{
+  return s->kind->type;
+}
+
+const char *
+df_surface_kind_name (const df_surface *s)
+{
+  return s->kind->name;
+}
+
+void
+df_surface_get_domain (const df_surface *s, double *u_min, double *u_max, double *v_min,
+                       double *v_max)
+{
+  if (u_min) *u_min = s->dom[0];
+  if (u_max) *u_max = s->dom[1];
+  if (v_min) *v_min = s->dom[2];
+  if (v_max) *v_max = s->dom[3];
+}
+
+bool
+df_surface_v_periodic (const df_surface *s)
+{
+  return s->kind->type == DF_SURFACE_REVOLUTION;
+}
+
+void
+df_surface_get_bbox (const df_surface *s, double lo[3], double hi[3])
+{
+  memcpy (lo, s->lo, sizeof s->lo);
+  memcpy (hi, s->hi, sizeof s->hi);
+}
+
+double
+df_surface_size (const df_surface *s)
+{
+  return s->size;
+}
+
+void
+df_surface_get_poles (const df_surface *s, df_pole poles[2])
+{
+  poles[0] = s->poles[0];
+  poles[1] = s->poles[1];
+}
+
+const char *
+df_surface_normal_side (const df_surface *s)
+{
+  return s->normal_side;
+}

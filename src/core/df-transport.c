@@ -1,0 +1,372 @@
+/* df-transport.c: parallel transport along a curve by adaptive Runge-Kutta (GSL odeiv2, rk8pd),
+ * in the chart form dV^k/dtau + Gamma^k_ij x'^i V^j = 0 or the extrinsic form
+ * dV/dtau = -(V . dN/dtau) N. The integrator restarts at the curve's corners and stops at each
+ * output sample, so steps never straddle a kink.
+ * Plain C + libm + GSL; no GLib. */
+#include "df-transport.h"
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_odeiv2.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "df-geometry.h"
+
+typedef struct
+{
+  const df_curve   *curve;
+  const df_surface *surface;
+  size_t            evals;
+  df_diag           fail;      /* where the right-hand side failed */
+  df_status         fail_status;
+} transport_ctx;
+
+static double
+dot3 (const double a[3], const double b[3])
+{
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+}
+
+static void
+cross3 (const double a[3], const double b[3], double out[3])
+{
+  out[0] = a[1] * b[2] - a[2] * b[1];
+  out[1] = a[2] * b[0] - a[0] * b[2];
+  out[2] = a[0] * b[1] - a[1] * b[0];
+}
+
+double
+df_signed_angle (const double a[3], const double b[3], const double n[3])
+{
+  double pa[3], pb[3], c[3], an = dot3 (a, n), bn = dot3 (b, n);
+
+  for (int k = 0; k < 3; k++)
+    {
+      pa[k] = a[k] - an * n[k];
+      pb[k] = b[k] - bn * n[k];
+    }
+  cross3 (pa, pb, c);
+  return atan2 (dot3 (c, n), dot3 (pa, pb));
+}
+
+void
+df_transport_options_init (df_transport_options *o)
+{
+  o->rel_tol = 1e-11;
+  o->abs_tol = 1e-12;
+  o->form = DF_TRANSPORT_AUTO;
+  o->n_out = 0;
+}
+
+void
+df_transport_result_clear (df_transport_result *r)
+{
+  if (r == NULL)
+    return;
+  free (r->samples);
+  memset (r, 0, sizeof *r);
+}
+
+/* Chart form: y = (V^1, V^2). Returning GSL_EBADFUNC stops the integrator cleanly when the
+ * curve leaves the chart. */
+static int
+rhs_chart (double tau, const double y[], double dydt[], void *data)
+{
+  transport_ctx *ctx = data;
+  double p[2], dp[2], ddp[2], gamma[2][2][2];
+  df_status st;
+
+  ctx->evals++;
+  df_curve_eval_plane (ctx->curve, tau, p, dp, ddp);
+  st = df_surface_christoffel (ctx->surface, p[0], p[1], gamma, &ctx->fail);
+  if (st != DF_OK)
+    {
+      ctx->fail_status = st;
+      return GSL_EBADFUNC;
+    }
+  for (int k = 0; k < 2; k++)
+    {
+      double acc = 0.0;
+
+      for (int i = 0; i < 2; i++)
+        for (int j = 0; j < 2; j++)
+          acc += gamma[k][i][j] * dp[i] * y[j];
+      dydt[k] = -acc;
+    }
+  return GSL_SUCCESS;
+}
+
+/* Extrinsic form: y = V in space. */
+static int
+rhs_extrinsic (double tau, const double y[], double dydt[], void *data)
+{
+  transport_ctx *ctx = data;
+  df_curve_point cp;
+  df_status st;
+  double vdn;
+
+  ctx->evals++;
+  st = df_curve_eval (ctx->curve, tau, &cp, &ctx->fail);
+  if (st != DF_OK)
+    {
+      ctx->fail_status = st;
+      return GSL_EBADFUNC;
+    }
+  vdn = dot3 (y, cp.dnormal);
+  for (int k = 0; k < 3; k++)
+    dydt[k] = -vdn * cp.normal[k];
+  return GSL_SUCCESS;
+}
+
+/* Space vector from chart components at a curve point and back (least squares through g). */
+static df_status
+chart_frame (const df_surface *s, double u, double v, double xu[3], double xv[3], df_diag *diag)
+{
+  df_chart_jet j;
+  df_status st = df_surface_eval (s, u, v, 1, &j, diag);
+
+  if (st != DF_OK)
+    return st;
+  memcpy (xu, j.d1[0], 3 * sizeof (double));
+  memcpy (xv, j.d1[1], 3 * sizeof (double));
+  return DF_OK;
+}
+
+static df_status
+space_to_chart (const double xu[3], const double xv[3], const double w[3], double c[2])
+{
+  double g11 = dot3 (xu, xu), g12 = dot3 (xu, xv), g22 = dot3 (xv, xv);
+  double b1 = dot3 (xu, w), b2 = dot3 (xv, w), det = g11 * g22 - g12 * g12;
+
+  if (!(det > 0))
+    return DF_E_SINGULAR;
+  c[0] = (g22 * b1 - g12 * b2) / det;
+  c[1] = (g11 * b2 - g12 * b1) / det;
+  return DF_OK;
+}
+
+static void
+chart_to_space (const double xu[3], const double xv[3], const double c[2], double w[3])
+{
+  for (int k = 0; k < 3; k++)
+    w[k] = c[0] * xu[k] + c[1] * xv[k];
+}
+
+/* The carried vector in space at tau from the state y. */
+static df_status
+state_to_space (const transport_ctx *ctx, bool chart, double tau, const double *y, double w[3],
+                df_curve_point *cp, df_diag *diag)
+{
+  df_status st = df_curve_eval (ctx->curve, tau, cp, diag);
+  double xu[3], xv[3];
+
+  if (st != DF_OK)
+    return st;
+  if (!chart)
+    {
+      memcpy (w, y, 3 * sizeof (double));
+      return DF_OK;
+    }
+  if ((st = chart_frame (ctx->surface, cp->u, cp->v, xu, xv, diag)) != DF_OK)
+    return st;
+  chart_to_space (xu, xv, y, w);
+  return DF_OK;
+}
+
+static int
+compare_double (const void *a, const void *b)
+{
+  double x = *(const double *) a, y = *(const double *) b;
+
+  return (x > y) - (x < y);
+}
+
+df_status
+df_transport_run (const df_curve *curve, const double *v0_space,
+                  const df_transport_options *options, df_transport_result *out,
+                  df_diag *diag)
+{
+  df_transport_options defaults;
+  transport_ctx ctx = { curve, df_curve_get_surface (curve), 0, { 0 }, DF_OK };
+  bool chart;
+  double tau0, tau1, y[3], w0[3], len;
+  df_curve_point cp;
+  const double *breaks;
+  size_t n_breaks, n_stops = 0, n_out;
+  double *stops = NULL;
+  gsl_odeiv2_system sys;
+  gsl_odeiv2_step *step = NULL;
+  gsl_odeiv2_control *control = NULL;
+  gsl_odeiv2_evolve *evolve = NULL;
+  df_status st = DF_OK;
+  double h, tau;
+  size_t next_out = 0;
+
+  memset (out, 0, sizeof *out);
+  df_diag_clear (diag);
+  df_diag_clear (&ctx.fail);
+  if (options == NULL)
+    {
+      df_transport_options_init (&defaults);
+      options = &defaults;
+    }
+  chart = options->form == DF_TRANSPORT_CHART
+          || (options->form == DF_TRANSPORT_AUTO && df_curve_get_coords (curve) == DF_COORDS_CHART);
+  if (chart && df_curve_get_coords (curve) != DF_COORDS_CHART)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the chart form needs a curve in chart coordinates");
+  df_curve_get_range (curve, &tau0, &tau1);
+
+  /* Start vector: tangent-plane part of v0, unit length. */
+  if ((st = df_curve_eval (curve, tau0, &cp, diag)) != DF_OK)
+    return st;
+  memcpy (out->start_normal, cp.normal, sizeof out->start_normal);
+  if (v0_space != NULL)
+    memcpy (w0, v0_space, sizeof w0);
+  else
+    memcpy (w0, cp.dx, sizeof w0);
+  {
+    double wn = dot3 (w0, cp.normal);
+
+    for (int k = 0; k < 3; k++)
+      w0[k] -= wn * cp.normal[k];
+  }
+  len = sqrt (dot3 (w0, w0));
+  if (!(len > 0) || !isfinite (len))
+    return df_diag_fail (diag, DF_E_INPUT, 0, "the start vector has no part in the tangent plane");
+  for (int k = 0; k < 3; k++)
+    w0[k] /= len;
+  memcpy (out->start_vector, w0, sizeof w0);
+  if (chart)
+    {
+      double xu[3], xv[3];
+
+      if ((st = chart_frame (ctx.surface, cp.u, cp.v, xu, xv, diag)) != DF_OK)
+        return st;
+      if (space_to_chart (xu, xv, w0, y) != DF_OK)
+        return df_diag_fail_at (diag, DF_E_SINGULAR, 0, cp.u, cp.v,
+                                "the chart is singular at the start");
+    }
+  else
+    memcpy (y, w0, sizeof w0);
+
+  /* Stops: corners and output samples, sorted. */
+  n_breaks = df_curve_get_breaks (curve, &breaks);
+  n_out = options->n_out >= 2 ? options->n_out : 0;
+  stops = malloc ((n_breaks + n_out + 1) * sizeof *stops);
+  if (n_out)
+    out->samples = calloc (n_out, sizeof *out->samples);
+  if (stops == NULL || (n_out && out->samples == NULL))
+    {
+      st = DF_E_NOMEM;
+      goto done;
+    }
+  for (size_t i = 0; i < n_breaks; i++)
+    if (breaks[i] > tau0 && breaks[i] < tau1)
+      stops[n_stops++] = breaks[i];
+  for (size_t i = 1; i + 1 < n_out; i++)
+    stops[n_stops++] = tau0 + (tau1 - tau0) * i / (n_out - 1);
+  stops[n_stops++] = tau1;
+  qsort (stops, n_stops, sizeof *stops, compare_double);
+
+  sys.function = chart ? rhs_chart : rhs_extrinsic;
+  sys.jacobian = NULL;
+  sys.dimension = chart ? 2 : 3;
+  sys.params = &ctx;
+  step = gsl_odeiv2_step_alloc (gsl_odeiv2_step_rk8pd, sys.dimension);
+  control = gsl_odeiv2_control_y_new (options->abs_tol, options->rel_tol);
+  evolve = gsl_odeiv2_evolve_alloc (sys.dimension);
+  if (!step || !control || !evolve)
+    {
+      st = DF_E_NOMEM;
+      goto done;
+    }
+
+  if (n_out)
+    {
+      df_transport_sample *smp = &out->samples[next_out++];
+
+      smp->tau = tau0;
+      memcpy (smp->x, cp.x, sizeof smp->x);
+      memcpy (smp->normal, cp.normal, sizeof smp->normal);
+      memcpy (smp->vector, w0, sizeof w0);
+    }
+  tau = tau0;
+  h = (tau1 - tau0) / 64;
+  for (size_t k = 0; k < n_stops; k++)
+    {
+      double target = stops[k];
+      size_t guard = 0;
+
+      if (target <= tau)
+        continue;
+      while (tau < target)
+        {
+          int rc = gsl_odeiv2_evolve_apply (evolve, control, step, &sys, &tau, target, &h, y);
+
+          if (rc != GSL_SUCCESS)
+            {
+              if (ctx.fail_status != DF_OK)
+                {
+                  st = ctx.fail_status;
+                  if (diag)
+                    *diag = ctx.fail;
+                }
+              else
+                st = df_diag_fail (diag, df_status_from_gsl (rc), -1,
+                                   "the transport integrator stopped at tau = %.6g: %s", tau,
+                                   gsl_strerror (rc));
+              goto done;
+            }
+          if (++guard > 10000000)
+            {
+              st = df_diag_fail (diag, DF_E_NOCONVERGE, -1, "too many integration steps");
+              goto done;
+            }
+        }
+      /* A corner is a fresh start for the step size. */
+      gsl_odeiv2_evolve_reset (evolve);
+      gsl_odeiv2_step_reset (step);
+      if (n_out && next_out < n_out
+          && fabs (target - (tau0 + (tau1 - tau0) * next_out / (n_out - 1))) <= 1e-12 * (tau1 - tau0))
+        {
+          df_transport_sample *smp = &out->samples[next_out++];
+          double w[3];
+
+          if ((st = state_to_space (&ctx, chart, tau, y, w, &cp, diag)) != DF_OK)
+            goto done;
+          smp->tau = tau;
+          memcpy (smp->x, cp.x, sizeof smp->x);
+          memcpy (smp->normal, cp.normal, sizeof smp->normal);
+          memcpy (smp->vector, w, sizeof w);
+        }
+    }
+  {
+    double w[3];
+
+    if ((st = state_to_space (&ctx, chart, tau1, y, w, &cp, diag)) != DF_OK)
+      goto done;
+    memcpy (out->end_vector, w, sizeof w);
+    memcpy (out->end_normal, cp.normal, sizeof out->end_normal);
+    out->norm_drift = fabs (sqrt (dot3 (w, w)) - 1.0);
+    for (int k = 0; k < 3; k++)
+      if (!isfinite (w[k]))
+        st = df_diag_fail (diag, DF_E_NONFINITE, -1, "the carried vector is not finite");
+  }
+  out->n_samples = next_out;
+
+done:
+  out->rhs_evals = ctx.evals;
+  free (stops);
+  if (evolve) gsl_odeiv2_evolve_free (evolve);
+  if (control) gsl_odeiv2_control_free (control);
+  if (step) gsl_odeiv2_step_free (step);
+  if (st != DF_OK)
+    {
+      size_t evals = out->rhs_evals;
+
+      df_transport_result_clear (out);
+      out->rhs_evals = evals;
+    }
+  return st;
+}
