@@ -1,0 +1,10 @@
+/* df-cli-commands.h: the subcommands of driftframe-cli, one file each. Each takes the
+ * arguments after the command word (argv[0] = "driftframe-cli NAME") and returns the exit code
+ * (df-cli-common.h). */
+#pragma once
+
+int df_cli_measure  (int argc, char **argv);
+int df_cli_probe    (int argc, char **argv);
+int df_cli_compare  (int argc, char **argv);
+int df_cli_geodesic (int argc, char **argv);
+int df_cli_presets  (int argc, char **argv);

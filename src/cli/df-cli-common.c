@@ -1,0 +1,238 @@
+/* df-cli-common.c: shared option handling, error reporting and output helpers of
+ * driftframe-cli (see df-cli-common.h). CLI layer: no geometry is computed here. */
+#include "df-cli-common.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "df-json-out.h"
+
+void
+df_cli_add_surface_options (GOptionContext *context, DfCliSurfaceOptions *o)
+{
+  const GOptionEntry entries[] = {
+    { "surface", 's', 0, G_OPTION_ARG_FILENAME, &o->surface_path,
+      "Surface file (.surface key file, or a .dfproj project's surface)", "FILE" },
+    { "preset", 'p', 0, G_OPTION_ARG_STRING, &o->preset,
+      "Use a built-in surface instead of a file (see `driftframe-cli presets`)", "NAME" },
+    { "param", 'P', 0, G_OPTION_ARG_STRING_ARRAY, &o->params,
+      "Set a surface parameter, e.g. R=120 (repeatable; values may be formulas)", "KEY=VALUE" },
+    { NULL },
+  };
+
+  g_option_context_add_main_entries (context, entries, NULL);
+}
+
+void
+df_cli_surface_options_clear (DfCliSurfaceOptions *o)
+{
+  g_clear_pointer (&o->surface_path, g_free);
+  g_clear_pointer (&o->preset, g_free);
+  g_clear_pointer (&o->params, g_strfreev);
+  g_clear_pointer (&o->label, g_free);
+}
+
+gboolean
+df_cli_surface_load (DfCliSurfaceOptions *o, df_surface_spec **spec_out,
+                     df_surface **surface_out, GError **error)
+{
+  g_autoptr (df_surface_spec) spec = NULL;
+  g_autoptr (df_surface) surface = NULL;
+
+  if (o->surface_path == NULL && o->preset == NULL)
+    {
+      g_set_error_literal (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                           "no surface: give --surface FILE or --preset NAME");
+      return FALSE;
+    }
+  if (o->surface_path != NULL && o->preset != NULL)
+    {
+      g_set_error_literal (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                           "give either --surface or --preset, not both");
+      return FALSE;
+    }
+
+  if (o->surface_path != NULL)
+    {
+      /* A project carries its surface in the same groups, so --surface accepts one too. */
+      if (g_str_has_suffix (o->surface_path, ".dfproj"))
+        {
+          g_autoptr (df_project) project = df_project_load (o->surface_path, error);
+
+          if (project == NULL)
+            return FALSE;
+          spec = g_steal_pointer (&project->spec);
+        }
+      else
+        spec = df_surface_spec_load (o->surface_path, error);
+      if (spec == NULL)
+        return FALSE;
+      o->label = g_strdup (o->surface_path);
+    }
+  else
+    {
+      spec = df_surface_spec_new_preset (o->preset, error);
+      if (spec == NULL)
+        {
+          g_prefix_error (error, "--preset: ");
+          return FALSE;
+        }
+      o->label = g_strdup_printf ("preset %s", o->preset);
+    }
+
+  for (gsize i = 0; o->params != NULL && o->params[i] != NULL; i++)
+    if (!df_surface_spec_set_param (spec, o->params[i], NULL, error))
+      {
+        g_prefix_error (error, "--param %s: ", o->params[i]);
+        return FALSE;
+      }
+
+  surface = df_surface_spec_build (spec, error);
+  if (surface == NULL)
+    {
+      g_prefix_error (error, "%s: ", o->label);
+      return FALSE;
+    }
+  if (spec_out != NULL)
+    *spec_out = g_steal_pointer (&spec);
+  *surface_out = g_steal_pointer (&surface);
+  return TRUE;
+}
+
+GOptionContext *
+df_cli_context_new (const char *name, const char *summary, const char *description)
+{
+  g_autofree char *param = g_strdup_printf ("- %s", summary);
+  GOptionContext *context = g_option_context_new (param);
+
+  g_option_context_set_description (context, description);
+  return context;
+}
+
+gboolean
+df_cli_parse (GOptionContext *context, const char *name, int *argc, char ***argv)
+{
+  g_autoptr (GError) error = NULL;
+
+  if (!g_option_context_parse (context, argc, argv, &error))
+    {
+      df_cli_fail_msg (name, DF_CLI_EXIT_INPUT, "%s (see driftframe-cli %s --help)",
+                       error->message, name);
+      return FALSE;
+    }
+  if (*argc > 1)
+    {
+      df_cli_fail_msg (name, DF_CLI_EXIT_INPUT,
+                       "unexpected argument '%s' (see driftframe-cli %s --help)", (*argv)[1],
+                       name);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+int
+df_cli_fail_msg (const char *name, int code, const char *format, ...)
+{
+  g_autofree char *msg = NULL;
+  va_list args;
+
+  va_start (args, format);
+  msg = g_strdup_vprintf (format, args);
+  va_end (args);
+  /* One line, whatever the message holds, so scripts can read it with a single read. */
+  g_strdelimit (msg, "\r\n", ' ');
+  fprintf (stderr, "driftframe-cli %s: %s\n", name, msg);
+  return code;
+}
+
+int
+df_cli_fail (const char *name, const GError *error, int code)
+{
+  return df_cli_fail_msg (name, code, "%s", error != NULL ? error->message : "failed");
+}
+
+gboolean
+df_cli_parse_number (const char *option, const char *text, double *out, GError **error)
+{
+  g_autofree char *copy = g_strstrip (g_strdup (text != NULL ? text : ""));
+  char *end = NULL;
+
+  *out = g_ascii_strtod (copy, &end);
+  if (copy[0] == '\0' || end == copy || *end != '\0')
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: '%s' is not a number", option,
+                   copy);
+      return FALSE;
+    }
+  if (!isfinite (*out))
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: '%s' is not a finite number",
+                   option, copy);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+gboolean
+df_cli_parse_pair (const char *option, const char *text, double *a, double *b, GError **error)
+{
+  g_auto (GStrv) parts = NULL;
+
+  if (!df_cli_require (option, text, error))
+    return FALSE;
+  parts = g_strsplit (text, ",", -1);
+  if (g_strv_length (parts) != 2)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                   "%s: expected two numbers separated by a comma (e.g. 0.5,1.2), got '%s'",
+                   option, text);
+      return FALSE;
+    }
+  return df_cli_parse_number (option, parts[0], a, error)
+         && df_cli_parse_number (option, parts[1], b, error);
+}
+
+gboolean
+df_cli_require (const char *option, const char *value, GError **error)
+{
+  if (value != NULL)
+    return TRUE;
+  g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "%s is required", option);
+  return FALSE;
+}
+
+const char *
+df_cli_num (char *buf, gsize len, double value, int digits)
+{
+  if (isfinite (value))
+    g_snprintf (buf, len, "%.*g", digits, value);
+  else
+    g_strlcpy (buf, "n/a", len);
+  return buf;
+}
+
+void
+df_cli_chart_names (const df_surface *surface, const char **u_name, const char **v_name)
+{
+  gboolean graph = df_surface_get_kind (surface) == DF_SURFACE_GRAPH;
+
+  *u_name = graph ? "x" : "t";
+  *v_name = graph ? "y" : "phi";
+}
+
+const char *
+df_cli_kind_text (const df_surface *surface)
+{
+  return df_surface_get_kind (surface) == DF_SURFACE_GRAPH ? "graph z = f(x, y)"
+                                                           : "surface of revolution";
+}
+
+void
+df_cli_print_json (JsonBuilder *builder)
+{
+  g_autoptr (JsonNode) root = json_builder_get_root (builder);
+  g_autofree char *text = df_json_to_string (root, TRUE);
+
+  fputs (text, stdout);
+}

@@ -1,0 +1,150 @@
+/* df-cli-probe.c: `driftframe-cli probe`: the local geometry at one chart point (point, normal,
+ * metric, Christoffel symbols, Riemann tensor, curvatures) from df_surface_geometry, as text
+ * or JSON. */
+#include <stdio.h>
+
+#include "df-cli-commands.h"
+#include "df-cli-common.h"
+#include "df-json-out.h"
+
+#define NAME "probe"
+
+typedef struct
+{
+  DfCliSurfaceOptions surface;
+  char    *at_text;
+  gboolean json;
+} probe_options;
+
+static void
+print_json (const probe_options *o, const df_surface_spec *spec, const df_surface *surface,
+            const df_point_geometry *g)
+{
+  g_autoptr (JsonBuilder) b = json_builder_new ();
+
+  json_builder_begin_object (b);
+  json_builder_set_member_name (b, "surface");
+  json_builder_add_string_value (b, o->surface.label);
+  df_json_add_point_geometry (b, g);
+  json_builder_set_member_name (b, "normal_side");
+  json_builder_add_string_value (b, df_surface_normal_side (surface));
+  json_builder_set_member_name (b, "units");
+  json_builder_add_string_value (b, spec->units);
+  json_builder_end_object (b);
+  df_cli_print_json (b);
+}
+
+static void
+print_text (const probe_options *o, const df_surface_spec *spec, const df_surface *surface,
+            const df_point_geometry *g)
+{
+  const char *un = spec->units, *names[2];
+  char a[40], b[40], c[40], d[40];
+
+  df_cli_chart_names (surface, &names[0], &names[1]);
+  printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface), un);
+  printf ("Chart point: %s = %s, %s = %s\n", names[0], df_cli_num (a, sizeof a, g->u, 12),
+          names[1], df_cli_num (b, sizeof b, g->v, 12));
+  printf ("Point:   (%s, %s, %s) %s\n", df_cli_num (a, sizeof a, g->point[0], 10),
+          df_cli_num (b, sizeof b, g->point[1], 10), df_cli_num (c, sizeof c, g->point[2], 10),
+          un);
+  printf ("Normal:  (%s, %s, %s); %s\n", df_cli_num (a, sizeof a, g->normal[0], 10),
+          df_cli_num (b, sizeof b, g->normal[1], 10), df_cli_num (c, sizeof c, g->normal[2], 10),
+          df_surface_normal_side (surface));
+
+  if (g->chart_regular)
+    {
+      printf ("\nMetric g_ij:          [[%s, %s], [%s, %s]]\n",
+              df_cli_num (a, sizeof a, g->g[0][0], 10), df_cli_num (b, sizeof b, g->g[0][1], 10),
+              df_cli_num (c, sizeof c, g->g[1][0], 10), df_cli_num (d, sizeof d, g->g[1][1], 10));
+      printf ("Christoffel symbols Gamma^k_ij:\n");
+      for (int k = 0; k < DF_DIM; k++)
+        for (int i = 0; i < DF_DIM; i++)
+          for (int j = i; j < DF_DIM; j++)
+            printf ("  Gamma^%s_%s%s = %s\n", names[k], names[i], names[j],
+                    df_cli_num (a, sizeof a, g->gamma[k][i][j], 10));
+      /* On a surface the Riemann tensor has one independent component. */
+      printf ("Riemann R^%s_%s%s%s = %s\n", names[0], names[1], names[0], names[1],
+              df_cli_num (a, sizeof a, g->riemann[0][1][0][1], 10));
+    }
+  else
+    printf ("\nThe chart is singular here (a pole on the axis): metric, Christoffel symbols and "
+            "Riemann tensor have no value in these coordinates; the curvatures below are "
+            "limits.\n");
+
+  printf ("\nGaussian curvature K:  %s 1/%s^2\n", df_cli_num (a, sizeof a, g->K, 10), un);
+  printf ("Mean curvature H:      %s 1/%s\n", df_cli_num (a, sizeof a, g->H, 10), un);
+  printf ("Principal curvatures:  k1 = %s, k2 = %s 1/%s\n", df_cli_num (a, sizeof a, g->k1, 10),
+          df_cli_num (b, sizeof b, g->k2, 10), un);
+}
+
+static int
+run (probe_options *o)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (df_surface_spec) spec = NULL;
+  g_autoptr (df_surface) surface = NULL;
+  df_point_geometry g;
+  double u, v;
+  df_diag diag;
+  df_status st;
+
+  if (!df_cli_parse_pair ("--at", o->at_text, &u, &v, &error)
+      || !df_cli_surface_load (&o->surface, &spec, &surface, &error))
+    return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  if (!df_surface_contains (surface, u, v))
+    {
+      double u0, u1, v0, v1;
+      const char *un, *vn;
+
+      df_surface_get_domain (surface, &u0, &u1, &v0, &v1);
+      df_cli_chart_names (surface, &un, &vn);
+      return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
+                              "--at: point (%.10g, %.10g) lies outside the surface (%s in "
+                              "[%.6g, %.6g], %s in [%.6g, %.6g])", u, v, un, u0, u1, vn, v0, v1);
+    }
+
+  df_diag_clear (&diag);
+  st = df_surface_geometry (surface, u, v, &g, &diag);
+  if (st != DF_OK)
+    {
+      df_status_to_gerror (st, &diag, &error);
+      g_prefix_error (&error, "--at %s: ", o->at_text);
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    }
+  if (o->json)
+    print_json (o, spec, surface, &g);
+  else
+    print_text (o, spec, surface, &g);
+  return DF_CLI_EXIT_OK;
+}
+
+int
+df_cli_probe (int argc, char **argv)
+{
+  probe_options o = { 0 };
+  g_autoptr (GOptionContext) context = NULL;
+  int code;
+  const GOptionEntry entries[] = {
+    { "at", 'a', 0, G_OPTION_ARG_STRING, &o.at_text,
+      "Chart point: t,phi on a surface of revolution, x,y on a graph", "U,V" },
+    { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the result as JSON", NULL },
+    { NULL },
+  };
+
+  context = df_cli_context_new (NAME, "local geometry at a point",
+                                "Prints the point, the unit normal N, the metric g_ij, the "
+                                "Christoffel symbols Gamma^k_ij, the Riemann tensor R^r_smn "
+                                "(JSON indices 0 = u, 1 = v), and the Gaussian, mean and "
+                                "principal curvatures.\n\nExit status: 0 done, 2 bad input.");
+  g_option_context_add_main_entries (context, entries, NULL);
+  df_cli_add_surface_options (context, &o.surface);
+  if (!df_cli_parse (context, NAME, &argc, &argv))
+    code = DF_CLI_EXIT_INPUT;
+  else
+    code = run (&o);
+
+  df_cli_surface_options_clear (&o.surface);
+  g_free (o.at_text);
+  return code;
+}
