@@ -47,7 +47,7 @@ print_angle_line (const char *label, double rad)
 {
   char d[40], r[40];
 
-  printf ("%-34s %s deg  (%s rad)\n", label, df_cli_num (d, sizeof d, rad * 180.0 / G_PI, 9),
+  printf ("%-38s %s deg  (%s rad)\n", label, df_cli_num (d, sizeof d, rad * 180.0 / G_PI, 9),
           df_cli_num (r, sizeof r, rad, 9));
 }
 
@@ -72,25 +72,25 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
       print_angle_line ("Enclosed curvature (integral K dA):", r->enclosed_curvature_rad);
       if (r->concentrated_rad != 0.0)
         print_angle_line ("  of which at the cone apex:", r->concentrated_rad);
-      printf ("%-34s %s rad\n", "Gauss-Bonnet residual:",
+      printf ("%-38s %s rad\n", "Gauss-Bonnet residual:",
               df_cli_num (a, sizeof a, r->residual_rad, 3));
-      printf ("%-34s %s %s^2 (%s of the loop)\n", "Enclosed area:",
+      printf ("%-38s %s %s^2 (%s of the loop)\n", "Enclosed area:",
               df_cli_num (a, sizeof a, r->area, 9), un, r->disc_on_left ? "left" : "right");
     }
   else
-    printf ("%-34s not defined: the loop bounds no disc\n", "Enclosed curvature:");
+    printf ("%-38s not defined: the loop bounds no disc\n", "Enclosed curvature:");
   if (r->disc_note[0] != '\0')
-    printf ("%-34s %s\n", "Note:", r->disc_note);
+    printf ("%-38s %s\n", "Note:", r->disc_note);
   print_angle_line ("Total geodesic curvature:", r->total_geodesic_curvature_rad);
-  printf ("%-34s %s %s\n", "Length:", df_cli_num (a, sizeof a, r->length, 9), un);
+  printf ("%-38s %s %s\n", "Length:", df_cli_num (a, sizeof a, r->length, 9), un);
   if (r->has_steering_radius)
-    printf ("%-34s %s %s (tightest in-surface bend, max |k_g| %s 1/%s)\n",
+    printf ("%-38s %s %s (tightest in-surface bend, max |k_g| %s 1/%s)\n",
             "Minimum steering radius:", df_cli_num (a, sizeof a, r->min_steering_radius, 6), un,
             df_cli_num (b, sizeof b, r->max_abs_kg, 6), un);
   else
-    printf ("%-34s none (the loop is a geodesic: no in-surface bend)\n",
+    printf ("%-38s none (the loop is a geodesic: no in-surface bend)\n",
             "Minimum steering radius:");
-  printf ("%-34s relative tolerance %s, %zu right-hand side evaluations, %zu samples\n",
+  printf ("%-38s relative tolerance %s, %zu right-hand side evaluations, %zu samples\n",
           "Transport:", df_cli_num (a, sizeof a, tol, 3), r->rhs_evals, r->n_samples);
   printf ("\nCaution: %s\n", DF_CLI_CAUTION);
 }
