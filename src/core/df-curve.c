@@ -614,10 +614,26 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   /* Unwrap phi so each step lies in (-pi, pi]; points on the axis take the next one's phi. */
   if (revolution)
     {
+      /* Polar coordinates only where the chart would fail: a point on the pole, or a path
+       * that sweeps round the pole in few points (a phi step over a quarter turn). A latitude
+       * circle near a pole stays in the chart, where the spline reproduces it exactly. */
       for (size_t i = 0; i < n; i++)
         for (int e = 0; e < 2; e++)
-          if (poles[e].on_axis && fabs (pts[i][0] - poles[e].t) < POLE_NEAR_FRACTION * (u_max - u_min))
-            near[e] = true;
+          {
+            double dist = fabs (pts[i][0] - poles[e].t), step = 0.0;
+
+            if (n > 1)
+              {
+                size_t k = (i + 1) % n;
+
+                step = fabs (remainder (pts[k][1] - pts[i][1], 2 * M_PI));
+                if (!closed && i + 1 == n)
+                  step = 0.0;
+              }
+            if (poles[e].on_axis && dist < POLE_NEAR_FRACTION * (u_max - u_min)
+                && (dist <= 1e-6 * (u_max - u_min) || step > M_PI / 2))
+              near[e] = true;
+          }
       if (near[0] && near[1])
         {
           st = df_diag_fail (diag, DF_E_INPUT, -1, "the path comes near both poles; split it "

@@ -196,14 +196,6 @@ line_rhs (double tau, const double y[], double dydt[], void *data)
           ctx->fail_status = st;
           return GSL_EBADFUNC;
         }
-      if (df_curve_get_coords (ctx->curve) == DF_COORDS_CHART)
-        dv = cp.dp[1];
-      else
-        {
-          double rho2 = cp.p[0] * cp.p[0] + cp.p[1] * cp.p[1];
-
-          dv = rho2 > 0 ? (cp.p[0] * cp.dp[1] - cp.p[1] * cp.dp[0]) / rho2 : 0.0;
-        }
       h_val = ctx->h_ref - drds;
       if (inner_integral (ctx, cp.u, 0.0, true, &a_val) != DF_OK)
         {
@@ -211,8 +203,23 @@ line_rhs (double tau, const double y[], double dydt[], void *data)
                                               "the area integral did not converge");
           return GSL_EBADFUNC;
         }
-      dydt[2] = h_val * dv;
-      dydt[3] = a_val * dv;
+      if (df_curve_get_coords (ctx->curve) == DF_COORDS_CHART)
+        {
+          dv = cp.dp[1];
+          dydt[2] = h_val * dv;
+          dydt[3] = a_val * dv;
+        }
+      else
+        {
+          /* dphi = (p x p') / |p|^2 dtau. Near the pole p x p' loses its digits to rounding
+           * while H and A vanish like |p|^2, so the quotients H / |p|^2 and A / |p|^2 are
+           * formed first: the product then stays bounded instead of amplifying the noise. */
+          double rho2 = cp.p[0] * cp.p[0] + cp.p[1] * cp.p[1];
+          double pxdp = cp.p[0] * cp.dp[1] - cp.p[1] * cp.dp[0];
+
+          dydt[2] = rho2 > 0 ? (h_val / rho2) * pxdp : 0.0;
+          dydt[3] = rho2 > 0 ? (a_val / rho2) * pxdp : 0.0;
+        }
     }
   else
     {
@@ -293,7 +300,8 @@ line_integrals (line_ctx *ctx, double rel_tol, const double *at, size_t n_at, do
                 }
               else
                 st = df_diag_fail (diag, df_status_from_gsl (rc), -1,
-                                   "the line integrals stopped at tau = %.6g", tau);
+                                   "the line integrals stopped at tau = %.6g: %s", tau,
+                                   gsl_strerror (rc));
               goto done;
             }
         }
@@ -486,8 +494,13 @@ choose_disc (const df_curve *c, df_loop_result *out, line_ctx *ctx)
     }
   if (w == 0)
     {
-      ctx->u_ref = u_min;
-      ctx->h_ref = 0.0;
+      /* Any reference works for a loop that does not go around the axis; a loop near a pole
+       * (polar coordinates) takes that pole, where H vanishes, so that H dphi stays bounded
+       * as the loop passes through the pole. */
+      df_curve_coords coords = df_curve_get_coords (c);
+
+      ctx->u_ref = coords == DF_COORDS_POLAR_MAX ? u_max : u_min;
+      ctx->h_ref = coords == DF_COORDS_POLAR_MAX ? -1.0 : coords == DF_COORDS_POLAR_MIN ? 1.0 : 0.0;
       snprintf (out->disc_note, sizeof out->disc_note, "the loop bounds the region it encloses "
                 "without going around the axis");
       return;
