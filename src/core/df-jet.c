@@ -121,10 +121,13 @@ df_jet_div (const df_jet *a, const df_jet *b, df_jet *out)
 {
   double inv = 1.0 / b->c[0];
   double inv2 = inv * inv;
+  double value = a->c[0] / b->c[0];
   df_jet r;
 
   /* 1/x has derivatives 1/x, -1/x^2, 2/x^3, -6/x^4. b->c[0] == 0 gives infinities: callers
    * that can meet a zero divisor (df-expr.c) check it first and report it. */
   df_jet_compose (b, inv, -inv2, 2.0 * inv2 * inv, -6.0 * inv2 * inv2, &r);
   df_jet_mul (a, &r, out);
+  /* The value as a plain division rounds it, so a jet and a double evaluation agree exactly. */
+  out->c[0] = value;
 }
