@@ -19,3 +19,44 @@
       }                                                                                       \
   }                                                                                           \
   G_STMT_END
+
+#include "df-glib.h"
+
+/* Surfaces from formula text, for tests; abort the test with the reader's message on error. */
+static inline df_surface *
+df_test_revolution (const char *r, const char *z, double t_min, double t_max)
+{
+  const char *vars[] = { "t" };
+  g_autoptr (GError) error = NULL;
+  df_expr *er, *ez;
+  df_surface *s = NULL;
+  df_diag diag;
+  df_status st;
+
+  er = df_expr_parse (r, vars, 1, NULL, NULL, &error);
+  g_assert_no_error (error);
+  ez = df_expr_parse (z, vars, 1, NULL, NULL, &error);
+  g_assert_no_error (error);
+  st = df_surface_new_revolution (er, ez, t_min, t_max, &s, &diag);
+  if (st != DF_OK)
+    g_error ("surface r = %s, z = %s: %s: %s", r, z, df_status_describe (st), diag.detail);
+  return s;
+}
+
+static inline df_surface *
+df_test_graph (const char *f, double x_min, double x_max, double y_min, double y_max)
+{
+  const char *vars[] = { "x", "y" };
+  g_autoptr (GError) error = NULL;
+  df_expr *ef;
+  df_surface *s = NULL;
+  df_diag diag;
+  df_status st;
+
+  ef = df_expr_parse (f, vars, 2, NULL, NULL, &error);
+  g_assert_no_error (error);
+  st = df_surface_new_graph (ef, x_min, x_max, y_min, y_max, &s, &diag);
+  if (st != DF_OK)
+    g_error ("surface z = %s: %s: %s", f, df_status_describe (st), diag.detail);
+  return s;
+}
