@@ -1,0 +1,579 @@
+/* test-cli.c: runs the built driftframe-cli (DF_CLI_PATH) as a user would: JSON output parsed
+ * with json-glib and checked against textbook results, exit codes, and one-line messages on
+ * stderr for bad input. */
+#include <math.h>
+#include <string.h>
+
+#include <glib/gstdio.h>
+#include <json-glib/json-glib.h>
+
+#include "df-glib.h"
+#include "df-test.h"
+
+static char *tmp_dir;
+
+typedef struct
+{
+  int   status;   /* exit code */
+  char *out;
+  char *err;
+} cli_run;
+
+static void
+cli_run_clear (cli_run *r)
+{
+  g_clear_pointer (&r->out, g_free);
+  g_clear_pointer (&r->err, g_free);
+}
+
+G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (cli_run, cli_run_clear)
+
+static char *
+tmp_path (const char *name)
+{
+  return g_build_filename (tmp_dir, name, NULL);
+}
+
+static char *
+write_tmp (const char *name, const char *text)
+{
+  char *path = tmp_path (name);
+
+  g_assert_true (g_file_set_contents (path, text, -1, NULL));
+  return path;
+}
+
+/* Runs the CLI with a NULL-terminated argument list. */
+static void
+run_cli (cli_run *r, const char *first, ...)
+{
+  g_autoptr (GPtrArray) argv = g_ptr_array_new ();
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GError) exit_error = NULL;
+  int wait_status = 0;
+  va_list args;
+
+  g_ptr_array_add (argv, (char *) DF_CLI_PATH);
+  va_start (args, first);
+  for (const char *a = first; a != NULL; a = va_arg (args, const char *))
+    g_ptr_array_add (argv, (char *) a);
+  va_end (args);
+  g_ptr_array_add (argv, NULL);
+
+  g_assert_true (g_spawn_sync (NULL, (char **) argv->pdata, NULL, G_SPAWN_DEFAULT, NULL, NULL,
+                               &r->out, &r->err, &wait_status, &error));
+  g_assert_no_error (error);
+  if (g_spawn_check_wait_status (wait_status, &exit_error))
+    r->status = 0;
+  else
+    {
+      g_assert_true (exit_error->domain == G_SPAWN_EXIT_ERROR);
+      r->status = exit_error->code;
+    }
+  g_test_message ("exit %d\nstdout: %s\nstderr: %s", r->status, r->out, r->err);
+}
+
+static JsonObject *
+parse_object (JsonParser *parser, const char *text)
+{
+  g_autoptr (GError) error = NULL;
+
+  g_assert_true (json_parser_load_from_data (parser, text, -1, &error));
+  g_assert_no_error (error);
+  g_assert_true (JSON_NODE_HOLDS_OBJECT (json_parser_get_root (parser)));
+  return json_node_get_object (json_parser_get_root (parser));
+}
+
+/* A finite number member (JSON has no NaN; null would mean "missing"). */
+static double
+get_number (JsonObject *o, const char *key)
+{
+  JsonNode *node = json_object_get_member (o, key);
+
+  g_test_message ("key %s", key);
+  g_assert_nonnull (node);
+  g_assert_true (JSON_NODE_HOLDS_VALUE (node));
+  g_assert_true (json_node_get_value_type (node) == G_TYPE_DOUBLE
+                 || json_node_get_value_type (node) == G_TYPE_INT64);
+  g_assert_true (isfinite (json_node_get_double (node)));
+  return json_node_get_double (node);
+}
+
+static double
+array_number (JsonArray *a, guint i)
+{
+  JsonNode *node = json_array_get_element (a, i);
+
+  g_assert_true (JSON_NODE_HOLDS_VALUE (node));
+  return json_node_get_double (node);
+}
+
+/* A latitude circle t = theta, 48 chart points. */
+static char *
+write_latitude (const char *name, double theta)
+{
+  g_autoptr (GString) text = g_string_new ("u,v\n");
+
+  for (int i = 0; i < 48; i++)
+    {
+      char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE];
+
+      g_string_append_printf (text, "%s,%s\n", g_ascii_dtostr (a, sizeof a, theta),
+                              g_ascii_dtostr (b, sizeof b, -G_PI + 2 * G_PI * i / 48));
+    }
+  return write_tmp (name, text->str);
+}
+
+static void
+test_measure_sphere (void)
+{
+  static const char *const numbers[] = { "holonomy_deg", "holonomy_rad", "enclosed_curvature_rad",
+                                         "area", "gauss_bonnet_residual_rad",
+                                         "total_geodesic_curvature_rad", "length",
+                                         "min_steering_radius", "samples", "axis_winding",
+                                         "tolerance", "rhs_evaluations", NULL };
+  static const char *const strings[] = { "note", "normal_side", "units", "caution", NULL };
+  const double theta = 0.9, R = 50.0;
+  g_autofree char *loop = write_latitude ("latitude.csv", theta);
+  g_autofree char *samples = tmp_path ("samples.csv");
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  g_autofree char *csv = NULL;
+  g_auto (GStrv) lines = NULL;
+  JsonObject *o;
+
+  run_cli (&r, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+           "--samples", samples, "--count", "50", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  g_assert_cmpstr (r.err, ==, "");
+  o = parse_object (parser, r.out);
+  for (gsize i = 0; numbers[i] != NULL; i++)
+    get_number (o, numbers[i]);
+  for (gsize i = 0; strings[i] != NULL; i++)
+    g_assert_nonnull (json_object_get_string_member (o, strings[i]));
+  g_assert_true (json_object_get_boolean_member (o, "bounds_disc"));
+  g_assert_true (json_object_get_boolean_member (o, "simple"));
+  g_assert_cmpstr (json_object_get_string_member (o, "units"), ==, "mm");
+  g_assert_nonnull (strstr (json_object_get_string_member (o, "caution"),
+                            "not a material or structural assessment"));
+
+  /* Latitude circle at polar angle theta encloses K dA = 2 pi (1 - cos theta): Gauss-Bonnet,
+   * do Carmo, Differential Geometry of Curves and Surfaces, sec. 4-5 (from memory). */
+  df_assert_close (get_number (o, "holonomy_rad"), 2 * G_PI * (1 - cos (theta)), 0.0, 1e-8);
+  df_assert_close (get_number (o, "enclosed_curvature_rad"), 2 * G_PI * (1 - cos (theta)), 0.0,
+                   1e-8);
+  df_assert_close (get_number (o, "holonomy_deg"), 360.0 * (1 - cos (theta)), 0.0, 1e-6);
+  /* Cap area 2 pi R^2 (1 - cos theta) (Archimedes, from memory); circumference 2 pi R sin. */
+  df_assert_close (get_number (o, "area"), 2 * G_PI * R * R * (1 - cos (theta)), 1e-8, 0.0);
+  df_assert_close (get_number (o, "length"), 2 * G_PI * R * sin (theta), 1e-8, 0.0);
+  /* A latitude circle's geodesic curvature is cot(theta)/R (do Carmo sec. 4-4, from memory). */
+  df_assert_close (get_number (o, "min_steering_radius"), R * tan (theta), 1e-6, 0.0);
+  g_assert_cmpint ((int) get_number (o, "samples"), ==, 50);
+
+  g_assert_true (g_file_get_contents (samples, &csv, NULL, NULL));
+  lines = g_strsplit (csv, "\r\n", -1);
+  /* header + 50 rows + the empty piece after the last CRLF */
+  g_assert_cmpuint (g_strv_length (lines), ==, 52);
+  g_assert_cmpstr (lines[0], ==, "s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K");
+}
+
+static void
+test_measure_text (void)
+{
+  g_autofree char *loop = write_latitude ("latitude.csv", 0.5);
+  g_auto (cli_run) r = { 0 };
+
+  run_cli (&r, "measure", "--preset", "sphere", "--loop", loop, NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  g_assert_nonnull (strstr (r.out, "Caution: Geometric estimate only, not a material or "
+                                   "structural assessment: check against the material "
+                                   "supplier's data, local codes and licensed engineering "
+                                   "practice."));
+  g_assert_nonnull (strstr (r.out, " deg"));
+  g_assert_nonnull (strstr (r.out, " rad"));
+  g_assert_nonnull (strstr (r.out, " mm"));
+  g_assert_nonnull (strstr (r.out, "N points"));
+  g_assert_null (strstr (r.out, "nan"));
+  g_assert_null (strstr (r.out, "NaN"));
+}
+
+/* The example files: a ply patch on the lamp shade bounds a disc and meets Gauss-Bonnet
+ * (holonomy = enclosed curvature, do Carmo sec. 4-5, from memory); the band around the open
+ * shade bounds none, so the enclosed curvature is null, not a number. */
+static void
+test_measure_examples (void)
+{
+  g_autofree char *surface = g_build_filename (DF_EXAMPLES_DIR, "lamp-shade.surface", NULL);
+  g_autofree char *patch = g_build_filename (DF_EXAMPLES_DIR, "lamp-patch.csv", NULL);
+  g_autofree char *seam = g_build_filename (DF_EXAMPLES_DIR, "lamp-seam.csv", NULL);
+  g_autofree char *rim = g_build_filename (DF_EXAMPLES_DIR, "lamp-rim.csv", NULL);
+  g_autofree char *canopy = g_build_filename (DF_EXAMPLES_DIR, "canopy-panel.surface", NULL);
+  g_autofree char *corner = g_build_filename (DF_EXAMPLES_DIR, "canopy-corner.csv", NULL);
+  const char *with_disc[][2] = { { surface, patch }, { surface, seam }, { canopy, corner } };
+
+  for (gsize i = 0; i < G_N_ELEMENTS (with_disc); i++)
+    {
+      g_autoptr (JsonParser) parser = json_parser_new ();
+      g_auto (cli_run) r = { 0 };
+      JsonObject *o;
+
+      run_cli (&r, "measure", "--surface", with_disc[i][0], "--loop", with_disc[i][1], "--json",
+               NULL);
+      g_assert_cmpint (r.status, ==, 0);
+      o = parse_object (parser, r.out);
+      g_assert_true (json_object_get_boolean_member (o, "bounds_disc"));
+      df_assert_close (get_number (o, "gauss_bonnet_residual_rad"), 0.0, 0.0, 1e-7);
+      g_assert_cmpfloat (fabs (get_number (o, "holonomy_rad")), >, 1e-3);
+    }
+
+  {
+    g_autoptr (JsonParser) parser = json_parser_new ();
+    g_auto (cli_run) r = { 0 };
+    JsonObject *o;
+
+    run_cli (&r, "measure", "--surface", surface, "--loop", rim, "--json", NULL);
+    g_assert_cmpint (r.status, ==, 0);
+    o = parse_object (parser, r.out);
+    g_assert_false (json_object_get_boolean_member (o, "bounds_disc"));
+    g_assert_true (json_object_get_null_member (o, "enclosed_curvature_rad"));
+    g_assert_true (json_object_get_null_member (o, "area"));
+    g_assert_cmpint ((int) get_number (o, "axis_winding"), ==, 1);
+    get_number (o, "holonomy_rad");
+  }
+}
+
+/* Sphere of radius R at polar angle t (do Carmo sec. 4-3, from memory): g = diag(R^2,
+ * R^2 sin^2 t), Gamma^t_phiphi = -sin t cos t, Gamma^phi_tphi = cot t, K = 1/R^2, both
+ * principal curvatures of magnitude 1/R, R^t_phitphi = K g_phiphi = sin^2 t. */
+static void
+test_probe_sphere (void)
+{
+  const double R = 80.0, t = 0.7;
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+  JsonArray *metric, *gamma, *riemann, *k;
+
+  run_cli (&r, "probe", "--preset", "sphere", "--param", "R=80", "--at", "0.7,1.2", "--json",
+           NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_cmpuint (json_array_get_length (json_object_get_array_member (o, "point")), ==, 3);
+  g_assert_cmpuint (json_array_get_length (json_object_get_array_member (o, "normal")), ==, 3);
+  df_assert_close (get_number (o, "gaussian_curvature"), 1.0 / (R * R), 1e-10, 0.0);
+  df_assert_close (fabs (get_number (o, "mean_curvature")), 1.0 / R, 1e-10, 0.0);
+
+  k = json_object_get_array_member (o, "principal_curvatures");
+  g_assert_cmpuint (json_array_get_length (k), ==, 2);
+  g_assert_cmpfloat (array_number (k, 0), >=, array_number (k, 1));
+  /* Every point of a sphere is umbilic (k1 = k2): H +- sqrt(H^2 - K) keeps only about half
+   * the digits there, so this check allows 1e-7 relative. */
+  df_assert_close (fabs (array_number (k, 0)), 1.0 / R, 1e-7, 0.0);
+  df_assert_close (fabs (array_number (k, 1)), 1.0 / R, 1e-7, 0.0);
+
+  metric = json_object_get_array_member (o, "metric");
+  df_assert_close (array_number (json_array_get_array_element (metric, 0), 0), R * R, 1e-12, 0.0);
+  df_assert_close (array_number (json_array_get_array_element (metric, 0), 1), 0.0, 0.0, 1e-9);
+  df_assert_close (array_number (json_array_get_array_element (metric, 1), 1),
+                   R * R * sin (t) * sin (t), 1e-12, 0.0);
+
+  /* christoffel[k][i][j] = Gamma^k_ij with 0 = t, 1 = phi */
+  gamma = json_object_get_array_member (o, "christoffel");
+  df_assert_close (array_number (json_array_get_array_element (
+                     json_array_get_array_element (gamma, 0), 1), 1),
+                   -sin (t) * cos (t), 1e-10, 0.0);
+  df_assert_close (array_number (json_array_get_array_element (
+                     json_array_get_array_element (gamma, 1), 0), 1),
+                   cos (t) / sin (t), 1e-10, 0.0);
+  df_assert_close (array_number (json_array_get_array_element (
+                     json_array_get_array_element (gamma, 1), 1), 0),
+                   cos (t) / sin (t), 1e-10, 0.0);
+
+  /* riemann[r][s][m][n] = R^r_smn: R^t_phi t phi = sin^2 t, antisymmetric in m, n. */
+  riemann = json_object_get_array_member (o, "riemann");
+  {
+    JsonArray *r0 = json_array_get_array_element (riemann, 0);
+    JsonArray *r01 = json_array_get_array_element (r0, 1);
+
+    df_assert_close (array_number (json_array_get_array_element (r01, 0), 1),
+                     sin (t) * sin (t), 1e-9, 0.0);
+    df_assert_close (array_number (json_array_get_array_element (r01, 1), 0),
+                     -sin (t) * sin (t), 1e-9, 0.0);
+  }
+}
+
+/* At the pole the chart is singular: metric and connection are null, K still 1/R^2. */
+static void
+test_probe_pole (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+
+  run_cli (&r, "probe", "--preset", "sphere", "--at", "0,0", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_true (json_object_get_null_member (o, "metric"));
+  g_assert_true (json_object_get_null_member (o, "christoffel"));
+  g_assert_true (json_object_get_null_member (o, "riemann"));
+  df_assert_close (get_number (o, "gaussian_curvature"), 1e-4, 1e-8, 0.0);
+}
+
+/* Saddle z = (x^2 - y^2)/(2R) at the origin: K = -1/R^2, H = 0, k1 = 1/R, k2 = -1/R
+ * (graph formulas, do Carmo sec. 3-3, from memory). */
+static void
+test_probe_saddle (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+  JsonArray *k;
+
+  run_cli (&r, "probe", "--preset", "saddle", "--param", "R=250", "--at", "0,0", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  df_assert_close (get_number (o, "gaussian_curvature"), -1.0 / (250.0 * 250.0), 1e-10, 0.0);
+  df_assert_close (get_number (o, "mean_curvature"), 0.0, 0.0, 1e-14);
+  k = json_object_get_array_member (o, "principal_curvatures");
+  df_assert_close (array_number (k, 0), 1.0 / 250.0, 1e-10, 0.0);
+  df_assert_close (array_number (k, 1), -1.0 / 250.0, 1e-10, 0.0);
+}
+
+/* Two routes around a latitude circle, the upper half (phi 0 -> pi) and the lower half
+ * (phi 0 -> -pi), together make the whole circle: carried along them, one direction arrives
+ * turned by the circle's holonomy 2 pi (1 - cos theta) (Gauss-Bonnet, do Carmo sec. 4-5,
+ * from memory). Transport along A then back along B gives P_B^-1 P_A = Rot(h), so the
+ * vector carried along A is the one carried along B turned by +h: B is -h from A. */
+static void
+test_compare_sphere (void)
+{
+  const double theta = 1.0;
+  g_autoptr (GString) a = g_string_new ("u,v\n");
+  g_autoptr (GString) b = g_string_new ("u,v\n");
+  g_autofree char *pa = NULL;
+  g_autofree char *pb = NULL;
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+
+  for (int i = 0; i <= 24; i++)
+    {
+      g_string_append_printf (a, "1,%.17g\n", G_PI * i / 24);
+      g_string_append_printf (b, "1,%.17g\n", -G_PI * i / 24);
+    }
+  pa = write_tmp ("a.csv", a->str);
+  pb = write_tmp ("b.csv", b->str);
+  run_cli (&r, "compare", "--preset", "sphere", "--path-a", pa, "--path-b", pb, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  df_assert_close (get_number (o, "angle_rad"), -2 * G_PI * (1 - cos (theta)), 0.0, 1e-7);
+  df_assert_close (get_number (o, "angle_deg"), -360.0 * (1 - cos (theta)), 0.0, 1e-5);
+}
+
+/* On a plane, parallel transport does not depend on the route (flat: zero curvature, from
+ * memory). */
+static void
+test_compare_plane (void)
+{
+  g_autofree char *pa = write_tmp ("a.csv", "u,v\n0,0\n20,0\n40,0\n60,10\n");
+  g_autofree char *pb = write_tmp ("b.csv", "u,v\n0,0\n10,30\n40,40\n60,10\n");
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+
+  run_cli (&r, "compare", "--preset", "plane", "--path-a", pa, "--path-b", pb, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  df_assert_close (get_number (o, "angle_deg"), 0.0, 0.0, 1e-8);
+}
+
+/* A geodesic started along the equator of a sphere is the equator (a great circle, do Carmo
+ * sec. 4-4, from memory): after a quarter of the circumference it is at phi = pi/2. */
+static void
+test_geodesic_sphere (void)
+{
+  g_autofree char *length = g_strdup_printf ("%.17g", 100.0 * G_PI / 2);
+  g_autofree char *out = tmp_path ("geo.csv");
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o, *end;
+
+  run_cli (&r, "geodesic", "--preset", "sphere", "--from", "1.5707963267948966,0", "--heading",
+           "90", "--length", length, "--json", "--samples", out, NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_false (json_object_get_boolean_member (o, "stopped_early"));
+  df_assert_close (get_number (o, "length"), 100.0 * G_PI / 2, 1e-9, 0.0);
+  end = json_object_get_object_member (o, "end");
+  df_assert_close (get_number (end, "u"), G_PI / 2, 0.0, 1e-7);
+  df_assert_close (get_number (end, "v"), G_PI / 2, 0.0, 1e-7);
+  g_assert_true (g_file_test (out, G_FILE_TEST_EXISTS));
+}
+
+static void
+test_presets (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) text = { 0 };
+  JsonObject *o;
+  JsonArray *list;
+
+  run_cli (&r, "presets", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  list = json_object_get_array_member (o, "presets");
+  g_assert_cmpuint (json_array_get_length (list), >=, 12);
+  for (guint i = 0; i < json_array_get_length (list); i++)
+    {
+      JsonObject *p = json_array_get_object_element (list, i);
+
+      g_assert_nonnull (json_object_get_string_member (p, "name"));
+      g_assert_cmpuint (json_array_get_length (json_object_get_array_member (p, "parameters")),
+                        >=, 1);
+    }
+  run_cli (&text, "presets", NULL);
+  g_assert_cmpint (text.status, ==, 0);
+  g_assert_nonnull (strstr (text.out, "pseudosphere"));
+}
+
+static void
+test_help (void)
+{
+  const char *commands[] = { "measure", "probe", "compare", "geodesic", "presets" };
+  g_auto (cli_run) top = { 0 };
+
+  run_cli (&top, "--help", NULL);
+  g_assert_cmpint (top.status, ==, 0);
+  for (gsize i = 0; i < G_N_ELEMENTS (commands); i++)
+    {
+      g_auto (cli_run) r = { 0 };
+
+      g_assert_nonnull (strstr (top.out, commands[i]));
+      run_cli (&r, commands[i], "--help", NULL);
+      g_assert_cmpint (r.status, ==, 0);
+      g_assert_nonnull (strstr (r.out, "--json"));
+    }
+}
+
+typedef struct
+{
+  const char *args[14];
+  const char *needle;
+} bad_run;
+
+/* Bad input: exit status 2, nothing on stdout, exactly one line on stderr naming the place. */
+static void
+test_bad_input (void)
+{
+  g_autofree char *loop = write_latitude ("ok.csv", 1.0);
+  g_autofree char *bad_csv = write_tmp ("loop.csv", "u,v\n1,0\n1,1,2\n1,2\n");
+  g_autofree char *off = write_tmp ("off.csv", "x,y,z\n100,0,0\n0,100,0\n0,0,130\n");
+  g_autofree char *bad_surface = write_tmp ("lamp.surface",
+                                            "[surface]\nkind=revolution\nr=60 + * t\nz=-t\n"
+                                            "t-min=0\nt-max=100\n");
+  g_autofree char *missing = tmp_path ("missing.csv");
+  const bad_run cases[] = {
+    { { "measure", "--preset", "sphere", NULL }, "--loop is required" },
+    { { "measure", "--preset", "sphere", "--loop", missing, NULL }, "missing.csv" },
+    { { "measure", "--preset", "sphere", "--loop", bad_csv, NULL },
+      "loop.csv:3: expected 2 numbers, found 3" },
+    { { "measure", "--preset", "sphere", "--loop", off, NULL }, "off.csv:4: point" },
+    { { "measure", "--surface", bad_surface, "--loop", loop, NULL },
+      "lamp.surface: [surface] r: column 6" },
+    { { "measure", "--preset", "sphear", "--loop", loop, NULL }, "unknown preset 'sphear'" },
+    { { "measure", "--preset", "sphere", "--param", "Q=2", "--loop", loop, NULL },
+      "--param Q=2: unknown parameter 'Q'" },
+    { { "measure", "--preset", "sphere", "--param", "R=-", "--loop", loop, NULL },
+      "--param R=-: R: column" },
+    { { "measure", "--surface", bad_surface, "--preset", "sphere", "--loop", loop, NULL },
+      "not both" },
+    { { "measure", "--loop", loop, NULL }, "no surface" },
+    { { "measure", "--preset", "sphere", "--loop", loop, "extra", NULL }, "'extra'" },
+    { { "probe", "--preset", "sphere", "--at", "5,0", NULL }, "--at: point (5, 0) lies outside" },
+    { { "probe", "--preset", "sphere", "--at", "abc", NULL }, "--at: expected two numbers" },
+    { { "probe", "--preset", "sphere", "--at", "1,nan", NULL }, "--at: 'nan' is not a finite" },
+    { { "probe", "--preset", "sphere", "--bogus", NULL }, "--bogus" },
+    { { "bend", NULL }, "unknown command 'bend'" },
+    { { "geodesic", "--preset", "sphere", "--from", "1,0", "--heading", "0", "--length", "-5",
+        NULL }, "--length: must be positive" },
+    { { "geodesic", "--preset", "sphere", "--from", "1,0", "--heading", "north", "--length",
+        "5", NULL }, "--heading: 'north' is not a number" },
+    { { "compare", "--preset", "sphere", "--path-a", loop, NULL }, "--path-b is required" },
+    { { NULL }, "COMMAND" },
+  };
+
+  for (gsize i = 0; i < G_N_ELEMENTS (cases); i++)
+    {
+      const char *const *a = cases[i].args;
+      g_auto (cli_run) r = { 0 };
+      const char *nl;
+
+      g_test_message ("case %zu", i);
+      run_cli (&r, a[0], a[1], a[2], a[3], a[4], a[5], a[6], a[7], a[8], a[9], a[10], a[11],
+               a[12], NULL);
+      g_assert_cmpint (r.status, ==, 2);
+      g_assert_cmpstr (r.out, ==, "");
+      g_assert_nonnull (strstr (r.err, cases[i].needle));
+      g_assert_null (strstr (r.err, "nan\n"));
+      if (a[0] == NULL)
+        continue;   /* the bare usage text may have several lines */
+      nl = strchr (r.err, '\n');
+      g_assert_nonnull (nl);
+      g_assert_cmpint (nl[1], ==, '\0');
+    }
+}
+
+/* An output file that cannot be written: exit 1, one line, and no partial file. */
+static void
+test_output_failure (void)
+{
+  g_autofree char *loop = write_latitude ("ok.csv", 1.0);
+  g_auto (cli_run) r = { 0 };
+
+  run_cli (&r, "measure", "--preset", "sphere", "--loop", loop, "--samples",
+           "/nonexistent-dir/s.csv", NULL);
+  g_assert_cmpint (r.status, ==, 1);
+  g_assert_nonnull (strstr (r.err, "s.csv"));
+  g_assert_true (strchr (r.err, '\n') == r.err + strlen (r.err) - 1);
+  g_assert_false (g_file_test ("/nonexistent-dir/s.csv", G_FILE_TEST_EXISTS));
+}
+
+int
+main (int argc, char **argv)
+{
+  static const char *const written[] = { "latitude.csv", "samples.csv", "a.csv", "b.csv",
+                                         "geo.csv", "ok.csv", "loop.csv", "off.csv",
+                                         "lamp.surface" };
+  int status;
+
+  df_core_init ();
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+
+  g_test_add_func ("/cli/measure/sphere-latitude", test_measure_sphere);
+  g_test_add_func ("/cli/measure/text", test_measure_text);
+  g_test_add_func ("/cli/measure/examples", test_measure_examples);
+  g_test_add_func ("/cli/probe/sphere", test_probe_sphere);
+  g_test_add_func ("/cli/probe/pole", test_probe_pole);
+  g_test_add_func ("/cli/probe/saddle", test_probe_saddle);
+  g_test_add_func ("/cli/compare/sphere", test_compare_sphere);
+  g_test_add_func ("/cli/compare/plane", test_compare_plane);
+  g_test_add_func ("/cli/geodesic/sphere", test_geodesic_sphere);
+  g_test_add_func ("/cli/presets", test_presets);
+  g_test_add_func ("/cli/help", test_help);
+  g_test_add_func ("/cli/bad-input", test_bad_input);
+  g_test_add_func ("/cli/output-failure", test_output_failure);
+
+  tmp_dir = g_dir_make_tmp ("df-test-cli-XXXXXX", NULL);
+  g_assert_nonnull (tmp_dir);
+  status = g_test_run ();
+  for (gsize i = 0; i < G_N_ELEMENTS (written); i++)
+    {
+      g_autofree char *path = tmp_path (written[i]);
+
+      g_remove (path);
+    }
+  g_rmdir (tmp_dir);
+  g_free (tmp_dir);
+  return status;
+}
