@@ -410,6 +410,67 @@ test_geodesic_sphere (void)
   g_assert_true (g_file_test (out, G_FILE_TEST_EXISTS));
 }
 
+/* Every loop of the demo project: where a loop bounds a disc, holonomy equals the enclosed
+ * curvature (Gauss-Bonnet, do Carmo sec. 4-5, from memory); the summary CSV has one row per
+ * loop after its header. */
+static void
+test_report_demo (void)
+{
+  g_autofree char *project = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *summary = tmp_path ("summary.csv");
+  g_autofree char *csv = NULL;
+  g_auto (GStrv) lines = NULL;
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+  JsonArray *loops;
+  guint with_disc = 0;
+
+  run_cli (&r, "report", "--project", project, "--json", "--summary", summary, NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  loops = json_object_get_array_member (o, "loops");
+  g_assert_cmpuint (json_array_get_length (loops), >=, 2);
+  for (guint i = 0; i < json_array_get_length (loops); i++)
+    {
+      JsonObject *l = json_array_get_object_element (loops, i);
+
+      get_number (l, "holonomy_rad");
+      get_number (l, "length");
+      if (json_object_get_boolean_member (l, "bounds_disc"))
+        {
+          with_disc++;
+          df_assert_close (get_number (l, "holonomy_rad"),
+                           get_number (l, "enclosed_curvature_rad"), 0.0, 1e-7);
+        }
+      else
+        g_assert_true (json_object_get_null_member (l, "enclosed_curvature_rad"));
+    }
+  g_assert_cmpuint (with_disc, >=, 1);
+
+  g_assert_true (g_file_get_contents (summary, &csv, NULL, NULL));
+  lines = g_strsplit (csv, "\r\n", -1);
+  g_assert_cmpuint (g_strv_length (lines), ==, json_array_get_length (loops) + 2);
+  g_assert_true (g_str_has_prefix (lines[0], "name,holonomy_deg,"));
+}
+
+static void
+test_report_bad (void)
+{
+  g_autofree char *project = write_tmp ("bad.dfproj",
+                                        "[surface]\nkind=revolution\nr=R*sin(t)\n"
+                                        "z=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=10\n"
+                                        "[loop 1]\nname=ok\nu=1;1;1\nv=0;2;4\n"
+                                        "[loop 2]\nname=short\nu=1;1;1\nv=0;2\n");
+  g_auto (cli_run) r = { 0 };
+
+  run_cli (&r, "report", "--project", project, NULL);
+  g_assert_cmpint (r.status, ==, 2);
+  g_assert_cmpstr (r.out, ==, "");
+  g_assert_nonnull (strstr (r.err, "bad.dfproj: [loop 2] u: 3 values but v has 2"));
+  g_assert_true (strchr (r.err, '\n') == r.err + strlen (r.err) - 1);
+}
+
 static void
 test_presets (void)
 {
@@ -440,7 +501,7 @@ test_presets (void)
 static void
 test_help (void)
 {
-  const char *commands[] = { "measure", "probe", "compare", "geodesic", "presets" };
+  const char *commands[] = { "measure", "probe", "compare", "geodesic", "report", "presets" };
   g_auto (cli_run) top = { 0 };
 
   run_cli (&top, "--help", NULL);
@@ -544,7 +605,7 @@ main (int argc, char **argv)
 {
   static const char *const written[] = { "latitude.csv", "samples.csv", "a.csv", "b.csv",
                                          "geo.csv", "ok.csv", "loop.csv", "off.csv",
-                                         "lamp.surface" };
+                                         "lamp.surface", "summary.csv", "bad.dfproj" };
   int status;
 
   df_core_init ();
@@ -559,6 +620,8 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/compare/sphere", test_compare_sphere);
   g_test_add_func ("/cli/compare/plane", test_compare_plane);
   g_test_add_func ("/cli/geodesic/sphere", test_geodesic_sphere);
+  g_test_add_func ("/cli/report/demo", test_report_demo);
+  g_test_add_func ("/cli/report/bad", test_report_bad);
   g_test_add_func ("/cli/presets", test_presets);
   g_test_add_func ("/cli/help", test_help);
   g_test_add_func ("/cli/bad-input", test_bad_input);

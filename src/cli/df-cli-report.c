@@ -1,0 +1,208 @@
+/* df-cli-report.c: `driftframe-cli report`: measures every loop of a project (.dfproj) on its
+ * surface and prints one line per loop, or JSON, optionally writing the summary CSV
+ * (df_loop_summary_write): the check a workshop runs over all plies before cutting. */
+#include <stdio.h>
+
+#include "df-cli-commands.h"
+#include "df-cli-common.h"
+#include "df-json-out.h"
+
+#define NAME "report"
+
+typedef struct
+{
+  char    *project_path;
+  char   **params;
+  char    *summary_path;
+  gboolean json;
+} report_options;
+
+static gboolean
+measure_loop (const df_surface *surface, const df_project_loop *loop, df_loop_result *out,
+              GError **error)
+{
+  g_autoptr (df_curve) curve = NULL;
+  df_loop_options opt;
+  df_diag diag;
+  df_status st;
+
+  df_loop_options_init (&opt);
+  df_diag_clear (&diag);
+  st = df_curve_new_through_points (surface, (const double (*)[2]) loop->uv, loop->n, true,
+                                    &curve, &diag);
+  if (st == DF_OK)
+    {
+      df_diag_clear (&diag);
+      st = df_loop_measure (curve, &opt, out, &diag);
+    }
+  if (st != DF_OK)
+    return df_status_to_gerror (st, &diag, error);
+  return TRUE;
+}
+
+static void
+print_text (const report_options *o, const df_project *project, const df_surface *surface,
+            const df_loop_result *results)
+{
+  const char *un = project->spec->units;
+
+  printf ("Project: %s (%s, lengths in %s)\n", o->project_path, df_cli_kind_text (surface), un);
+  printf ("Normal:  %s\n\n", df_surface_normal_side (surface));
+  printf ("%-24s %14s %14s %12s %12s %14s\n", "Loop", "holonomy deg", "enclosed deg",
+          "residual rad", "length", "min radius");
+  for (guint i = 0; i < project->loops->len; i++)
+    {
+      const df_project_loop *loop = g_ptr_array_index (project->loops, i);
+      const df_loop_result *r = &results[i];
+      char h[40], e[40], res[40], len[40], rad[40];
+
+      printf ("%-24.24s %14s %14s %12s %12s %14s\n", loop->name,
+              df_cli_num (h, sizeof h, r->holonomy_rad * 180.0 / G_PI, 8),
+              r->bounds_disc ? df_cli_num (e, sizeof e, r->enclosed_curvature_rad * 180.0 / G_PI,
+                                           8)
+                             : "no disc",
+              r->bounds_disc ? df_cli_num (res, sizeof res, r->residual_rad, 2) : "-",
+              df_cli_num (len, sizeof len, r->length, 7),
+              r->has_steering_radius ? df_cli_num (rad, sizeof rad, r->min_steering_radius, 6)
+                                     : "none");
+    }
+  printf ("\nLengths and radii in %s; holonomy is anticlockwise about N.\n", un);
+  printf ("\nCaution: %s\n", DF_CLI_CAUTION);
+}
+
+static void
+print_json (const report_options *o, const df_project *project, const df_surface *surface,
+            const df_loop_result *results)
+{
+  g_autoptr (JsonBuilder) b = json_builder_new ();
+
+  json_builder_begin_object (b);
+  json_builder_set_member_name (b, "project");
+  json_builder_add_string_value (b, o->project_path);
+  json_builder_set_member_name (b, "units");
+  json_builder_add_string_value (b, project->spec->units);
+  json_builder_set_member_name (b, "normal_side");
+  json_builder_add_string_value (b, df_surface_normal_side (surface));
+  json_builder_set_member_name (b, "loops");
+  json_builder_begin_array (b);
+  for (guint i = 0; i < project->loops->len; i++)
+    {
+      const df_project_loop *loop = g_ptr_array_index (project->loops, i);
+
+      json_builder_begin_object (b);
+      json_builder_set_member_name (b, "name");
+      json_builder_add_string_value (b, loop->name);
+      json_builder_set_member_name (b, "colour");
+      json_builder_add_string_value (b, loop->colour);
+      json_builder_set_member_name (b, "points");
+      json_builder_add_int_value (b, (gint64) loop->n);
+      df_json_add_loop_result (b, &results[i]);
+      json_builder_end_object (b);
+    }
+  json_builder_end_array (b);
+  json_builder_set_member_name (b, "caution");
+  json_builder_add_string_value (b, DF_CLI_CAUTION);
+  json_builder_end_object (b);
+  df_cli_print_json (b);
+}
+
+static int
+run (report_options *o)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (df_project) project = NULL;
+  g_autoptr (df_surface) surface = NULL;
+  g_autofree df_loop_result *results = NULL;
+  g_autofree const char **names = NULL;
+  g_autofree const df_loop_result **ptrs = NULL;
+  int code = DF_CLI_EXIT_OK;
+  guint n;
+
+  if (!df_cli_require ("--project", o->project_path, &error))
+    return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  project = df_project_load (o->project_path, &error);
+  if (project == NULL)
+    return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  for (gsize i = 0; o->params != NULL && o->params[i] != NULL; i++)
+    if (!df_surface_spec_set_param (project->spec, o->params[i], NULL, &error))
+      {
+        g_prefix_error (&error, "--param %s: ", o->params[i]);
+        return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+      }
+  surface = df_surface_spec_build (project->spec, &error);
+  if (surface == NULL)
+    {
+      g_prefix_error (&error, "%s: ", o->project_path);
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    }
+  n = project->loops->len;
+  if (n == 0)
+    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: the project has no loops",
+                            o->project_path);
+
+  results = g_new0 (df_loop_result, n);
+  names = g_new0 (const char *, n);
+  ptrs = g_new0 (const df_loop_result *, n);
+  for (guint i = 0; i < n && code == DF_CLI_EXIT_OK; i++)
+    {
+      const df_project_loop *loop = g_ptr_array_index (project->loops, i);
+
+      names[i] = loop->name;
+      ptrs[i] = &results[i];
+      if (!measure_loop (surface, loop, &results[i], &error))
+        {
+          g_prefix_error (&error, "%s: [loop %u] '%s': ", o->project_path, i + 1, loop->name);
+          code = df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+        }
+    }
+
+  if (code == DF_CLI_EXIT_OK && o->summary_path != NULL
+      && !df_loop_summary_write (o->summary_path, names, ptrs, n, project->spec->units, &error))
+    code = df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+  if (code == DF_CLI_EXIT_OK)
+    {
+      if (o->json)
+        print_json (o, project, surface, results);
+      else
+        print_text (o, project, surface, results);
+    }
+
+  for (guint i = 0; i < n; i++)
+    df_loop_result_clear (&results[i]);
+  return code;
+}
+
+int
+df_cli_report (int argc, char **argv)
+{
+  report_options o = { 0 };
+  g_autoptr (GOptionContext) context = NULL;
+  int code;
+  const GOptionEntry entries[] = {
+    { "project", 'f', 0, G_OPTION_ARG_FILENAME, &o.project_path,
+      "Project file (.dfproj): a surface and its loops", "FILE" },
+    { "param", 'P', 0, G_OPTION_ARG_STRING_ARRAY, &o.params,
+      "Override a surface parameter, e.g. R=120 (repeatable)", "KEY=VALUE" },
+    { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the results as JSON", NULL },
+    { "summary", 'o', 0, G_OPTION_ARG_FILENAME, &o.summary_path,
+      "Write one CSV row per loop (name, holonomy, enclosed curvature, residual, ...)",
+      "OUT.csv" },
+    { NULL },
+  };
+
+  context = df_cli_context_new (NAME, "measure every loop of a project",
+                                "Measures each loop of the project on its surface, as `measure` "
+                                "does for one loop, and prints one row per loop.\n\nExit "
+                                "status: 0 done, 2 bad input, 1 the summary could not be "
+                                "written.");
+  g_option_context_add_main_entries (context, entries, NULL);
+  if (!df_cli_parse (context, NAME, &argc, &argv))
+    code = DF_CLI_EXIT_INPUT;
+  else
+    code = run (&o);
+
+  g_free (o.project_path);
+  g_strfreev (o.params);
+  g_free (o.summary_path);
+  return code;
+}
