@@ -4,6 +4,7 @@
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
+#include "df-json-out.h"
 
 #define NAME "presets"
 
@@ -49,7 +50,7 @@ add_spec_json (JsonBuilder *b, const df_preset_info *info, const df_surface_spec
       json_builder_set_member_name (b, "default");
       json_builder_add_string_value (b, df_params_text (spec->params, i));
       json_builder_set_member_name (b, "value");
-      json_builder_add_double_value (b, df_params_value (spec->params, i));
+      df_json_add_double_value (b, df_params_value (spec->params, i));
       json_builder_end_object (b);
     }
   json_builder_end_array (b);
