@@ -54,8 +54,8 @@ parse_csv (const char *text)
           g_ptr_array_add (fields, g_strdup (field->str));
           g_string_truncate (field, 0);
           g_ptr_array_add (fields, NULL);
+          /* steal hands over the strings and leaves fields empty for the next record */
           g_ptr_array_add (rows, g_ptr_array_steal (fields, NULL));
-          fields = g_ptr_array_new_with_free_func (g_free);
           p++;
         }
       else
