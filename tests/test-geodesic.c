@@ -1,0 +1,466 @@
+/* test-geodesic.c: geodesics shot from a point and heading, against textbook facts: great circles
+ * on a sphere, straight lines on planes, helices on a cylinder, Clairaut's relation on surfaces
+ * of revolution, acceleration normal to the surface; and clean stops and input errors.
+ * Surfaces are built from formulas here, so the tests do not depend on the presets. */
+#include <math.h>
+#include <string.h>
+
+#include "df-glib.h"
+#include "df-test.h"
+
+static const char *const var_t[] = { "t" };
+static const char *const var_xy[] = { "x", "y" };
+
+/* ---- helpers ---- */
+
+static df_expr *
+parse_or_die (const char *text, const char *const *vars, int n_vars)
+{
+  g_autoptr (GError) error = NULL;
+  df_expr *expr = df_expr_parse (text, vars, n_vars, NULL, NULL, &error);
+
+  g_assert_no_error (error);
+  g_assert_nonnull (expr);
+  return expr;
+}
+
+static df_surface *
+new_revolution (const char *r, const char *z, double t_min, double t_max)
+{
+  df_surface *s = NULL;
+  df_diag diag;
+  df_status st = df_surface_new_revolution (parse_or_die (r, var_t, 1),
+                                            parse_or_die (z, var_t, 1), t_min, t_max, &s, &diag);
+
+  if (st != DF_OK)
+    g_error ("profile (%s, %s): %s: %s", r, z, df_status_describe (st), diag.detail);
+  return s;
+}
+
+static df_surface *
+new_graph (const char *f, double x_min, double x_max, double y_min, double y_max)
+{
+  df_surface *s = NULL;
+  df_diag diag;
+  df_status st = df_surface_new_graph (parse_or_die (f, var_xy, 2), x_min, x_max, y_min, y_max,
+                                       &s, &diag);
+
+  if (st != DF_OK)
+    g_error ("graph %s: %s: %s", f, df_status_describe (st), diag.detail);
+  return s;
+}
+
+/* Shoots and insists on success; the samples must be finite, evenly spaced in s from 0 and
+ * carry unit tangents (df-geodesic.h). */
+static void
+shoot_or_die (const df_surface *s, double u, double v, double heading, double length,
+              size_t n, df_geodesic_result *res)
+{
+  df_diag diag;
+  df_status st = df_geodesic_shoot (s, u, v, heading, length, n, res, &diag);
+
+  if (st != DF_OK)
+    g_error ("geodesic from (%g, %g): %s: %s", u, v, df_status_describe (st), diag.detail);
+  g_assert_cmpuint (res->n_samples, >=, 2);
+  g_assert_nonnull (res->samples);
+  df_assert_close (res->samples[0].s, 0.0, 0.0, 0.0);
+  df_assert_close (res->samples[0].u, u, 0.0, 0.0);
+  for (size_t i = 0; i < res->n_samples; i++)
+    {
+      const df_geodesic_sample *p = &res->samples[i];
+
+      for (int k = 0; k < 3; k++)
+        {
+          g_assert_true (isfinite (p->point[k]));
+          g_assert_true (isfinite (p->tangent[k]));
+        }
+      df_assert_close (sqrt (p->tangent[0] * p->tangent[0] + p->tangent[1] * p->tangent[1]
+                             + p->tangent[2] * p->tangent[2]), 1.0, 1e-12, 0.0);
+      if (!res->stopped_early || i + 1 < res->n_samples)
+        df_assert_close (p->s, length * i / (n - 1), 1e-12, 1e-14);
+      if (i > 0)
+        g_assert_cmpfloat (p->s, >, res->samples[i - 1].s);
+    }
+  df_assert_close (res->length, res->samples[res->n_samples - 1].s, 0.0, 0.0);
+  if (!res->stopped_early)
+    {
+      g_assert_cmpuint (res->n_samples, ==, n);
+      df_assert_close (res->length, length, 1e-12, 0.0);
+    }
+}
+
+static double
+dot3 (const double a[3], const double b[3])
+{
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+}
+
+static void
+cross3 (const double a[3], const double b[3], double out[3])
+{
+  out[0] = a[1] * b[2] - a[2] * b[1];
+  out[1] = a[2] * b[0] - a[0] * b[2];
+  out[2] = a[0] * b[1] - a[1] * b[0];
+}
+
+static double
+dist3 (const double a[3], const double b[3])
+{
+  double d[3] = { a[0] - b[0], a[1] - b[1], a[2] - b[2] };
+
+  return sqrt (dot3 (d, d));
+}
+
+/* ---- sphere ---- */
+
+static void
+test_great_circle (void)
+{
+  const double R = 2.0, t0 = G_PI / 2, phi0 = 0.4, heading = 1.2, L = 2 * G_PI * R;
+  const size_t n = 401;
+  g_autoptr (df_surface) s = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_auto (df_geodesic_result) res = { 0 };
+  const df_geodesic_sample *first, *last, *half;
+  double plane[3], want_t0[3];
+
+  shoot_or_die (s, t0, phi0, heading, L, n, &res);
+  g_assert_false (res.stopped_early);
+  first = &res.samples[0];
+  last = &res.samples[n - 1];
+  half = &res.samples[(n - 1) / 2];
+
+  /* Heading: on the equator X_t/|X_t| = (0, 0, -1) and N = (cos phi, sin phi, 0) outward, so
+   * the heading's quarter turn about N is e_phi = (-sin phi, cos phi, 0) (GEOMETRY.md, derived
+   * by hand). */
+  want_t0[0] = -sin (heading) * sin (phi0);
+  want_t0[1] = sin (heading) * cos (phi0);
+  want_t0[2] = -cos (heading);
+  for (int k = 0; k < 3; k++)
+    df_assert_close (first->tangent[k], want_t0[k], 0.0, 1e-12);
+
+  /* Geodesics of a sphere are great circles (do Carmo, Differential Geometry of Curves and
+   * Surfaces, sec. 4-4, from memory): every point at distance R from the centre, in the plane
+   * through the centre spanned by the start point and direction; after 2 pi R it is back
+   * where it started, heading the same way, and half way round at the antipode. */
+  cross3 (first->point, first->tangent, plane);
+  for (int k = 0; k < 3; k++)
+    plane[k] /= R;
+  for (size_t i = 0; i < n; i++)
+    {
+      const df_geodesic_sample *p = &res.samples[i];
+
+      df_assert_close (sqrt (dot3 (p->point, p->point)), R, 1e-9, 0.0);
+      df_assert_close (dot3 (p->point, plane), 0.0, 0.0, 1e-8 * R);
+      df_assert_close (dot3 (p->tangent, plane), 0.0, 0.0, 1e-8);
+    }
+  for (int k = 0; k < 3; k++)
+    {
+      df_assert_close (last->point[k], first->point[k], 0.0, 1e-7 * R);
+      df_assert_close (last->tangent[k], first->tangent[k], 0.0, 1e-7);
+      df_assert_close (half->point[k], -first->point[k], 0.0, 1e-7 * R);
+    }
+}
+
+/* ---- Clairaut ---- */
+
+/* Clairaut's relation: along a geodesic of a surface of revolution r cos(psi) is constant,
+ * psi the angle with the parallel (do Carmo sec. 4-4, from memory). With a unit tangent T,
+ * r cos(psi) = r (T . e_phi) = (X x T)_z, the signed form. Returns the spread of r along the
+ * samples so the caller can insist the path was not a trivial circle. */
+static double
+check_clairaut (const df_geodesic_result *res, double want)
+{
+  double r_min = INFINITY, r_max = 0.0;
+
+  for (size_t i = 0; i < res->n_samples; i++)
+    {
+      const df_geodesic_sample *p = &res->samples[i];
+      double r = hypot (p->point[0], p->point[1]);
+      double c = p->point[0] * p->tangent[1] - p->point[1] * p->tangent[0];
+
+      df_assert_close (c, want, 1e-8, 1e-10);
+      r_min = MIN (r_min, r);
+      r_max = MAX (r_max, r);
+    }
+  return r_max - r_min;
+}
+
+static void
+test_clairaut_torus (void)
+{
+  const double R = 3.0, a = 1.0, heading = 1.2;
+  g_autoptr (df_surface) s = new_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
+  g_auto (df_geodesic_result) res = { 0 };
+
+  /* From the outer equator (t = 0, r = R + a) where X_t/|X_t| = (0, 0, -1) and N points out
+   * of the tube, the heading's quarter turn is e_phi: r cos(psi) = (R + a) sin(heading)
+   * (derived by hand). Then r stays in [(R + a) sin(heading), R + a], away from the chart's
+   * ends at t = +-pi. */
+  shoot_or_die (s, 0.0, 0.5, heading, 40.0, 801, &res);
+  g_assert_false (res.stopped_early);
+  g_assert_cmpfloat (check_clairaut (&res, (R + a) * sin (heading)), >, 0.1);
+}
+
+static void
+test_clairaut_catenoid (void)
+{
+  const double t0 = -1.0, heading = 0.5;
+  g_autoptr (df_surface) s = new_revolution ("cosh(t)", "t", -2.0, 2.0);
+  g_auto (df_geodesic_result) res = { 0 };
+  double spread;
+
+  /* z increases with t here, so N points toward the axis; the heading's quarter turn about N
+   * is still N x X_t/|X_t| = +e_phi (it is X_phi's part normal to X_t in any right-handed
+   * chart), so r cos(psi) = cosh(t0) sin(heading) at the start (derived by hand,
+   * GEOMETRY.md). The geodesic crosses the neck r = 1 and climbs the other side. */
+  shoot_or_die (s, t0, 0.0, heading, 4.0, 401, &res);
+  g_assert_false (res.stopped_early);
+  spread = check_clairaut (&res, cosh (t0) * sin (heading));
+  g_assert_cmpfloat (spread, >, 0.3);
+  g_assert_cmpfloat (res.samples[res.n_samples - 1].u, >, 0.0);
+}
+
+/* ---- planes and cylinders ---- */
+
+static void
+test_plane_line (void)
+{
+  static const double headings_deg[] = { 0.0, 90.0, 30.0, -135.0 };
+  const double x0 = 1.0, y0 = -0.5, L = 3.0;
+  const size_t n = 31;
+  g_autoptr (df_surface) s = new_graph ("0*x", -5.0, 5.0, -5.0, 5.0);
+
+  /* The plane z = 0: N = +z, X_x = e_x; a geodesic is the straight line
+   * (x0 + s cos h, y0 + s sin h, 0), heading 0 along +x and 90 deg along +y, counter-clockwise
+   * seen from +z (GEOMETRY.md; straight lines are the plane's geodesics, from memory). */
+  for (guint m = 0; m < G_N_ELEMENTS (headings_deg); m++)
+    {
+      double h = headings_deg[m] * G_PI / 180;
+      g_auto (df_geodesic_result) res = { 0 };
+
+      shoot_or_die (s, x0, y0, h, L, n, &res);
+      g_assert_false (res.stopped_early);
+      for (size_t i = 0; i < n; i++)
+        {
+          const df_geodesic_sample *p = &res.samples[i];
+
+          df_assert_close (p->point[0], x0 + p->s * cos (h), 0.0, 1e-10);
+          df_assert_close (p->point[1], y0 + p->s * sin (h), 0.0, 1e-10);
+          df_assert_close (p->point[2], 0.0, 0.0, 1e-12);
+          df_assert_close (p->tangent[0], cos (h), 0.0, 1e-10);
+          df_assert_close (p->tangent[1], sin (h), 0.0, 1e-10);
+          df_assert_close (p->u, p->point[0], 0.0, 0.0);
+          df_assert_close (p->v, p->point[1], 0.0, 0.0);
+        }
+    }
+}
+
+static void
+test_tilted_plane (void)
+{
+  const double L = 2.5, h = 0.7;
+  const size_t n = 26;
+  g_autoptr (df_surface) s = new_graph ("0.5*x + 0.2*y", -4.0, 4.0, -4.0, 4.0);
+  g_auto (df_geodesic_result) res = { 0 };
+  const df_geodesic_sample *first, *last;
+  double e1[3] = { 1.0, 0.0, 0.5 }, n_up[3] = { -0.5, -0.2, 1.0 }, e2[3], len;
+
+  /* A tilted plane in a non-orthogonal chart: the geodesic is still a straight line of the
+   * requested length (from memory), leaving at angle h from X_x/|X_x| counter-clockwise about
+   * N = (-f_x, -f_y, 1)/W (GEOMETRY.md). */
+  shoot_or_die (s, 0.3, -0.2, h, L, n, &res);
+  g_assert_false (res.stopped_early);
+  first = &res.samples[0];
+  last = &res.samples[n - 1];
+  df_assert_close (dist3 (first->point, last->point), L, 1e-10, 0.0);
+  for (size_t i = 0; i < n; i++)
+    for (int k = 0; k < 3; k++)
+      df_assert_close (res.samples[i].point[k], first->point[k] + res.samples[i].s
+                       * first->tangent[k], 0.0, 1e-10);
+
+  len = sqrt (dot3 (e1, e1));
+  for (int k = 0; k < 3; k++)
+    e1[k] /= len;
+  len = sqrt (dot3 (n_up, n_up));
+  for (int k = 0; k < 3; k++)
+    n_up[k] /= len;
+  cross3 (n_up, e1, e2);
+  df_assert_close (dot3 (first->tangent, e1), cos (h), 0.0, 1e-12);
+  df_assert_close (dot3 (first->tangent, e2), sin (h), 0.0, 1e-12);
+  df_assert_close (dot3 (first->tangent, n_up), 0.0, 0.0, 1e-12);
+}
+
+static void
+test_cylinder_helix (void)
+{
+  const double R = 1.5, h = 1.0, L = 15.0;
+  const size_t n = 301;
+  g_autoptr (df_surface) s = new_revolution ("1.5", "t", -20.0, 20.0);
+  g_auto (df_geodesic_result) res = { 0 };
+  double phi_prev = 0.0, turns = 0.0;
+
+  /* Geodesics of a circular cylinder are helices: z and the polar angle both grow linearly
+   * in arc length (do Carmo sec. 4-4, from memory; the cylinder unrolls onto a plane). With
+   * z = t, X_t = e_z and N points to the axis, so the heading's quarter turn about N is
+   * +e_phi: dz/ds = cos h, R dphi/ds = sin h (derived by hand, GEOMETRY.md). */
+  shoot_or_die (s, 0.0, 0.0, h, L, n, &res);
+  g_assert_false (res.stopped_early);
+  for (size_t i = 0; i < n; i++)
+    {
+      const df_geodesic_sample *p = &res.samples[i];
+      double phi = atan2 (p->point[1], p->point[0]);
+
+      /* Unwrap the polar angle. */
+      if (i > 0 && phi - phi_prev < -G_PI)
+        turns += 2 * G_PI;
+      else if (i > 0 && phi - phi_prev > G_PI)
+        turns -= 2 * G_PI;
+      phi_prev = phi;
+
+      df_assert_close (hypot (p->point[0], p->point[1]), R, 1e-12, 0.0);
+      df_assert_close (p->point[2], p->s * cos (h), 0.0, 1e-9);
+      df_assert_close (R * (phi + turns), p->s * sin (h), 0.0, 1e-9);
+    }
+  /* More than one full turn, so the unwrapping was exercised. */
+  g_assert_cmpfloat (turns, >=, 2 * G_PI);
+}
+
+/* ---- the defining property, on a general surface ---- */
+
+static void
+test_normal_acceleration (void)
+{
+  const double L = 3.0;
+  const size_t n = 301;
+  const double ds = L / (n - 1);
+  g_autoptr (df_surface) s = new_graph ("0.3*sin(x)*cos(y) + 0.1*x*y", -3.0, 3.0, -3.0, 3.0);
+  g_auto (df_geodesic_result) res = { 0 };
+  double acc_max = 0.0, chords = 0.0;
+
+  /* A geodesic's acceleration (in arc length) is normal to the surface: no tangential part
+   * (do Carmo sec. 4-4, from memory). Acceleration by central second differences of the
+   * samples, error O(ds^2). And the sum of the chords is the arc length up to O(ds^2). */
+  shoot_or_die (s, -0.5, 0.2, 0.5, L, n, &res);
+  g_assert_false (res.stopped_early);
+  for (size_t i = 1; i + 1 < n; i++)
+    {
+      const df_geodesic_sample *p = &res.samples[i];
+      double acc[3], side[3];
+      df_point_geometry geo;
+
+      g_assert_cmpint (df_surface_geometry (s, p->u, p->v, &geo, NULL), ==, DF_OK);
+      for (int k = 0; k < 3; k++)
+        acc[k] = (res.samples[i + 1].point[k] - 2 * p->point[k] + res.samples[i - 1].point[k])
+                 / (ds * ds);
+      cross3 (geo.normal, p->tangent, side);
+      df_assert_close (dot3 (acc, p->tangent), 0.0, 0.0, 1e-4);
+      df_assert_close (dot3 (acc, side), 0.0, 0.0, 1e-4);
+      /* The tangent lies in the tangent plane. */
+      df_assert_close (dot3 (p->tangent, geo.normal), 0.0, 0.0, 1e-12);
+      acc_max = MAX (acc_max, sqrt (dot3 (acc, acc)));
+    }
+  /* The path really bends in space, so the checks above are not vacuous. */
+  g_assert_cmpfloat (acc_max, >, 0.05);
+  for (size_t i = 1; i < n; i++)
+    chords += dist3 (res.samples[i].point, res.samples[i - 1].point);
+  df_assert_close (chords, L, 1e-5, 0.0);
+}
+
+/* ---- stops and errors ---- */
+
+static void
+test_runs_off_domain (void)
+{
+  const size_t n = 101;
+  const double L = 5.0, spacing = L / (n - 1);
+  g_autoptr (df_surface) plane = new_graph ("0*x", -1.0, 1.0, -1.0, 1.0);
+  g_autoptr (df_surface) sphere = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) catenoid = new_revolution ("cosh(t)", "t", -2.0, 2.0);
+  g_auto (df_geodesic_result) res = { 0 };
+
+  /* From the centre of [-1, 1]^2 along +x: the edge is 1 away. The result keeps what was
+   * reached, says why it stopped, and holds no NaN (df-geodesic.h). */
+  shoot_or_die (plane, 0.0, 0.0, 0.0, L, n, &res);
+  g_test_message ("plane: %s", res.stop_reason);
+  g_assert_true (res.stopped_early);
+  g_assert_cmpuint (strlen (res.stop_reason), >, 0);
+  g_assert_cmpfloat (res.length, <, L);
+  g_assert_cmpfloat (res.length, <=, 1.0 + 1e-9);
+  g_assert_cmpfloat (res.length, >=, 1.0 - 2 * spacing);
+  g_assert_cmpuint (res.n_samples, <, n);
+  for (size_t i = 0; i < res.n_samples; i++)
+    g_assert_true (df_surface_contains (plane, res.samples[i].u, res.samples[i].v));
+  df_geodesic_result_clear (&res);
+
+  /* Down a meridian of the sphere into the north pole, where the chart ends (heading pi is
+   * -X_t, toward decreasing t; the pole is 2 away). */
+  shoot_or_die (sphere, 1.0, 0.3, G_PI, L, n, &res);
+  g_test_message ("sphere: %s", res.stop_reason);
+  g_assert_true (res.stopped_early);
+  g_assert_cmpuint (strlen (res.stop_reason), >, 0);
+  g_assert_cmpfloat (res.length, <=, 2.0 + 1e-9);
+  g_assert_cmpfloat (res.length, >=, 2.0 - 2 * spacing);
+  df_geodesic_result_clear (&res);
+
+  /* Over the catenoid's neck and out at t = 2. */
+  shoot_or_die (catenoid, -1.0, 0.0, 0.5, 50.0, 501, &res);
+  g_test_message ("catenoid: %s", res.stop_reason);
+  g_assert_true (res.stopped_early);
+  g_assert_cmpuint (strlen (res.stop_reason), >, 0);
+  g_assert_cmpfloat (res.length, <, 50.0);
+  df_assert_close (res.samples[res.n_samples - 1].u, 2.0, 0.0, 0.2);
+}
+
+static void
+test_bad_input (void)
+{
+  g_autoptr (df_surface) sphere = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  df_geodesic_result res;
+  df_diag diag;
+
+  /* df-geodesic.h: length > 0; a geodesic cannot start on the axis, where the chart gives no
+   * direction; nor off the surface. The result is left empty on failure. */
+  memset (&res, 0x5a, sizeof res);
+  g_assert_cmpint (df_geodesic_shoot (sphere, 1.0, 0.0, 0.0, 0.0, 10, &res, &diag), ==,
+                   DF_E_INPUT);
+  g_assert_null (res.samples);
+  g_assert_cmpuint (res.n_samples, ==, 0);
+  g_assert_cmpuint (strlen (diag.detail), >, 0);
+  g_assert_cmpint (df_geodesic_shoot (sphere, 1.0, 0.0, 0.0, -1.0, 10, &res, &diag), ==,
+                   DF_E_INPUT);
+  g_assert_cmpint (df_geodesic_shoot (sphere, 1.0, 0.0, 0.0, NAN, 10, &res, &diag), ==,
+                   DF_E_INPUT);
+  g_assert_cmpint (df_geodesic_shoot (sphere, 1.0, 0.0, NAN, 1.0, 10, &res, &diag), ==,
+                   DF_E_INPUT);
+
+  g_assert_cmpint (df_geodesic_shoot (sphere, 0.0, 0.0, 0.0, 1.0, 10, &res, &diag), ==,
+                   DF_E_SINGULAR);
+  g_test_message ("pole: %s", diag.detail);
+  g_assert_null (res.samples);
+  g_assert_cmpuint (strlen (diag.detail), >, 0);
+  g_assert_cmpint (df_geodesic_shoot (sphere, G_PI, 0.0, 0.0, 1.0, 10, &res, &diag), ==,
+                   DF_E_SINGULAR);
+
+  g_assert_cmpint (df_geodesic_shoot (sphere, 4.0, 0.0, 0.0, 1.0, 10, &res, &diag), ==,
+                   DF_E_DOMAIN);
+  g_assert_null (res.samples);
+}
+
+int
+main (int argc, char **argv)
+{
+  df_core_init ();
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+
+  g_test_add_func ("/core/geodesic/great-circle", test_great_circle);
+  g_test_add_func ("/core/geodesic/clairaut-torus", test_clairaut_torus);
+  g_test_add_func ("/core/geodesic/clairaut-catenoid", test_clairaut_catenoid);
+  g_test_add_func ("/core/geodesic/plane-line", test_plane_line);
+  g_test_add_func ("/core/geodesic/tilted-plane", test_tilted_plane);
+  g_test_add_func ("/core/geodesic/cylinder-helix", test_cylinder_helix);
+  g_test_add_func ("/core/geodesic/normal-acceleration", test_normal_acceleration);
+  g_test_add_func ("/core/geodesic/runs-off-domain", test_runs_off_domain);
+  g_test_add_func ("/core/geodesic/bad-input", test_bad_input);
+
+  return g_test_run ();
+}
