@@ -1,0 +1,674 @@
+/* df-document.c: the open project: spec, surface, loops, measurements, file and undo (see
+ * df-document.h). Geometry comes from the core; measuring runs in df-work.c threads. */
+#include <string.h>
+
+#include "df-document.h"
+#include "df-history.h"
+#include "df-work.h"
+
+#define DF_HISTORY_LIMIT 100
+
+struct _DfDocument
+{
+  GObject parent_instance;
+
+  /* owned */
+  df_surface_spec *spec;
+  df_surface      *surface;
+  GListStore      *loops;
+  DfHistory       *history;
+  char            *path;
+  char            *saved_snapshot;  /* project text as last loaded or saved */
+  char            *last_label;
+  gboolean         modified;
+};
+
+G_DEFINE_FINAL_TYPE (DfDocument, df_document, G_TYPE_OBJECT)
+
+enum
+{
+  PROP_0,
+  PROP_PATH,
+  PROP_MODIFIED,
+  N_PROPS
+};
+
+enum
+{
+  SURFACE_CHANGED,
+  LOOP_CHANGED,
+  HISTORY_CHANGED,
+  N_SIGNALS
+};
+
+static GParamSpec *properties[N_PROPS];
+static guint signals[N_SIGNALS];
+
+/* Loop colours: distinct on the surface shading and for the common colour deficiencies
+ * (common practice, no source). */
+static const char *const loop_palette[] = {
+  "#d0563b", "#2f7fd1", "#e0a41c", "#8c4fc4", "#2a9d6f", "#c63d8f", "#4a5a6a",
+};
+
+typedef struct
+{
+  DfDocument *document;
+  DfLoopItem *item;
+} MeasureJob;
+
+static void
+df_document_dispose (GObject *object)
+{
+  DfDocument *self = DF_DOCUMENT (object);
+
+  if (self->loops != NULL)
+    g_list_store_remove_all (self->loops);
+  g_clear_object (&self->loops);
+  G_OBJECT_CLASS (df_document_parent_class)->dispose (object);
+}
+
+static void
+df_document_finalize (GObject *object)
+{
+  DfDocument *self = DF_DOCUMENT (object);
+
+  df_surface_spec_free (self->spec);
+  df_surface_free (self->surface);
+  df_history_free (self->history);
+  g_free (self->path);
+  g_free (self->saved_snapshot);
+  g_free (self->last_label);
+  G_OBJECT_CLASS (df_document_parent_class)->finalize (object);
+}
+
+static void
+df_document_get_property (GObject    *object,
+                          guint       prop_id,
+                          GValue     *value,
+                          GParamSpec *pspec)
+{
+  DfDocument *self = DF_DOCUMENT (object);
+
+  switch (prop_id)
+    {
+    case PROP_PATH:
+      g_value_set_string (value, self->path);
+      break;
+    case PROP_MODIFIED:
+      g_value_set_boolean (value, self->modified);
+      break;
+    default:
+      G_OBJECT_WARN_INVALID_PROPERTY_ID (object, prop_id, pspec);
+    }
+}
+
+static void
+df_document_class_init (DfDocumentClass *klass)
+{
+  GObjectClass *object_class = G_OBJECT_CLASS (klass);
+
+  object_class->dispose = df_document_dispose;
+  object_class->finalize = df_document_finalize;
+  object_class->get_property = df_document_get_property;
+
+  properties[PROP_PATH] =
+    g_param_spec_string ("path", NULL, NULL, NULL,
+                         G_PARAM_READABLE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
+  properties[PROP_MODIFIED] =
+    g_param_spec_boolean ("modified", NULL, NULL, FALSE,
+                          G_PARAM_READABLE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
+  g_object_class_install_properties (object_class, N_PROPS, properties);
+
+  /* The surface was replaced (load, edit, undo): redraw it and re-read every loop. */
+  signals[SURFACE_CHANGED] =
+    g_signal_new ("surface-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 0);
+  /* A loop's measurement finished or failed, or its name or frames switch changed. */
+  signals[LOOP_CHANGED] =
+    g_signal_new ("loop-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 1, DF_TYPE_LOOP_ITEM);
+  signals[HISTORY_CHANGED] =
+    g_signal_new ("history-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 0);
+}
+
+static void
+df_document_init (DfDocument *self)
+{
+  self->loops = g_list_store_new (DF_TYPE_LOOP_ITEM);
+  self->history = df_history_new (DF_HISTORY_LIMIT);
+}
+
+DfDocument *
+df_document_new (void)
+{
+  return g_object_new (DF_TYPE_DOCUMENT, NULL);
+}
+
+df_project *
+df_document_to_project (DfDocument *self)
+{
+  df_project *project;
+  guint n;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  g_return_val_if_fail (self->spec != NULL, NULL);
+
+  project = df_project_new (df_surface_spec_copy (self->spec));
+  n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+  for (guint i = 0; i < n; i++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+      const double (*uv)[2];
+      gsize n_points;
+
+      uv = df_loop_item_get_points (item, &n_points);
+      df_project_add_loop (project, df_loop_item_get_name (item), df_loop_item_get_colour (item),
+                           df_loop_item_get_show_frames (item), uv, n_points);
+    }
+  return project;
+}
+
+static char *
+snapshot (DfDocument *self)
+{
+  g_autoptr(df_project) project = NULL;
+
+  if (self->spec == NULL)
+    return NULL;
+  project = df_document_to_project (self);
+  return df_project_to_data (project);
+}
+
+/* The modified flag compares the project text with the one last loaded or saved, so an edit
+ * undone back to the saved state is not "modified". */
+static void
+update_modified (DfDocument *self)
+{
+  g_autofree char *now = snapshot (self);
+  gboolean modified = g_strcmp0 (now, self->saved_snapshot) != 0;
+
+  if (modified != self->modified)
+    {
+      self->modified = modified;
+      g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_MODIFIED]);
+    }
+}
+
+static void
+set_path (DfDocument *self,
+          const char *path)
+{
+  if (g_strcmp0 (self->path, path) == 0)
+    return;
+  g_free (self->path);
+  self->path = g_strdup (path);
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_PATH]);
+}
+
+static void
+measure_done_cb (GObject      *source,
+                 GAsyncResult *result,
+                 gpointer      user_data)
+{
+  MeasureJob *job = user_data;
+  g_autoptr(GError) error = NULL;
+  df_loop_result *measured;
+
+  measured = df_work_measure_loop_finish (result, &error);
+  if (measured != NULL)
+    {
+      df_loop_item_set_result (job->item, measured);
+      g_signal_emit (job->document, signals[LOOP_CHANGED], 0, job->item);
+    }
+  else if (!g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
+    {
+      df_loop_item_set_failed (job->item, error->message);
+      g_signal_emit (job->document, signals[LOOP_CHANGED], 0, job->item);
+    }
+  g_object_unref (job->document);
+  g_object_unref (job->item);
+  g_free (job);
+}
+
+static void
+measure_item (DfDocument *self,
+              DfLoopItem *item)
+{
+  MeasureJob *job;
+  GCancellable *cancellable;
+  const double (*uv)[2];
+  gsize n;
+
+  cancellable = df_loop_item_restart_cancellable (item);
+  df_loop_item_set_pending (item);
+  uv = df_loop_item_get_points (item, &n);
+
+  job = g_new0 (MeasureJob, 1);
+  job->document = g_object_ref (self);
+  job->item = g_object_ref (item);
+  df_work_measure_loop_async (self->surface, uv, n, 0, cancellable, measure_done_cb, job);
+}
+
+static void
+measure_all (DfDocument *self)
+{
+  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+
+  for (guint i = 0; i < n; i++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+      measure_item (self, item);
+    }
+}
+
+/* Makes project the current state (without touching undo); FALSE and no change when its
+ * surface does not build. */
+static gboolean
+replace_state (DfDocument  *self,
+               df_project  *project,
+               GError     **error)
+{
+  g_autoptr(df_surface) surface = NULL;
+  g_autoptr(GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
+
+  surface = df_surface_spec_build (project->spec, error);
+  if (surface == NULL)
+    return FALSE;
+
+  df_surface_spec_free (self->spec);
+  self->spec = df_surface_spec_copy (project->spec);
+  df_surface_free (self->surface);
+  self->surface = g_steal_pointer (&surface);
+
+  for (guint i = 0; i < project->loops->len; i++)
+    {
+      df_project_loop *loop = g_ptr_array_index (project->loops, i);
+      g_ptr_array_add (items, df_loop_item_new (loop->name, loop->colour, loop->show_frames,
+                                                (const double (*)[2]) loop->uv, loop->n));
+    }
+  g_list_store_splice (self->loops, 0, g_list_model_get_n_items (G_LIST_MODEL (self->loops)),
+                       items->pdata, items->len);
+  g_signal_emit (self, signals[SURFACE_CHANGED], 0);
+  measure_all (self);
+  return TRUE;
+}
+
+/* Records the state before an edit. */
+static void
+push_history (DfDocument *self,
+              const char *label)
+{
+  char *before = snapshot (self);
+
+  if (before != NULL)
+    df_history_push (self->history, before, label);
+  g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+}
+
+gboolean
+df_document_set_project (DfDocument  *self,
+                         df_project  *project,
+                         const char  *path,
+                         GError     **error)
+{
+  g_autoptr(df_project) owned = project;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  g_return_val_if_fail (project != NULL, FALSE);
+
+  if (!replace_state (self, owned, error))
+    return FALSE;
+  df_history_clear (self->history);
+  set_path (self, path);
+  g_free (self->saved_snapshot);
+  /* An unsaved project (from a preset or a .surface) counts as modified only once edited. */
+  self->saved_snapshot = snapshot (self);
+  update_modified (self);
+  g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+  return TRUE;
+}
+
+gboolean
+df_document_load (DfDocument  *self,
+                  const char  *path,
+                  GError     **error)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  g_return_val_if_fail (path != NULL, FALSE);
+
+  if (g_str_has_suffix (path, ".surface"))
+    {
+      df_surface_spec *spec = df_surface_spec_load (path, error);
+
+      if (spec == NULL)
+        return FALSE;
+      return df_document_set_project (self, df_project_new (spec), NULL, error);
+    }
+  else
+    {
+      df_project *project = df_project_load (path, error);
+
+      if (project == NULL)
+        return FALSE;
+      return df_document_set_project (self, project, path, error);
+    }
+}
+
+gboolean
+df_document_save (DfDocument  *self,
+                  const char  *path,
+                  GError     **error)
+{
+  g_autofree char *data = NULL;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  g_return_val_if_fail (path != NULL, FALSE);
+
+  data = snapshot (self);
+  if (data == NULL)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "There is no surface to save");
+      return FALSE;
+    }
+  if (!df_write_file_atomic (path, data, -1, error))
+    return FALSE;
+  set_path (self, path);
+  g_free (self->saved_snapshot);
+  self->saved_snapshot = g_steal_pointer (&data);
+  update_modified (self);
+  return TRUE;
+}
+
+const char *
+df_document_get_path (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->path;
+}
+
+char *
+df_document_get_title (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+
+  if (self->path == NULL)
+    return g_strdup ("Untitled project");
+  return g_path_get_basename (self->path);
+}
+
+gboolean
+df_document_get_modified (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  return self->modified;
+}
+
+const df_surface_spec *
+df_document_get_spec (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->spec;
+}
+
+const df_surface *
+df_document_get_surface (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->surface;
+}
+
+const char *
+df_document_get_units (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), "mm");
+
+  if (self->spec == NULL || self->spec->units == NULL || self->spec->units[0] == '\0')
+    return "mm";
+  return self->spec->units;
+}
+
+gboolean
+df_document_set_spec (DfDocument            *self,
+                      const df_surface_spec *spec,
+                      GError               **error)
+{
+  g_autoptr(df_surface) surface = NULL;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  g_return_val_if_fail (spec != NULL, FALSE);
+
+  surface = df_surface_spec_build (spec, error);
+  if (surface == NULL)
+    return FALSE;
+
+  push_history (self, "surface change");
+  df_surface_spec_free (self->spec);
+  self->spec = df_surface_spec_copy (spec);
+  df_surface_free (self->surface);
+  self->surface = g_steal_pointer (&surface);
+  g_signal_emit (self, signals[SURFACE_CHANGED], 0);
+  measure_all (self);
+  update_modified (self);
+  return TRUE;
+}
+
+GListModel *
+df_document_get_loops (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return G_LIST_MODEL (self->loops);
+}
+
+static const char *
+pick_colour (DfDocument *self)
+{
+  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+
+  for (guint c = 0; c < G_N_ELEMENTS (loop_palette); c++)
+    {
+      gboolean used = FALSE;
+
+      for (guint i = 0; i < n && !used; i++)
+        {
+          g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+          used = g_ascii_strcasecmp (df_loop_item_get_colour (item), loop_palette[c]) == 0;
+        }
+      if (!used)
+        return loop_palette[c];
+    }
+  return loop_palette[n % G_N_ELEMENTS (loop_palette)];
+}
+
+static char *
+pick_name (DfDocument *self)
+{
+  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+
+  for (guint k = n + 1;; k++)
+    {
+      g_autofree char *name = g_strdup_printf ("Loop %u", k);
+      gboolean used = FALSE;
+
+      for (guint i = 0; i < n && !used; i++)
+        {
+          g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+          used = g_strcmp0 (df_loop_item_get_name (item), name) == 0;
+        }
+      if (!used)
+        return g_steal_pointer (&name);
+    }
+}
+
+DfLoopItem *
+df_document_add_loop (DfDocument    *self,
+                      const char    *name,
+                      const double (*uv)[2],
+                      gsize          n)
+{
+  g_autoptr(DfLoopItem) item = NULL;
+  g_autofree char *auto_name = NULL;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  g_return_val_if_fail (self->surface != NULL, NULL);
+
+  if (name == NULL)
+    name = auto_name = pick_name (self);
+  push_history (self, "add loop");
+  item = df_loop_item_new (name, pick_colour (self), TRUE, uv, n);
+  g_list_store_append (self->loops, item);
+  measure_item (self, item);
+  update_modified (self);
+  return item;  /* borrowed: the store holds a reference */
+}
+
+static gboolean
+find_item (DfDocument *self,
+           DfLoopItem *item,
+           guint      *position)
+{
+  return g_list_store_find (self->loops, item, position);
+}
+
+void
+df_document_remove_loop (DfDocument *self,
+                         DfLoopItem *item)
+{
+  guint position;
+
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  g_return_if_fail (DF_IS_LOOP_ITEM (item));
+
+  if (!find_item (self, item, &position))
+    return;
+  push_history (self, "delete loop");
+  g_cancellable_cancel (df_loop_item_restart_cancellable (item));
+  g_list_store_remove (self->loops, position);
+  update_modified (self);
+}
+
+void
+df_document_rename_loop (DfDocument *self,
+                         DfLoopItem *item,
+                         const char *name)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  g_return_if_fail (DF_IS_LOOP_ITEM (item));
+
+  if (name == NULL || name[0] == '\0' || g_strcmp0 (name, df_loop_item_get_name (item)) == 0)
+    return;
+  push_history (self, "rename loop");
+  df_loop_item_set_name (item, name);
+  g_signal_emit (self, signals[LOOP_CHANGED], 0, item);
+  update_modified (self);
+}
+
+void
+df_document_set_loop_frames (DfDocument *self,
+                             DfLoopItem *item,
+                             gboolean    show)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  g_return_if_fail (DF_IS_LOOP_ITEM (item));
+
+  if (!!show == df_loop_item_get_show_frames (item))
+    return;
+  /* A display switch: saved with the project, but not worth an undo step. */
+  df_loop_item_set_show_frames (item, show);
+  g_signal_emit (self, signals[LOOP_CHANGED], 0, item);
+  update_modified (self);
+}
+
+DfLoopItem *
+df_document_import_loop_csv (DfDocument  *self,
+                             const char  *path,
+                             GError     **error)
+{
+  g_autofree double (*uv)[2] = NULL;
+  g_autofree char *base = NULL;
+  char *dot;
+  gsize n = 0;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+
+  if (!df_loop_csv_read (path, self->surface, &uv, &n, error))
+    return NULL;
+  base = g_path_get_basename (path);
+  dot = strrchr (base, '.');
+  if (dot != NULL && dot != base)
+    *dot = '\0';
+  return df_document_add_loop (self, base, (const double (*)[2]) uv, n);
+}
+
+gboolean
+df_document_all_measured (DfDocument *self)
+{
+  guint n;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+
+  n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+  for (guint i = 0; i < n; i++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+
+      if (df_loop_item_get_state (item) == DF_LOOP_PENDING)
+        return FALSE;
+    }
+  return TRUE;
+}
+
+gboolean
+df_document_can_undo (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  return df_history_can_undo (self->history);
+}
+
+gboolean
+df_document_can_redo (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  return df_history_can_redo (self->history);
+}
+
+static const char *
+step (DfDocument *self,
+      gboolean    undo)
+{
+  g_autofree char *target = NULL;
+  g_autoptr(df_project) project = NULL;
+  g_autoptr(GError) error = NULL;
+  const char *label;
+
+  label = undo ? df_history_undo_label (self->history) : df_history_redo_label (self->history);
+  if (label == NULL)
+    return NULL;
+  g_free (self->last_label);
+  self->last_label = g_strdup (label);
+
+  target = undo ? df_history_undo (self->history, snapshot (self))
+                : df_history_redo (self->history, snapshot (self));
+  project = df_project_from_data (target, "undo history", &error);
+  if (project == NULL || !replace_state (self, project, &error))
+    /* Snapshots were written by this program from a state that built: a failure here is a
+     * bug, not bad input. */
+    g_warning ("Cannot restore the project from the undo history: %s", error->message);
+  update_modified (self);
+  g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+  return self->last_label;
+}
+
+const char *
+df_document_undo (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return step (self, TRUE);
+}
+
+const char *
+df_document_redo (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return step (self, FALSE);
+}

@@ -1,0 +1,76 @@
+/* df-document.h: DfDocument, the open project in the app: the surface spec and its built
+ * surface, the list of loops (DfLoopItem) with their measurements kept up to date in the
+ * background, the file it came from, the modified flag and undo/redo. Every edit goes through
+ * here so that undo, the modified flag and re-measuring stay consistent. */
+#pragma once
+
+#include <gio/gio.h>
+
+#include "df-glib.h"
+#include "df-loop-item.h"
+
+G_BEGIN_DECLS
+
+#define DF_TYPE_DOCUMENT (df_document_get_type ())
+G_DECLARE_FINAL_TYPE (DfDocument, df_document, DF, DOCUMENT, GObject)
+
+DfDocument           *df_document_new              (void);
+
+/* Replaces everything with project (taken) and clears undo. path: the file it came from, or
+ * NULL for an unsaved project. Fails (document unchanged) when the surface does not build. */
+gboolean              df_document_set_project      (DfDocument  *self,
+                                                    df_project  *project,
+                                                    const char  *path,
+                                                    GError     **error);
+/* Opens a .dfproj, or a .surface as a new project without loops. */
+gboolean              df_document_load             (DfDocument  *self,
+                                                    const char  *path,
+                                                    GError     **error);
+/* Writes the project atomically and remembers path. */
+gboolean              df_document_save             (DfDocument  *self,
+                                                    const char  *path,
+                                                    GError     **error);
+/* A new df_project with the current spec and loops (caller frees). */
+df_project           *df_document_to_project       (DfDocument *self);
+
+const char           *df_document_get_path         (DfDocument *self);
+/* "Untitled project" or the file's base name. */
+char                 *df_document_get_title        (DfDocument *self);
+gboolean              df_document_get_modified     (DfDocument *self);
+
+const df_surface_spec *df_document_get_spec        (DfDocument *self);
+const df_surface     *df_document_get_surface      (DfDocument *self);
+/* Length unit of the surface ("mm" unless the spec says otherwise). */
+const char           *df_document_get_units        (DfDocument *self);
+/* Builds spec (copied) and makes it current; an undoable edit. Fails with the builder's
+ * message (document unchanged). */
+gboolean              df_document_set_spec         (DfDocument            *self,
+                                                    const df_surface_spec *spec,
+                                                    GError               **error);
+
+/* The loops, a GListModel of DfLoopItem. */
+GListModel           *df_document_get_loops        (DfDocument *self);
+/* Adds and measures a loop (points copied); name NULL picks "Loop N". Undoable. */
+DfLoopItem           *df_document_add_loop         (DfDocument    *self,
+                                                    const char    *name,
+                                                    const double (*uv)[2],
+                                                    gsize          n);
+void                  df_document_remove_loop      (DfDocument *self, DfLoopItem *item);
+void                  df_document_rename_loop      (DfDocument *self, DfLoopItem *item,
+                                                    const char *name);
+void                  df_document_set_loop_frames  (DfDocument *self, DfLoopItem *item,
+                                                    gboolean show);
+/* Reads a loop CSV (df-loop-csv.h) and adds it named after the file. */
+DfLoopItem           *df_document_import_loop_csv  (DfDocument  *self,
+                                                    const char  *path,
+                                                    GError     **error);
+/* TRUE when no loop is waiting for its measurement. */
+gboolean              df_document_all_measured     (DfDocument *self);
+
+gboolean              df_document_can_undo         (DfDocument *self);
+gboolean              df_document_can_redo         (DfDocument *self);
+/* Reverts (reapplies) the last edit; returns its label ("add loop", ...) or NULL. */
+const char           *df_document_undo             (DfDocument *self);
+const char           *df_document_redo             (DfDocument *self);
+
+G_END_DECLS

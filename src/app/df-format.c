@@ -1,0 +1,78 @@
+/* df-format.c: number formatting for readouts (see df-format.h). Plain string work; no
+ * geometry here. */
+#include <math.h>
+
+#include "df-format.h"
+
+#define DF_DASH "\u2014"
+
+char *
+df_format_number (double x)
+{
+  double ax = fabs (x);
+  int decimals;
+
+  if (!isfinite (x))
+    return g_strdup (DF_DASH);
+  if (x == 0.0)
+    return g_strdup ("0");
+  if (ax < 1e-3 || ax >= 1e6)
+    return g_strdup_printf ("%.3e", x);
+  /* Four significant digits in fixed notation: 1234, 123.4, 12.34, 1.234, 0.1234, 0.01234. */
+  decimals = 3 - (int) floor (log10 (ax));
+  decimals = CLAMP (decimals, 0, 6);
+  return g_strdup_printf ("%.*f", decimals, x);
+}
+
+char *
+df_format_angle (double rad)
+{
+  g_autofree char *deg = NULL;
+  g_autofree char *r = NULL;
+
+  if (!isfinite (rad))
+    return g_strdup (DF_DASH);
+  deg = df_format_number (rad * 180.0 / G_PI);
+  r = df_format_number (rad);
+  return g_strdup_printf ("%s° (%s rad)", deg, r);
+}
+
+char *
+df_format_length (double x, const char *units)
+{
+  g_autofree char *n = df_format_number (x);
+
+  if (!isfinite (x))
+    return g_steal_pointer (&n);
+  return g_strdup_printf ("%s %s", n, units ? units : "mm");
+}
+
+char *
+df_format_area (double x, const char *units)
+{
+  g_autofree char *n = df_format_number (x);
+
+  if (!isfinite (x))
+    return g_steal_pointer (&n);
+  return g_strdup_printf ("%s %s²", n, units ? units : "mm");
+}
+
+char *
+df_format_per_length (double x, const char *units)
+{
+  g_autofree char *n = df_format_number (x);
+
+  if (!isfinite (x))
+    return g_steal_pointer (&n);
+  return g_strdup_printf ("%s 1/%s", n, units ? units : "mm");
+}
+
+char *
+df_format_per_area (double x, const char *units)
+{
+  g_autofree char *n = df_format_number (x);
+
+  if (!isfinite (x))
+    return g_steal_pointer (&n);
+  return g_strdup_printf ("%s 1/%s²", n, units ? units : "mm");
+}

@@ -1,0 +1,149 @@
+/* df-geodesic-panel.c: the Geodesic tool's readout (see df-geodesic-panel.h). */
+#include "df-format.h"
+#include "df-geodesic-panel.h"
+
+struct _DfGeodesicPanel
+{
+  GtkWidget parent_instance;
+
+  /* template children */
+  GtkLabel *hint_label;
+  GtkLabel *start_value;
+  GtkLabel *heading_value;
+  GtkLabel *requested_value;
+  GtkLabel *reached_value;
+  GtkLabel *end_value;
+  GtkLabel *note_label;
+  GtkLabel *error_label;
+};
+
+G_DEFINE_FINAL_TYPE (DfGeodesicPanel, df_geodesic_panel, GTK_TYPE_WIDGET)
+
+static void
+show_text (GtkLabel   *label,
+           const char *text)
+{
+  gtk_label_set_text (label, text != NULL ? text : "");
+  gtk_widget_set_visible (GTK_WIDGET (label), text != NULL && text[0] != '\0');
+}
+
+static char *
+describe_point (const df_surface         *surface,
+                const df_geodesic_sample *sample,
+                const char               *units)
+{
+  g_autofree char *a = df_format_number (sample->u);
+  g_autofree char *x = df_format_number (sample->point[0]);
+  g_autofree char *y = df_format_number (sample->point[1]);
+  g_autofree char *z = df_format_number (sample->point[2]);
+
+  if (df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
+    {
+      g_autofree char *phi = df_format_number (sample->v * 180.0 / G_PI);
+      return g_strdup_printf ("t = %s, φ = %s°\n(%s, %s, %s) %s", a, phi, x, y, z, units);
+    }
+  else
+    {
+      g_autofree char *b = df_format_number (sample->v);
+      return g_strdup_printf ("x = %s, y = %s\n(%s, %s, %s) %s", a, b, x, y, z, units);
+    }
+}
+
+static void
+df_geodesic_panel_dispose (GObject *object)
+{
+  gtk_widget_dispose_template (GTK_WIDGET (object), DF_TYPE_GEODESIC_PANEL);
+  G_OBJECT_CLASS (df_geodesic_panel_parent_class)->dispose (object);
+}
+
+static void
+df_geodesic_panel_class_init (DfGeodesicPanelClass *klass)
+{
+  GObjectClass *object_class = G_OBJECT_CLASS (klass);
+  GtkWidgetClass *widget_class = GTK_WIDGET_CLASS (klass);
+
+  object_class->dispose = df_geodesic_panel_dispose;
+  gtk_widget_class_set_template_from_resource (widget_class,
+                                               "/org/driftframe/Driftframe/ui/df-geodesic-panel.ui");
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, hint_label);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, start_value);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, heading_value);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, requested_value);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, reached_value);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, end_value);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, note_label);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, error_label);
+  gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
+  gtk_widget_class_set_css_name (widget_class, "dfgeodesicpanel");
+}
+
+static void
+df_geodesic_panel_init (DfGeodesicPanel *self)
+{
+  gtk_widget_init_template (GTK_WIDGET (self));
+}
+
+GtkWidget *
+df_geodesic_panel_new (void)
+{
+  return g_object_new (DF_TYPE_GEODESIC_PANEL, NULL);
+}
+
+void
+df_geodesic_panel_show (DfGeodesicPanel          *self,
+                        const df_surface         *surface,
+                        double                    heading_rad,
+                        double                    requested,
+                        const df_geodesic_result *result,
+                        const char               *units)
+{
+  g_autofree char *start = NULL;
+  g_autofree char *end = NULL;
+  g_autofree char *heading = NULL;
+  g_autofree char *asked = NULL;
+  g_autofree char *reached = NULL;
+
+  g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
+  g_return_if_fail (result != NULL && result->n_samples >= 1);
+
+  start = describe_point (surface, &result->samples[0], units);
+  end = describe_point (surface, &result->samples[result->n_samples - 1], units);
+  heading = df_format_angle (heading_rad);
+  asked = df_format_length (requested, units);
+  reached = df_format_length (result->length, units);
+  gtk_label_set_text (self->start_value, start);
+  gtk_label_set_text (self->heading_value, heading);
+  gtk_label_set_text (self->requested_value, asked);
+  gtk_label_set_text (self->reached_value, reached);
+  gtk_label_set_text (self->end_value, end);
+  show_text (self->error_label, NULL);
+  if (result->stopped_early)
+    {
+      g_autofree char *note = g_strdup_printf ("Stopped early: %s.", result->stop_reason);
+      show_text (self->note_label, note);
+    }
+  else
+    show_text (self->note_label, NULL);
+}
+
+void
+df_geodesic_panel_show_error (DfGeodesicPanel *self,
+                              const char      *message)
+{
+  g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
+  show_text (self->error_label, message);
+}
+
+void
+df_geodesic_panel_clear (DfGeodesicPanel *self)
+{
+  GtkLabel *values[] = { self->start_value, self->heading_value, self->requested_value,
+                         self->reached_value, self->end_value };
+
+  g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
+
+  for (guint i = 0; i < G_N_ELEMENTS (values); i++)
+    gtk_label_set_text (values[i], "\u2014");
+  show_text (self->note_label, NULL);
+  show_text (self->error_label, NULL);
+}

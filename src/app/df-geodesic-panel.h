@@ -1,0 +1,24 @@
+/* df-geodesic-panel.h: DfGeodesicPanel, the side panel of the Geodesic tool: where the shot
+ * starts, its heading, the length asked and reached, and why it stopped early. */
+#pragma once
+
+#include <gtk/gtk.h>
+
+#include "df-glib.h"
+
+G_BEGIN_DECLS
+
+#define DF_TYPE_GEODESIC_PANEL (df_geodesic_panel_get_type ())
+G_DECLARE_FINAL_TYPE (DfGeodesicPanel, df_geodesic_panel, DF, GEODESIC_PANEL, GtkWidget)
+
+GtkWidget *df_geodesic_panel_new        (void);
+void       df_geodesic_panel_show       (DfGeodesicPanel          *self,
+                                         const df_surface         *surface,
+                                         double                    heading_rad,
+                                         double                    requested,
+                                         const df_geodesic_result *result,
+                                         const char               *units);
+void       df_geodesic_panel_show_error (DfGeodesicPanel *self, const char *message);
+void       df_geodesic_panel_clear      (DfGeodesicPanel *self);
+
+G_END_DECLS

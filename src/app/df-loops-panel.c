@@ -1,0 +1,352 @@
+/* df-loops-panel.c: the loops list and the selected loop's readout (see df-loops-panel.h).
+ * Numbers come from the loop's df_loop_result; here they are only formatted with units. */
+#include <math.h>
+#include <string.h>
+
+#include "df-format.h"
+#include "df-loop-row.h"
+#include "df-loops-panel.h"
+
+struct _DfLoopsPanel
+{
+  GtkWidget parent_instance;
+
+  /* template children */
+  GtkLabel    *live_label;
+  GtkLabel    *empty_label;
+  GtkListBox  *list_box;
+  GtkLabel    *details_title;
+  GtkGrid     *details_grid;
+  GtkLabel    *holonomy_value;
+  GtkLabel    *enclosed_value;
+  GtkLabel    *residual_value;
+  GtkLabel    *area_value;
+  GtkLabel    *length_value;
+  GtkLabel    *kg_value;
+  GtkLabel    *steering_value;
+  GtkLabel    *winding_value;
+  GtkLabel    *note_label;
+  GtkLabel    *error_label;
+
+  /* owned */
+  DfDocument *document;
+};
+
+G_DEFINE_FINAL_TYPE (DfLoopsPanel, df_loops_panel, GTK_TYPE_WIDGET)
+
+enum
+{
+  SELECTION_CHANGED,
+  N_SIGNALS
+};
+
+static guint signals[N_SIGNALS];
+
+static void
+set_value (GtkLabel   *label,
+           char       *text)  /* taken */
+{
+  gtk_label_set_text (label, text);
+  g_free (text);
+}
+
+static void
+show_text (GtkLabel   *label,
+           const char *text)
+{
+  gtk_label_set_text (label, text != NULL ? text : "");
+  gtk_widget_set_visible (GTK_WIDGET (label), text != NULL && text[0] != '\0');
+}
+
+static void
+clear_values (DfLoopsPanel *self,
+              const char   *placeholder)
+{
+  GtkLabel *labels[] = { self->holonomy_value, self->enclosed_value, self->residual_value,
+                         self->area_value, self->length_value, self->kg_value,
+                         self->steering_value, self->winding_value };
+
+  for (guint i = 0; i < G_N_ELEMENTS (labels); i++)
+    gtk_label_set_text (labels[i], placeholder);
+}
+
+static void
+update_details (DfLoopsPanel *self)
+{
+  DfLoopItem *item = df_loops_panel_get_selected (self);
+  const char *units = self->document != NULL ? df_document_get_units (self->document) : "mm";
+  const df_loop_result *r;
+  g_autoptr(GString) notes = g_string_new (NULL);
+
+  show_text (self->error_label, NULL);
+  if (item == NULL)
+    {
+      gtk_label_set_text (self->details_title, "No loop selected");
+      clear_values (self, "\u2014");
+      show_text (self->note_label, NULL);
+      return;
+    }
+  {
+    g_autofree char *title = g_strdup_printf ("%s", df_loop_item_get_name (item));
+    gtk_label_set_text (self->details_title, title);
+  }
+
+  switch (df_loop_item_get_state (item))
+    {
+    case DF_LOOP_PENDING:
+      clear_values (self, "measuring…");
+      show_text (self->note_label, NULL);
+      return;
+    case DF_LOOP_FAILED:
+      {
+        g_autofree char *message = g_strdup_printf ("This loop could not be measured: %s",
+                                                    df_loop_item_get_error (item));
+        clear_values (self, "\u2014");
+        show_text (self->error_label, message);
+        show_text (self->note_label, NULL);
+      }
+      return;
+    case DF_LOOP_MEASURED:
+    default:
+      break;
+    }
+
+  r = df_loop_item_get_result (item);
+  {
+    g_autofree char *angle = df_format_angle (r->holonomy_rad);
+    const char *sense = r->holonomy_rad > 0 ? ", counter-clockwise about N"
+                        : r->holonomy_rad < 0 ? ", clockwise about N" : "";
+    set_value (self->holonomy_value, g_strdup_printf ("%s%s", angle, sense));
+  }
+  if (r->bounds_disc)
+    {
+      set_value (self->enclosed_value, df_format_angle (r->enclosed_curvature_rad));
+      set_value (self->residual_value, df_format_angle (r->residual_rad));
+      set_value (self->area_value, df_format_area (r->area, units));
+      if (r->concentrated_rad != 0.0)
+        {
+          g_autofree char *apex = df_format_angle (r->concentrated_rad);
+          g_string_append_printf (notes, "The enclosed curvature includes %s concentrated at "
+                                  "a cone apex. ", apex);
+        }
+      if (!r->disc_on_left)
+        g_string_append (notes, "The disc lies to the right of the direction of travel, so "
+                                "the enclosed curvature is counted negative. ");
+    }
+  else
+    {
+      gtk_label_set_text (self->enclosed_value, "none: bounds no disc");
+      gtk_label_set_text (self->residual_value, "\u2014");
+      gtk_label_set_text (self->area_value, "\u2014");
+      g_string_append (notes, "This loop bounds no disc on the surface, so there is no "
+                              "enclosed curvature to compare with; the holonomy is still "
+                              "defined. ");
+    }
+  if (r->disc_note[0] != '\0')
+    {
+      gsize len = strlen (r->disc_note);
+
+      g_string_append_c (notes, g_ascii_toupper (r->disc_note[0]));
+      g_string_append (notes, r->disc_note + 1);
+      g_string_append (notes, r->disc_note[len - 1] == '.' ? " " : ". ");
+    }
+  if (!r->simple)
+    g_string_append (notes, "The loop crosses itself: the enclosed curvature counts regions "
+                            "with their winding number. ");
+  set_value (self->length_value, df_format_length (r->length, units));
+  set_value (self->kg_value, df_format_angle (r->total_geodesic_curvature_rad));
+  if (r->has_steering_radius)
+    set_value (self->steering_value, df_format_length (r->min_steering_radius, units));
+  else
+    gtk_label_set_text (self->steering_value, "none: the loop is a geodesic (k_g = 0)");
+  set_value (self->winding_value, g_strdup_printf ("%d", r->axis_winding));
+  show_text (self->note_label, g_strstrip (notes->str));
+}
+
+static void
+update_empty (DfLoopsPanel *self)
+{
+  guint n = 0;
+
+  if (self->document != NULL)
+    n = g_list_model_get_n_items (df_document_get_loops (self->document));
+  gtk_widget_set_visible (GTK_WIDGET (self->empty_label), n == 0);
+  gtk_widget_set_visible (gtk_widget_get_parent (GTK_WIDGET (self->list_box)), n > 0);
+}
+
+static void
+row_rename_cb (DfLoopRow    *row,
+               const char   *name,
+               DfLoopsPanel *self)
+{
+  if (self->document != NULL)
+    df_document_rename_loop (self->document, df_loop_row_get_item (row), name);
+}
+
+static GtkWidget *
+create_row (gpointer item,
+            gpointer user_data)
+{
+  DfLoopsPanel *self = user_data;
+  GtkWidget *row = df_loop_row_new (DF_LOOP_ITEM (item));
+
+  g_signal_connect (row, "rename", G_CALLBACK (row_rename_cb), self);
+  return row;
+}
+
+static void
+row_selected_cb (GtkListBox    *box,
+                 GtkListBoxRow *row,
+                 DfLoopsPanel  *self)
+{
+  update_details (self);
+  g_signal_emit (self, signals[SELECTION_CHANGED], 0);
+}
+
+static void
+loop_changed_cb (DfDocument   *document,
+                 DfLoopItem   *item,
+                 DfLoopsPanel *self)
+{
+  if (item == df_loops_panel_get_selected (self))
+    update_details (self);
+}
+
+static void
+items_changed_cb (GListModel   *model,
+                  guint         position,
+                  guint         removed,
+                  guint         added,
+                  DfLoopsPanel *self)
+{
+  update_empty (self);
+  update_details (self);
+}
+
+static void
+df_loops_panel_dispose (GObject *object)
+{
+  DfLoopsPanel *self = DF_LOOPS_PANEL (object);
+
+  df_loops_panel_set_document (self, NULL);
+  gtk_widget_dispose_template (GTK_WIDGET (self), DF_TYPE_LOOPS_PANEL);
+  G_OBJECT_CLASS (df_loops_panel_parent_class)->dispose (object);
+}
+
+static void
+df_loops_panel_class_init (DfLoopsPanelClass *klass)
+{
+  GObjectClass *object_class = G_OBJECT_CLASS (klass);
+  GtkWidgetClass *widget_class = GTK_WIDGET_CLASS (klass);
+
+  object_class->dispose = df_loops_panel_dispose;
+
+  signals[SELECTION_CHANGED] =
+    g_signal_new ("selection-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 0);
+
+  g_type_ensure (DF_TYPE_LOOP_ROW);
+  gtk_widget_class_set_template_from_resource (widget_class,
+                                               "/org/driftframe/Driftframe/ui/df-loops-panel.ui");
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, live_label);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, empty_label);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, list_box);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, details_title);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, details_grid);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, holonomy_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, enclosed_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, residual_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, area_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, length_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, kg_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, steering_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, winding_value);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, note_label);
+  gtk_widget_class_bind_template_child (widget_class, DfLoopsPanel, error_label);
+  gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
+  gtk_widget_class_set_css_name (widget_class, "dfloopspanel");
+}
+
+static void
+df_loops_panel_init (DfLoopsPanel *self)
+{
+  gtk_widget_init_template (GTK_WIDGET (self));
+  g_signal_connect (self->list_box, "row-selected", G_CALLBACK (row_selected_cb), self);
+  update_empty (self);
+  update_details (self);
+}
+
+GtkWidget *
+df_loops_panel_new (void)
+{
+  return g_object_new (DF_TYPE_LOOPS_PANEL, NULL);
+}
+
+void
+df_loops_panel_set_document (DfLoopsPanel *self,
+                             DfDocument   *document)
+{
+  g_return_if_fail (DF_IS_LOOPS_PANEL (self));
+
+  if (self->document == document)
+    return;
+  if (self->document != NULL)
+    {
+      g_signal_handlers_disconnect_by_data (self->document, self);
+      g_signal_handlers_disconnect_by_data (df_document_get_loops (self->document), self);
+      gtk_list_box_bind_model (self->list_box, NULL, NULL, NULL, NULL);
+    }
+  g_set_object (&self->document, document);
+  if (document != NULL)
+    {
+      gtk_list_box_bind_model (self->list_box, df_document_get_loops (document), create_row,
+                               self, NULL);
+      g_signal_connect (document, "loop-changed", G_CALLBACK (loop_changed_cb), self);
+      g_signal_connect (df_document_get_loops (document), "items-changed",
+                        G_CALLBACK (items_changed_cb), self);
+    }
+  update_empty (self);
+  update_details (self);
+}
+
+DfLoopItem *
+df_loops_panel_get_selected (DfLoopsPanel *self)
+{
+  GtkListBoxRow *row;
+  GtkWidget *child;
+
+  g_return_val_if_fail (DF_IS_LOOPS_PANEL (self), NULL);
+
+  row = gtk_list_box_get_selected_row (self->list_box);
+  if (row == NULL)
+    return NULL;
+  child = gtk_list_box_row_get_child (row);
+  return DF_IS_LOOP_ROW (child) ? df_loop_row_get_item (DF_LOOP_ROW (child)) : NULL;
+}
+
+void
+df_loops_panel_select (DfLoopsPanel *self,
+                       DfLoopItem   *item)
+{
+  guint position;
+
+  g_return_if_fail (DF_IS_LOOPS_PANEL (self));
+
+  if (item == NULL || self->document == NULL
+      || !g_list_store_find (G_LIST_STORE (df_document_get_loops (self->document)), item,
+                             &position))
+    {
+      gtk_list_box_unselect_all (self->list_box);
+      return;
+    }
+  gtk_list_box_select_row (self->list_box,
+                           gtk_list_box_get_row_at_index (self->list_box, (int) position));
+}
+
+void
+df_loops_panel_set_live_text (DfLoopsPanel *self,
+                              const char   *text)
+{
+  g_return_if_fail (DF_IS_LOOPS_PANEL (self));
+  show_text (self->live_label, text);
+}

@@ -1,0 +1,303 @@
+/* df-probe-panel.c: the Probe tool's readout (see df-probe-panel.h). The tables are rebuilt on
+ * each probe because their index names depend on the chart: (t, φ) for a surface of
+ * revolution, (x, y) for a height field. Values are the core's; this file formats them. */
+#include <math.h>
+
+#include "df-format.h"
+#include "df-probe-panel.h"
+
+struct _DfProbePanel
+{
+  GtkWidget parent_instance;
+
+  /* template children */
+  GtkLabel *hint_label;
+  GtkLabel *error_label;
+  GtkBox   *content_box;
+};
+
+G_DEFINE_FINAL_TYPE (DfProbePanel, df_probe_panel, GTK_TYPE_WIDGET)
+
+static GtkWidget *
+heading (const char *text)
+{
+  GtkWidget *label = gtk_label_new (text);
+
+  gtk_label_set_xalign (GTK_LABEL (label), 0.0);
+  gtk_widget_add_css_class (label, "heading");
+  gtk_widget_set_margin_top (label, 6);
+  return label;
+}
+
+static GtkWidget *
+note (const char *text)
+{
+  GtkWidget *label = gtk_label_new (text);
+
+  gtk_label_set_xalign (GTK_LABEL (label), 0.0);
+  gtk_label_set_wrap (GTK_LABEL (label), TRUE);
+  gtk_widget_add_css_class (label, "dim-label");
+  gtk_widget_add_css_class (label, "caption");
+  return label;
+}
+
+/* A two-column table of name / value rows. */
+static GtkWidget *
+table_new (void)
+{
+  GtkWidget *grid = gtk_grid_new ();
+
+  gtk_grid_set_column_spacing (GTK_GRID (grid), 12);
+  gtk_grid_set_row_spacing (GTK_GRID (grid), 2);
+  return grid;
+}
+
+static void
+table_add (GtkWidget  *grid,
+           int         row,
+           const char *name,
+           const char *value)  /* owned by caller */
+{
+  GtkWidget *n = gtk_label_new (NULL);
+  GtkWidget *v = gtk_label_new (value);
+
+  gtk_label_set_markup (GTK_LABEL (n), name);
+  gtk_label_set_xalign (GTK_LABEL (n), 0.0);
+  gtk_label_set_xalign (GTK_LABEL (v), 0.0);
+  gtk_label_set_selectable (GTK_LABEL (v), TRUE);
+  gtk_widget_set_hexpand (v, TRUE);
+  gtk_widget_add_css_class (v, "numeric");
+  gtk_accessible_update_property (GTK_ACCESSIBLE (v), GTK_ACCESSIBLE_PROPERTY_LABEL, name, -1);
+  gtk_grid_attach (GTK_GRID (grid), n, 0, row, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), v, 1, row, 1, 1);
+}
+
+static void
+table_add_number (GtkWidget  *grid,
+                  int         row,
+                  const char *name,
+                  double      value,
+                  const char *unit)
+{
+  g_autofree char *number = df_format_number (value);
+  g_autofree char *text = isfinite (value) && unit != NULL && unit[0] != '\0'
+                            ? g_strdup_printf ("%s %s", number, unit)
+                            : g_strdup (number);
+
+  table_add (grid, row, name, text);
+}
+
+static void
+clear_content (DfProbePanel *self)
+{
+  GtkWidget *child;
+
+  while ((child = gtk_widget_get_first_child (GTK_WIDGET (self->content_box))) != NULL)
+    gtk_box_remove (self->content_box, child);
+}
+
+static void
+df_probe_panel_dispose (GObject *object)
+{
+  gtk_widget_dispose_template (GTK_WIDGET (object), DF_TYPE_PROBE_PANEL);
+  G_OBJECT_CLASS (df_probe_panel_parent_class)->dispose (object);
+}
+
+static void
+df_probe_panel_class_init (DfProbePanelClass *klass)
+{
+  GObjectClass *object_class = G_OBJECT_CLASS (klass);
+  GtkWidgetClass *widget_class = GTK_WIDGET_CLASS (klass);
+
+  object_class->dispose = df_probe_panel_dispose;
+  gtk_widget_class_set_template_from_resource (widget_class,
+                                               "/org/driftframe/Driftframe/ui/df-probe-panel.ui");
+  gtk_widget_class_bind_template_child (widget_class, DfProbePanel, hint_label);
+  gtk_widget_class_bind_template_child (widget_class, DfProbePanel, error_label);
+  gtk_widget_class_bind_template_child (widget_class, DfProbePanel, content_box);
+  gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
+  gtk_widget_class_set_css_name (widget_class, "dfprobepanel");
+}
+
+static void
+df_probe_panel_init (DfProbePanel *self)
+{
+  gtk_widget_init_template (GTK_WIDGET (self));
+}
+
+GtkWidget *
+df_probe_panel_new (void)
+{
+  return g_object_new (DF_TYPE_PROBE_PANEL, NULL);
+}
+
+void
+df_probe_panel_show (DfProbePanel            *self,
+                     const df_surface        *surface,
+                     const df_point_geometry *g,
+                     const char              *units)
+{
+  gboolean rev;
+  const char *idx[2];
+  GtkWidget *table;
+  int row = 0;
+
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+  g_return_if_fail (surface != NULL && g != NULL);
+
+  rev = df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION;
+  idx[0] = rev ? "t" : "x";
+  idx[1] = rev ? "φ" : "y";
+  clear_content (self);
+  gtk_widget_set_visible (GTK_WIDGET (self->error_label), FALSE);
+  gtk_widget_set_visible (GTK_WIDGET (self->content_box), TRUE);
+  gtk_label_set_text (self->hint_label, "Click another point to probe it.");
+
+  /* Where */
+  gtk_box_append (self->content_box, heading ("Point"));
+  table = table_new ();
+  {
+    g_autofree char *chart = NULL;
+    g_autofree char *a = df_format_number (g->u);
+    g_autofree char *b = df_format_number (g->v);
+    g_autofree char *x = df_format_number (g->point[0]);
+    g_autofree char *y = df_format_number (g->point[1]);
+    g_autofree char *z = df_format_number (g->point[2]);
+    g_autofree char *space = g_strdup_printf ("(%s, %s, %s) %s", x, y, z, units);
+    g_autofree char *nx = df_format_number (g->normal[0]);
+    g_autofree char *ny = df_format_number (g->normal[1]);
+    g_autofree char *nz = df_format_number (g->normal[2]);
+    g_autofree char *normal = g_strdup_printf ("(%s, %s, %s)", nx, ny, nz);
+
+    if (rev)
+      {
+        g_autofree char *deg = df_format_number (g->v * 180.0 / G_PI);
+        chart = g_strdup_printf ("t = %s, φ = %s°", a, deg);
+      }
+    else
+      chart = g_strdup_printf ("x = %s %s, y = %s %s", a, units, b, units);
+    table_add (table, row++, "Chart", chart);
+    table_add (table, row++, "Position", space);
+    table_add (table, row++, "Unit normal N", normal);
+  }
+  gtk_box_append (self->content_box, table);
+  gtk_box_append (self->content_box, note (df_surface_normal_side (surface)));
+
+  /* Curvature */
+  gtk_box_append (self->content_box, heading ("Curvature"));
+  table = table_new ();
+  row = 0;
+  {
+    g_autofree char *per_area = g_strdup_printf ("1/%s²", units);
+    g_autofree char *per_length = g_strdup_printf ("1/%s", units);
+
+    table_add_number (table, row++, "Gaussian K", g->K, per_area);
+    table_add_number (table, row++, "Mean H", g->H, per_length);
+    table_add_number (table, row++, "Principal k<sub>1</sub>", g->k1, per_length);
+    table_add_number (table, row++, "Principal k<sub>2</sub>", g->k2, per_length);
+    if (g->k1 != 0.0)
+      table_add_number (table, row++, "Radius 1/k<sub>1</sub>", 1.0 / g->k1, units);
+    if (g->k2 != 0.0)
+      table_add_number (table, row++, "Radius 1/k<sub>2</sub>", 1.0 / g->k2, units);
+  }
+  gtk_box_append (self->content_box, table);
+  gtk_box_append (self->content_box,
+                  note ("k₁, k₂ and H are signed by N (second form X_ij · N): positive where the "
+                        "surface curves towards N, so a sphere with N pointing outward has "
+                        "k = −1/R. K does not depend on the choice of N."));
+
+  if (!g->chart_regular)
+    {
+      gtk_box_append (self->content_box,
+                      note ("This point is a pole of the chart (r = 0): the metric, Christoffel "
+                            "symbols and Riemann components are not defined there in (t, φ). "
+                            "Probe a point next to it."));
+      return;
+    }
+
+  /* Metric */
+  gtk_box_append (self->content_box, heading ("Metric g<sub>ij</sub>"));
+  gtk_label_set_use_markup (GTK_LABEL (gtk_widget_get_last_child (GTK_WIDGET (self->content_box))),
+                            TRUE);
+  table = table_new ();
+  row = 0;
+  for (int i = 0; i < DF_DIM; i++)
+    for (int j = i; j < DF_DIM; j++)
+      {
+        g_autofree char *name = g_strdup_printf ("g<sub>%s%s</sub>", idx[i], idx[j]);
+        table_add_number (table, row++, name, g->g[i][j], NULL);
+      }
+  table_add_number (table, row++, "det g", g->det_g, NULL);
+  gtk_box_append (self->content_box, table);
+
+  /* Christoffel symbols, symmetric in the lower pair */
+  gtk_box_append (self->content_box, heading ("Christoffel symbols Γ<sup>k</sup><sub>ij</sub>"));
+  gtk_label_set_use_markup (GTK_LABEL (gtk_widget_get_last_child (GTK_WIDGET (self->content_box))),
+                            TRUE);
+  table = table_new ();
+  row = 0;
+  for (int k = 0; k < DF_DIM; k++)
+    for (int i = 0; i < DF_DIM; i++)
+      for (int j = i; j < DF_DIM; j++)
+        {
+          g_autofree char *name = g_strdup_printf ("Γ<sup>%s</sup><sub>%s%s</sub>", idx[k],
+                                                   idx[i], idx[j]);
+          table_add_number (table, row++, name, g->gamma[k][i][j], NULL);
+        }
+  gtk_box_append (self->content_box, table);
+
+  /* Riemann tensor: on a surface only the mu, nu = 1, 2 block is independent. */
+  gtk_box_append (self->content_box, heading ("Riemann tensor R<sup>ρ</sup><sub>σμν</sub>"));
+  gtk_label_set_use_markup (GTK_LABEL (gtk_widget_get_last_child (GTK_WIDGET (self->content_box))),
+                            TRUE);
+  table = table_new ();
+  row = 0;
+  for (int r = 0; r < DF_DIM; r++)
+    for (int s = 0; s < DF_DIM; s++)
+      {
+        g_autofree char *name = g_strdup_printf ("R<sup>%s</sup><sub>%s%s%s</sub>", idx[r],
+                                                 idx[s], idx[0], idx[1]);
+        table_add_number (table, row++, name, g->riemann[r][s][0][1], NULL);
+      }
+  gtk_box_append (self->content_box, table);
+  {
+    g_autofree char *text = NULL;
+
+    if (rev)
+      text = g_strdup_printf (
+        "Components in the chart (t, φ): φ in radians, t as it appears in the profile formula, "
+        "lengths in %s (g in %s² per coordinate unit squared). Swapping the last two indices "
+        "of R changes its sign; R with equal last indices is zero.", units, units);
+    else
+      text = g_strdup_printf (
+        "Components in the chart (x, y), both in %s: g is dimensionless, Γ in 1/%s, R in 1/%s². "
+        "Swapping the last two indices of R changes its sign; R with equal last indices is "
+        "zero.", units, units, units);
+    gtk_box_append (self->content_box, note (text));
+  }
+}
+
+void
+df_probe_panel_show_error (DfProbePanel *self,
+                           const char   *message)
+{
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+
+  clear_content (self);
+  gtk_widget_set_visible (GTK_WIDGET (self->content_box), FALSE);
+  gtk_label_set_text (self->error_label, message);
+  gtk_widget_set_visible (GTK_WIDGET (self->error_label), TRUE);
+}
+
+void
+df_probe_panel_clear (DfProbePanel *self)
+{
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+
+  clear_content (self);
+  gtk_widget_set_visible (GTK_WIDGET (self->content_box), FALSE);
+  gtk_widget_set_visible (GTK_WIDGET (self->error_label), FALSE);
+  gtk_label_set_text (self->hint_label,
+                      "Choose “Probe” in the header bar (Ctrl+3) and click the surface to read "
+                      "its local geometry there.");
+}

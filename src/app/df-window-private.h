@@ -1,0 +1,160 @@
+/* df-window-private.h: the DfWindow instance structure and the functions the df-window-*.c
+ * files share. Only the window's own files include it. */
+#pragma once
+
+#include "df-compare-panel.h"
+#include "df-document.h"
+#include "df-geodesic-panel.h"
+#include "df-legend-bar.h"
+#include "df-loops-panel.h"
+#include "df-probe-panel.h"
+#include "df-surface-panel.h"
+#include "df-surface-view.h"
+#include "df-window.h"
+#include "df-work.h"
+
+G_BEGIN_DECLS
+
+typedef enum
+{
+  DF_TOOL_LOOK,
+  DF_TOOL_SKETCH,
+  DF_TOOL_PROBE,
+  DF_TOOL_GEODESIC,
+  DF_TOOL_PATHS
+} DfTool;
+
+/* Curve and arrow ids in the view: loops use their DfLoopItem id (small numbers); the tools'
+ * own drawings use ids far above them. */
+enum
+{
+  DF_CURVE_SKETCH = 1000000,
+  DF_CURVE_GEODESIC,
+  DF_CURVE_PATH_A,
+  DF_CURVE_PATH_B,
+  DF_ARROW_PATH_A,
+  DF_ARROW_PATH_B,
+  DF_ARROW_GEODESIC
+};
+
+/* Progress of the Two paths tool. */
+typedef enum
+{
+  DF_PATHS_WANT_A,
+  DF_PATHS_DRAWING_A,
+  DF_PATHS_WANT_B,
+  DF_PATHS_DRAWING_B,
+  DF_PATHS_DONE
+} DfPathsStage;
+
+struct _DfWindow
+{
+  GtkApplicationWindow parent_instance;
+
+  /* template children */
+  GtkPaned        *paned;
+  DfSurfaceView   *view;
+  DfLegendBar     *legend;
+  GtkStack        *panel_stack;
+  DfSurfacePanel  *surface_panel;
+  DfLoopsPanel    *loops_panel;
+  DfProbePanel    *probe_panel;
+  DfGeodesicPanel *geodesic_panel;
+  DfComparePanel  *compare_panel;
+  GtkLabel        *title_label;
+  GtkLabel        *subtitle_label;
+  GtkImage        *status_icon;
+  GtkLabel        *status_label;
+  GtkLabel        *coords_label;
+  GtkMenuButton   *primary_menu_button;
+
+  /* owned */
+  DfDocument   *document;
+  DfStartup     startup;
+  DfTool        tool;
+  DfShading     shading;
+  gboolean      iso_lines;
+  guint         status_timeout_id;
+  GStrv         recent;             /* most recent first */
+  GMenu        *recent_menu;
+  int           panel_width;
+  gboolean      exports_pending;
+  guint         export_idle_id;
+  gboolean      bench_started;
+  gboolean      view_reported;
+
+  GArray       *loop_curve_ids;     /* of guint: loop curves now in the view */
+
+  /* pointer position over the view, widget coordinates (for sketch size checks) */
+  double        pointer_x, pointer_y;
+
+  /* Sketch loop / Two paths: the stroke being drawn */
+  gboolean      stroking;
+  GArray       *stroke_uv;          /* of double[2] */
+  double        stroke_px_min[2], stroke_px_max[2];
+  gboolean      stroke_left;        /* the pointer ran off the surface during the stroke */
+  GCancellable *live_cancellable;
+  gint64        live_last_us;
+  guint         live_timeout_id;
+  gboolean      live_running;
+
+  /* Two paths */
+  DfPathsStage  paths_stage;
+  GArray       *path_a;             /* of double[2] */
+  GArray       *path_b;
+  GCancellable *paths_cancellable;
+
+  /* Geodesic */
+  gboolean      geodesic_pressed;
+  double        geodesic_start[2];
+};
+
+/* df-window-actions.c */
+void     _df_window_actions_class_init (GtkWidgetClass *widget_class);
+void     _df_window_actions_update     (DfWindow *self);
+
+/* df-window-files.c */
+gboolean _df_window_open_path          (DfWindow *self, const char *path, GError **error);
+void     _df_window_open_dialog        (DfWindow *self, gboolean surface_only);
+void     _df_window_save               (DfWindow *self, gboolean ask_path);
+void     _df_window_import_loop_dialog (DfWindow *self);
+gboolean _df_window_export_samples     (DfWindow *self, const char *path, GError **error);
+gboolean _df_window_export_summary     (DfWindow *self, const char *path, GError **error);
+gboolean _df_window_export_png         (DfWindow *self, const char *path, GError **error);
+void     _df_window_export_dialog      (DfWindow *self, const char *what);
+/* Runs then() once unsaved changes are saved or discarded; not at all on cancel. */
+void     _df_window_confirm_discard    (DfWindow *self, GCallback then, const char *verb);
+void     _df_window_show_error         (DfWindow *self, const char *primary, const GError *error);
+void     _df_window_check_exports      (DfWindow *self);
+
+/* df-window-state.c */
+void     _df_window_state_load         (DfWindow *self, gboolean *first_run, char **last_project);
+void     _df_window_state_save         (DfWindow *self);
+void     _df_window_add_recent         (DfWindow *self, const char *path);
+
+/* df-window-sync.c: document -> view, panels and title */
+void     _df_window_sync_init          (DfWindow *self);
+void     _df_window_sync_all           (DfWindow *self);
+void     _df_window_sync_loop          (DfWindow *self, DfLoopItem *item);
+void     _df_window_sync_frames        (DfWindow *self);
+void     _df_window_sync_legend        (DfWindow *self);
+void     _df_window_status             (DfWindow *self, gboolean is_error, const char *format,
+                                        ...) G_GNUC_PRINTF (3, 4);
+
+/* df-window-tools.c */
+void     _df_window_tools_init         (DfWindow *self);
+void     _df_window_tools_finalize     (DfWindow *self);
+void     _df_window_set_tool           (DfWindow *self, DfTool tool);
+void     _df_window_clear_geodesic     (DfWindow *self);
+void     _df_window_clear_paths        (DfWindow *self);
+/* The surface changed: drop tool drawings that refer to the old one. */
+void     _df_window_tools_surface_changed (DfWindow *self);
+
+/* Mapping between the enums and their action target names. */
+const char *_df_tool_to_string         (DfTool tool);
+gboolean    _df_tool_from_string       (const char *name, DfTool *tool);
+const char *_df_shading_to_string      (DfShading shading);
+gboolean    _df_shading_from_string    (const char *name, DfShading *shading);
+gboolean    _df_view_from_string       (const char *name, DfStandardView *view);
+
+G_END_DECLS

@@ -1,0 +1,787 @@
+/* df-window-tools.c: the tools of the header bar's selector, driven by the view's pick signals
+ * (surface-pressed / -dragged / -released with chart coordinates):
+ *   Look       orbit the camera (the view handles it);
+ *   Sketch     press-drag-release draws a closed loop, measured live while drawing and for good
+ *              on release;
+ *   Probe      the local geometry at the clicked point;
+ *   Geodesic   press at the start, drag to aim, release to shoot;
+ *   Two paths  path A, then path B with its ends snapped to A's; compares the carried vectors.
+ * Strokes are collected in chart coordinates; all measuring is the core's. */
+#include <math.h>
+#include <string.h>
+
+#include "df-format.h"
+#include "df-window-private.h"
+
+/* Stroke filtering in screen pixels: points closer than this to the previous one are dropped
+ * (they add noise, not shape); a stroke smaller than DF_STROKE_MIN_PX across is refused, and a
+ * jump longer than DF_STROKE_GAP_PX between hits means the pointer left the surface. Common
+ * practice for pointer sketching, no source. */
+#define DF_STROKE_STEP_PX 4.0
+#define DF_STROKE_MIN_PX  16.0
+#define DF_STROKE_GAP_PX  60.0
+/* Live readout while sketching: at most one job at a time, at most this often. */
+#define DF_LIVE_INTERVAL_US (150 * 1000)
+#define DF_LIVE_SAMPLES 32
+/* Samples along a shot geodesic. */
+#define DF_GEODESIC_SAMPLES 240
+
+static const char *const colour_path_a = "#2f7fd1";
+static const char *const colour_path_b = "#e0a41c";
+static const char *const colour_stroke = "#1b1b1b";
+static const char *const colour_geodesic = "#8c4fc4";
+static const char *const colour_marker = "#111111";
+
+typedef struct
+{
+  double u, v;
+  double px, py;  /* pointer position when picked */
+} StrokePoint;
+
+/* ---- small helpers ----------------------------------------------------------------------- */
+
+static GdkRGBA
+rgba (const char *spec)
+{
+  GdkRGBA colour;
+
+  gdk_rgba_parse (&colour, spec);
+  return colour;
+}
+
+static gboolean
+surface_point (DfWindow *self,
+               double    u,
+               double    v,
+               double    xyz[3])
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  df_chart_jet jet;
+
+  if (surface == NULL || df_surface_eval (surface, u, v, 0, &jet, NULL) != DF_OK)
+    return FALSE;
+  memcpy (xyz, jet.x, sizeof jet.x);
+  return TRUE;
+}
+
+static void
+show_coords (DfWindow *self,
+             double    u,
+             double    v)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  g_autofree char *a = df_format_number (u);
+  g_autofree char *text = NULL;
+
+  if (surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
+    {
+      double phi = remainder (v, 2 * G_PI);
+      g_autofree char *b = df_format_number (phi * 180.0 / G_PI);
+      text = g_strdup_printf ("t = %s, φ = %s°", a, b);
+    }
+  else
+    {
+      g_autofree char *b = df_format_number (v);
+      text = g_strdup_printf ("x = %s, y = %s %s", a, b, df_document_get_units (self->document));
+    }
+  gtk_label_set_text (self->coords_label, text);
+}
+
+/* Chart points of a stroke as a plain array (g_free). */
+static double (*stroke_uv (GArray *stroke))[2]
+{
+  double (*uv)[2] = g_malloc_n (MAX (stroke->len, 1), sizeof (double[2]));
+
+  for (guint i = 0; i < stroke->len; i++)
+    {
+      StrokePoint *p = &g_array_index (stroke, StrokePoint, i);
+      uv[i][0] = p->u;
+      uv[i][1] = p->v;
+    }
+  return uv;
+}
+
+static void
+draw_stroke (DfWindow   *self,
+             guint       id,
+             GArray     *stroke,
+             const char *colour_spec,
+             float       width)
+{
+  g_autofree double (*xyz)[3] = g_malloc_n (MAX (stroke->len, 1), sizeof (double[3]));
+  GdkRGBA colour = rgba (colour_spec);
+  gsize n = 0;
+
+  for (guint i = 0; i < stroke->len; i++)
+    {
+      StrokePoint *p = &g_array_index (stroke, StrokePoint, i);
+      if (surface_point (self, p->u, p->v, xyz[n]))
+        n++;
+    }
+  if (n >= 2)
+    df_surface_view_set_curve (self->view, id, (const double (*)[3]) xyz, n, FALSE, &colour,
+                               width);
+  else
+    df_surface_view_remove_curve (self->view, id);
+}
+
+/* ---- strokes (Sketch loop and Two paths) -------------------------------------------------- */
+
+static void
+stroke_begin (DfWindow *self,
+              double    u,
+              double    v)
+{
+  StrokePoint p = { u, v, self->pointer_x, self->pointer_y };
+
+  self->stroking = TRUE;
+  self->stroke_left = FALSE;
+  g_array_set_size (self->stroke_uv, 0);
+  g_array_append_val (self->stroke_uv, p);
+  self->stroke_px_min[0] = self->stroke_px_max[0] = p.px;
+  self->stroke_px_min[1] = self->stroke_px_max[1] = p.py;
+}
+
+static gboolean
+stroke_add (DfWindow *self,
+            double    u,
+            double    v)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  StrokePoint *last = &g_array_index (self->stroke_uv, StrokePoint, self->stroke_uv->len - 1);
+  StrokePoint p = { u, v, self->pointer_x, self->pointer_y };
+  double step = hypot (p.px - last->px, p.py - last->py);
+
+  if (step < DF_STROKE_STEP_PX)
+    return FALSE;
+  if (step > DF_STROKE_GAP_PX)
+    self->stroke_left = TRUE;
+  /* Keep the angle of a surface of revolution continuous along the stroke, so that a loop
+   * around the axis shows as a full turn rather than a jump at +-180 degrees. */
+  if (surface != NULL && df_surface_v_periodic (surface))
+    p.v += 2 * G_PI * round ((last->v - p.v) / (2 * G_PI));
+  g_array_append_val (self->stroke_uv, p);
+  self->stroke_px_min[0] = MIN (self->stroke_px_min[0], p.px);
+  self->stroke_px_max[0] = MAX (self->stroke_px_max[0], p.px);
+  self->stroke_px_min[1] = MIN (self->stroke_px_min[1], p.py);
+  self->stroke_px_max[1] = MAX (self->stroke_px_max[1], p.py);
+  return TRUE;
+}
+
+/* Why a finished stroke cannot be used, or NULL. */
+static const char *
+stroke_problem (DfWindow *self,
+                guint     min_points)
+{
+  StrokePoint *last;
+  double extent = MAX (self->stroke_px_max[0] - self->stroke_px_min[0],
+                       self->stroke_px_max[1] - self->stroke_px_min[1]);
+
+  if (self->stroke_uv->len < min_points)
+    return "too few distinct points: drag further across the surface";
+  if (extent < DF_STROKE_MIN_PX)
+    return "too small: drag a larger shape (or zoom in first)";
+  last = &g_array_index (self->stroke_uv, StrokePoint, self->stroke_uv->len - 1);
+  /* Released far from the last point on the surface: the pointer ran off the surface. */
+  if (self->stroke_left
+      || hypot (self->pointer_x - last->px, self->pointer_y - last->py) > DF_STROKE_GAP_PX)
+    return "it left the surface: keep the whole stroke on the surface";
+  return NULL;
+}
+
+/* ---- live readout while sketching --------------------------------------------------------- */
+
+static void live_start (DfWindow *self);
+
+static void
+live_done_cb (GObject      *source,
+              GAsyncResult *result,
+              gpointer      user_data)
+{
+  DfWindow *self = user_data;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(df_loop_result) measured = df_work_measure_loop_finish (result, &error);
+
+  if (g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
+    {
+      g_object_unref (self);
+      return;
+    }
+  self->live_running = FALSE;
+  if (self->stroking && self->tool == DF_TOOL_SKETCH)
+    {
+      if (measured != NULL)
+        {
+          g_autofree char *hol = df_format_angle (measured->holonomy_rad);
+          g_autofree char *enc = measured->bounds_disc
+                                   ? df_format_angle (measured->enclosed_curvature_rad)
+                                   : g_strdup ("none (bounds no disc)");
+          g_autofree char *text = g_strdup_printf ("Closing the loop here would give:\n"
+                                                   "holonomy %s\nenclosed curvature %s",
+                                                   hol, enc);
+          df_loops_panel_set_live_text (self->loops_panel, text);
+        }
+      else
+        df_loops_panel_set_live_text (self->loops_panel,
+                                      "Closing the loop here: not measurable yet "
+                                      "(keep drawing)");
+      /* The stroke grew while this job ran: measure the newer stroke. */
+      live_start (self);
+    }
+  g_object_unref (self);
+}
+
+static void
+live_start (DfWindow *self)
+{
+  g_autofree double (*uv)[2] = NULL;
+  gint64 now = g_get_monotonic_time ();
+  guint n = self->stroke_uv->len;
+
+  if (self->live_running || n < 8 || now - self->live_last_us < DF_LIVE_INTERVAL_US)
+    return;
+  self->live_last_us = now;
+  self->live_running = TRUE;
+  g_cancellable_cancel (self->live_cancellable);
+  g_clear_object (&self->live_cancellable);
+  self->live_cancellable = g_cancellable_new ();
+  uv = stroke_uv (self->stroke_uv);
+  df_work_measure_loop_async (df_document_get_surface (self->document),
+                              (const double (*)[2]) uv, n, DF_LIVE_SAMPLES,
+                              self->live_cancellable, live_done_cb, g_object_ref (self));
+}
+
+static void
+live_stop (DfWindow *self)
+{
+  if (self->live_cancellable != NULL)
+    g_cancellable_cancel (self->live_cancellable);
+  g_clear_object (&self->live_cancellable);
+  self->live_running = FALSE;
+  df_loops_panel_set_live_text (self->loops_panel, NULL);
+}
+
+/* ---- Sketch loop -------------------------------------------------------------------------- */
+
+static void
+sketch_finish (DfWindow *self)
+{
+  g_autofree double (*uv)[2] = NULL;
+  const char *problem;
+  DfLoopItem *item;
+
+  self->stroking = FALSE;
+  live_stop (self);
+  df_surface_view_remove_curve (self->view, DF_CURVE_SKETCH);
+  problem = stroke_problem (self, 3);
+  if (problem != NULL)
+    {
+      _df_window_status (self, TRUE, "Loop not added: %s.", problem);
+      return;
+    }
+  uv = stroke_uv (self->stroke_uv);
+  item = df_document_add_loop (self->document, NULL, (const double (*)[2]) uv,
+                               self->stroke_uv->len);
+  _df_window_status (self, FALSE, "“%s” closed with %u points, measuring… (Ctrl+Z removes it)",
+                     df_loop_item_get_name (item), self->stroke_uv->len);
+}
+
+/* ---- Probe -------------------------------------------------------------------------------- */
+
+static void
+probe_at (DfWindow *self,
+          double    u,
+          double    v)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  df_point_geometry geometry;
+  df_diag diag;
+  df_status status;
+  GdkRGBA colour = rgba (colour_marker);
+
+  df_diag_clear (&diag);
+  status = df_surface_geometry (surface, u, v, &geometry, &diag);
+  if (status != DF_OK)
+    {
+      g_autoptr(GError) error = NULL;
+
+      df_status_to_gerror (status, &diag, &error);
+      df_probe_panel_show_error (self->probe_panel, error->message);
+      df_surface_view_set_marker (self->view, NULL, NULL);
+      return;
+    }
+  df_probe_panel_show (self->probe_panel, surface, &geometry,
+                       df_document_get_units (self->document));
+  df_surface_view_set_marker (self->view, geometry.point, &colour);
+}
+
+/* ---- Geodesic ----------------------------------------------------------------------------- */
+
+void
+_df_window_clear_geodesic (DfWindow *self)
+{
+  self->geodesic_pressed = FALSE;
+  df_surface_view_remove_curve (self->view, DF_CURVE_GEODESIC);
+  df_surface_view_remove_arrow (self->view, DF_ARROW_GEODESIC);
+  df_geodesic_panel_clear (self->geodesic_panel);
+}
+
+static void
+geodesic_aim (DfWindow *self,
+              double    u,
+              double    v)
+{
+  double a[3], b[3], dir[3];
+  GdkRGBA colour = rgba (colour_geodesic);
+
+  if (!surface_point (self, self->geodesic_start[0], self->geodesic_start[1], a)
+      || !surface_point (self, u, v, b))
+    return;
+  for (int k = 0; k < 3; k++)
+    dir[k] = b[k] - a[k];
+  if (dir[0] != 0 || dir[1] != 0 || dir[2] != 0)
+    df_surface_view_set_arrow (self->view, DF_ARROW_GEODESIC, a, dir, &colour);
+}
+
+static void
+geodesic_shoot (DfWindow *self,
+                double    u,
+                double    v)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  const char *units = df_document_get_units (self->document);
+  g_auto(df_geodesic_result) result = { 0 };
+  df_point_geometry start;
+  double a[3], b[3], w[3], du, dv, heading, length;
+  df_diag diag;
+  df_status status;
+  g_autoptr(GError) error = NULL;
+
+  self->geodesic_pressed = FALSE;
+  du = u - self->geodesic_start[0];
+  dv = v - self->geodesic_start[1];
+  if (df_surface_v_periodic (surface))
+    dv = remainder (dv, 2 * G_PI);
+  df_diag_clear (&diag);
+  status = df_surface_geometry (surface, self->geodesic_start[0], self->geodesic_start[1],
+                                &start, &diag);
+  if (status == DF_OK && !start.chart_regular)
+    {
+      df_geodesic_panel_show_error (self->geodesic_panel,
+                                    "The start point is a pole of the chart, where no heading "
+                                    "can be measured: start next to it.");
+      return;
+    }
+  if (status != DF_OK)
+    {
+      df_status_to_gerror (status, &diag, &error);
+      df_geodesic_panel_show_error (self->geodesic_panel, error->message);
+      return;
+    }
+  if (!surface_point (self, self->geodesic_start[0], self->geodesic_start[1], a)
+      || !surface_point (self, u, v, b))
+    return;
+  /* The drag's direction as a tangent vector (du X_u + dv X_v) and its heading from X_u about
+   * N; the length asked is the straight distance between press and release. This only turns
+   * a mouse gesture into the two numbers the core's shooter takes. */
+  for (int k = 0; k < 3; k++)
+    w[k] = du * start.xu[k] + dv * start.xv[k];
+  length = sqrt ((b[0] - a[0]) * (b[0] - a[0]) + (b[1] - a[1]) * (b[1] - a[1])
+                 + (b[2] - a[2]) * (b[2] - a[2]));
+  if (!(length > 1e-6 * df_surface_size (surface)) || (w[0] == 0 && w[1] == 0 && w[2] == 0))
+    {
+      df_geodesic_panel_show_error (self->geodesic_panel,
+                                    "Drag away from the start point to set the direction and "
+                                    "length of the geodesic.");
+      df_surface_view_remove_arrow (self->view, DF_ARROW_GEODESIC);
+      return;
+    }
+  heading = df_signed_angle (start.xu, w, start.normal);
+
+  df_diag_clear (&diag);
+  status = df_geodesic_shoot (surface, self->geodesic_start[0], self->geodesic_start[1],
+                              heading, length, DF_GEODESIC_SAMPLES, &result, &diag);
+  if (status != DF_OK)
+    {
+      df_status_to_gerror (status, &diag, &error);
+      df_geodesic_panel_show_error (self->geodesic_panel, error->message);
+      _df_window_status (self, TRUE, "No geodesic: %s", error->message);
+      return;
+    }
+  {
+    g_autofree double (*xyz)[3] = g_malloc_n (MAX (result.n_samples, 1), sizeof (double[3]));
+    GdkRGBA colour = rgba (colour_geodesic);
+    g_autofree char *reached = df_format_length (result.length, units);
+
+    for (gsize i = 0; i < result.n_samples; i++)
+      memcpy (xyz[i], result.samples[i].point, sizeof xyz[i]);
+    df_surface_view_set_curve (self->view, DF_CURVE_GEODESIC, (const double (*)[3]) xyz,
+                               result.n_samples, FALSE, &colour, 3.5f);
+    if (result.n_samples > 0)
+      df_surface_view_set_arrow (self->view, DF_ARROW_GEODESIC, result.samples[0].point,
+                                 result.samples[0].tangent, &colour);
+    df_geodesic_panel_show (self->geodesic_panel, surface, heading, length, &result, units);
+    _df_window_status (self, result.stopped_early, "Geodesic of %s%s%s.", reached,
+                       result.stopped_early ? ", stopped early: " : "",
+                       result.stopped_early ? result.stop_reason : "");
+  }
+}
+
+/* ---- Two paths ---------------------------------------------------------------------------- */
+
+static const char *
+paths_hint (DfPathsStage stage)
+{
+  switch (stage)
+    {
+    case DF_PATHS_WANT_A:
+    case DF_PATHS_DRAWING_A:
+      return "Drag path A on the surface, from its start to its end.";
+    case DF_PATHS_WANT_B:
+    case DF_PATHS_DRAWING_B:
+      return "Now drag path B: another way from A's start to A's end (its ends snap to A's).";
+    case DF_PATHS_DONE:
+    default:
+      return "Done. Drag again to start a new path A, or Clear paths.";
+    }
+}
+
+static void
+paths_set_stage (DfWindow     *self,
+                 DfPathsStage  stage)
+{
+  self->paths_stage = stage;
+  df_compare_panel_set_hint (self->compare_panel, paths_hint (stage));
+}
+
+void
+_df_window_clear_paths (DfWindow *self)
+{
+  if (self->paths_cancellable != NULL)
+    g_cancellable_cancel (self->paths_cancellable);
+  g_clear_object (&self->paths_cancellable);
+  g_array_set_size (self->path_a, 0);
+  g_array_set_size (self->path_b, 0);
+  df_surface_view_remove_curve (self->view, DF_CURVE_PATH_A);
+  df_surface_view_remove_curve (self->view, DF_CURVE_PATH_B);
+  df_surface_view_remove_arrow (self->view, DF_ARROW_PATH_A);
+  df_surface_view_remove_arrow (self->view, DF_ARROW_PATH_B);
+  df_compare_panel_set_paths (self->compare_panel, 0, 0);
+  df_compare_panel_set_angle (self->compare_panel, NAN);
+  paths_set_stage (self, DF_PATHS_WANT_A);
+}
+
+static void
+draw_transport (DfWindow                  *self,
+                guint                      curve_id,
+                guint                      arrow_id,
+                const df_transport_result *result,
+                const char                *colour_spec)
+{
+  g_autofree double (*xyz)[3] = g_malloc_n (MAX (result->n_samples, 1), sizeof (double[3]));
+  GdkRGBA colour = rgba (colour_spec);
+
+  for (gsize i = 0; i < result->n_samples; i++)
+    memcpy (xyz[i], result->samples[i].x, sizeof xyz[i]);
+  if (result->n_samples >= 2)
+    {
+      df_surface_view_set_curve (self->view, curve_id, (const double (*)[3]) xyz,
+                                 result->n_samples, FALSE, &colour, 3.5f);
+      df_surface_view_set_arrow (self->view, arrow_id, result->samples[result->n_samples - 1].x,
+                                 result->end_vector, &colour);
+    }
+}
+
+static void
+compare_done_cb (GObject      *source,
+                 GAsyncResult *result,
+                 gpointer      user_data)
+{
+  DfWindow *self = user_data;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(DfPathComparison) comparison = df_work_compare_paths_finish (result, &error);
+
+  if (g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
+    {
+      g_object_unref (self);
+      return;
+    }
+  if (comparison == NULL)
+    {
+      df_compare_panel_show_error (self->compare_panel, error->message);
+      _df_window_status (self, TRUE, "Paths not compared: %s", error->message);
+      paths_set_stage (self, DF_PATHS_DONE);
+      g_object_unref (self);
+      return;
+    }
+  draw_transport (self, DF_CURVE_PATH_A, DF_ARROW_PATH_A, &comparison->a, colour_path_a);
+  draw_transport (self, DF_CURVE_PATH_B, DF_ARROW_PATH_B, &comparison->b, colour_path_b);
+  df_compare_panel_set_angle (self->compare_panel, comparison->angle_rad);
+  {
+    g_autofree char *angle = df_format_angle (comparison->angle_rad);
+    _df_window_status (self, FALSE, "Carried along B, the direction ends %s from the one "
+                       "carried along A.", angle);
+  }
+  paths_set_stage (self, DF_PATHS_DONE);
+  g_object_unref (self);
+}
+
+static void
+paths_finish_stroke (DfWindow *self)
+{
+  const char *problem;
+  gboolean is_a = self->paths_stage == DF_PATHS_DRAWING_A;
+
+  self->stroking = FALSE;
+  df_surface_view_remove_curve (self->view, DF_CURVE_SKETCH);
+  problem = stroke_problem (self, 3);
+  if (problem != NULL)
+    {
+      _df_window_status (self, TRUE, "Path %s not taken: %s.", is_a ? "A" : "B", problem);
+      paths_set_stage (self, is_a ? DF_PATHS_WANT_A : DF_PATHS_WANT_B);
+      return;
+    }
+  if (is_a)
+    {
+      g_array_set_size (self->path_a, 0);
+      g_array_append_vals (self->path_a, self->stroke_uv->data, self->stroke_uv->len);
+      draw_stroke (self, DF_CURVE_PATH_A, self->path_a, colour_path_a, 3.5f);
+      df_compare_panel_set_paths (self->compare_panel, self->path_a->len, 0);
+      paths_set_stage (self, DF_PATHS_WANT_B);
+      return;
+    }
+
+  {
+    StrokePoint *a0 = &g_array_index (self->path_a, StrokePoint, 0);
+    StrokePoint *a1 = &g_array_index (self->path_a, StrokePoint, self->path_a->len - 1);
+    g_autofree double (*uv_a)[2] = NULL;
+    g_autofree double (*uv_b)[2] = NULL;
+    StrokePoint *b0, *b1;
+
+    g_array_set_size (self->path_b, 0);
+    g_array_append_vals (self->path_b, self->stroke_uv->data, self->stroke_uv->len);
+    /* Common ends: B starts and ends exactly where A does. */
+    b0 = &g_array_index (self->path_b, StrokePoint, 0);
+    b1 = &g_array_index (self->path_b, StrokePoint, self->path_b->len - 1);
+    *b0 = *a0;
+    *b1 = *a1;
+    draw_stroke (self, DF_CURVE_PATH_B, self->path_b, colour_path_b, 3.5f);
+    df_compare_panel_set_paths (self->compare_panel, self->path_a->len, self->path_b->len);
+    paths_set_stage (self, DF_PATHS_DONE);
+    df_compare_panel_set_hint (self->compare_panel, "Comparing…");
+
+    uv_a = stroke_uv (self->path_a);
+    uv_b = stroke_uv (self->path_b);
+    if (self->paths_cancellable != NULL)
+      g_cancellable_cancel (self->paths_cancellable);
+    g_clear_object (&self->paths_cancellable);
+    self->paths_cancellable = g_cancellable_new ();
+    df_work_compare_paths_async (df_document_get_surface (self->document),
+                                 (const double (*)[2]) uv_a, self->path_a->len,
+                                 (const double (*)[2]) uv_b, self->path_b->len,
+                                 self->paths_cancellable, compare_done_cb, g_object_ref (self));
+  }
+}
+
+/* ---- view signals ------------------------------------------------------------------------- */
+
+static void
+surface_pressed_cb (DfSurfaceView *view,
+                    double         u,
+                    double         v,
+                    DfWindow      *self)
+{
+  show_coords (self, u, v);
+  switch (self->tool)
+    {
+    case DF_TOOL_SKETCH:
+      stroke_begin (self, u, v);
+      df_loops_panel_set_live_text (self->loops_panel, "Drawing… release to close the loop.");
+      break;
+    case DF_TOOL_PROBE:
+      probe_at (self, u, v);
+      break;
+    case DF_TOOL_GEODESIC:
+      {
+        double xyz[3];
+        GdkRGBA colour = rgba (colour_geodesic);
+
+        _df_window_clear_geodesic (self);
+        self->geodesic_pressed = TRUE;
+        self->geodesic_start[0] = u;
+        self->geodesic_start[1] = v;
+        if (surface_point (self, u, v, xyz))
+          df_surface_view_set_marker (self->view, xyz, &colour);
+      }
+      break;
+    case DF_TOOL_PATHS:
+      if (self->paths_stage == DF_PATHS_DONE)
+        _df_window_clear_paths (self);
+      if (self->paths_stage == DF_PATHS_WANT_A)
+        {
+          df_surface_view_remove_curve (self->view, DF_CURVE_PATH_A);
+          paths_set_stage (self, DF_PATHS_DRAWING_A);
+        }
+      else
+        paths_set_stage (self, DF_PATHS_DRAWING_B);
+      stroke_begin (self, u, v);
+      break;
+    case DF_TOOL_LOOK:
+    default:
+      break;
+    }
+}
+
+static void
+surface_dragged_cb (DfSurfaceView *view,
+                    double         u,
+                    double         v,
+                    DfWindow      *self)
+{
+  show_coords (self, u, v);
+  switch (self->tool)
+    {
+    case DF_TOOL_SKETCH:
+    case DF_TOOL_PATHS:
+      if (self->stroking && stroke_add (self, u, v))
+        {
+          draw_stroke (self, DF_CURVE_SKETCH, self->stroke_uv,
+                       self->tool == DF_TOOL_SKETCH ? colour_stroke
+                       : self->paths_stage == DF_PATHS_DRAWING_A ? colour_path_a
+                       : colour_path_b, 3.0f);
+          if (self->tool == DF_TOOL_SKETCH)
+            live_start (self);
+        }
+      break;
+    case DF_TOOL_PROBE:
+      probe_at (self, u, v);
+      break;
+    case DF_TOOL_GEODESIC:
+      if (self->geodesic_pressed)
+        geodesic_aim (self, u, v);
+      break;
+    case DF_TOOL_LOOK:
+    default:
+      break;
+    }
+}
+
+static void
+surface_released_cb (DfSurfaceView *view,
+                     double         u,
+                     double         v,
+                     DfWindow      *self)
+{
+  switch (self->tool)
+    {
+    case DF_TOOL_SKETCH:
+      if (self->stroking)
+        sketch_finish (self);
+      break;
+    case DF_TOOL_PATHS:
+      if (self->stroking)
+        paths_finish_stroke (self);
+      break;
+    case DF_TOOL_GEODESIC:
+      if (self->geodesic_pressed)
+        geodesic_shoot (self, u, v);
+      break;
+    case DF_TOOL_PROBE:
+    case DF_TOOL_LOOK:
+    default:
+      break;
+    }
+}
+
+static void
+pointer_motion_cb (GtkEventControllerMotion *controller,
+                   double                    x,
+                   double                    y,
+                   DfWindow                 *self)
+{
+  self->pointer_x = x;
+  self->pointer_y = y;
+}
+
+/* ---- tool switching ----------------------------------------------------------------------- */
+
+static void
+cancel_stroke (DfWindow *self)
+{
+  self->stroking = FALSE;
+  live_stop (self);
+  df_surface_view_remove_curve (self->view, DF_CURVE_SKETCH);
+}
+
+void
+_df_window_set_tool (DfWindow *self,
+                     DfTool    tool)
+{
+  static const char *const pages[] = { NULL, "loops", "probe", "geodesic", "paths" };
+  static const char *const hints[] = {
+    "Look: drag to turn the view, Shift+drag or middle button to pan, scroll to zoom.",
+    "Sketch loop: press on the surface, drag around a region and release; the loop closes "
+    "itself.",
+    "Probe: click (or drag) on the surface to read its local geometry.",
+    "Geodesic: press at the start, drag towards where it should head, release to shoot.",
+    "Two paths: drag path A, then path B between the same ends.",
+  };
+
+  cancel_stroke (self);
+  self->tool = tool;
+  df_surface_view_set_interaction (self->view, tool == DF_TOOL_LOOK ? DF_INTERACTION_ORBIT
+                                                                    : DF_INTERACTION_PICK);
+  if (pages[tool] != NULL)
+    gtk_stack_set_visible_child_name (self->panel_stack, pages[tool]);
+  if (tool == DF_TOOL_PATHS && self->paths_stage == DF_PATHS_DRAWING_A)
+    paths_set_stage (self, DF_PATHS_WANT_A);
+  else if (tool == DF_TOOL_PATHS && self->paths_stage == DF_PATHS_DRAWING_B)
+    paths_set_stage (self, DF_PATHS_WANT_B);
+  _df_window_status (self, FALSE, "%s", hints[tool]);
+}
+
+void
+_df_window_tools_surface_changed (DfWindow *self)
+{
+  /* Tool drawings belong to the old surface; loops are re-measured by the document. */
+  cancel_stroke (self);
+  _df_window_clear_geodesic (self);
+  _df_window_clear_paths (self);
+  df_surface_view_set_marker (self->view, NULL, NULL);
+  df_probe_panel_clear (self->probe_panel);
+}
+
+void
+_df_window_tools_init (DfWindow *self)
+{
+  GtkEventController *motion = gtk_event_controller_motion_new ();
+
+  self->stroke_uv = g_array_new (FALSE, FALSE, sizeof (StrokePoint));
+  self->path_a = g_array_new (FALSE, FALSE, sizeof (StrokePoint));
+  self->path_b = g_array_new (FALSE, FALSE, sizeof (StrokePoint));
+  g_signal_connect (motion, "motion", G_CALLBACK (pointer_motion_cb), self);
+  g_signal_connect (motion, "enter", G_CALLBACK (pointer_motion_cb), self);
+  gtk_widget_add_controller (GTK_WIDGET (self->view), motion);
+  g_signal_connect (self->view, "surface-pressed", G_CALLBACK (surface_pressed_cb), self);
+  g_signal_connect (self->view, "surface-dragged", G_CALLBACK (surface_dragged_cb), self);
+  g_signal_connect (self->view, "surface-released", G_CALLBACK (surface_released_cb), self);
+  paths_set_stage (self, DF_PATHS_WANT_A);
+  df_compare_panel_set_paths (self->compare_panel, 0, 0);
+  df_compare_panel_set_angle (self->compare_panel, NAN);
+  df_geodesic_panel_clear (self->geodesic_panel);
+}
+
+void
+_df_window_tools_finalize (DfWindow *self)
+{
+  if (self->live_cancellable != NULL)
+    g_cancellable_cancel (self->live_cancellable);
+  g_clear_object (&self->live_cancellable);
+  if (self->paths_cancellable != NULL)
+    g_cancellable_cancel (self->paths_cancellable);
+  g_clear_object (&self->paths_cancellable);
+  g_clear_pointer (&self->stroke_uv, g_array_unref);
+  g_clear_pointer (&self->path_a, g_array_unref);
+  g_clear_pointer (&self->path_b, g_array_unref);
+  g_clear_pointer (&self->loop_curve_ids, g_array_unref);
+}
