@@ -64,7 +64,7 @@ main ()
     {
       vec2 g = v_uv / u_iso_step;
       float line = max (grid_line (g.x), grid_line (g.y));
-      colour = mix (colour, colour * 0.35, 0.75 * line);
+      colour = mix (colour, colour * 0.35, 0.65 * line);
     }
   frag_colour = vec4 (min (colour, vec3 (1.0)), 1.0);
 }

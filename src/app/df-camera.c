@@ -14,13 +14,35 @@ df_camera_init (DfCamera *camera)
   camera->pitch = glm_rad (28);
   camera->fov_y = glm_rad (30);
   camera->radius = 1;
+  camera->aspect = 1;
   camera->fitted = false;
 }
 
-void
-df_camera_fit (DfCamera    *camera,
-               const float  lo[3],
-               const float  hi[3])
+/* Eye direction (target to eye) and the up vector orthogonal to it. */
+static void
+camera_axes (const DfCamera *camera,
+             vec3            back,
+             vec3            up)
+{
+  float cy = cosf (camera->yaw), sy = sinf (camera->yaw);
+  float cp = cosf (camera->pitch), sp = sinf (camera->pitch);
+
+  back[0] = cp * cy;
+  back[1] = cp * sy;
+  back[2] = sp;
+  up[0] = -sp * cy;
+  up[1] = -sp * sy;
+  up[2] = cp;
+}
+
+/* Sets target and radius from the box; returns the camera axes. */
+static void
+fit_box (DfCamera    *camera,
+         const float  lo[3],
+         const float  hi[3],
+         vec3         back,
+         vec3         up,
+         vec3         right)
 {
   vec3 extent;
 
@@ -32,9 +54,71 @@ df_camera_fit (DfCamera    *camera,
   camera->radius = 0.5f * glm_vec3_norm (extent);
   if (!(camera->radius > 0) || !isfinite (camera->radius))
     camera->radius = 1;
-  /* The bounding sphere just fits the vertical field of view, with a 10 % margin. */
-  camera->distance = 1.1f * camera->radius / sinf (0.5f * camera->fov_y);
+  camera_axes (camera, back, up);
+  glm_vec3_cross (up, back, right);
+}
+
+/* A point at (x, y, z) in camera axes (z toward the eye) is inside the frustum when the eye is
+ * at least z + |x| / tan_x and z + |y| / tan_y away from the target. */
+static float
+distance_for (const DfCamera *camera,
+              const float     p[3],
+              vec3            back,
+              vec3            up,
+              vec3            right)
+{
+  float tan_y = tanf (0.5f * camera->fov_y);
+  float tan_x = tan_y * (camera->aspect > 0 ? camera->aspect : 1);
+  vec3 d = { p[0] - camera->target[0], p[1] - camera->target[1], p[2] - camera->target[2] };
+  float z = glm_vec3_dot (d, back);
+
+  return fmaxf (z + fabsf (glm_vec3_dot (d, right)) / tan_x,
+                z + fabsf (glm_vec3_dot (d, up)) / tan_y);
+}
+
+static void
+set_fit_distance (DfCamera *camera,
+                  float     distance)
+{
+  /* 8 % margin; never inside the bounding sphere, where the near plane would cut the scene. */
+  camera->distance = fmaxf (1.08f * distance, 1.2f * camera->radius);
   camera->fitted = true;
+}
+
+void
+df_camera_fit (DfCamera    *camera,
+               const float  lo[3],
+               const float  hi[3])
+{
+  vec3 back, up, right;
+  float distance = 0;
+
+  fit_box (camera, lo, hi, back, up, right);
+  for (int c = 0; c < 8; c++)
+    {
+      float corner[3];
+      for (int i = 0; i < 3; i++)
+        corner[i] = (c >> i) & 1 ? hi[i] : lo[i];
+      distance = fmaxf (distance, distance_for (camera, corner, back, up, right));
+    }
+  set_fit_distance (camera, distance);
+}
+
+void
+df_camera_fit_points (DfCamera    *camera,
+                      const float  lo[3],
+                      const float  hi[3],
+                      const float *points,
+                      size_t       n_points,
+                      size_t       stride)
+{
+  vec3 back, up, right;
+  float distance = 0;
+
+  fit_box (camera, lo, hi, back, up, right);
+  for (size_t i = 0; i < n_points; i++)
+    distance = fmaxf (distance, distance_for (camera, &points[i * stride], back, up, right));
+  set_fit_distance (camera, distance);
 }
 
 void
@@ -62,23 +146,6 @@ df_camera_zoom (DfCamera *camera,
     return;
   camera->distance = glm_clamp (camera->distance * factor, camera->radius / 50,
                                 camera->radius * 50);
-}
-
-/* Eye direction (target to eye) and the up vector orthogonal to it. */
-static void
-camera_axes (const DfCamera *camera,
-             vec3            back,
-             vec3            up)
-{
-  float cy = cosf (camera->yaw), sy = sinf (camera->yaw);
-  float cp = cosf (camera->pitch), sp = sinf (camera->pitch);
-
-  back[0] = cp * cy;
-  back[1] = cp * sy;
-  back[2] = sp;
-  up[0] = -sp * cy;
-  up[1] = -sp * sy;
-  up[2] = cp;
 }
 
 void

@@ -4,6 +4,7 @@
 #pragma once
 
 #include <stdbool.h>
+#include <stddef.h>
 
 #include <cglm/cglm.h>
 
@@ -15,16 +16,26 @@ typedef struct
   float pitch;      /* radians above the xy plane, [-pi/2, pi/2] */
   float fov_y;      /* vertical field of view, radians */
   float radius;     /* radius of the scene's bounding sphere: clip planes and zoom limits */
+  float aspect;     /* width / height of the view, kept by the owner (for fitting) */
   bool  fitted;     /* df_camera_fit has been called */
 } DfCamera;
 
 void df_camera_init        (DfCamera *camera);
 
-/* Aims at the centre of the box [lo, hi] from a distance at which it fills the view. Keeps the
- * angles. */
+/* Aims at the centre of the box [lo, hi] from the distance at which the box's corners, seen at
+ * the current angles and aspect, just fit the view with a small margin. Keeps the angles. */
 void df_camera_fit         (DfCamera    *camera,
                             const float  lo[3],
                             const float  hi[3]);
+
+/* Like df_camera_fit, but the distance makes the given points (stride floats apart, xyz first)
+ * fit rather than the box's corners: a tight fit for round shapes. */
+void df_camera_fit_points  (DfCamera    *camera,
+                            const float  lo[3],
+                            const float  hi[3],
+                            const float *points,
+                            size_t       n_points,
+                            size_t       stride);
 
 /* Adds to the angles (radians); pitch is clamped to the poles, yaw wraps. */
 void df_camera_orbit       (DfCamera *camera,

@@ -23,14 +23,15 @@
 #define SOLID_STRIDE 10
 
 /* Overlay sizes as fractions of the surface's bounding-box diagonal. */
-#define FRAME_LENGTH 0.045
-#define HIGHLIGHT_LENGTH 0.08
+#define FRAME_LENGTH 0.07
+#define HIGHLIGHT_LENGTH 0.12
 #define MARKER_RADIUS 0.011
 /* How far overlays are pulled toward the eye, as a fraction of their distance: more than the
  * mesh's chord error (edges ~1/120 of the size, a few degrees of turn) at any sane zoom. */
 #define OVERLAY_BIAS 0.003f
 #define GHOST_ALPHA 0.28f
-#define BACK_SHADE 0.72f
+#define GHOST_SOLID_ALPHA 0.16f
+#define BACK_SHADE 0.78f
 #define ORBIT_DEG_PER_PX 0.4
 
 enum
@@ -61,11 +62,11 @@ static guint signals[N_SIGNALS];
  * white, a light apricot and a burnt orange. Chosen for this app; the two arms differ in both
  * hue and lightness so they stay apart for the common colour-vision deficiencies. */
 static const float ramp_stops[DF_SHADING_RAMP_STOPS][3] = {
-  { 0.122f, 0.282f, 0.588f },
-  { 0.498f, 0.690f, 0.871f },
+  { 0.161f, 0.349f, 0.678f },
+  { 0.518f, 0.706f, 0.886f },
   { 0.957f, 0.945f, 0.910f },
-  { 0.984f, 0.737f, 0.455f },
-  { 0.749f, 0.329f, 0.051f },
+  { 0.988f, 0.757f, 0.502f },
+  { 0.851f, 0.420f, 0.098f },
 };
 static const float plain_colour[3] = { 0.80f, 0.76f, 0.68f };
 
@@ -119,6 +120,7 @@ typedef struct
 {
   guint    n_frames;
   GArray  *stamps;      /* gint64 monotonic times of each render */
+  GArray  *render_us;   /* gint64 time spent inside render, GL work finished */
   guint    tick_id;
   float    yaw0;
   void   (*done) (double median_ms, double p95_ms, gpointer user);
@@ -154,6 +156,7 @@ struct _DfSurfaceView
   gboolean      rebuild_pending;
   gboolean      mesh_dirty;
   gboolean      overlay_dirty;
+  gboolean      fit_pending;    /* a fit was asked before the mesh or the size was known */
   int           fb_width, fb_height;
   double        drag_last_x, drag_last_y;
   gboolean      pick_active;    /* a press landed on the surface; released will follow */
@@ -325,8 +328,8 @@ install_mesh (DfSurfaceView *self,
   g_clear_pointer (&self->mesh, mesh_data_free);
   self->mesh = data;
   self->mesh_dirty = TRUE;
-  if (data != NULL && data->mesh != NULL && !self->camera.fitted)
-    df_camera_fit (&self->camera, data->lo, data->hi);
+  if (data != NULL && data->mesh != NULL && (!self->camera.fitted || self->fit_pending))
+    df_surface_view_fit_all (self);
   if (data != NULL && data->problem != NULL)
     g_debug ("%s", data->problem);
   rebuild_overlay (self);
@@ -465,7 +468,7 @@ push_arrow (DfSurfaceView *self,
 {
   enum { SIDES = 14 };
   double dir[3], e1[3], e2[3], tip[3], base[3], shaft_end[3], len = norm3 (dir_in);
-  double head = 0.3 * length, radius = 0.1 * length;
+  double head = 0.26 * length, radius = 0.08 * length;
 
   if (!(len > 0) || !isfinite (len) || !isfinite (norm3 (origin)))
     return;
@@ -937,12 +940,13 @@ draw_scene (DfSurfaceView *self,
       for (int pass = 0; pass < 2; pass++)
         {
           float alpha = pass == 0 ? GHOST_ALPHA : 1.0f;
+          float solid_alpha = pass == 0 ? GHOST_SOLID_ALPHA : 1.0f;
           glDepthFunc (pass == 0 ? GL_GREATER : GL_LEQUAL);
           if (gl->solid_vertices > 0)
             {
               glDepthMask (pass == 1);
               glUseProgram (gl->solid_program);
-              glUniform1f (gl->ou.alpha, alpha);
+              glUniform1f (gl->ou.alpha, solid_alpha);
               glBindVertexArray (gl->solid_vao);
               glDrawArrays (GL_TRIANGLES, 0, gl->solid_vertices);
             }
@@ -994,11 +998,28 @@ benchmark_finish (DfSurfaceView *self)
       median = g_array_index (times, double, times->len / 2);
       p95 = g_array_index (times, double, MIN (times->len - 1, (guint) ceil (0.95 * times->len) - 1));
     }
+  {
+    /* The share of the frame spent drawing the scene (the rest is GTK compositing). */
+    g_autoptr (GArray) render = g_array_new (FALSE, FALSE, sizeof (double));
+    for (guint i = 0; i < bench->render_us->len; i++)
+      {
+        double ms = g_array_index (bench->render_us, gint64, i) / 1000.0;
+        g_array_append_val (render, ms);
+      }
+    if (render->len > 0)
+      {
+        g_array_sort (render, compare_double);
+        g_debug ("orbit benchmark: scene render median %.2f ms of a %.2f ms frame (%d x %d px)",
+                 g_array_index (render, double, render->len / 2), median, self->fb_width,
+                 self->fb_height);
+      }
+  }
   self->camera.yaw = bench->yaw0;
   gtk_gl_area_queue_render (GTK_GL_AREA (self));
   if (bench->done != NULL)
     bench->done (median, p95, bench->user);
   g_array_unref (bench->stamps);
+  g_array_unref (bench->render_us);
   g_free (bench);
 }
 
@@ -1007,18 +1028,22 @@ df_surface_view_render (GtkGLArea    *area,
                         GdkGLContext *context)
 {
   DfSurfaceView *self = DF_SURFACE_VIEW (area);
+  gint64 start;
 
   if (gtk_gl_area_get_error (area) != NULL)
     return FALSE;
+  start = g_get_monotonic_time ();
   upload_dirty (self);
   draw_scene (self, self->fb_width, self->fb_height);
   if (self->bench != NULL)
     {
-      gint64 now;
+      gint64 now, spent;
       /* Wait for the software rasterizer so each stamp marks a finished frame. */
       glFinish ();
       now = g_get_monotonic_time ();
+      spent = now - start;
       g_array_append_val (self->bench->stamps, now);
+      g_array_append_val (self->bench->render_us, spent);
     }
   return TRUE;
 }
@@ -1032,6 +1057,9 @@ df_surface_view_resize (GtkGLArea *area,
 
   self->fb_width = width;
   self->fb_height = height;
+  self->camera.aspect = height > 0 ? (float) width / height : 1;
+  if (self->fit_pending)
+    df_surface_view_fit_all (self);
   GTK_GL_AREA_CLASS (df_surface_view_parent_class)->resize (area, width, height);
 }
 
@@ -1324,6 +1352,7 @@ df_surface_view_dispose (GObject *object)
     {
       gtk_widget_remove_tick_callback (GTK_WIDGET (self), self->bench->tick_id);
       g_array_unref (self->bench->stamps);
+      g_array_unref (self->bench->render_us);
       g_clear_pointer (&self->bench, g_free);
     }
   g_clear_pointer (&self->surface, df_surface_free);
@@ -1723,15 +1752,15 @@ df_surface_view_set_marker (DfSurfaceView *self,
 void
 df_surface_view_fit_all (DfSurfaceView *self)
 {
-  float lo[3], hi[3];
-
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
 
   if (self->mesh != NULL && self->mesh->mesh != NULL)
-    df_camera_fit (&self->camera, self->mesh->lo, self->mesh->hi);
+    df_camera_fit_points (&self->camera, self->mesh->lo, self->mesh->hi, self->mesh->vertices,
+                          df_mesh_n_vertices (self->mesh->mesh), SURFACE_STRIDE);
   else if (self->surface != NULL)
     {
       double dlo[3], dhi[3];
+      float lo[3], hi[3];
       df_surface_get_bbox (self->surface, dlo, dhi);
       for (int i = 0; i < 3; i++)
         {
@@ -1740,6 +1769,8 @@ df_surface_view_fit_all (DfSurfaceView *self)
         }
       df_camera_fit (&self->camera, lo, hi);
     }
+  /* The fit depends on the mesh's box and the view's aspect: redo it when either arrives. */
+  self->fit_pending = self->mesh == NULL || self->mesh->mesh == NULL || self->fb_width <= 0;
   gtk_gl_area_queue_render (GTK_GL_AREA (self));
 }
 
@@ -1926,6 +1957,7 @@ df_surface_view_run_orbit_benchmark (DfSurfaceView *self,
   bench = g_new0 (Benchmark, 1);
   bench->n_frames = MAX (n_frames, 2);
   bench->stamps = g_array_new (FALSE, FALSE, sizeof (gint64));
+  bench->render_us = g_array_new (FALSE, FALSE, sizeof (gint64));
   bench->yaw0 = self->camera.yaw;
   bench->done = done;
   bench->user = user;
