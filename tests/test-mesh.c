@@ -149,6 +149,9 @@ test_sphere_normals (void)
       df_assert_close (df_mesh_gaussian (mesh)[i], 1 / (R * R), 1e-7, 0);
       df_assert_close (fabs (df_mesh_mean (mesh)[i]), 1 / R, 1e-7, 0);
     }
+  /* Constant K: every quantile is 1/R^2. */
+  df_assert_close (df_mesh_abs_quantile (mesh, DF_MESH_GAUSSIAN, 0.5), 1 / (R * R), 1e-7, 0);
+  df_assert_close (df_mesh_abs_quantile (mesh, DF_MESH_GAUSSIAN, 0.99), 1 / (R * R), 1e-7, 0);
   /* Triangles wind counter-clockwise about N, so each face normal points outward too. */
   for (size_t t = 0; t < df_mesh_n_triangles (mesh); t++)
     {
@@ -242,6 +245,17 @@ test_cone_apex (void)
   n = df_mesh_normals (mesh);
   for (size_t c = 0; c < df_mesh_n_cols (mesh); c++)
     df_assert_close (fabs (n[3 * c + 2]), 0.5, 1e-4, 0);
+  /* |H| = cos(alpha) / (2 r) on a cone (Meusnier: the parallel's curvature 1/r projected on N,
+   * from memory) = cot(alpha) / (2 s) at slant distance s; it diverges at the apex. The area
+   * beyond s is a share 1 - s^2 of the whole, so the 75 % area quantile of |H| is at s = 0.5:
+   * cot 30 = 1.732 (the quantile moves in steps of one grid row, ~2 % there). The 99 % quantile
+   * (s = 0.1, 8.66) stays far below the largest vertex value, next to the apex. */
+  df_assert_close (df_mesh_abs_quantile (mesh, DF_MESH_MEAN, 0.75), sqrt (3.0), 3e-2, 0);
+  df_assert_close (df_mesh_abs_quantile (mesh, DF_MESH_MEAN, 0.99), sqrt (3.0) / 0.2, 0.15, 0);
+  g_assert_cmpfloat (df_mesh_max_abs_h (mesh), >, 3 * df_mesh_abs_quantile (mesh, DF_MESH_MEAN,
+                                                                             0.99));
+  /* K = 0 on the cone's flank (developable; from memory). */
+  g_assert_cmpfloat (df_mesh_abs_quantile (mesh, DF_MESH_GAUSSIAN, 1.0), <, 1e-9);
   df_mesh_free (mesh);
 }
 

@@ -79,6 +79,8 @@ typedef struct
   float    lo[3], hi[3];
   double   size;        /* bounding-box diagonal */
   float    iso_step[2];
+  double   range[2];    /* colour range of |K|, |H| (area quantile; 0 if the value is nil) */
+  gboolean clipped[2];  /* some |K|, |H| lie beyond the range */
 } MeshData;
 
 typedef struct
@@ -257,6 +259,22 @@ mesh_data_build (const df_surface *surface)
   if (!(data->size > 0))
     data->size = 1;
 
+  /* The colour scale spans 99 % of the area: a cone apex or a cusp rim, where curvature
+   * diverges on a sliver, would otherwise wash everything else out to white. Values that are
+   * rounding noise on a developable or minimal surface (|K| size^2, |H| size below 1e-9) give
+   * an empty range: all white, not speckled. */
+  for (int q = 0; q < 2; q++)
+    {
+      df_mesh_quantity which = q == 0 ? DF_MESH_GAUSSIAN : DF_MESH_MEAN;
+      double max = q == 0 ? df_mesh_max_abs_k (data->mesh) : df_mesh_max_abs_h (data->mesh);
+      double scale = q == 0 ? data->size * data->size : data->size;
+      double range = df_mesh_abs_quantile (data->mesh, which, 0.99);
+      if (!(range * scale > 1e-9))
+        range = max * scale > 1e-9 ? max : 0;
+      data->range[q] = range;
+      data->clipped[q] = range > 0 && max > range * (1 + 1e-6);
+    }
+
   df_surface_get_domain (surface, &u_min, &u_max, &v_min, &v_max);
   data->iso_step[0] = nice_step (u_max - u_min);
   /* Meridians of a surface of revolution every 15 degrees, a division the trade reads. */
@@ -314,9 +332,9 @@ mesh_range (DfSurfaceView *self)
   switch (self->shading)
     {
     case DF_SHADING_GAUSSIAN:
-      return df_mesh_max_abs_k (self->mesh->mesh);
+      return self->mesh->range[0];
     case DF_SHADING_MEAN:
-      return df_mesh_max_abs_h (self->mesh->mesh);
+      return self->mesh->range[1];
     case DF_SHADING_PLAIN:
     default:
       return 0;
@@ -1863,6 +1881,16 @@ df_surface_view_get_shading_range (DfSurfaceView *self,
     *lo = -m;
   if (hi != NULL)
     *hi = m;
+}
+
+gboolean
+df_surface_view_get_shading_clipped (DfSurfaceView *self)
+{
+  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
+
+  if (self->mesh == NULL || self->mesh->mesh == NULL || self->shading == DF_SHADING_PLAIN)
+    return FALSE;
+  return self->mesh->clipped[self->shading == DF_SHADING_MEAN];
 }
 
 gboolean

@@ -605,6 +605,65 @@ df_mesh_n_invalid (const df_mesh *mesh)
   return mesh->n_invalid;
 }
 
+typedef struct
+{
+  double value, weight;
+} weighted;
+
+static int
+compare_weighted (const void *a, const void *b)
+{
+  double x = ((const weighted *) a)->value, y = ((const weighted *) b)->value;
+  return (x > y) - (x < y);
+}
+
+double
+df_mesh_abs_quantile (const df_mesh    *mesh,
+                      df_mesh_quantity  quantity,
+                      double            q)
+{
+  const double *values = quantity == DF_MESH_MEAN ? mesh->h : mesh->k;
+  weighted *w;
+  double total = 0, running = 0, result = 0;
+
+  if (mesh->n_triangles == 0)
+    return 0;
+  w = calloc (mesh->n_vertices, sizeof *w);
+  if (w == NULL)
+    return quantity == DF_MESH_MEAN ? mesh->max_abs_h : mesh->max_abs_k;
+  for (size_t i = 0; i < mesh->n_vertices; i++)
+    w[i].value = fabs (values[i]);
+  for (size_t t = 0; t < mesh->n_triangles; t++)
+    {
+      const uint32_t *tri = &mesh->indices[3 * t];
+      const double *a = &mesh->positions[3 * tri[0]], *b = &mesh->positions[3 * tri[1]];
+      const double *c = &mesh->positions[3 * tri[2]];
+      double e1[3] = { b[0] - a[0], b[1] - a[1], b[2] - a[2] };
+      double e2[3] = { c[0] - a[0], c[1] - a[1], c[2] - a[2] };
+      double n[3], third;
+      cross3 (e1, e2, n);
+      third = sqrt (dot3 (n, n)) / 6;
+      for (int i = 0; i < 3; i++)
+        w[tri[i]].weight += third;
+    }
+  qsort (w, mesh->n_vertices, sizeof *w, compare_weighted);
+  for (size_t i = 0; i < mesh->n_vertices; i++)
+    total += w[i].weight;
+  if (q < 0)
+    q = 0;
+  for (size_t i = 0; i < mesh->n_vertices; i++)
+    {
+      if (w[i].weight <= 0)
+        continue;
+      result = w[i].value;
+      running += w[i].weight;
+      if (running >= q * total)
+        break;
+    }
+  free (w);
+  return result;
+}
+
 const df_diag *
 df_mesh_problem (const df_mesh *mesh)
 {

@@ -51,6 +51,20 @@ const uint32_t *df_mesh_indices       (const df_mesh *mesh);   /* 3 per triangle
 double          df_mesh_max_abs_k     (const df_mesh *mesh);
 double          df_mesh_max_abs_h     (const df_mesh *mesh);
 
+typedef enum
+{
+  DF_MESH_GAUSSIAN,
+  DF_MESH_MEAN
+} df_mesh_quantity;
+
+/* The area-weighted quantile q (0..1) of |K| or |H| over the drawn triangles, each vertex
+ * weighing a third of the area around it. Near-1 quantiles make a colour range that ignores
+ * what lives on a sliver of area (a cone apex, where H diverges; the rim of a cusp) yet equals
+ * the maximum where the value is constant. 0 when nothing is drawn. */
+double          df_mesh_abs_quantile  (const df_mesh    *mesh,
+                                       df_mesh_quantity  quantity,
+                                       double            q);
+
 /* Axis-aligned box of the valid vertices. */
 void            df_mesh_get_bbox      (const df_mesh *mesh, double lo[3], double hi[3]);
 
