@@ -29,7 +29,7 @@ struct _DfLegendBar
   /* state */
   DfShading      shading;
   double         lo, hi;
-  gboolean       clipped;       /* values lie beyond lo and hi (drawn in the end colours) */
+  gboolean       below, above;  /* values lie beyond lo, hi (drawn in the end colours) */
 };
 
 G_DEFINE_FINAL_TYPE (DfLegendBar, df_legend_bar, GTK_TYPE_WIDGET)
@@ -179,8 +179,8 @@ df_legend_bar_snapshot (GtkWidget   *widget,
   {
     g_autofree char *lo_value = format_value (self->lo);
     g_autofree char *hi_value = format_value (self->hi);
-    g_autofree char *lo = g_strconcat (self->clipped ? "\u2264 " : "", lo_value, NULL);
-    g_autofree char *hi = g_strconcat (self->clipped ? "\u2265 " : "", hi_value, NULL);
+    g_autofree char *lo = g_strconcat (self->below ? "\u2264 " : "", lo_value, NULL);
+    g_autofree char *hi = g_strconcat (self->above ? "\u2265 " : "", hi_value, NULL);
     g_autoptr (PangoLayout) lo_layout = make_layout (self, lo);
     g_autoptr (PangoLayout) zero_layout = make_layout (self, "0");
     g_autoptr (PangoLayout) hi_layout = make_layout (self, hi);
@@ -203,7 +203,7 @@ view_range_changed_cb (DfSurfaceView *view,
                        DfLegendBar   *self)
 {
   df_legend_bar_set_range (self, df_surface_view_get_shading (view), lo, hi);
-  self->clipped = df_surface_view_get_shading_clipped (view);
+  df_surface_view_get_shading_clipped (view, &self->below, &self->above);
 }
 
 static void
@@ -313,7 +313,7 @@ df_legend_bar_set_view (DfLegendBar   *self,
       g_signal_connect (view, "shading-range-changed", G_CALLBACK (view_range_changed_cb), self);
       df_surface_view_get_shading_range (view, &lo, &hi);
       df_legend_bar_set_range (self, df_surface_view_get_shading (view), lo, hi);
-      self->clipped = df_surface_view_get_shading_clipped (view);
+      df_surface_view_get_shading_clipped (view, &self->below, &self->above);
     }
 }
 
@@ -352,7 +352,7 @@ df_legend_bar_set_range (DfLegendBar *self,
   if (self->shading != shading)
     gtk_widget_queue_resize (GTK_WIDGET (self));
   self->shading = shading;
-  self->clipped = FALSE;
+  self->below = self->above = FALSE;
   self->lo = isfinite (lo) ? lo : 0;
   self->hi = isfinite (hi) ? hi : 0;
   {

@@ -80,7 +80,8 @@ typedef struct
   double   size;        /* bounding-box diagonal */
   float    iso_step[2];
   double   range[2];    /* colour range of |K|, |H| (area quantile; 0 if the value is nil) */
-  gboolean clipped[2];  /* some |K|, |H| lie beyond the range */
+  gboolean below[2];    /* some K, H lie below -range */
+  gboolean above[2];    /* some K, H lie above +range */
 } MeshData;
 
 typedef struct
@@ -113,7 +114,7 @@ typedef struct
   GLuint solid_vao, solid_vbo;
   GLuint fbo, fbo_colour, fbo_depth;
   struct { GLint view, proj, shading, inv_range, ramp, plain, iso, iso_step, back_shade; } su;
-  struct { GLint view, proj, bias, viewport, alpha; } lu;
+  struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
   struct { GLint view, proj, bias, alpha; } ou;
   GLsizei surface_indices, line_vertices, solid_vertices;
 } ViewGl;
@@ -266,13 +267,20 @@ mesh_data_build (const df_surface *surface)
   for (int q = 0; q < 2; q++)
     {
       df_mesh_quantity which = q == 0 ? DF_MESH_GAUSSIAN : DF_MESH_MEAN;
+      const double *values = q == 0 ? df_mesh_gaussian (data->mesh) : df_mesh_mean (data->mesh);
+      const uint8_t *valid = df_mesh_valid (data->mesh);
       double max = q == 0 ? df_mesh_max_abs_k (data->mesh) : df_mesh_max_abs_h (data->mesh);
       double scale = q == 0 ? data->size * data->size : data->size;
       double range = df_mesh_abs_quantile (data->mesh, which, 0.99);
       if (!(range * scale > 1e-9))
         range = max * scale > 1e-9 ? max : 0;
       data->range[q] = range;
-      data->clipped[q] = range > 0 && max > range * (1 + 1e-6);
+      for (gsize i = 0; range > 0 && i < df_mesh_n_vertices (data->mesh); i++)
+        if (valid[i])
+          {
+            data->below[q] |= values[i] < -range * (1 + 1e-6);
+            data->above[q] |= values[i] > range * (1 + 1e-6);
+          }
     }
 
   df_surface_get_domain (surface, &u_min, &u_max, &v_min, &v_max);
@@ -583,12 +591,13 @@ scene_size (DfSurfaceView *self)
 static void
 rebuild_overlay (DfSurfaceView *self)
 {
-  /* Violet and slate stay apart from the blue-orange scale and from the usual loop colours;
-   * the start vector is ink-dark and the returned one a strong magenta, so the two compare. */
-  static const GdkRGBA carried = { 0.45f, 0.12f, 0.62f, 0.9f };
-  static const GdkRGBA partner = { 0.30f, 0.34f, 0.40f, 0.8f };
-  static const GdkRGBA start = { 0.07f, 0.07f, 0.09f, 1.0f };
-  static const GdkRGBA returned = { 0.80f, 0.05f, 0.55f, 1.0f };
+  /* Ink-dark carried vectors read on every colour of the blue-white-orange scale; the partner
+   * is a green, a hue the scale does not use; the returned vector is a strong magenta against
+   * the ink start vector, so the two compare at a glance. */
+  static const GdkRGBA carried = { 0.10f, 0.10f, 0.14f, 0.9f };
+  static const GdkRGBA partner = { 0.04f, 0.48f, 0.30f, 0.85f };
+  static const GdkRGBA start = { 0.05f, 0.05f, 0.07f, 1.0f };
+  static const GdkRGBA returned = { 0.85f, 0.05f, 0.55f, 1.0f };
   double size = scene_size (self);
   GHashTableIter iter;
   gpointer value;
@@ -738,6 +747,7 @@ build_programs (ViewGl  *gl,
   gl->lu.bias = glGetUniformLocation (gl->lines_program, "u_bias");
   gl->lu.viewport = glGetUniformLocation (gl->lines_program, "u_viewport");
   gl->lu.alpha = glGetUniformLocation (gl->lines_program, "u_alpha");
+  gl->lu.px_scale = glGetUniformLocation (gl->lines_program, "u_px_scale");
   gl->ou.view = glGetUniformLocation (gl->solid_program, "u_view");
   gl->ou.proj = glGetUniformLocation (gl->solid_program, "u_proj");
   gl->ou.bias = glGetUniformLocation (gl->solid_program, "u_bias");
@@ -960,6 +970,7 @@ draw_scene (DfSurfaceView *self,
       glUniformMatrix4fv (gl->lu.proj, 1, GL_FALSE, (float *) proj);
       glUniform1f (gl->lu.bias, OVERLAY_BIAS);
       glUniform2f (gl->lu.viewport, width, height);
+      glUniform1f (gl->lu.px_scale, gtk_widget_get_scale_factor (GTK_WIDGET (self)));
       glUseProgram (gl->solid_program);
       glUniformMatrix4fv (gl->ou.view, 1, GL_FALSE, (float *) view);
       glUniformMatrix4fv (gl->ou.proj, 1, GL_FALSE, (float *) proj);
@@ -1883,14 +1894,25 @@ df_surface_view_get_shading_range (DfSurfaceView *self,
     *hi = m;
 }
 
-gboolean
-df_surface_view_get_shading_clipped (DfSurfaceView *self)
+void
+df_surface_view_get_shading_clipped (DfSurfaceView *self,
+                                     gboolean      *below,
+                                     gboolean      *above)
 {
-  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
+  gboolean lo = FALSE, hi = FALSE;
 
-  if (self->mesh == NULL || self->mesh->mesh == NULL || self->shading == DF_SHADING_PLAIN)
-    return FALSE;
-  return self->mesh->clipped[self->shading == DF_SHADING_MEAN];
+  g_return_if_fail (DF_IS_SURFACE_VIEW (self));
+
+  if (self->mesh != NULL && self->mesh->mesh != NULL && self->shading != DF_SHADING_PLAIN)
+    {
+      int q = self->shading == DF_SHADING_MEAN;
+      lo = self->mesh->below[q];
+      hi = self->mesh->above[q];
+    }
+  if (below != NULL)
+    *below = lo;
+  if (above != NULL)
+    *above = hi;
 }
 
 gboolean
@@ -1898,21 +1920,27 @@ df_surface_view_save_png (DfSurfaceView *self,
                           const char    *path,
                           GError       **error)
 {
-  GtkGLArea *area = GTK_GL_AREA (self);
-  ViewGl *gl = &self->gl;
-  int w = self->fb_width, h = self->fb_height;
+  GtkGLArea *area;
+  ViewGl *gl;
+  int w, h;
   g_autoptr (GBytes) pixels = NULL;
   g_autoptr (GdkTexture) texture = NULL;
   g_autoptr (GBytes) png = NULL;
   guchar *data, *row;
-  gsize stride = (gsize) w * 4;
+  gsize stride;
   GLenum status;
 
   g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
   g_return_val_if_fail (path != NULL, FALSE);
 
+  area = GTK_GL_AREA (self);
+  gl = &self->gl;
+  w = self->fb_width;
+  h = self->fb_height;
+  stride = (gsize) w * 4;
   if (!gtk_widget_get_realized (GTK_WIDGET (self)) || w <= 0 || h <= 0
-      || gtk_gl_area_get_error (area) != NULL || gl->surface_program == 0)
+      || gtk_gl_area_get_error (area) != NULL || gl->surface_program == 0
+      || gl->lines_program == 0 || gl->solid_program == 0)
     {
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
                    "Cannot save %s: the 3D view is not showing anything", path);

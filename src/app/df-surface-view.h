@@ -121,12 +121,15 @@ gboolean    df_surface_view_save_png            (DfSurfaceView    *self,
 /* Shading range (symmetric, +/- max |value|) for the legend, in 1/unit^2 (K) or 1/unit (H);
  * 0, 0 for plain shading or no surface. The max is taken over 99 % of the surface's area, so
  * a divergence on a sliver (a cone apex, a cusp) does not wash the colours out; the values
- * beyond are drawn in the end colours, and get_shading_clipped then says so. Rounding noise
+ * beyond are drawn in the end colours, and get_shading_clipped says on which side values lie
+ * beyond the range (for a legend's "<=" and ">="). Rounding noise
  * (K, H of a developable or minimal surface) gives 0, 0. */
 void        df_surface_view_get_shading_range   (DfSurfaceView    *self,
                                                  double           *lo,
                                                  double           *hi);
-gboolean    df_surface_view_get_shading_clipped (DfSurfaceView    *self);
+void        df_surface_view_get_shading_clipped (DfSurfaceView    *self,
+                                                 gboolean         *below,
+                                                 gboolean         *above);
 
 /* Runs n frames of orbit animation (one full turn) and reports the frame-to-frame times through
  * the callback when done (median and 95th percentile in ms), for a benchmark mode. The camera
