@@ -203,28 +203,23 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
 }
 
 df_status
-df_surface_christoffel (const df_surface *s, double u, double v,
-                        double gamma[DF_DIM][DF_DIM][DF_DIM], df_diag *diag)
+df_chart_jet_christoffel (const df_chart_jet *j, double gamma[DF_DIM][DF_DIM][DF_DIM])
 {
-  df_chart_jet j;
   double g[2][2], det, ginv[2][2], gl[2][2][2];
-  df_status st;
 
-  if ((st = df_surface_eval (s, u, v, 2, &j, diag)) != DF_OK)
-    return st;
   for (int a = 0; a < 2; a++)
     for (int b = 0; b < 2; b++)
-      g[a][b] = dot3 (j.d1[a], j.d1[b]);
+      g[a][b] = dot3 (j->d1[a], j->d1[b]);
   det = g[0][0] * g[1][1] - g[0][1] * g[1][0];
   if (metric_singular (det, g[0][0], g[1][1]))
-    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the chart is singular here");
+    return DF_E_SINGULAR;
   ginv[0][0] = g[1][1] / det;
   ginv[1][1] = g[0][0] / det;
   ginv[0][1] = ginv[1][0] = -g[0][1] / det;
   for (int l = 0; l < 2; l++)
     for (int a = 0; a < 2; a++)
       for (int b = a; b < 2; b++)
-        gl[l][a][b] = dot3 (X2 (&j, a, b), j.d1[l]);
+        gl[l][a][b] = dot3 (X2 (j, a, b), j->d1[l]);
   for (int k = 0; k < 2; k++)
     for (int a = 0; a < 2; a++)
       for (int b = a; b < 2; b++)
@@ -233,11 +228,25 @@ df_surface_christoffel (const df_surface *s, double u, double v,
 }
 
 df_status
+df_surface_christoffel (const df_surface *s, double u, double v,
+                        double gamma[DF_DIM][DF_DIM][DF_DIM], df_diag *diag)
+{
+  df_chart_jet j;
+  df_status st;
+
+  if ((st = df_surface_eval (s, u, v, 2, &j, diag)) != DF_OK)
+    return st;
+  if (df_chart_jet_christoffel (&j, gamma) != DF_OK)
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the chart is singular here");
+  return DF_OK;
+}
+
+df_status
 df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, double *sqrt_g,
                    df_diag *diag)
 {
   df_chart_jet j;
-  double n[3], len, det, ii[3];
+  double n[3], len, ii[3];
   df_status st;
 
   if ((st = df_surface_eval (s, u, v, 2, &j, diag)) != DF_OK)
@@ -254,10 +263,8 @@ df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, do
     }
   for (int a = 0; a < 3; a++)
     ii[a] = dot3 (j.d2[a], n) / len;
-  det = len * len;
   /* K sqrt(det g) = det II / sqrt(det g). */
   *k_sqrt_g = (ii[0] * ii[2] - ii[1] * ii[1]) / len;
-  (void) det;
   if (sqrt_g)
     *sqrt_g = len;
   return DF_OK;

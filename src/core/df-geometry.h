@@ -45,6 +45,11 @@ df_status df_surface_christoffel (const df_surface *surface,
                                   double            gamma[DF_DIM][DF_DIM][DF_DIM],
                                   df_diag          *diag);
 
+/* Gamma^k_ij from a chart jet of order >= 2 (the transport's hot path evaluates the jet once and
+ * uses it for the tangent too). DF_E_SINGULAR where det g vanishes. */
+df_status df_chart_jet_christoffel (const df_chart_jet *jet,
+                                    double              gamma[DF_DIM][DF_DIM][DF_DIM]);
+
 /* Gaussian curvature times sqrt(det g) at (u, v): the integrand of the enclosed curvature. */
 df_status df_surface_k_area   (const df_surface *surface,
                                double            u,

@@ -11,13 +11,15 @@
 #include <gsl/gsl_integration.h>
 #include <gsl/gsl_odeiv2.h>
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
+#include "df-cheb2.h"
 #include "df-geometry.h"
 
-#define N_LINE 4   /* length, closed integral of k_g ds, Green curvature, Green area */
+#define N_LINE 2   /* Green curvature, Green area */
 
 typedef struct
 {
@@ -27,11 +29,13 @@ typedef struct
   bool              green;        /* evaluate the Green integrands */
   double            u_ref;        /* lower limit of the inner integrals */
   double            h_ref;        /* revolution: dr/ds taken at u_ref (1 or -1 at a pole) */
-  double            max_abs_kg;
+  double            pole_t;       /* polar curve coordinates: the pole's t */
+  double            pole_sign;    /* and dt / drho */
   size_t            evals;
   df_status         fail_status;
   df_diag           fail;
-  gsl_integration_workspace *ws;  /* graph inner integrals */
+  gsl_integration_workspace *ws;  /* inner integrals done directly */
+  df_cheb2         *fit;          /* graph: x-integrated fit of (K sqrt g, sqrt g), or NULL */
 } line_ctx;
 
 static double
@@ -151,171 +155,119 @@ inner_integral (line_ctx *ctx, double u, double v, bool area, double *out)
   return DF_OK;
 }
 
-/* y = (length, int k_g ds, int H dv, int A dv). */
-static int
-line_rhs (double tau, const double y[], double dydt[], void *data)
+static df_status
+green_fit_fn (double x, double y, double *values, void *user)
 {
-  line_ctx *ctx = data;
-  df_curve_point cp;
-  double speed, kg, dv = 0.0;
+  line_ctx *ctx = user;
+
+  return df_surface_k_area (ctx->surface, x, y, &values[0], &values[1], NULL);
+}
+
+/* Graph: fits K sqrt(g) and sqrt(g) over the loop's chart box by Chebyshev polynomials and
+ * integrates them in x once, so each point of the loop costs a polynomial evaluation instead
+ * of a quadrature. The lower limit becomes the box's left edge. Falls back to direct inner
+ * quadrature (ctx->fit stays NULL) when the fit does not converge. */
+static void
+prepare_graph_fit (line_ctx *ctx)
+{
+  double tau0, tau1, lo[2] = { INFINITY, INFINITY }, hi[2] = { -INFINITY, -INFINITY };
+  double u_min, u_max, v_min, v_max, pad[2];
+  const int m = 4096;
+
+  df_curve_get_range (ctx->curve, &tau0, &tau1);
+  for (int i = 0; i <= m; i++)
+    {
+      double p[2], dp[2], ddp[2];
+
+      df_curve_eval_plane (ctx->curve, tau0 + (tau1 - tau0) * i / m, p, dp, ddp);
+      for (int k = 0; k < 2; k++)
+        {
+          lo[k] = fmin (lo[k], p[k]);
+          hi[k] = fmax (hi[k], p[k]);
+        }
+    }
+  /* A margin for the curve between the scan points, kept inside the domain. */
+  df_surface_get_domain (ctx->surface, &u_min, &u_max, &v_min, &v_max);
+  for (int k = 0; k < 2; k++)
+    pad[k] = 0.01 * (hi[k] - lo[k]) + 1e-9;
+  lo[0] = fmax (u_min, lo[0] - pad[0]);
+  hi[0] = fmin (u_max, hi[0] + pad[0]);
+  lo[1] = fmax (v_min, lo[1] - pad[1]);
+  hi[1] = fmin (v_max, hi[1] + pad[1]);
+  if (df_cheb2_fit (green_fit_fn, ctx, 2, lo[0], hi[0], lo[1], hi[1], 1e-12, &ctx->fit, NULL)
+      != DF_OK)
+    ctx->fit = NULL;
+  else
+    ctx->u_ref = lo[0];
+}
+
+/* The Green integrands H dv and A dv at a curve point, for Green's theorem: the enclosed
+ * curvature and area. Integrated by the transport's own adaptive steps (an extra integrand),
+ * so they cost no second pass along the curve; the formula is independent of the transport.
+ * Along a cubic spline they are C1, so the steps need not stop at its knots. */
+static df_status
+green_integrand (double tau, const double p[2], const double dp[2], double *values, void *user)
+{
+  line_ctx *ctx = user;
+  df_curve_coords coords = df_curve_get_coords (ctx->curve);
+  double u, v, h_val, a_val;
   df_status st;
 
-  (void) y;
+  (void) tau;
   ctx->evals++;
-  st = df_curve_eval (ctx->curve, tau, &cp, &ctx->fail);
-  if (st != DF_OK)
+  if (coords == DF_COORDS_CHART)
     {
-      ctx->fail_status = st;
-      return GSL_EBADFUNC;
+      u = p[0];
+      v = p[1];
     }
-  kg = geodesic_curvature (&cp, &speed);
-  if (!isfinite (kg))
+  else
     {
-      ctx->fail_status = df_diag_fail_at (&ctx->fail, DF_E_SINGULAR, -1, cp.u, cp.v,
-                                          "the curve has zero speed");
-      return GSL_EBADFUNC;
+      u = ctx->pole_t + ctx->pole_sign * hypot (p[0], p[1]);
+      v = atan2 (p[1], p[0]);
     }
-  if (fabs (kg) > ctx->max_abs_kg)
-    ctx->max_abs_kg = fabs (kg);
-  dydt[0] = speed;
-  dydt[1] = kg * speed;
-  dydt[2] = dydt[3] = 0.0;
-  if (!ctx->green)
-    return GSL_SUCCESS;
-
   if (ctx->revolution)
     {
-      /* K dA = -r_ss ds dphi: H(t) = dr/ds(u_ref) - dr/ds(t) (GEOMETRY.md). In polar curve
-       * coordinates dphi/dtau = (p x p') / |p|^2, finite times H, which is O(rho^2) near a
-       * smooth pole. */
-      double drds = profile_drds (ctx->surface, cp.u, NULL, &ctx->fail, &st);
-      double h_val, a_val;
+      /* K dA = -r_ss ds dphi: H(t) = dr/ds(u_ref) - dr/ds(t) (GEOMETRY.md). */
+      double drds = profile_drds (ctx->surface, u, NULL, &ctx->fail, &st);
 
       if (st != DF_OK)
-        {
-          ctx->fail_status = st;
-          return GSL_EBADFUNC;
-        }
+        return st;
       h_val = ctx->h_ref - drds;
-      if (inner_integral (ctx, cp.u, 0.0, true, &a_val) != DF_OK)
+      if ((st = inner_integral (ctx, u, 0.0, true, &a_val)) != DF_OK)
+        return st;
+      if (coords == DF_COORDS_CHART)
         {
-          ctx->fail_status = df_diag_fail_at (&ctx->fail, DF_E_NOCONVERGE, -1, cp.u, cp.v,
-                                              "the area integral did not converge");
-          return GSL_EBADFUNC;
-        }
-      if (df_curve_get_coords (ctx->curve) == DF_COORDS_CHART)
-        {
-          dv = cp.dp[1];
-          dydt[2] = h_val * dv;
-          dydt[3] = a_val * dv;
+          values[0] = h_val * dp[1];
+          values[1] = a_val * dp[1];
         }
       else
         {
           /* dphi = (p x p') / |p|^2 dtau. Near the pole p x p' loses its digits to rounding
            * while H and A vanish like |p|^2, so the quotients H / |p|^2 and A / |p|^2 are
            * formed first: the product then stays bounded instead of amplifying the noise. */
-          double rho2 = cp.p[0] * cp.p[0] + cp.p[1] * cp.p[1];
-          double pxdp = cp.p[0] * cp.dp[1] - cp.p[1] * cp.dp[0];
+          double rho2 = p[0] * p[0] + p[1] * p[1];
+          double pxdp = p[0] * dp[1] - p[1] * dp[0];
 
-          dydt[2] = rho2 > 0 ? (h_val / rho2) * pxdp : 0.0;
-          dydt[3] = rho2 > 0 ? (a_val / rho2) * pxdp : 0.0;
+          values[0] = rho2 > 0 ? (h_val / rho2) * pxdp : 0.0;
+          values[1] = rho2 > 0 ? (a_val / rho2) * pxdp : 0.0;
         }
+      return DF_OK;
     }
-  else
+  if (ctx->fit != NULL)
     {
-      double h_val, a_val;
+      double ha[2];
 
-      dv = cp.dp[1];
-      if (inner_integral (ctx, cp.u, cp.v, false, &h_val) != DF_OK
-          || inner_integral (ctx, cp.u, cp.v, true, &a_val) != DF_OK)
-        {
-          ctx->fail_status = df_diag_fail_at (&ctx->fail, DF_E_NOCONVERGE, -1, cp.u, cp.v,
-                                              "the enclosed-curvature integral did not converge");
-          return GSL_EBADFUNC;
-        }
-      dydt[2] = h_val * dv;
-      dydt[3] = a_val * dv;
+      df_cheb2_eval_xint (ctx->fit, u, v, ha);
+      values[0] = ha[0] * dp[1];
+      values[1] = ha[1] * dp[1];
+      return DF_OK;
     }
-  return GSL_SUCCESS;
-}
-
-static int
-compare_double (const void *a, const void *b)
-{
-  double x = *(const double *) a, y = *(const double *) b;
-
-  return (x > y) - (x < y);
-}
-
-/* Integrates the line integrals over the curve, recording the running values at n_at
- * increasing parameters `at` (may be NULL). */
-static df_status
-line_integrals (line_ctx *ctx, double rel_tol, const double *at, size_t n_at, double y[N_LINE],
-                double (*y_at)[N_LINE], df_diag *diag)
-{
-  double tau0, tau1, tau, h, *stops;
-  const double *breaks;
-  size_t n_breaks = df_curve_get_breaks (ctx->curve, &breaks), n_stops = 0, next_at = 0;
-  gsl_odeiv2_system sys = { line_rhs, NULL, N_LINE, ctx };
-  gsl_odeiv2_step *step = gsl_odeiv2_step_alloc (gsl_odeiv2_step_rk8pd, N_LINE);
-  gsl_odeiv2_control *control = gsl_odeiv2_control_y_new (1e-13 * df_surface_size (ctx->surface),
-                                                          rel_tol);
-  gsl_odeiv2_evolve *evolve = gsl_odeiv2_evolve_alloc (N_LINE);
-  df_status st = DF_OK;
-
-  df_curve_get_range (ctx->curve, &tau0, &tau1);
-  stops = malloc ((n_breaks + n_at + 1) * sizeof *stops);
-  if (!stops || !step || !control || !evolve)
-    {
-      st = DF_E_NOMEM;
-      goto done;
-    }
-  for (size_t i = 0; i < n_breaks; i++)
-    if (breaks[i] > tau0 && breaks[i] < tau1)
-      stops[n_stops++] = breaks[i];
-  for (size_t i = 0; i < n_at; i++)
-    if (at[i] > tau0 && at[i] < tau1)
-      stops[n_stops++] = at[i];
-  stops[n_stops++] = tau1;
-  qsort (stops, n_stops, sizeof *stops, compare_double);
-
-  memset (y, 0, N_LINE * sizeof (double));
-  tau = tau0;
-  h = (tau1 - tau0) / 64;
-  while (next_at < n_at && at[next_at] <= tau0)
-    memset (y_at[next_at++], 0, sizeof y_at[0]);
-  for (size_t k = 0; k < n_stops; k++)
-    {
-      while (tau < stops[k])
-        {
-          int rc = gsl_odeiv2_evolve_apply (evolve, control, step, &sys, &tau, stops[k], &h, y);
-
-          if (rc != GSL_SUCCESS)
-            {
-              if (ctx->fail_status != DF_OK)
-                {
-                  st = ctx->fail_status;
-                  if (diag)
-                    *diag = ctx->fail;
-                }
-              else
-                st = df_diag_fail (diag, df_status_from_gsl (rc), -1,
-                                   "the line integrals stopped at tau = %.6g: %s", tau,
-                                   gsl_strerror (rc));
-              goto done;
-            }
-        }
-      gsl_odeiv2_evolve_reset (evolve);
-      while (next_at < n_at && at[next_at] <= tau)
-        memcpy (y_at[next_at++], y, sizeof y_at[0]);
-    }
-
-done:
-  free (stops);
-  if (evolve) gsl_odeiv2_evolve_free (evolve);
-  if (control) gsl_odeiv2_control_free (control);
-  if (step) gsl_odeiv2_step_free (step);
-  return st;
+  if ((st = inner_integral (ctx, u, v, false, &h_val)) != DF_OK
+      || (st = inner_integral (ctx, u, v, true, &a_val)) != DF_OK)
+    return st;
+  values[0] = h_val * dp[1];
+  values[1] = a_val * dp[1];
+  return DF_OK;
 }
 
 /* --- simplicity: segment intersections on a planar picture of the loop ------------------- */
@@ -359,66 +311,77 @@ picture_point (const df_curve *c, double tau, double q[2])
   q[1] = p[1];
 }
 
+/* Spatial hash of segments: a cell a few segments wide, keyed by its integer coordinates, so
+ * each segment meets only its neighbours on the curve and the few places where the curve
+ * comes back near itself. */
+typedef struct
+{
+  long   cx, cy;
+  size_t seg;
+  size_t next;     /* next entry in the same bucket, or SIZE_MAX */
+} cell_entry;
+
+static size_t
+cell_hash (long cx, long cy, size_t mask)
+{
+  unsigned long long h = (unsigned long long) cx * 0x9E3779B97F4A7C15ULL
+                         ^ (unsigned long long) cy * 0xC2B2AE3D27D4EB4FULL;
+
+  return (size_t) (h ^ (h >> 29)) & mask;
+}
+
 static df_status
 loop_is_simple (const df_curve *c, bool *simple)
 {
   const double *taus;
   size_t n_nodes = df_curve_get_nodes (c, &taus);
-  size_t n = n_nodes ? 3 * n_nodes : 2048, cells;
-  double tau0, tau1, (*q)[2], lo[2] = { INFINITY, INFINITY }, hi[2] = { -INFINITY, -INFINITY };
-  size_t *head = NULL, *next_in_cell = NULL, *seg_cell = NULL, grid;
-  size_t *entries_seg = NULL, n_entries = 0, cap;
+  size_t n = n_nodes ? 2 * n_nodes : 2048, n_buckets = 1, n_entries = 0, cap;
+  double tau0, tau1, (*q)[2], total = 0.0, cell;
+  size_t *bucket = NULL;
+  cell_entry *entries = NULL;
+  df_status st = DF_OK;
 
   *simple = true;
-  if (n > 60000)
-    n = 60000;
+  if (n > 100000)
+    n = 100000;
   df_curve_get_range (c, &tau0, &tau1);
   q = malloc (n * sizeof *q);
   if (q == NULL)
     return DF_E_NOMEM;
   for (size_t i = 0; i < n; i++)
+    picture_point (c, tau0 + (tau1 - tau0) * i / n, q[i]);
+  for (size_t i = 0; i < n; i++)
+    total += hypot (q[(i + 1) % n][0] - q[i][0], q[(i + 1) % n][1] - q[i][1]);
+  cell = 4.0 * total / n + 1e-300;
+  while (n_buckets < 4 * n)
+    n_buckets *= 2;
+  cap = 4 * n;
+  bucket = malloc (n_buckets * sizeof *bucket);
+  entries = malloc (cap * sizeof *entries);
+  if (!bucket || !entries)
     {
-      picture_point (c, tau0 + (tau1 - tau0) * i / n, q[i]);
-      for (int k = 0; k < 2; k++)
-        {
-          lo[k] = fmin (lo[k], q[i][k]);
-          hi[k] = fmax (hi[k], q[i][k]);
-        }
+      st = DF_E_NOMEM;
+      goto out;
     }
-  /* Uniform grid hashing: each segment goes into every cell its box touches; only segments
-   * sharing a cell are compared. */
-  grid = (size_t) ceil (sqrt ((double) n));
-  cells = grid * grid;
-  cap = 8 * n;
-  head = malloc (cells * sizeof *head);
-  next_in_cell = malloc (cap * sizeof *next_in_cell);
-  entries_seg = malloc (cap * sizeof *entries_seg);
-  seg_cell = NULL;
-  if (!head || !next_in_cell || !entries_seg)
-    {
-      free (q); free (head); free (next_in_cell); free (entries_seg);
-      return DF_E_NOMEM;
-    }
-  for (size_t i = 0; i < cells; i++)
-    head[i] = (size_t) -1;
+  for (size_t i = 0; i < n_buckets; i++)
+    bucket[i] = SIZE_MAX;
   for (size_t i = 0; i < n && *simple; i++)
     {
       const double *a = q[i], *b = q[(i + 1) % n];
-      double w0 = (hi[0] - lo[0]) / grid + 1e-300, w1 = (hi[1] - lo[1]) / grid + 1e-300;
-      size_t c0 = (size_t) fmin (grid - 1, floor ((fmin (a[0], b[0]) - lo[0]) / w0));
-      size_t c1 = (size_t) fmin (grid - 1, floor ((fmax (a[0], b[0]) - lo[0]) / w0));
-      size_t r0 = (size_t) fmin (grid - 1, floor ((fmin (a[1], b[1]) - lo[1]) / w1));
-      size_t r1 = (size_t) fmin (grid - 1, floor ((fmax (a[1], b[1]) - lo[1]) / w1));
+      long c0 = (long) floor (fmin (a[0], b[0]) / cell), c1 = (long) floor (fmax (a[0], b[0]) / cell);
+      long r0 = (long) floor (fmin (a[1], b[1]) / cell), r1 = (long) floor (fmax (a[1], b[1]) / cell);
 
-      for (size_t cx = c0; cx <= c1 && *simple; cx++)
-        for (size_t cy = r0; cy <= r1 && *simple; cy++)
+      for (long cx = c0; cx <= c1 && *simple; cx++)
+        for (long cy = r0; cy <= r1 && *simple; cy++)
           {
-            size_t cell = cy * grid + cx;
+            size_t h = cell_hash (cx, cy, n_buckets - 1);
 
-            for (size_t e = head[cell]; e != (size_t) -1; e = next_in_cell[e])
+            for (size_t e = bucket[h]; e != SIZE_MAX; e = entries[e].next)
               {
-                size_t j = entries_seg[e];
+                size_t j = entries[e].seg;
 
+                if (entries[e].cx != cx || entries[e].cy != cy)
+                  continue;
                 /* Neighbours share an end point: not a crossing. */
                 if (j == i || (j + 1) % n == i || (i + 1) % n == j)
                   continue;
@@ -430,26 +393,25 @@ loop_is_simple (const df_curve *c, bool *simple)
               }
             if (n_entries == cap)
               {
-                cap *= 2;
-                next_in_cell = realloc (next_in_cell, cap * sizeof *next_in_cell);
-                entries_seg = realloc (entries_seg, cap * sizeof *entries_seg);
-                if (!next_in_cell || !entries_seg)
+                cell_entry *grown = realloc (entries, 2 * cap * sizeof *entries);
+
+                if (grown == NULL)
                   {
-                    free (q); free (head); free (next_in_cell); free (entries_seg);
-                    return DF_E_NOMEM;
+                    st = DF_E_NOMEM;
+                    goto out;
                   }
+                entries = grown;
+                cap *= 2;
               }
-            entries_seg[n_entries] = i;
-            next_in_cell[n_entries] = head[cell];
-            head[cell] = n_entries++;
+            entries[n_entries] = (cell_entry) { cx, cy, i, bucket[h] };
+            bucket[h] = n_entries++;
           }
     }
+out:
   free (q);
-  free (head);
-  free (next_in_cell);
-  free (entries_seg);
-  free (seg_cell);
-  return DF_OK;
+  free (bucket);
+  free (entries);
+  return st;
 }
 
 /* --- the measurement ----------------------------------------------------------------------- */
@@ -554,8 +516,8 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
   df_transport_options topt;
   df_transport_result tr = { 0 };
   line_ctx ctx = { 0 };
-  double y[N_LINE], (*y_at)[N_LINE] = NULL, *at = NULL;
   df_status st;
+  double max_abs_kg, u_min, u_max;
   size_t n_s;
 
   memset (out, 0, sizeof *out);
@@ -568,53 +530,49 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       options = &defaults;
     }
   n_s = options->n_samples < 8 ? 8 : options->n_samples;
+  out->axis_winding = df_curve_axis_winding (curve);
+  if ((st = loop_is_simple (curve, &out->simple)) != DF_OK)
+    return st;
+
+  /* Which disc, and the Green integrands' set-up. */
+  ctx.curve = curve;
+  ctx.surface = df_curve_get_surface (curve);
+  ctx.revolution = df_surface_get_kind (ctx.surface) == DF_SURFACE_REVOLUTION;
+  df_surface_get_domain (ctx.surface, &u_min, &u_max, NULL, NULL);
+  ctx.pole_t = df_curve_get_coords (curve) == DF_COORDS_POLAR_MAX ? u_max : u_min;
+  ctx.pole_sign = df_curve_get_coords (curve) == DF_COORDS_POLAR_MAX ? -1.0 : 1.0;
+  ctx.ws = gsl_integration_workspace_alloc (200);
+  if (ctx.ws == NULL)
+    return DF_E_NOMEM;
+  choose_disc (curve, out, &ctx);
+  ctx.green = out->bounds_disc;
+  if (ctx.green && !ctx.revolution)
+    prepare_graph_fit (&ctx);
 
   df_transport_options_init (&topt);
   topt.rel_tol = options->rel_tol;
   topt.abs_tol = options->rel_tol * 0.1;
   topt.n_out = n_s;
+  if (ctx.green)
+    {
+      topt.n_extra = 2;
+      topt.extra = green_integrand;
+      topt.extra_user = &ctx;
+    }
   if ((st = df_transport_run (curve, NULL, &topt, &tr, diag)) != DF_OK)
-    return st;
+    goto done;
   out->holonomy_rad = df_signed_angle (tr.start_vector, tr.end_vector, tr.start_normal);
   out->rhs_evals = tr.rhs_evals;
   out->norm_drift = tr.norm_drift;
-  out->axis_winding = df_curve_axis_winding (curve);
-
-  if ((st = loop_is_simple (curve, &out->simple)) != DF_OK)
-    goto done;
-
-  ctx.curve = curve;
-  ctx.surface = df_curve_get_surface (curve);
-  ctx.revolution = df_surface_get_kind (ctx.surface) == DF_SURFACE_REVOLUTION;
-  ctx.ws = gsl_integration_workspace_alloc (200);
-  choose_disc (curve, out, &ctx);
-  ctx.green = out->bounds_disc;
-  if (ctx.ws == NULL)
-    {
-      st = DF_E_NOMEM;
-      goto done;
-    }
-  at = malloc (tr.n_samples * sizeof *at);
-  y_at = malloc (tr.n_samples * sizeof *y_at);
-  if (!at || !y_at)
-    {
-      st = DF_E_NOMEM;
-      goto done;
-    }
-  for (size_t i = 0; i < tr.n_samples; i++)
-    at[i] = tr.samples[i].tau;
-  if ((st = line_integrals (&ctx, options->rel_tol, at, tr.n_samples, y, y_at, diag)) != DF_OK)
-    goto done;
-
-  out->length = y[0];
-  out->total_geodesic_curvature_rad = y[1];
+  out->length = tr.length;
+  out->total_geodesic_curvature_rad = tr.total_kg;
+  out->corner_turning_rad = tr.corner_turning;
+  max_abs_kg = tr.max_abs_kg;
   if (out->bounds_disc)
     {
-      double area_signed = y[3];
-
-      out->disc_on_left = area_signed > 0;
-      out->enclosed_curvature_rad = y[2];
-      out->area = fabs (area_signed);
+      out->disc_on_left = tr.extra[1] > 0;
+      out->enclosed_curvature_rad = tr.extra[0];
+      out->area = fabs (tr.extra[1]);
       out->residual_rad = df_wrap_angle (out->holonomy_rad - out->enclosed_curvature_rad);
     }
 
@@ -635,7 +593,7 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
 
       if ((st = df_curve_eval (curve, ts->tau, &cp, diag)) != DF_OK)
         goto done;
-      ls->s = y_at[i][0];
+      ls->s = ts->s;
       ls->u = cp.u;
       ls->v = cp.v;
       ls->at_pole = cp.at_pole;
@@ -643,24 +601,22 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       memcpy (ls->normal, ts->normal, sizeof ls->normal);
       memcpy (ls->vector, ts->vector, sizeof ls->vector);
       cross3 (ts->normal, ts->vector, ls->partner);
-      ls->angle_rad = -y_at[i][1];
+      ls->angle_rad = ts->angle - tr.samples[0].angle;
       ls->k_g = geodesic_curvature (&cp, &speed);
-      if (fabs (ls->k_g) > ctx.max_abs_kg)
-        ctx.max_abs_kg = fabs (ls->k_g);
+      if (fabs (ls->k_g) > max_abs_kg)
+        max_abs_kg = fabs (ls->k_g);
       if ((st = df_surface_geometry (ctx.surface, cp.u, cp.v, &geo, diag)) != DF_OK)
         goto done;
       ls->K = geo.K;
     }
-  out->max_abs_kg = ctx.max_abs_kg;
+  out->max_abs_kg = max_abs_kg;
   /* A geodesic loop (k_g = 0 to rounding) has no steering limit. */
-  out->has_steering_radius = ctx.max_abs_kg > 1e-9 / df_surface_size (ctx.surface);
-  out->min_steering_radius = out->has_steering_radius ? 1.0 / ctx.max_abs_kg : 0.0;
+  out->has_steering_radius = max_abs_kg > 1e-9 / df_surface_size (ctx.surface);
+  out->min_steering_radius = out->has_steering_radius ? 1.0 / max_abs_kg : 0.0;
 
 done:
-  if (ctx.ws)
-    gsl_integration_workspace_free (ctx.ws);
-  free (at);
-  free (y_at);
+  gsl_integration_workspace_free (ctx.ws);
+  df_cheb2_free (ctx.fit);
   df_transport_result_clear (&tr);
   if (st != DF_OK)
     df_loop_result_clear (out);

@@ -46,9 +46,10 @@ typedef struct
   double area;                    /* of the disc, positive */
   double residual_rad;            /* holonomy - enclosed, wrapped to (-pi, pi] */
   bool   disc_on_left;            /* the disc lies left of the direction of travel */
-  double total_geodesic_curvature_rad;  /* closed integral of k_g ds */
+  double total_geodesic_curvature_rad;  /* closed integral of k_g ds over the smooth pieces */
+  double corner_turning_rad;      /* sum of turning angles at corners (exact curves only) */
   double length;
-  double max_abs_kg;
+  double max_abs_kg;              /* at the transport's evaluation points and the samples */
   bool   has_steering_radius;     /* false for k_g == 0 everywhere (a geodesic loop) */
   double min_steering_radius;     /* 1 / max |k_g| */
   int    axis_winding;            /* turns around a revolution surface's axis */

@@ -8,19 +8,26 @@
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_odeiv2.h>
 #include <math.h>
+#include <stdbool.h>
 #include <stdlib.h>
 #include <string.h>
 
 #include "df-geometry.h"
+#include "df-loop.h"
 
 typedef struct
 {
   const df_curve   *curve;
   const df_surface *surface;
   size_t            evals;
+  double            max_abs_kg;
+  const df_transport_options *options;
   df_diag           fail;      /* where the right-hand side failed */
   df_status         fail_status;
 } transport_ctx;
+
+/* The state: the carried vector (2 chart components or 3 space ones), then the arc length,
+ * which is as smooth as the vector's right-hand side and so costs no extra steps. */
 
 static double
 dot3 (const double a[3], const double b[3])
@@ -57,6 +64,9 @@ df_transport_options_init (df_transport_options *o)
   o->abs_tol = 1e-12;
   o->form = DF_TRANSPORT_AUTO;
   o->n_out = 0;
+  o->n_extra = 0;
+  o->extra = NULL;
+  o->extra_user = NULL;
 }
 
 void
@@ -68,18 +78,69 @@ df_transport_result_clear (df_transport_result *r)
   memset (r, 0, sizeof *r);
 }
 
-/* Chart form: y = (V^1, V^2). Returning GSL_EBADFUNC stops the integrator cleanly when the
- * curve leaves the chart. */
+/* Geodesic curvature x'' . (N x x') / |x'|^3 from a point's derivatives; also the speed. */
+static double
+geodesic_curvature (const double dx[3], const double ddx[3], const double n[3], double *speed)
+{
+  double nxt[3];
+
+  *speed = sqrt (dot3 (dx, dx));
+  cross3 (n, dx, nxt);
+  return dot3 (ddx, nxt) / (*speed * *speed * *speed);
+}
+
+/* Gauss-Legendre rule of order 10 on [-1, 1] (Abramowitz and Stegun, table 25.4, from
+ * memory): the extra integrands are integrated over each accepted step with it, which is as
+ * accurate as the step's own eighth-order rule and needs 5 evaluations instead of 13. */
+static const double gl5_x[5] = { -0.906179845938664, -0.538469310105683, 0.0, 0.538469310105683,
+                                 0.906179845938664 };
+static const double gl5_w[5] = { 0.236926885056189, 0.478628670499366, 0.568888888888889,
+                                 0.478628670499366, 0.236926885056189 };
+
+static df_status
+integrate_extra (transport_ctx *ctx, double a, double b, double *acc)
+{
+  const df_transport_options *o = ctx->options;
+  double half = 0.5 * (b - a), mid = 0.5 * (a + b);
+
+  for (int k = 0; k < 5; k++)
+    {
+      double tau = mid + half * gl5_x[k], p[2], dp[2], ddp[2], v[DF_TRANSPORT_MAX_EXTRA];
+      df_status st;
+
+      df_curve_eval_plane (ctx->curve, tau, p, dp, ddp);
+      if ((st = o->extra (tau, p, dp, v, o->extra_user)) != DF_OK)
+        return df_diag_fail (&ctx->fail, st, -1, "an integrand along the path failed at tau "
+                             "= %.6g", tau);
+      for (size_t m = 0; m < o->n_extra; m++)
+        acc[m] += half * gl5_w[k] * v[m];
+    }
+  return DF_OK;
+}
+
+static void
+note_kg (transport_ctx *ctx, double kg)
+{
+  if (isfinite (kg) && fabs (kg) > ctx->max_abs_kg)
+    ctx->max_abs_kg = fabs (kg);
+}
+
+/* Chart form: y = (V^1, V^2, s). One second-order evaluation of the chart gives Gamma, the
+ * speed and the geodesic curvature. Returning GSL_EBADFUNC stops the integrator cleanly when
+ * the curve leaves the chart. */
 static int
 rhs_chart (double tau, const double y[], double dydt[], void *data)
 {
   transport_ctx *ctx = data;
-  double p[2], dp[2], ddp[2], gamma[2][2][2];
+  double p[2], dp[2], ddp[2], gamma[2][2][2], dx[3], ddx[3], n[3], len, speed;
+  df_chart_jet j;
   df_status st;
 
   ctx->evals++;
   df_curve_eval_plane (ctx->curve, tau, p, dp, ddp);
-  st = df_surface_christoffel (ctx->surface, p[0], p[1], gamma, &ctx->fail);
+  st = df_surface_eval (ctx->surface, p[0], p[1], 2, &j, &ctx->fail);
+  if (st == DF_OK && df_chart_jet_christoffel (&j, gamma) != DF_OK)
+    st = df_diag_fail_at (&ctx->fail, DF_E_SINGULAR, -1, p[0], p[1], "the chart is singular here");
   if (st != DF_OK)
     {
       ctx->fail_status = st;
@@ -89,22 +150,34 @@ rhs_chart (double tau, const double y[], double dydt[], void *data)
     {
       double acc = 0.0;
 
-      for (int i = 0; i < 2; i++)
-        for (int j = 0; j < 2; j++)
-          acc += gamma[k][i][j] * dp[i] * y[j];
+      for (int a = 0; a < 2; a++)
+        for (int b = 0; b < 2; b++)
+          acc += gamma[k][a][b] * dp[a] * y[b];
       dydt[k] = -acc;
     }
+  for (int k = 0; k < 3; k++)
+    {
+      dx[k] = j.d1[0][k] * dp[0] + j.d1[1][k] * dp[1];
+      ddx[k] = j.d2[0][k] * dp[0] * dp[0] + 2 * j.d2[1][k] * dp[0] * dp[1]
+               + j.d2[2][k] * dp[1] * dp[1] + j.d1[0][k] * ddp[0] + j.d1[1][k] * ddp[1];
+    }
+  cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (dot3 (n, n));
+  for (int k = 0; k < 3; k++)
+    n[k] /= len;
+  note_kg (ctx, geodesic_curvature (dx, ddx, n, &speed));
+  dydt[2] = speed;
   return GSL_SUCCESS;
 }
 
-/* Extrinsic form: y = V in space. */
+/* Extrinsic form: y = (V in space, s). */
 static int
 rhs_extrinsic (double tau, const double y[], double dydt[], void *data)
 {
   transport_ctx *ctx = data;
   df_curve_point cp;
   df_status st;
-  double vdn;
+  double vdn, speed;
 
   ctx->evals++;
   st = df_curve_eval (ctx->curve, tau, &cp, &ctx->fail);
@@ -116,6 +189,8 @@ rhs_extrinsic (double tau, const double y[], double dydt[], void *data)
   vdn = dot3 (y, cp.dnormal);
   for (int k = 0; k < 3; k++)
     dydt[k] = -vdn * cp.normal[k];
+  note_kg (ctx, geodesic_curvature (cp.dx, cp.ddx, cp.normal, &speed));
+  dydt[3] = speed;
   return GSL_SUCCESS;
 }
 
@@ -174,6 +249,24 @@ state_to_space (const transport_ctx *ctx, bool chart, double tau, const double *
   return DF_OK;
 }
 
+/* Angle from the unit tangent at tau_t to the carried vector at tau, about N. */
+static df_status
+tangent_angle (const transport_ctx *ctx, bool chart, double tau, double tau_t, const double *y,
+               double *angle, double w[3], df_curve_point *cp, df_diag *diag)
+{
+  df_curve_point ct;
+  df_status st;
+
+  if ((st = state_to_space (ctx, chart, tau, y, w, cp, diag)) != DF_OK)
+    return st;
+  if (tau_t == tau)
+    ct = *cp;
+  else if ((st = df_curve_eval (ctx->curve, tau_t, &ct, diag)) != DF_OK)
+    return st;
+  *angle = df_signed_angle (ct.dx, w, cp->normal);
+  return DF_OK;
+}
+
 static int
 compare_double (const void *a, const void *b)
 {
@@ -182,26 +275,34 @@ compare_double (const void *a, const void *b)
   return (x > y) - (x < y);
 }
 
+static bool
+is_break (const double *breaks, size_t n_breaks, double tau)
+{
+  for (size_t i = 0; i < n_breaks; i++)
+    if (breaks[i] == tau)
+      return true;
+  return false;
+}
+
 df_status
 df_transport_run (const df_curve *curve, const double *v0_space,
                   const df_transport_options *options, df_transport_result *out,
                   df_diag *diag)
 {
   df_transport_options defaults;
-  transport_ctx ctx = { curve, df_curve_get_surface (curve), 0, { 0 }, DF_OK };
+  transport_ctx ctx = { curve, df_curve_get_surface (curve), 0, 0.0, NULL, { 0 }, DF_OK };
   bool chart;
-  double tau0, tau1, y[3], w0[3], len;
+  double tau0, tau1, y[4], w0[3], len, psi, psi_acc = 0.0, smooth_acc = 0.0, corners = 0.0;
   df_curve_point cp;
   const double *breaks;
-  size_t n_breaks, n_stops = 0, n_out;
+  size_t n_breaks, n_stops = 0, n_out, dim, next_out = 0;
   double *stops = NULL;
   gsl_odeiv2_system sys;
   gsl_odeiv2_step *step = NULL;
   gsl_odeiv2_control *control = NULL;
   gsl_odeiv2_evolve *evolve = NULL;
   df_status st = DF_OK;
-  double h, tau;
-  size_t next_out = 0;
+  double h, tau, eps;
 
   memset (out, 0, sizeof *out);
   df_diag_clear (diag);
@@ -211,11 +312,17 @@ df_transport_run (const df_curve *curve, const double *v0_space,
       df_transport_options_init (&defaults);
       options = &defaults;
     }
+  if (options->n_extra > DF_TRANSPORT_MAX_EXTRA || (options->n_extra && !options->extra))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "bad extra integrands");
+  ctx.options = options;
   chart = options->form == DF_TRANSPORT_CHART
           || (options->form == DF_TRANSPORT_AUTO && df_curve_get_coords (curve) == DF_COORDS_CHART);
   if (chart && df_curve_get_coords (curve) != DF_COORDS_CHART)
     return df_diag_fail (diag, DF_E_INPUT, -1, "the chart form needs a curve in chart coordinates");
   df_curve_get_range (curve, &tau0, &tau1);
+  n_breaks = df_curve_get_breaks (curve, &breaks);
+  /* Tangents on either side of a corner are taken this far from it. */
+  eps = 1e-9 * (tau1 - tau0);
 
   /* Start vector: tangent-plane part of v0, unit length. */
   if ((st = df_curve_eval (curve, tau0, &cp, diag)) != DF_OK)
@@ -249,9 +356,11 @@ df_transport_run (const df_curve *curve, const double *v0_space,
     }
   else
     memcpy (y, w0, sizeof w0);
+  dim = chart ? 2 : 3;
+  y[dim] = 0.0;
+  psi = df_signed_angle (cp.dx, w0, cp.normal);
 
   /* Stops: corners and output samples, sorted. */
-  n_breaks = df_curve_get_breaks (curve, &breaks);
   n_out = options->n_out >= 2 ? options->n_out : 0;
   stops = malloc ((n_breaks + n_out + 1) * sizeof *stops);
   if (n_out)
@@ -271,7 +380,7 @@ df_transport_run (const df_curve *curve, const double *v0_space,
 
   sys.function = chart ? rhs_chart : rhs_extrinsic;
   sys.jacobian = NULL;
-  sys.dimension = chart ? 2 : 3;
+  sys.dimension = dim + 1;
   sys.params = &ctx;
   step = gsl_odeiv2_step_alloc (gsl_odeiv2_step_rk8pd, sys.dimension);
   control = gsl_odeiv2_control_y_new (options->abs_tol, options->rel_tol);
@@ -295,13 +404,14 @@ df_transport_run (const df_curve *curve, const double *v0_space,
   h = (tau1 - tau0) / 64;
   for (size_t k = 0; k < n_stops; k++)
     {
-      double target = stops[k];
+      double target = stops[k], w[3];
       size_t guard = 0;
 
       if (target <= tau)
         continue;
       while (tau < target)
         {
+          double tau_prev = tau, psi_new, d;
           int rc = gsl_odeiv2_evolve_apply (evolve, control, step, &sys, &tau, target, &h, y);
 
           if (rc != GSL_SUCCESS)
@@ -318,20 +428,50 @@ df_transport_run (const df_curve *curve, const double *v0_space,
                                    gsl_strerror (rc));
               goto done;
             }
+          if (options->n_extra
+              && (st = integrate_extra (&ctx, tau_prev, tau, out->extra)) != DF_OK)
+            {
+              if (diag)
+                *diag = ctx.fail;
+              goto done;
+            }
           if (++guard > 10000000)
             {
               st = df_diag_fail (diag, DF_E_NOCONVERGE, -1, "too many integration steps");
               goto done;
             }
+          /* Follow the tangent's turning against the carried vector step by step: the
+           * change of angle is -k_g ds, exactly, with no quadrature of k_g (which is only
+           * continuous on a spline). At a corner the left-hand tangent is used. */
+          if ((st = tangent_angle (&ctx, chart, tau, tau >= target && is_break (breaks, n_breaks,
+                                                                                 target)
+                                                     ? tau - eps : tau,
+                                   y, &psi_new, w, &cp, diag)) != DF_OK)
+            goto done;
+          d = df_wrap_angle (psi_new - psi);
+          psi_acc += d;
+          smooth_acc += d;
+          psi = psi_new;
         }
-      /* A corner is a fresh start for the step size. */
-      gsl_odeiv2_evolve_reset (evolve);
-      gsl_odeiv2_step_reset (step);
+      if (is_break (breaks, n_breaks, target))
+        {
+          /* The turning angle at the corner: from the left tangent to the right one. */
+          double psi_right;
+
+          if ((st = tangent_angle (&ctx, chart, tau, tau + eps, y, &psi_right, w, &cp, diag))
+              != DF_OK)
+            goto done;
+          corners += df_wrap_angle (psi - psi_right);
+          psi_acc += df_wrap_angle (psi_right - psi);
+          psi = psi_right;
+          /* A corner is a fresh start for the step size. */
+          gsl_odeiv2_evolve_reset (evolve);
+          gsl_odeiv2_step_reset (step);
+        }
       if (n_out && next_out < n_out
           && fabs (target - (tau0 + (tau1 - tau0) * next_out / (n_out - 1))) <= 1e-12 * (tau1 - tau0))
         {
           df_transport_sample *smp = &out->samples[next_out++];
-          double w[3];
 
           if ((st = state_to_space (&ctx, chart, tau, y, w, &cp, diag)) != DF_OK)
             goto done;
@@ -339,6 +479,8 @@ df_transport_run (const df_curve *curve, const double *v0_space,
           memcpy (smp->x, cp.x, sizeof smp->x);
           memcpy (smp->normal, cp.normal, sizeof smp->normal);
           memcpy (smp->vector, w, sizeof w);
+          smp->s = y[dim];
+          smp->angle = psi_acc;
         }
     }
   {
@@ -354,6 +496,10 @@ df_transport_run (const df_curve *curve, const double *v0_space,
         st = df_diag_fail (diag, DF_E_NONFINITE, -1, "the carried vector is not finite");
   }
   out->n_samples = next_out;
+  out->length = y[dim];
+  out->total_kg = -smooth_acc;
+  out->corner_turning = corners;
+  out->max_abs_kg = ctx.max_abs_kg;
 
 done:
   out->rhs_evals = ctx.evals;

@@ -16,12 +16,23 @@ typedef enum
   DF_TRANSPORT_EXTRINSIC
 } df_transport_form;
 
+#define DF_TRANSPORT_MAX_EXTRA 4
+
+/* Extra integrands integrated along with the transport: values of n_extra functions of the
+ * curve's plane coordinates p and dp/dtau at tau, integrated over each of the transport's
+ * accepted steps by a 5-point Gauss-Legendre rule (the steps adapt to the curve's shape). */
+typedef df_status (*df_transport_extra_fn) (double tau, const double p[2], const double dp[2],
+                                            double *values, void *user);
+
 typedef struct
 {
   double            rel_tol;     /* per-step relative tolerance; default 1e-11 */
   double            abs_tol;     /* per-step absolute tolerance; default 1e-12 */
   df_transport_form form;
   size_t            n_out;       /* samples to record, evenly spaced in tau (>= 2); 0 = none */
+  size_t            n_extra;     /* 0 .. DF_TRANSPORT_MAX_EXTRA */
+  df_transport_extra_fn extra;
+  void             *extra_user;
 } df_transport_options;
 
 /* Fills the defaults above. */
@@ -34,6 +45,9 @@ typedef struct
   double x[3];        /* space point */
   double normal[3];
   double vector[3];   /* the carried vector, unit length, in space */
+  double s;           /* arc length from the start */
+  double angle;       /* angle from the path's unit tangent to the carried vector about N,
+                       * followed continuously from its start value (changes by -k_g ds) */
 } df_transport_sample;
 
 typedef struct
@@ -43,6 +57,13 @@ typedef struct
   double               start_normal[3];
   double               end_normal[3];
   double               norm_drift;       /* | |V_end| - 1 |: a check on the integration */
+  double               length;           /* of the path, integrated with the transport */
+  double               total_kg;         /* integral of k_g ds over the smooth pieces, from the
+                                          * turning of the tangent against the carried vector
+                                          * (corners excluded) */
+  double               corner_turning;   /* sum of the turning angles at corners */
+  double               max_abs_kg;       /* largest |k_g| met at the integrator's points */
+  double               extra[DF_TRANSPORT_MAX_EXTRA];  /* integrals of the extra integrands */
   size_t               rhs_evals;
   size_t               n_samples;
   df_transport_sample *samples;          /* n_samples, owned */
