@@ -196,7 +196,22 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
   out->H = 0.5 * (out->ginv[0][0] * out->second_form[0][0]
                   + 2 * out->ginv[0][1] * out->second_form[0][1]
                   + out->ginv[1][1] * out->second_form[1][1]);
-  shape_curvatures (out->K, out->H, &out->k1, &out->k2);
+  {
+    /* Principal curvatures as eigenvalues of the shape operator S = g^-1 II, with the
+     * discriminant ((S11 - S22) / 2)^2 + S12 S21 formed from S's entries: H^2 - K would lose
+     * half the digits near an umbilic, where the two are nearly equal. */
+    double sh[2][2], half, disc;
+
+    for (int a = 0; a < 2; a++)
+      for (int b = 0; b < 2; b++)
+        sh[a][b] = out->ginv[a][0] * out->second_form[0][b]
+                   + out->ginv[a][1] * out->second_form[1][b];
+    half = 0.5 * (sh[0][0] - sh[1][1]);
+    disc = half * half + sh[0][1] * sh[1][0];
+    disc = disc > 0 ? sqrt (disc) : 0.0;
+    out->k1 = out->H + disc;
+    out->k2 = out->H - disc;
+  }
   if (df_surface_get_kind (s) == DF_SURFACE_REVOLUTION)
     revolution_normal (&j, v, out->normal);
   return DF_OK;
