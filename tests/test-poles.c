@@ -1,0 +1,203 @@
+/* test-poles.c: loops through and around the poles of surfaces of revolution, where the
+ * (t, phi) chart is singular, and cone apices with their concentrated curvature. */
+#include <math.h>
+
+#include "df-test.h"
+
+static void
+measure (const df_surface *s, const double (*uv)[2], size_t n, df_loop_result *r,
+         df_curve_coords *coords)
+{
+  g_autoptr (df_curve) c = NULL;
+  df_diag diag;
+  df_status st = df_curve_new_through_points (s, uv, n, true, &c, &diag);
+
+  if (st != DF_OK)
+    g_error ("curve: %s: %s", df_status_describe (st), diag.detail);
+  if (coords)
+    *coords = df_curve_get_coords (c);
+  st = df_loop_measure (c, NULL, r, &diag);
+  if (st != DF_OK)
+    g_error ("measure: %s: %s", df_status_describe (st), diag.detail);
+}
+
+/* n points on the unit sphere's small circle of angular radius rho whose centre lies at polar
+ * angle rho on the meridian phi0: the circle runs through the north pole (theta = 0) when
+ * north is true, else through the south pole with the centre at polar angle pi - rho. */
+static double (*circle_through_pole (double rho, double phi0, size_t n, bool north))[2]
+{
+  double (*uv)[2] = g_malloc (n * sizeof *uv);
+  double ct = north ? rho : G_PI - rho;
+  double c[3] = { sin (ct) * cos (phi0), sin (ct) * sin (phi0), cos (ct) };
+  double e1[3] = { cos (ct) * cos (phi0), cos (ct) * sin (phi0), -sin (ct) };
+  double e2[3] = { -sin (phi0), cos (phi0), 0 };
+
+  for (size_t i = 0; i < n; i++)
+    {
+      /* Start at the pole: angle pi from e1 on the circle points toward it for north. */
+      double a = G_PI + 2 * G_PI * i / n, p[3];
+
+      if (!north)
+        a = 2 * G_PI * i / n;
+      for (int k = 0; k < 3; k++)
+        p[k] = cos (rho) * c[k] + sin (rho) * (cos (a) * e1[k] + sin (a) * e2[k]);
+      uv[i][0] = acos (CLAMP (p[2], -1.0, 1.0));
+      uv[i][1] = (i == 0) ? phi0 : atan2 (p[1], p[0]);
+    }
+  return uv;
+}
+
+static void
+test_circle_through_north_pole (void)
+{
+  /* A spherical cap of angular radius rho has K-area 2 pi (1 - cos rho) (Archimedes,
+   * Gauss-Bonnet; do Carmo sec. 4-5, from memory), wherever it sits: here its rim runs through
+   * the pole, where the (t, phi) chart fails. */
+  g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0, G_PI);
+  const double rho = 0.35;
+  size_t n = 240;
+  g_autofree double (*uv)[2] = circle_through_pole (rho, 0.4, n, true);
+  g_auto (df_loop_result) r = { 0 };
+  df_curve_coords coords;
+  double want = 2 * G_PI * (1 - cos (rho));
+
+  measure (s, (const double (*)[2]) uv, n, &r, &coords);
+  g_assert_cmpint (coords, ==, DF_COORDS_POLAR_MIN);
+  g_assert_true (r.bounds_disc);
+  /* Points, not the exact circle: as close as the spline through 240 points allows. */
+  df_assert_close (fabs (r.holonomy_rad), want, 0.0, 1e-7);
+  df_assert_close (fabs (r.enclosed_curvature_rad), want, 0.0, 1e-7);
+  df_assert_close (r.residual_rad, 0.0, 0.0, 1e-9);
+  df_assert_close (r.area, want, 0.0, 1e-7);
+  df_assert_close (r.length, 2 * G_PI * sin (rho), 1e-7, 0.0);
+  g_assert_cmpfloat (r.norm_drift, <, 1e-9);
+}
+
+static void
+test_circle_through_south_pole (void)
+{
+  g_autoptr (df_surface) s = df_test_revolution ("2*sin(t)", "2*cos(t)", 0, G_PI);
+  const double rho = 0.5;
+  size_t n = 240;
+  g_autofree double (*uv)[2] = circle_through_pole (rho, -1.0, n, false);
+  g_auto (df_loop_result) r = { 0 };
+  df_curve_coords coords;
+  double want = 2 * G_PI * (1 - cos (rho));
+
+  measure (s, (const double (*)[2]) uv, n, &r, &coords);
+  g_assert_cmpint (coords, ==, DF_COORDS_POLAR_MAX);
+  df_assert_close (fabs (r.enclosed_curvature_rad), want, 0.0, 1e-7);
+  df_assert_close (r.residual_rad, 0.0, 0.0, 1e-9);
+  /* Radius 2: area scales with R^2, curvature does not. */
+  df_assert_close (r.area, 4 * want, 1e-7, 0.0);
+}
+
+static void
+test_paraboloid_two_charts (void)
+{
+  /* The paraboloid z = (x^2 + y^2) / 2 as a graph and as a surface of revolution r = t,
+   * z = t^2 / 2 with its pole at t = 0: the same loop round the vertex must measure the same
+   * in both charts, 2 pi (1 - 1 / sqrt(1 + rho^2)) for the circle rho (Gauss map area, do
+   * Carmo sec. 3-3, from memory). The loop wobbles, so it is not a parallel. */
+  g_autoptr (df_surface) rev = df_test_revolution ("t", "t^2/2", 0, 3);
+  g_autoptr (df_surface) graph = df_test_graph ("(x^2 + y^2)/2", -3, 3, -3, 3);
+  size_t n = 400;
+  g_autofree double (*polar)[2] = g_malloc (n * sizeof *polar);
+  g_autofree double (*cart)[2] = g_malloc (n * sizeof *cart);
+  g_auto (df_loop_result) a = { 0 };
+  g_auto (df_loop_result) b = { 0 };
+  g_auto (df_loop_result) circle = { 0 };
+
+  for (size_t i = 0; i < n; i++)
+    {
+      double ph = 2 * G_PI * i / n, rr = 1.2 + 0.3 * cos (2 * ph) + 0.1 * sin (3 * ph);
+
+      polar[i][0] = rr;
+      polar[i][1] = ph;
+      cart[i][0] = rr * cos (ph);
+      cart[i][1] = rr * sin (ph);
+    }
+  measure (rev, (const double (*)[2]) polar, n, &a, NULL);
+  measure (graph, (const double (*)[2]) cart, n, &b, NULL);
+  /* The two splines differ (phi vs x, y), so agreement is to the interpolation error. */
+  df_assert_close (a.holonomy_rad, b.holonomy_rad, 0.0, 1e-6);
+  df_assert_close (a.enclosed_curvature_rad, b.enclosed_curvature_rad, 0.0, 1e-6);
+  df_assert_close (a.area, b.area, 1e-6, 0.0);
+  for (size_t i = 0; i < n; i++)
+    {
+      polar[i][0] = 1.1;
+      polar[i][1] = 2 * G_PI * i / n;
+    }
+  measure (rev, (const double (*)[2]) polar, n, &circle, NULL);
+  df_assert_close (circle.enclosed_curvature_rad, 2 * G_PI * (1 - 1 / sqrt (1 + 1.1 * 1.1)),
+                   0.0, 1e-8);
+}
+
+static void
+test_cone_apex_outside (void)
+{
+  /* A loop on a cone that does not go round the apex encloses no curvature: the cone is flat
+   * there (it unrolls onto a plane, from memory). */
+  g_autoptr (df_surface) s = df_test_revolution ("t*sin(0.5)", "-t*cos(0.5)", 0, 3);
+  size_t n = 60;
+  g_autofree double (*uv)[2] = g_malloc (n * sizeof *uv);
+  g_auto (df_loop_result) r = { 0 };
+
+  for (size_t i = 0; i < n; i++)
+    {
+      double th = 2 * G_PI * i / n;
+
+      uv[i][0] = 2.0 + 0.5 * cos (th);
+      uv[i][1] = 0.3 + 0.4 * sin (th);
+    }
+  measure (s, (const double (*)[2]) uv, n, &r, NULL);
+  g_assert_true (r.bounds_disc);
+  df_assert_close (r.concentrated_rad, 0.0, 0.0, 0.0);
+  df_assert_close (r.enclosed_curvature_rad, 0.0, 0.0, 1e-10);
+  df_assert_close (r.holonomy_rad, 0.0, 0.0, 1e-9);
+}
+
+static void
+test_near_both_poles (void)
+{
+  /* A meridian great circle passes both poles: one chart cannot hold it; a clear error. */
+  g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0, G_PI);
+  double uv[4][2] = { { 0, 0 }, { G_PI / 2, 0 }, { G_PI, 0 }, { G_PI / 2, G_PI } };
+  df_curve *c = NULL;
+  df_diag diag;
+
+  g_assert_cmpint (df_curve_new_through_points (s, (const double (*)[2]) uv, 4, true, &c, &diag),
+                   ==, DF_E_INPUT);
+  g_assert_true (strstr (diag.detail, "both poles") != NULL);
+  g_assert_null (c);
+}
+
+static void
+test_pole_probe (void)
+{
+  /* At a pole the chart's metric is degenerate: the normal and curvatures are limits. */
+  g_autoptr (df_surface) s = df_test_revolution ("3*sin(t)", "3*cos(t)", 0, G_PI);
+  df_point_geometry g;
+  df_diag diag;
+
+  g_assert_cmpint (df_surface_geometry (s, 0.0, 1.0, &g, &diag), ==, DF_OK);
+  g_assert_false (g.chart_regular);
+  df_assert_close (g.normal[2], 1.0, 0.0, 1e-12);
+  df_assert_close (g.K, 1.0 / 9.0, 1e-6, 0.0);
+  g_assert_cmpint (df_surface_geometry (s, G_PI, 1.0, &g, &diag), ==, DF_OK);
+  df_assert_close (g.normal[2], -1.0, 0.0, 1e-12);
+}
+
+int
+main (int argc, char **argv)
+{
+  df_core_init ();
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+  g_test_add_func ("/core/poles/circle-through-north-pole", test_circle_through_north_pole);
+  g_test_add_func ("/core/poles/circle-through-south-pole", test_circle_through_south_pole);
+  g_test_add_func ("/core/poles/paraboloid-two-charts", test_paraboloid_two_charts);
+  g_test_add_func ("/core/poles/cone-apex-outside", test_cone_apex_outside);
+  g_test_add_func ("/core/poles/near-both-poles", test_near_both_poles);
+  g_test_add_func ("/core/poles/pole-probe", test_pole_probe);
+  return g_test_run ();
+}
