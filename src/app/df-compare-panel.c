@@ -30,7 +30,12 @@ show_text (GtkLabel   *label,
 static void
 df_compare_panel_dispose (GObject *object)
 {
+  GtkWidget *child;
+
   gtk_widget_dispose_template (GTK_WIDGET (object), DF_TYPE_COMPARE_PANEL);
+  /* The template's unnamed top box is not a bound child: unparent whatever is left. */
+  while ((child = gtk_widget_get_first_child (GTK_WIDGET (object))) != NULL)
+    gtk_widget_unparent (child);
   G_OBJECT_CLASS (df_compare_panel_parent_class)->dispose (object);
 }
 

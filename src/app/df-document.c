@@ -20,6 +20,7 @@ struct _DfDocument
   char            *path;
   char            *saved_snapshot;  /* project text as last loaded or saved */
   char            *last_label;
+  char            *display_name;
   gboolean         modified;
 };
 
@@ -78,6 +79,7 @@ df_document_finalize (GObject *object)
   g_free (self->path);
   g_free (self->saved_snapshot);
   g_free (self->last_label);
+  g_free (self->display_name);
   G_OBJECT_CLASS (df_document_parent_class)->finalize (object);
 }
 
@@ -320,6 +322,7 @@ df_document_set_project (DfDocument  *self,
   if (!replace_state (self, owned, error))
     return FALSE;
   df_history_clear (self->history);
+  g_clear_pointer (&self->display_name, g_free);
   set_path (self, path);
   g_free (self->saved_snapshot);
   /* An unsaved project (from a preset or a .surface) counts as modified only once edited. */
@@ -393,8 +396,20 @@ df_document_get_title (DfDocument *self)
   g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
 
   if (self->path == NULL)
-    return g_strdup ("Untitled project");
+    return g_strdup (self->display_name != NULL ? self->display_name : "Untitled project");
   return g_path_get_basename (self->path);
+}
+
+void
+df_document_set_display_name (DfDocument *self,
+                              const char *name)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+
+  g_free (self->display_name);
+  self->display_name = g_strdup (name);
+  /* Observers refresh titles on "path". */
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_PATH]);
 }
 
 gboolean

@@ -37,6 +37,9 @@ const char           *df_document_get_path         (DfDocument *self);
 /* "Untitled project" or the file's base name. */
 char                 *df_document_get_title        (DfDocument *self);
 gboolean              df_document_get_modified     (DfDocument *self);
+/* A name for an unsaved project ("demo.dfproj (copy)"), shown until it is saved; cleared by
+ * set_project. */
+void                  df_document_set_display_name (DfDocument *self, const char *name);
 
 const df_surface_spec *df_document_get_spec        (DfDocument *self);
 const df_surface     *df_document_get_surface      (DfDocument *self);

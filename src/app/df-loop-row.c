@@ -89,12 +89,16 @@ editing_notify_cb (GtkEditableLabel *label,
 static void
 df_loop_row_dispose (GObject *object)
 {
+  GtkWidget *child;
   DfLoopRow *self = DF_LOOP_ROW (object);
 
   if (self->item != NULL)
     g_signal_handlers_disconnect_by_data (self->item, self);
   g_clear_object (&self->item);
   gtk_widget_dispose_template (GTK_WIDGET (self), DF_TYPE_LOOP_ROW);
+  /* The template's unnamed top box is not a bound child: unparent whatever is left. */
+  while ((child = gtk_widget_get_first_child (GTK_WIDGET (self))) != NULL)
+    gtk_widget_unparent (child);
   G_OBJECT_CLASS (df_loop_row_parent_class)->dispose (object);
 }
 

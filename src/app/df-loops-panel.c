@@ -138,9 +138,10 @@ update_details (DfLoopsPanel *self)
       gtk_label_set_text (self->enclosed_value, "none: bounds no disc");
       gtk_label_set_text (self->residual_value, "\u2014");
       gtk_label_set_text (self->area_value, "\u2014");
-      g_string_append (notes, "This loop bounds no disc on the surface, so there is no "
-                              "enclosed curvature to compare with; the holonomy is still "
-                              "defined. ");
+      if (r->disc_note[0] == '\0')
+        g_string_append (notes, "This loop bounds no disc on the surface, so there is no "
+                                "enclosed curvature to compare with; the holonomy is still "
+                                "defined. ");
     }
   if (r->disc_note[0] != '\0')
     {
@@ -226,10 +227,14 @@ items_changed_cb (GListModel   *model,
 static void
 df_loops_panel_dispose (GObject *object)
 {
+  GtkWidget *child;
   DfLoopsPanel *self = DF_LOOPS_PANEL (object);
 
   df_loops_panel_set_document (self, NULL);
   gtk_widget_dispose_template (GTK_WIDGET (self), DF_TYPE_LOOPS_PANEL);
+  /* The template's unnamed top box is not a bound child: unparent whatever is left. */
+  while ((child = gtk_widget_get_first_child (GTK_WIDGET (self))) != NULL)
+    gtk_widget_unparent (child);
   G_OBJECT_CLASS (df_loops_panel_parent_class)->dispose (object);
 }
 

@@ -597,10 +597,14 @@ add_param_activate_cb (GtkEntry       *entry,
 static void
 df_surface_panel_dispose (GObject *object)
 {
+  GtkWidget *child;
   DfSurfacePanel *self = DF_SURFACE_PANEL (object);
 
   g_clear_handle_id (&self->debounce_id, g_source_remove);
   gtk_widget_dispose_template (GTK_WIDGET (self), DF_TYPE_SURFACE_PANEL);
+  /* The template's unnamed top box is not a bound child: unparent whatever is left. */
+  while ((child = gtk_widget_get_first_child (GTK_WIDGET (self))) != NULL)
+    gtk_widget_unparent (child);
   G_OBJECT_CLASS (df_surface_panel_parent_class)->dispose (object);
 }
 

@@ -72,6 +72,7 @@ new_project_confirmed (DfWindow *self)
   else
     {
       gtk_stack_set_visible_child_name (self->panel_stack, "surface");
+      df_document_set_display_name (self->document, "New project");
       _df_window_status (self, FALSE, "New project: pick a surface in the Surface panel.");
     }
 }
@@ -162,6 +163,7 @@ open_demo_confirmed (DfWindow *self)
       _df_window_show_error (self, "Cannot open the demo project", error);
       return;
     }
+  df_document_set_display_name (self->document, "Demo: lamp-shade mould (unsaved copy)");
   gtk_stack_set_visible_child_name (self->panel_stack, "loops");
   _df_window_status (self, FALSE, "Demo: a lamp-shade mould with three plies (from %s).", path);
 }

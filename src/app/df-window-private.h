@@ -78,6 +78,7 @@ struct _DfWindow
   GStrv         recent;             /* most recent first */
   GMenu        *recent_menu;
   int           panel_width;
+  gboolean      panel_placed;
   gboolean      exports_pending;
   guint         export_idle_id;
   gboolean      bench_started;

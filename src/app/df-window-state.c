@@ -36,8 +36,9 @@ rebuild_recent_menu (DfWindow *self)
     }
 }
 
-/* Keeps the side panel at its width when the window is resized: the paned's position is the
- * view's width. */
+/* Places the divider once the paned first knows its width (its "max-position" follows its
+ * allocation); afterwards resize-end-child = FALSE keeps the side panel's width as the window
+ * is resized, and the user's drags move it. */
 static void
 paned_width_cb (GtkWidget  *paned,
                 GParamSpec *pspec,
@@ -45,19 +46,10 @@ paned_width_cb (GtkWidget  *paned,
 {
   int width = gtk_widget_get_width (paned);
 
-  if (width > 0 && self->panel_width > 0)
-    gtk_paned_set_position (self->paned, MAX (width - self->panel_width, 200));
-}
-
-static void
-position_cb (GtkPaned   *paned,
-             GParamSpec *pspec,
-             DfWindow   *self)
-{
-  int width = gtk_widget_get_width (GTK_WIDGET (paned));
-
-  if (width > 0)
-    self->panel_width = width - gtk_paned_get_position (paned);
+  if (width <= 0 || self->panel_placed)
+    return;
+  self->panel_placed = TRUE;
+  gtk_paned_set_position (self->paned, MAX (width - self->panel_width, 320));
 }
 
 void
@@ -96,8 +88,11 @@ _df_window_state_load (DfWindow  *self,
       *last_project = g_key_file_get_string (key_file, "files", "last-project", NULL);
     }
 
+  /* The side panel keeps its width; the view takes the rest (resize-end-child is off). */
+  gtk_window_get_default_size (GTK_WINDOW (self), &width, &height);
+  gtk_paned_set_position (self->paned, MAX (width - self->panel_width, 320));
+
   g_signal_handlers_disconnect_by_data (self->paned, self);
-  g_signal_connect (self->paned, "notify::position", G_CALLBACK (position_cb), self);
   /* A GtkPaned has no width signal; its "max-position" changes with its allocation. */
   g_signal_connect (self->paned, "notify::max-position", G_CALLBACK (paned_width_cb), self);
   rebuild_recent_menu (self);
@@ -126,6 +121,9 @@ _df_window_state_save (DfWindow *self)
   g_key_file_set_integer (key_file, "window", "height", height);
   g_key_file_set_boolean (key_file, "window", "maximized",
                           gtk_window_is_maximized (GTK_WINDOW (self)));
+  if (gtk_widget_get_width (GTK_WIDGET (self->paned)) > 0)
+    self->panel_width = gtk_widget_get_width (GTK_WIDGET (self->paned))
+                        - gtk_paned_get_position (self->paned);
   g_key_file_set_integer (key_file, "window", "panel-width", self->panel_width);
   if (self->recent != NULL)
     g_key_file_set_string_list (key_file, "files", "recent",

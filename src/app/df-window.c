@@ -71,7 +71,9 @@ df_window_get_property (GObject    *object,
       break;
     case PROP_LOOP_FRAMES:
       {
-        DfLoopItem *item = df_loops_panel_get_selected (self->loops_panel);
+        /* Also asked while the template is being built or torn down. */
+        DfLoopItem *item = self->loops_panel != NULL
+                             ? df_loops_panel_get_selected (self->loops_panel) : NULL;
         g_value_set_boolean (value, item != NULL && df_loop_item_get_show_frames (item));
       }
       break;
@@ -313,6 +315,18 @@ report_view (DfWindow *self)
   fflush (stdout);
 }
 
+/* Reports once the view has been drawn at its final size. */
+static gboolean
+report_view_tick (GtkWidget     *widget,
+                  GdkFrameClock *clock,
+                  gpointer       user_data)
+{
+  if (gtk_widget_get_width (widget) <= 1 || !gtk_widget_get_mapped (widget))
+    return G_SOURCE_CONTINUE;
+  report_view (DF_WINDOW (user_data));
+  return G_SOURCE_REMOVE;
+}
+
 /* Runs once the view has its mesh: standard view, benchmark, geometry report, exports. */
 static void
 mesh_ready_cb (DfSurfaceView *view,
@@ -321,7 +335,7 @@ mesh_ready_cb (DfSurfaceView *view,
   if (self->startup.report_view && !self->view_reported)
     {
       self->view_reported = TRUE;
-      report_view (self);
+      gtk_widget_add_tick_callback (GTK_WIDGET (self->view), report_view_tick, self, NULL);
     }
   if (self->startup.bench_orbit && !self->bench_started)
     {
