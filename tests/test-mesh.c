@@ -2,6 +2,7 @@
  * total area, outward unit normals, integrated Gaussian curvature, the vertex cap, and that no
  * NaN leaves the mesh at poles, cone apices or where a formula fails. */
 #include <math.h>
+#include <stdlib.h>
 
 #include "df-glib.h"
 #include "df-mesh.h"
@@ -125,6 +126,24 @@ test_sphere_area (void)
    * that is well under 0.5 %. */
   df_assert_close (mesh_area (mesh), 4 * G_PI * R * R, 5e-3, 0);
   g_assert_cmpfloat (mesh_area (mesh), <, 4 * G_PI * R * R);
+
+  /* The coarse index set (every other grid line) is still a closed sphere: Archimedes' area to
+   * within the (doubled) chord error, on valid vertices only. */
+  {
+    size_t n_coarse = 0;
+    uint32_t *coarse = df_mesh_coarse_indices (mesh, 2, &n_coarse);
+    double area = 0;
+    g_assert_nonnull (coarse);
+    g_assert_cmpuint (n_coarse, <, df_mesh_n_triangles (mesh) / 3);
+    for (size_t t = 0; t < n_coarse; t++)
+      {
+        for (int i = 0; i < 3; i++)
+          g_assert_cmpuint (coarse[3 * t + i], <, df_mesh_n_vertices (mesh));
+        area += triangle_area (df_mesh_positions (mesh), &coarse[3 * t]);
+      }
+    df_assert_close (area, 4 * G_PI * R * R, 2e-2, 0);
+    free (coarse);
+  }
   df_mesh_free (mesh);
 }
 

@@ -6,6 +6,7 @@
 
 #include <epoxy/gl.h>
 #include <math.h>
+#include <stdlib.h>
 
 #include "df-camera.h"
 #include "df-geometry.h"
@@ -75,6 +76,8 @@ typedef struct
 {
   df_mesh *mesh;        /* NULL when nothing could be tessellated */
   float   *vertices;    /* SURFACE_STRIDE per vertex */
+  uint32_t *coarse;     /* every other grid line, drawn while the view moves */
+  gsize     n_coarse;   /* triangles in coarse */
   char    *problem;     /* why part of the surface is missing, or NULL */
   float    lo[3], hi[3];
   double   size;        /* bounding-box diagonal */
@@ -109,14 +112,14 @@ typedef struct
 typedef struct
 {
   GLuint surface_program, lines_program, solid_program;
-  GLuint surface_vao, surface_vbo, surface_ibo;
+  GLuint surface_vao, surface_vbo, surface_ibo, surface_ibo_coarse;
   GLuint lines_vao, lines_vbo;
   GLuint solid_vao, solid_vbo;
   GLuint fbo, fbo_colour, fbo_depth;
   struct { GLint view, proj, shading, inv_range, ramp, plain, iso, iso_step, back_shade; } su;
   struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
   struct { GLint view, proj, bias, alpha; } ou;
-  GLsizei surface_indices, line_vertices, solid_vertices;
+  GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
 } ViewGl;
 
 typedef struct
@@ -170,6 +173,8 @@ struct _DfSurfaceView
   gboolean      mesh_dirty;
   gboolean      overlay_dirty;
   gboolean      fit_pending;    /* a fit was asked before the mesh or the size was known */
+  gboolean      moving;         /* the user is orbiting, panning or zooming: draw coarse */
+  guint         settle_id;      /* timeout that ends a scroll-zoom's motion */
   int           fb_width, fb_height;
   double        drag_last_x, drag_last_y;
   gboolean      pick_active;    /* a press landed on the surface; released will follow */
@@ -206,6 +211,7 @@ mesh_data_free (MeshData *data)
     return;
   df_mesh_free (data->mesh);
   g_free (data->vertices);
+  free (data->coarse);
   g_free (data->problem);
   g_free (data);
 }
@@ -287,6 +293,12 @@ mesh_data_build (const df_surface *surface)
   data->iso_step[0] = nice_step (u_max - u_min);
   /* Meridians of a surface of revolution every 15 degrees, a division the trade reads. */
   data->iso_step[1] = df_surface_v_periodic (surface) ? G_PI / 12 : nice_step (v_max - v_min);
+
+  /* Software rasterizers spend most of a frame on triangle setup: a quarter of the triangles
+   * keeps orbiting fluid, and the full mesh returns as soon as the view stops. */
+  data->coarse = df_mesh_coarse_indices (data->mesh, 2, &data->n_coarse);
+  if (data->coarse == NULL)
+    data->n_coarse = 0;
 
   count = df_mesh_n_vertices (data->mesh);
   x = df_mesh_positions (data->mesh);
@@ -676,6 +688,7 @@ setup_vertex_arrays (ViewGl *gl)
   glGenVertexArrays (1, &gl->surface_vao);
   glGenBuffers (1, &gl->surface_vbo);
   glGenBuffers (1, &gl->surface_ibo);
+  glGenBuffers (1, &gl->surface_ibo_coarse);
   glBindVertexArray (gl->surface_vao);
   glBindBuffer (GL_ARRAY_BUFFER, gl->surface_vbo);
   glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo);
@@ -829,6 +842,7 @@ delete_gl_names (ViewGl *gl)
   delete_vertex_array (&gl->solid_vao);
   delete_buffer (&gl->surface_vbo);
   delete_buffer (&gl->surface_ibo);
+  delete_buffer (&gl->surface_ibo_coarse);
   delete_buffer (&gl->lines_vbo);
   delete_buffer (&gl->solid_vbo);
   if (gl->fbo != 0)
@@ -838,7 +852,7 @@ delete_gl_names (ViewGl *gl)
   if (gl->fbo_depth != 0)
     glDeleteRenderbuffers (1, &gl->fbo_depth);
   gl->fbo = gl->fbo_colour = gl->fbo_depth = 0;
-  gl->surface_indices = gl->line_vertices = gl->solid_vertices = 0;
+  gl->surface_indices = gl->surface_indices_coarse = gl->line_vertices = gl->solid_vertices = 0;
 }
 
 static void
@@ -862,11 +876,12 @@ upload_dirty (DfSurfaceView *self)
 
   if (self->mesh_dirty)
     {
-      gsize n_vertices = 0, n_indices = 0;
+      gsize n_vertices = 0, n_indices = 0, n_coarse = 0;
       if (self->mesh != NULL && self->mesh->mesh != NULL)
         {
           n_vertices = df_mesh_n_vertices (self->mesh->mesh);
           n_indices = 3 * df_mesh_n_triangles (self->mesh->mesh);
+          n_coarse = 3 * self->mesh->n_coarse;
         }
       glBindVertexArray (gl->surface_vao);
       glBindBuffer (GL_ARRAY_BUFFER, gl->surface_vbo);
@@ -875,6 +890,12 @@ upload_dirty (DfSurfaceView *self)
       glBufferData (GL_ELEMENT_ARRAY_BUFFER, n_indices * sizeof (uint32_t),
                     n_indices > 0 ? df_mesh_indices (self->mesh->mesh) : NULL, GL_STATIC_DRAW);
       gl->surface_indices = n_indices;
+      glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo_coarse);
+      glBufferData (GL_ELEMENT_ARRAY_BUFFER, n_coarse * sizeof (uint32_t),
+                    n_coarse > 0 ? self->mesh->coarse : NULL, GL_STATIC_DRAW);
+      gl->surface_indices_coarse = n_coarse;
+      /* The VAO keeps the full index buffer as its own. */
+      glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo);
       self->mesh_dirty = FALSE;
     }
   if (self->overlay_dirty)
@@ -921,7 +942,8 @@ background_colour (DfSurfaceView *self,
 static void
 draw_scene (DfSurfaceView *self,
             int            width,
-            int            height)
+            int            height,
+            gboolean       coarse)
 {
   ViewGl *gl = &self->gl;
   float bg[3];
@@ -956,7 +978,14 @@ draw_scene (DfSurfaceView *self,
       glUniform2fv (gl->su.iso_step, 1, self->mesh->iso_step);
       glUniform1f (gl->su.back_shade, BACK_SHADE);
       glBindVertexArray (gl->surface_vao);
-      glDrawElements (GL_TRIANGLES, gl->surface_indices, GL_UNSIGNED_INT, NULL);
+      if (coarse && gl->surface_indices_coarse > 0)
+        {
+          glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo_coarse);
+          glDrawElements (GL_TRIANGLES, gl->surface_indices_coarse, GL_UNSIGNED_INT, NULL);
+          glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo);
+        }
+      else
+        glDrawElements (GL_TRIANGLES, gl->surface_indices, GL_UNSIGNED_INT, NULL);
     }
 
   if (gl->line_vertices > 0 || gl->solid_vertices > 0)
@@ -1091,7 +1120,7 @@ df_surface_view_render (GtkGLArea    *area,
     return FALSE;
   start = g_get_monotonic_time ();
   upload_dirty (self);
-  draw_scene (self, self->fb_width, self->fb_height);
+  draw_scene (self, self->fb_width, self->fb_height, self->moving || self->bench != NULL);
   if (self->bench != NULL)
     {
       gint64 now, spent;
@@ -1228,6 +1257,26 @@ df_surface_view_pick (DfSurfaceView *self,
 /* ---- input ------------------------------------------------------------------------------ */
 
 static void
+set_moving (DfSurfaceView *self,
+            gboolean       moving)
+{
+  if (self->moving == moving)
+    return;
+  self->moving = moving;
+  gtk_gl_area_queue_render (GTK_GL_AREA (self));
+}
+
+static gboolean
+settle_cb (gpointer user_data)
+{
+  DfSurfaceView *self = user_data;
+
+  self->settle_id = 0;
+  set_moving (self, FALSE);
+  return G_SOURCE_REMOVE;
+}
+
+static void
 orbit_by_pixels (DfSurfaceView *self,
                  double         dx,
                  double         dy)
@@ -1318,9 +1367,15 @@ drag_update_cb (GtkGestureDrag *gesture,
       pick_event (self, x0 + dx, y0 + dy, SURFACE_DRAGGED);
     }
   else if (button == GDK_BUTTON_MIDDLE || (mods & GDK_SHIFT_MASK))
-    pan_by_pixels (self, step_x, step_y);
+    {
+      set_moving (self, TRUE);
+      pan_by_pixels (self, step_x, step_y);
+    }
   else
-    orbit_by_pixels (self, step_x, step_y);
+    {
+      set_moving (self, TRUE);
+      orbit_by_pixels (self, step_x, step_y);
+    }
 }
 
 static void
@@ -1332,6 +1387,7 @@ drag_end_cb (GtkGestureDrag *gesture,
   guint button = gtk_gesture_single_get_current_button (GTK_GESTURE_SINGLE (gesture));
   double x0, y0;
 
+  set_moving (self, FALSE);
   if (button == GDK_BUTTON_PRIMARY && self->interaction == DF_INTERACTION_PICK)
     {
       gtk_gesture_drag_get_start_point (gesture, &x0, &y0);
@@ -1346,6 +1402,10 @@ scroll_cb (GtkEventControllerScroll *controller,
            DfSurfaceView            *self)
 {
   df_camera_zoom (&self->camera, pow (1.12, dy));
+  /* A wheel sends no "end": the motion ends a moment after the last notch. */
+  set_moving (self, TRUE);
+  g_clear_handle_id (&self->settle_id, g_source_remove);
+  self->settle_id = g_timeout_add (180, settle_cb, self);
   gtk_gl_area_queue_render (GTK_GL_AREA (self));
   return TRUE;
 }
@@ -1402,6 +1462,7 @@ df_surface_view_dispose (GObject *object)
 {
   DfSurfaceView *self = DF_SURFACE_VIEW (object);
 
+  g_clear_handle_id (&self->settle_id, g_source_remove);
   /* A build still running will find its generation stale and drop its result. */
   self->generation++;
   self->rebuild_pending = FALSE;
@@ -1967,7 +2028,7 @@ df_surface_view_save_png (DfSurfaceView *self,
   data = g_malloc (stride * h);
   if (status == GL_FRAMEBUFFER_COMPLETE)
     {
-      draw_scene (self, w, h);
+      draw_scene (self, w, h, FALSE);
       glPixelStorei (GL_PACK_ALIGNMENT, 1);
       glReadPixels (0, 0, w, h, GL_RGBA, GL_UNSIGNED_BYTE, data);
     }

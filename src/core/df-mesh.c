@@ -355,20 +355,21 @@ choose_grid (const df_surface *surface, const df_mesh_options *options,
   *n_v = seg_v + 1;
 }
 
-/* Appends the triangles of quad (r, c), leaving out any touching an invalid vertex. The quad's
- * corners a (r, c), b (r+1, c), d (r+1, c+1), e (r, c+1) run counter-clockwise in the chart,
- * hence about N; any three of them in that cyclic order keep the winding. */
+/* Appends the triangles of the cell between rows r0, r1 and columns c0, c1, leaving out any
+ * touching an invalid vertex. The corners a (r0, c0), b (r1, c0), d (r1, c1), e (r0, c1) run
+ * counter-clockwise in the chart, hence about N; any three of them in that cyclic order keep the
+ * winding. */
 static size_t
-quad_triangles (const df_mesh *mesh, size_t r, size_t c, uint32_t *out)
+cell_triangles (const df_mesh *mesh, size_t r0, size_t r1, size_t c0, size_t c1, uint32_t *out)
 {
   uint32_t corner[4];
   int bad = -1, n_bad = 0;
   size_t n = 0;
 
-  corner[0] = (uint32_t) (r * mesh->n_cols + c);
-  corner[1] = (uint32_t) ((r + 1) * mesh->n_cols + c);
-  corner[2] = (uint32_t) ((r + 1) * mesh->n_cols + c + 1);
-  corner[3] = (uint32_t) (r * mesh->n_cols + c + 1);
+  corner[0] = (uint32_t) (r0 * mesh->n_cols + c0);
+  corner[1] = (uint32_t) (r1 * mesh->n_cols + c0);
+  corner[2] = (uint32_t) (r1 * mesh->n_cols + c1);
+  corner[3] = (uint32_t) (r0 * mesh->n_cols + c1);
   for (int i = 0; i < 4; i++)
     if (!mesh->valid[corner[i]])
       {
@@ -388,6 +389,34 @@ quad_triangles (const df_mesh *mesh, size_t r, size_t c, uint32_t *out)
       n = 1;
     }
   return n;
+}
+
+/* The next kept grid line after k when keeping every step-th one and always the last. */
+static size_t
+next_line (size_t k, size_t step, size_t n)
+{
+  return k + step < n - 1 ? k + step : n - 1;
+}
+
+uint32_t *
+df_mesh_coarse_indices (const df_mesh *mesh, size_t step, size_t *n_triangles)
+{
+  size_t n = 0, cells_r, cells_c;
+  uint32_t *out;
+
+  if (step < 1)
+    step = 1;
+  cells_r = (mesh->n_rows - 2) / step + 1;
+  cells_c = (mesh->n_cols - 2) / step + 1;
+  out = malloc (sizeof (uint32_t) * 6 * cells_r * cells_c);
+  if (out == NULL)
+    return NULL;
+  for (size_t r = 0; r + 1 < mesh->n_rows; r = next_line (r, step, mesh->n_rows))
+    for (size_t c = 0; c + 1 < mesh->n_cols; c = next_line (c, step, mesh->n_cols))
+      n += cell_triangles (mesh, r, next_line (r, step, mesh->n_rows), c,
+                           next_line (c, step, mesh->n_cols), &out[3 * n]);
+  *n_triangles = n;
+  return out;
 }
 
 df_status
@@ -489,7 +518,7 @@ df_mesh_build (const df_surface      *surface,
   n_tri = 0;
   for (size_t r = 0; r + 1 < n_u; r++)
     for (size_t c = 0; c + 1 < n_v; c++)
-      n_tri += quad_triangles (mesh, r, c, &mesh->indices[3 * n_tri]);
+      n_tri += cell_triangles (mesh, r, r + 1, c, c + 1, &mesh->indices[3 * n_tri]);
   mesh->n_triangles = n_tri;
 
   if (n_tri == 0)

@@ -47,6 +47,13 @@ const double   *df_mesh_mean          (const df_mesh *mesh);   /* H, 1/length, s
 const uint8_t  *df_mesh_valid         (const df_mesh *mesh);   /* 1 where the surface evaluated */
 const uint32_t *df_mesh_indices       (const df_mesh *mesh);   /* 3 per triangle */
 
+/* Triangles over every step-th row and column (the last ones always kept) on the same
+ * vertices: a lighter mesh to draw while the view moves. malloc'd, 3 * *n_triangles indices
+ * (free() it); NULL when out of memory. */
+uint32_t       *df_mesh_coarse_indices (const df_mesh *mesh,
+                                        size_t         step,
+                                        size_t        *n_triangles);
+
 /* Largest |K| and |H| over valid vertices (0 for none): the symmetric shading range. */
 double          df_mesh_max_abs_k     (const df_mesh *mesh);
 double          df_mesh_max_abs_h     (const df_mesh *mesh);
