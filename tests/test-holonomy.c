@@ -544,18 +544,14 @@ test_sphere_two_paths (void)
   const double q = G_PI / 2;
   double b_pts[3][2] = { { q, 0 }, { 0, 0 }, { 0, q } };  /* polar p = t (cos phi, sin phi) */
   polygon_data db = { b_pts, 3 };
+  circle_data d = { { 0, 0 }, q };     /* A, the equator arc: p = q (cos tau, sin tau) */
   g_autoptr (df_curve) a = NULL;
   g_autoptr (df_curve) b = path_curve (s, DF_COORDS_POLAR_MIN, &db);
   double angle = 0.0;
   df_diag diag;
 
-  /* A is the equator arc, exact: p = q (cos tau, sin tau). */
-  {
-    circle_data d = { { 0, 0 }, q };
-
-    g_assert_cmpint (df_curve_new_function (s, DF_COORDS_POLAR_MIN, 0, q, NULL, 0, false,
-                                            circle_fn, &d, &a, &diag), ==, DF_OK);
-  }
+  g_assert_cmpint (df_curve_new_function (s, DF_COORDS_POLAR_MIN, 0, q, NULL, 0, false,
+                                          circle_fn, &d, &a, &diag), ==, DF_OK);
   g_assert_cmpint (df_compare_paths (a, b, NULL, NULL, &angle, NULL, NULL, &diag), ==, DF_OK);
   df_assert_close (angle, -G_PI / 2, 0.0, TOL_SMOOTH);
 }
