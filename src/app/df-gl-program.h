@@ -12,7 +12,8 @@ typedef enum
 {
   DF_GL_PROGRAM_ERROR_RESOURCE,   /* the shader source is not in the bundle */
   DF_GL_PROGRAM_ERROR_COMPILE,
-  DF_GL_PROGRAM_ERROR_LINK
+  DF_GL_PROGRAM_ERROR_LINK,
+  DF_GL_PROGRAM_ERROR_VERSION     /* the context is OpenGL ES or older than the shaders need */
 } DfGlProgramError;
 
 GQuark   df_gl_program_error_quark (void);

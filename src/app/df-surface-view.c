@@ -789,7 +789,7 @@ df_surface_view_realize (GtkWidget *widget)
   gdk_gl_context_get_version (context, &major, &minor);
   if (gdk_gl_context_get_use_es (context) || major < 3 || (major == 3 && minor < 3))
     {
-      g_set_error (&error, DF_GL_PROGRAM_ERROR, DF_GL_PROGRAM_ERROR_LINK,
+      g_set_error (&error, DF_GL_PROGRAM_ERROR, DF_GL_PROGRAM_ERROR_VERSION,
                    "The 3D view needs desktop OpenGL 3.3 core or newer; this system offers "
                    "%s %d.%d",
                    gdk_gl_context_get_use_es (context) ? "OpenGL ES" : "OpenGL", major, minor);
