@@ -1,6 +1,7 @@
 /* test-holonomy.c: holonomy and enclosed curvature of loops against published results:
  * Gauss-Bonnet on spheres, tori, paraboloids, saddles, cones and bumps, the Foucault
  * pendulum, small-loop limits and the properties every holonomy must have. */
+#include <gsl/gsl_sf_bessel.h>
 #include <math.h>
 
 #include "df-test.h"
@@ -304,6 +305,52 @@ test_torus_around_axis (void)
   df_assert_close (fabs (r.total_geodesic_curvature_rad), 2 * G_PI * sin (0.7), 0.0, TOL_SMOOTH);
 }
 
+static void
+test_torus_across_seam (void)
+{
+  /* The profile r = R + a cos t, z = -a sin t closes up at t = +-pi, the torus's inner equator.
+   * A chart disc of radius rho centred there encloses int cos t dt dphi
+   * = -2 pi rho J1(rho) (Bessel's integral for the disc, from memory; J1 from GSL). */
+  g_autoptr (df_surface) s = df_test_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
+  const double rho = 0.6;
+  circle_data d = { { G_PI, 0.5 }, rho };
+  g_autoptr (df_curve) c = NULL;
+  g_auto (df_loop_result) r = { 0 };
+  double want = -2 * G_PI * rho * gsl_sf_bessel_J1 (rho);
+  df_diag diag;
+
+  g_assert_true (df_surface_u_periodic (s));
+  g_assert_cmpint (df_curve_new_function (s, DF_COORDS_CHART, 0, 2 * G_PI, NULL, 0, true,
+                                          circle_fn, &d, &c, &diag), ==, DF_OK);
+  measure_curve (c, &r);
+  g_assert_true (r.bounds_disc);
+  df_assert_close (r.enclosed_curvature_rad, want, 0.0, TOL_SMOOTH);
+  df_assert_close (df_wrap_angle (r.holonomy_rad - want), 0.0, 0.0, TOL_SMOOTH);
+}
+
+static void
+test_torus_round_the_tube (void)
+{
+  /* A meridian circle round the tube bounds no disc on the torus. Meridians of a surface of
+   * revolution are geodesics (do Carmo sec. 4-4, from memory), so the carried tangent stays
+   * the tangent: holonomy 0. */
+  g_autoptr (df_surface) s = df_test_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
+  size_t n = 48;
+  g_autofree double (*uv)[2] = g_malloc (n * sizeof *uv);
+  g_auto (df_loop_result) r = { 0 };
+
+  for (size_t i = 0; i < n; i++)
+    {
+      uv[i][0] = -G_PI + 2 * G_PI * i / n;
+      uv[i][1] = 1.0;
+    }
+  measure_points (s, (const double (*)[2]) uv, n, &r);
+  g_assert_false (r.bounds_disc);
+  g_assert_true (strstr (r.disc_note, "tube") != NULL);
+  df_assert_close (r.holonomy_rad, 0.0, 0.0, TOL_SMOOTH);
+  df_assert_close (r.length, 2 * G_PI, 1e-9, 0.0);
+}
+
 /* --- graphs: paraboloid, saddle, bump ----------------------------------------------------- */
 
 static void
@@ -584,6 +631,8 @@ main (int argc, char **argv)
   g_test_add_func ("/core/holonomy/sphere-octant-points", test_sphere_octant_points);
   g_test_add_func ("/core/holonomy/torus-rectangle", test_torus_rectangle);
   g_test_add_func ("/core/holonomy/torus-around-axis", test_torus_around_axis);
+  g_test_add_func ("/core/holonomy/torus-across-seam", test_torus_across_seam);
+  g_test_add_func ("/core/holonomy/torus-round-the-tube", test_torus_round_the_tube);
   g_test_add_func ("/core/holonomy/paraboloid-cap", test_paraboloid_cap);
   g_test_add_func ("/core/holonomy/saddle-cap", test_saddle_cap);
   g_test_add_func ("/core/holonomy/bump-flat-far-out", test_bump_flat_far_out);

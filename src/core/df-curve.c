@@ -37,13 +37,14 @@ struct df_curve
   size_t          n_nodes;      /* distinct nodes; closed: the period adds one more */
   double         *taus;         /* n_nodes + 1 when closed */
   double         *coef[2];      /* per segment 4 coefficients a, b, c, d of each coordinate */
-  double          drift;        /* chart coords, closed: v grows by drift * tau per lap */
+  double          drift[2];     /* chart coords, closed: u, v grow by drift * tau per lap */
   /* exact function */
   df_curve_fn     fn;
   void           *user;
   double         *breaks;
   size_t          n_breaks;
   int             winding;
+  int             tube_winding; /* turns round a closed profile (t) */
 };
 
 static double
@@ -305,10 +306,11 @@ df_curve_eval_plane (const df_curve *c, double tau, double p[2], double dp[2], d
         ddp[k] = 2 * q[2] + 6 * dt * q[3];
       }
     if (c->coords == DF_COORDS_CHART && c->closed)
-      {
-        p[1] += c->drift * (tau - c->tau0 + laps * (c->tau1 - c->tau0));
-        dp[1] += c->drift;
-      }
+      for (int k = 0; k < 2; k++)
+        {
+          p[k] += c->drift[k] * (tau - c->tau0 + laps * (c->tau1 - c->tau0));
+          dp[k] += c->drift[k];
+        }
   }
 }
 
@@ -648,6 +650,13 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
           if (d == -M_PI)
             d = M_PI;
           pts[i][1] = pts[i - 1][1] + d;
+          if (df_surface_u_periodic (surface))
+            {
+              /* A closed profile: t steps by less than half a period, too. */
+              double per = u_max - u_min, du = remainder (pts[i][0] - pts[i - 1][0], per);
+
+              pts[i][0] = pts[i - 1][0] + du;
+            }
         }
     }
   setup_coords (c, near[0] ? DF_COORDS_POLAR_MIN : near[1] ? DF_COORDS_POLAR_MAX
@@ -678,17 +687,21 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   c->tau1 = c->taus[nseg];
 
   if (c->coords == DF_COORDS_CHART && closed && revolution)
-    {
-      /* The lap's total phi step: wrapped last -> first step added to the unwrapped run. */
-      double d = pts[0][1] - pts[n - 1][1];
-      double total;
+    for (int k = 0; k < 2; k++)
+      {
+        /* The lap's total step in a periodic coordinate: the wrapped last -> first step added
+         * to the unwrapped run; it makes the interpolated coordinate grow by a whole period. */
+        double period = k == 1 ? 2 * M_PI : u_max - u_min;
+        double d, total;
 
-      d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
-      if (d == -M_PI)
-        d = M_PI;
-      total = pts[n - 1][1] + d - pts[0][1];
-      c->drift = total / c->tau1;
-    }
+        if (k == 0 && !df_surface_u_periodic (surface))
+          continue;
+        d = remainder (pts[0][k] - pts[n - 1][k], period);
+        if (d == -period / 2)
+          d = period / 2;
+        total = pts[n - 1][k] + d - pts[0][k];
+        c->drift[k] = total / c->tau1;
+      }
   for (int k = 0; k < 2; k++)
     {
       for (size_t i = 0; i < n; i++)
@@ -697,8 +710,8 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
 
           chart_to_plane (c, pts[i][0], pts[i][1], p);
           y[i] = p[k];
-          if (k == 1 && c->coords == DF_COORDS_CHART && closed)
-            y[i] -= c->drift * c->taus[i];
+          if (c->coords == DF_COORDS_CHART && closed)
+            y[i] -= c->drift[k] * c->taus[i];
         }
       if (spline_slopes (c->taus, y, n, closed, slope) != 0)
         {
@@ -708,6 +721,8 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
       spline_coefficients (c->taus, y, slope, nseg, n, c->coef[k]);
     }
   c->winding = compute_winding (c);
+  if (c->coords == DF_COORDS_CHART && closed && df_surface_u_periodic (surface))
+    c->tube_winding = (int) lround (c->drift[0] * c->tau1 / (u_max - u_min));
 
   /* Check the interpolant stays in the domain between the points (plane coordinates only:
    * cheap enough for ten thousand points). */
@@ -833,4 +848,10 @@ int
 df_curve_axis_winding (const df_curve *c)
 {
   return c->winding;
+}
+
+int
+df_curve_tube_winding (const df_curve *c)
+{
+  return c->tube_winding;
 }

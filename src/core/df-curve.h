@@ -89,3 +89,5 @@ df_status df_curve_eval        (const df_curve *curve, double tau, df_curve_poin
 /* Net turns of v (phi) around a revolution surface's axis along a closed curve: the winding
  * number about the axis; 0 for a graph or an open curve. */
 int       df_curve_axis_winding (const df_curve *curve);
+/* Net turns of u = t round a closed profile (a torus tube) along a closed curve; else 0. */
+int       df_curve_tube_winding (const df_curve *curve);

@@ -429,6 +429,15 @@ choose_disc (const df_curve *c, df_loop_result *out, line_ctx *ctx)
   df_surface_get_poles (s, poles);
   ctx->green = true;
   out->bounds_disc = out->simple;
+  if (df_curve_tube_winding (c) != 0)
+    {
+      out->bounds_disc = false;
+      snprintf (out->disc_note, sizeof out->disc_note,
+                "the loop goes round the closed profile (the tube), so it bounds no disc; its "
+                "holonomy is still defined");
+      return;
+    }
+
   if (!out->simple)
     {
       snprintf (out->disc_note, sizeof out->disc_note,
@@ -531,7 +540,10 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
     }
   n_s = options->n_samples < 8 ? 8 : options->n_samples;
   out->axis_winding = df_curve_axis_winding (curve);
-  if ((st = loop_is_simple (curve, &out->simple)) != DF_OK)
+  /* The planar picture of the chart cannot show a loop round a torus's tube: such a loop is
+   * taken as simple, and it bounds no disc anyway. */
+  out->simple = true;
+  if (df_curve_tube_winding (curve) == 0 && (st = loop_is_simple (curve, &out->simple)) != DF_OK)
     return st;
 
   /* Which disc, and the Green integrands' set-up. */

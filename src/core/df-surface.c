@@ -30,6 +30,7 @@ struct df_surface
   double   lo[3], hi[3];
   double   size;
   df_pole  poles[2];
+  bool     u_periodic;    /* a closed profile (a torus tube): t wraps round */
   char     normal_side[200];
 };
 
@@ -178,9 +179,22 @@ point_eval (const df_surface *s, double u, double v, df_chart_jet *out, df_diag 
   }
 }
 
+/* t wrapped into [t_min, t_max) for a closed profile. */
+static double
+wrap_u (const df_surface *s, double u)
+{
+  double period = s->dom[1] - s->dom[0];
+
+  if (!s->u_periodic || (u >= s->dom[0] && u <= s->dom[1]))
+    return u;
+  return u - period * floor ((u - s->dom[0]) / period);
+}
+
 bool
 df_surface_contains (const df_surface *s, double u, double v)
 {
+  if (s->u_periodic)
+    return isfinite (u) && isfinite (v);
   if (!(u >= s->dom[0] - s->margin[0] && u <= s->dom[1] + s->margin[0]))
     return false;
   if (s->kind->type == DF_SURFACE_REVOLUTION)
@@ -203,6 +217,7 @@ df_surface_eval (const df_surface *s, double u, double v, int order, df_chart_je
                               "(x, y) outside [%.6g, %.6g] x [%.6g, %.6g]",
                               s->dom[0], s->dom[1], s->dom[2], s->dom[3]);
     }
+  u = wrap_u (s, u);
   if (order == 0)
     st = point_eval (s, u, v, out, diag);
   else
@@ -388,6 +403,20 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
     }
 
   {
+    /* A profile that ends where it starts, with the same tangent, is closed: t wraps round. */
+    df_chart_jet a, b;
+
+    if (s->kind->eval (s, t_min, 0.0, 1, &a, NULL) == DF_OK
+        && s->kind->eval (s, t_max, 0.0, 1, &b, NULL) == DF_OK)
+      {
+        double gap = hypot (a.x[0] - b.x[0], a.x[2] - b.x[2]);
+        double ta = hypot (a.d1[0][0], a.d1[0][2]), tb = hypot (b.d1[0][0], b.d1[0][2]);
+        double turn = hypot (a.d1[0][0] / ta - b.d1[0][0] / tb, a.d1[0][2] / ta - b.d1[0][2] / tb);
+
+        s->u_periodic = gap <= 1e-9 * s->size && turn <= 1e-6 && !s->poles[0].on_axis;
+      }
+  }
+  {
     double t = 0.5 * (t_min + t_max), rr, speed, drds, dzds;
     const char *side;
 
@@ -524,6 +553,12 @@ bool
 df_surface_v_periodic (const df_surface *s)
 {
   return s->kind->type == DF_SURFACE_REVOLUTION;
+}
+
+bool
+df_surface_u_periodic (const df_surface *s)
+{
+  return s->u_periodic;
 }
 
 void

@@ -68,6 +68,9 @@ void        df_surface_get_domain     (const df_surface *surface,
                                        double *u_min, double *u_max,
                                        double *v_min, double *v_max);
 bool        df_surface_v_periodic     (const df_surface *surface);
+/* A closed profile (ends meeting with the same tangent, e.g. a torus tube): u = t wraps with
+ * period t_max - t_min, and any finite t is accepted. */
+bool        df_surface_u_periodic     (const df_surface *surface);
 
 /* Axis-aligned bounding box of the surface (from a sampling) and its diagonal, the length
  * scale for relative tolerances. */
@@ -83,7 +86,7 @@ const char *df_surface_normal_side    (const df_surface *surface);
 
 /* X and derivatives up to `order` (0..3) at (u, v). DF_E_DOMAIN outside the domain (a margin
  * of 1e-9 of the range is allowed), DF_E_NONFINITE if a formula fails there. The periodic v
- * of a revolution surface is accepted at any value. */
+ * of a revolution surface is accepted at any value, and so is t on a closed profile. */
 df_status   df_surface_eval           (const df_surface *surface,
                                        double            u,
                                        double            v,
