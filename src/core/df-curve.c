@@ -282,6 +282,62 @@ wrap_tau (const df_curve *c, double tau, int *laps)
   return tau;
 }
 
+/* The spline's plane point in segment i at tau (no search). */
+static void
+segment_plane (const df_curve *c, size_t i, double tau, double p[2])
+{
+  double dt = tau - c->taus[i];
+
+  for (int k = 0; k < 2; k++)
+    {
+      const double *q = &c->coef[k][4 * i];
+
+      p[k] = q[0] + dt * (q[1] + dt * (q[2] + dt * q[3]));
+      if (c->coords == DF_COORDS_CHART && c->closed)
+        p[k] += c->drift[k] * (tau - c->tau0);
+    }
+}
+
+size_t
+df_curve_sample_plane (const df_curve *c, size_t n_min, double (**out)[2])
+{
+  double (*pts)[2];
+  size_t n;
+
+  *out = NULL;
+  if (c->fn != NULL)
+    {
+      double dp[2], ddp[2];
+
+      n = n_min < 2 ? 2 : n_min;
+      pts = malloc (n * sizeof *pts);
+      if (pts == NULL)
+        return 0;
+      for (size_t i = 0; i < n; i++)
+        df_curve_eval_plane (c, c->tau0 + (c->tau1 - c->tau0) * i / (c->closed ? n : n - 1),
+                             pts[i], dp, ddp);
+    }
+  else
+    {
+      size_t nseg = c->closed ? c->n_nodes : c->n_nodes - 1;
+      size_t per = (n_min + nseg - 1) / nseg, k = 0;
+
+      if (per < 1)
+        per = 1;
+      n = nseg * per + (c->closed ? 0 : 1);
+      pts = malloc (n * sizeof *pts);
+      if (pts == NULL)
+        return 0;
+      for (size_t i = 0; i < nseg; i++)
+        for (size_t j = 0; j < per; j++)
+          segment_plane (c, i, c->taus[i] + (c->taus[i + 1] - c->taus[i]) * j / per, pts[k++]);
+      if (!c->closed)
+        segment_plane (c, nseg - 1, c->taus[nseg], pts[k++]);
+    }
+  *out = pts;
+  return n;
+}
+
 void
 df_curve_eval_plane (const df_curve *c, double tau, double p[2], double dp[2], double ddp[2])
 {
@@ -729,10 +785,10 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   for (size_t i = 0; i < nseg; i++)
     for (int h = 1; h < 4; h++)
       {
-        double tau = c->taus[i] + (c->taus[i + 1] - c->taus[i]) * h / 4.0, p[2], dp[2], ddp[2];
+        double tau = c->taus[i] + (c->taus[i + 1] - c->taus[i]) * h / 4.0, p[2];
         double u, v;
 
-        df_curve_eval_plane (c, tau, p, dp, ddp);
+        segment_plane (c, i, tau, p);
         if (c->coords == DF_COORDS_CHART)
           {
             u = p[0];

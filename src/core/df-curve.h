@@ -81,6 +81,11 @@ size_t    df_curve_get_nodes   (const df_curve *curve, const double **taus);
 void      df_curve_eval_plane  (const df_curve *curve, double tau, double p[2], double dp[2],
                                 double ddp[2]);
 
+/* At least n_min plane points along the curve in order (every interpolation node among them,
+ * the segments subdivided evenly; an exact curve evenly in tau; a closed curve without its
+ * repeated end), in *out (free() it). Returns the count, 0 on out-of-memory. */
+size_t    df_curve_sample_plane (const df_curve *curve, size_t n_min, double (**out)[2]);
+
 /* Evaluates at tau (clamped to the range; wrapped when closed). DF_E_DOMAIN if the point
  * leaves the surface's domain. */
 df_status df_curve_eval        (const df_curve *curve, double tau, df_curve_point *out,

@@ -170,22 +170,19 @@ green_fit_fn (double x, double y, double *values, void *user)
 static void
 prepare_graph_fit (line_ctx *ctx)
 {
-  double tau0, tau1, lo[2] = { INFINITY, INFINITY }, hi[2] = { -INFINITY, -INFINITY };
-  double u_min, u_max, v_min, v_max, pad[2];
-  const int m = 4096;
+  double lo[2] = { INFINITY, INFINITY }, hi[2] = { -INFINITY, -INFINITY };
+  double u_min, u_max, v_min, v_max, pad[2], (*q)[2] = NULL;
+  size_t m = df_curve_sample_plane (ctx->curve, 4096, &q);
 
-  df_curve_get_range (ctx->curve, &tau0, &tau1);
-  for (int i = 0; i <= m; i++)
-    {
-      double p[2], dp[2], ddp[2];
-
-      df_curve_eval_plane (ctx->curve, tau0 + (tau1 - tau0) * i / m, p, dp, ddp);
-      for (int k = 0; k < 2; k++)
-        {
-          lo[k] = fmin (lo[k], p[k]);
-          hi[k] = fmax (hi[k], p[k]);
-        }
-    }
+  for (size_t i = 0; i < m; i++)
+    for (int k = 0; k < 2; k++)
+      {
+        lo[k] = fmin (lo[k], q[i][k]);
+        hi[k] = fmax (hi[k], q[i][k]);
+      }
+  free (q);
+  if (m == 0)
+    return;
   /* A margin for the curve between the scan points, kept inside the domain. */
   df_surface_get_domain (ctx->surface, &u_min, &u_max, &v_min, &v_max);
   for (int k = 0; k < 2; k++)
@@ -288,29 +285,6 @@ segments_cross (const double a[2], const double b[2], const double c[2], const d
   return d1 * d2 <= 0 && d3 * d4 <= 0;
 }
 
-/* Planar picture: the (x, y) chart; a revolution chart loop on the annulus
- * (1 + (t - t_min) / range)(cos phi, sin phi); a polar loop as it is. */
-static void
-picture_point (const df_curve *c, double tau, double q[2])
-{
-  double p[2], dp[2], ddp[2];
-
-  df_curve_eval_plane (c, tau, p, dp, ddp);
-  if (df_curve_get_coords (c) == DF_COORDS_CHART
-      && df_surface_get_kind (df_curve_get_surface (c)) == DF_SURFACE_REVOLUTION)
-    {
-      double u_min, u_max, rad;
-
-      df_surface_get_domain (df_curve_get_surface (c), &u_min, &u_max, NULL, NULL);
-      rad = 1.0 + (p[0] - u_min) / (u_max - u_min);
-      q[0] = rad * cos (p[1]);
-      q[1] = rad * sin (p[1]);
-      return;
-    }
-  q[0] = p[0];
-  q[1] = p[1];
-}
-
 /* Spatial hash of segments: a cell a few segments wide, keyed by its integer coordinates, so
  * each segment meets only its neighbours on the curve and the few places where the curve
  * comes back near itself. */
@@ -333,29 +307,37 @@ cell_hash (long cx, long cy, size_t mask)
 static df_status
 loop_is_simple (const df_curve *c, bool *simple)
 {
-  const double *taus;
-  size_t n_nodes = df_curve_get_nodes (c, &taus);
-  size_t n = n_nodes ? 2 * n_nodes : 2048, n_buckets = 1, n_entries = 0, cap;
-  double tau0, tau1, (*q)[2], total = 0.0, cell;
+  size_t n, n_buckets = 1, n_entries = 0, cap;
+  double (*q)[2] = NULL, total = 0.0, cell;
   size_t *bucket = NULL;
   cell_entry *entries = NULL;
   df_status st = DF_OK;
+  bool annulus = df_curve_get_coords (c) == DF_COORDS_CHART
+                 && df_surface_get_kind (df_curve_get_surface (c)) == DF_SURFACE_REVOLUTION;
+  double u_min, u_max;
 
   *simple = true;
-  if (n > 100000)
-    n = 100000;
-  df_curve_get_range (c, &tau0, &tau1);
-  q = malloc (n * sizeof *q);
-  if (q == NULL)
+  /* The nodes themselves when there are many (the spline between two close nodes cannot cross
+   * anything the polygon misses in practice), subdivided when there are few. */
+  n = df_curve_sample_plane (c, 2048, &q);
+  if (n == 0)
     return DF_E_NOMEM;
-  for (size_t i = 0; i < n; i++)
-    picture_point (c, tau0 + (tau1 - tau0) * i / n, q[i]);
+  df_surface_get_domain (df_curve_get_surface (c), &u_min, &u_max, NULL, NULL);
+  for (size_t i = 0; annulus && i < n; i++)
+    {
+      /* A revolution chart loop is drawn on the annulus (1 + (t - t_min) / range) e^(i phi),
+       * where going round the axis is going round the hole. */
+      double rad = 1.0 + (q[i][0] - u_min) / (u_max - u_min), ph = q[i][1];
+
+      q[i][0] = rad * cos (ph);
+      q[i][1] = rad * sin (ph);
+    }
   for (size_t i = 0; i < n; i++)
     total += hypot (q[(i + 1) % n][0] - q[i][0], q[(i + 1) % n][1] - q[i][1]);
   cell = 4.0 * total / n + 1e-300;
-  while (n_buckets < 4 * n)
+  while (n_buckets < 2 * n)
     n_buckets *= 2;
-  cap = 4 * n;
+  cap = 2 * n;
   bucket = malloc (n_buckets * sizeof *bucket);
   entries = malloc (cap * sizeof *entries);
   if (!bucket || !entries)
