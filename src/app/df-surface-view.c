@@ -1,39 +1,18 @@
-/* df-surface-view.c: DfSurfaceView, the GtkGLArea that draws the surface mesh (built by the core
- * in df-mesh on a worker thread), overlay curves, frames, arrows and a marker, and turns pointer
- * input into camera moves or picked chart points. Geometry comes from the core; this file only
- * converts it to vertex arrays, draws and ray-casts. */
-#include "df-surface-view.h"
+/* df-surface-view.c: DfSurfaceView, the GtkGLArea that shows the surface mesh (built by the core
+ * in df-mesh on a worker thread) with overlay curves, frames, arrows and a marker, and turns
+ * pointer input into camera moves or picked chart points. This file holds the widget, its API,
+ * input, picking and the mesh hand-over; drawing is in df-surface-view-gl.c and the overlay
+ * vertex arrays in df-surface-view-overlay.c. Geometry comes from the core. */
+#include "df-surface-view-private.h"
 
 #include <epoxy/gl.h>
 #include <math.h>
 #include <stdlib.h>
 
-#include "df-camera.h"
 #include "df-geometry.h"
 #include "df-gl-program.h"
 #include "df-io-error.h"
-#include "df-mesh.h"
 #include "df-project.h"
-
-#define SHADER_PREFIX "/org/driftframe/Driftframe/shaders/"
-
-/* Floats per vertex: surface (position, normal, uv, K, H), lines (position, rgba, width),
- * solids (position, normal, rgba). */
-#define SURFACE_STRIDE 10
-#define LINE_STRIDE 8
-#define SOLID_STRIDE 10
-
-/* Overlay sizes as fractions of the surface's bounding-box diagonal. */
-#define FRAME_LENGTH 0.07
-#define HIGHLIGHT_LENGTH 0.12
-#define MARKER_RADIUS 0.011
-/* How far overlays are pulled toward the eye, as a fraction of their distance: more than the
- * mesh's chord error (edges ~1/120 of the size, a few degrees of turn) at any sane zoom. */
-#define OVERLAY_BIAS 0.003f
-#define GHOST_ALPHA 0.28f
-#define GHOST_SOLID_ALPHA 0.16f
-#define BACK_SHADE 0.78f
-#define ORBIT_DEG_PER_PX 0.4
 
 enum
 {
@@ -59,80 +38,7 @@ enum
 static GParamSpec *properties[N_PROPS];
 static guint signals[N_SIGNALS];
 
-/* The ramp's stops at s = -1, -0.5, 0, 0.5, 1 (sRGB): a deep blue, a light sky blue, a warm
- * white, a light apricot and a burnt orange. Chosen for this app; the two arms differ in both
- * hue and lightness so they stay apart for the common colour-vision deficiencies. */
-static const float ramp_stops[DF_SHADING_RAMP_STOPS][3] = {
-  { 0.161f, 0.349f, 0.678f },
-  { 0.518f, 0.706f, 0.886f },
-  { 0.957f, 0.945f, 0.910f },
-  { 0.988f, 0.757f, 0.502f },
-  { 0.851f, 0.420f, 0.098f },
-};
-static const float plain_colour[3] = { 0.80f, 0.76f, 0.68f };
-
-/* The surface mesh and its GPU-ready copy, made on the worker thread; immutable after. */
-typedef struct
-{
-  df_mesh *mesh;        /* NULL when nothing could be tessellated */
-  float   *vertices;    /* SURFACE_STRIDE per vertex */
-  uint32_t *coarse;     /* every other grid line, drawn while the view moves */
-  gsize     n_coarse;   /* triangles in coarse */
-  char    *problem;     /* why part of the surface is missing, or NULL */
-  float    lo[3], hi[3];
-  double   size;        /* bounding-box diagonal */
-  float    iso_step[2];
-  double   range[2];    /* colour range of |K|, |H| (area quantile; 0 if the value is nil) */
-  gboolean below[2];    /* some K, H lie below -range */
-  gboolean above[2];    /* some K, H lie above +range */
-} MeshData;
-
-typedef struct
-{
-  df_surface *surface;
-  guint       generation;
-} BuildJob;
-
-typedef struct
-{
-  double  (*xyz)[3];
-  gsize     n;
-  gboolean  closed;
-  GdkRGBA   colour;
-  float     width;
-} Curve;
-
-typedef struct
-{
-  double  origin[3], dir[3];
-  GdkRGBA colour;
-} Arrow;
-
-/* Every GL name the widget creates, deleted together in unrealize. */
-typedef struct
-{
-  GLuint surface_program, lines_program, solid_program;
-  GLuint surface_vao, surface_vbo, surface_ibo, surface_ibo_coarse;
-  GLuint lines_vao, lines_vbo;
-  GLuint solid_vao, solid_vbo;
-  GLuint fbo, fbo_colour, fbo_depth;
-  struct { GLint view, proj, shading, inv_range, ramp, plain, iso, iso_step, back_shade; } su;
-  struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
-  struct { GLint view, proj, bias, alpha; } ou;
-  GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
-} ViewGl;
-
-typedef struct
-{
-  guint    n_frames;
-  GArray  *stamps;      /* gint64 monotonic times of each render */
-  GArray  *render_us;   /* gint64 time spent inside render, GL work finished */
-  guint    tick_id;
-  float    yaw0;
-  void   (*done) (double median_ms, double p95_ms, gpointer user);
-  gpointer user;
-  double   median_ms, p95_ms;
-} Benchmark;
+G_DEFINE_FINAL_TYPE (DfSurfaceView, df_surface_view, GTK_TYPE_GL_AREA)
 
 static void
 benchmark_free (Benchmark *bench)
@@ -140,66 +46,6 @@ benchmark_free (Benchmark *bench)
   g_array_unref (bench->stamps);
   g_array_unref (bench->render_us);
   g_free (bench);
-}
-
-struct _DfSurfaceView
-{
-  GtkGLArea parent_instance;
-
-  /* owned */
-  df_surface   *surface;
-  MeshData     *mesh;
-  GHashTable   *curves;         /* guint id -> Curve */
-  GHashTable   *arrows;         /* guint id -> Arrow */
-  double       *frames;         /* 9 per sample: origin, carried, partner */
-  gsize         n_frames;
-  gboolean      has_marker;
-  double        marker[3];
-  GdkRGBA       marker_colour;
-  GArray       *line_data;      /* floats, LINE_STRIDE per vertex */
-  GArray       *solid_data;     /* floats, SOLID_STRIDE per vertex */
-  Benchmark    *bench;          /* running */
-  Benchmark    *bench_report;   /* finished, waiting for its report */
-  ViewGl        gl;
-
-  /* state */
-  DfCamera      camera;
-  DfShading     shading;
-  gboolean      iso_lines;
-  DfInteraction interaction;
-  guint         generation;     /* bumped by each set_surface; stale builds are dropped */
-  gboolean      building;
-  gboolean      rebuild_pending;
-  gboolean      mesh_dirty;
-  gboolean      overlay_dirty;
-  gboolean      fit_pending;    /* a fit was asked before the mesh or the size was known */
-  gboolean      moving;         /* the user is orbiting, panning or zooming: draw coarse */
-  guint         settle_id;      /* timeout that ends a scroll-zoom's motion */
-  int           fb_width, fb_height;
-  double        drag_last_x, drag_last_y;
-  gboolean      pick_active;    /* a press landed on the surface; released will follow */
-  double        last_u, last_v;
-};
-
-G_DEFINE_FINAL_TYPE (DfSurfaceView, df_surface_view, GTK_TYPE_GL_AREA)
-
-void
-df_shading_ramp_colour (double   s,
-                        GdkRGBA *colour)
-{
-  double x;
-  int i;
-
-  g_return_if_fail (colour != NULL);
-  if (!isfinite (s))
-    s = 0;
-  x = (CLAMP (s, -1.0, 1.0) + 1) * 2;
-  i = MIN ((int) floor (x), DF_SHADING_RAMP_STOPS - 2);
-  x -= i;
-  colour->red = ramp_stops[i][0] + x * (ramp_stops[i + 1][0] - ramp_stops[i][0]);
-  colour->green = ramp_stops[i][1] + x * (ramp_stops[i + 1][1] - ramp_stops[i][1]);
-  colour->blue = ramp_stops[i][2] + x * (ramp_stops[i + 1][2] - ramp_stops[i][2]);
-  colour->alpha = 1;
 }
 
 /* ---- mesh data (worker thread) ---------------------------------------------------------- */
@@ -342,10 +188,9 @@ mesh_build_thread (GTask        *task,
 }
 
 static void start_mesh_build (DfSurfaceView *self);
-static void rebuild_overlay  (DfSurfaceView *self);
 
-static double
-mesh_range (DfSurfaceView *self)
+double
+_df_surface_view_mesh_range (DfSurfaceView *self)
 {
   if (self->mesh == NULL || self->mesh->mesh == NULL)
     return 0;
@@ -364,7 +209,7 @@ mesh_range (DfSurfaceView *self)
 static void
 emit_range_changed (DfSurfaceView *self)
 {
-  double m = mesh_range (self);
+  double m = _df_surface_view_mesh_range (self);
 
   g_signal_emit (self, signals[SHADING_RANGE_CHANGED], 0, -m, m);
 }
@@ -380,7 +225,7 @@ install_mesh (DfSurfaceView *self,
     df_surface_view_fit_all (self);
   if (data != NULL && data->problem != NULL)
     g_debug ("%s", data->problem);
-  rebuild_overlay (self);
+  _df_surface_view_rebuild_overlay (self);
   emit_range_changed (self);
   g_signal_emit (self, signals[MESH_READY], 0);
   gtk_gl_area_queue_render (GTK_GL_AREA (self));
@@ -434,244 +279,7 @@ start_mesh_build (DfSurfaceView *self)
     g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_BUSY]);
 }
 
-/* ---- overlay geometry ------------------------------------------------------------------- */
-
-static void
-push_line_vertex (GArray        *out,
-                  const double   p[3],
-                  const GdkRGBA *c,
-                  float          alpha,
-                  float          width)
-{
-  float v[LINE_STRIDE] = { p[0], p[1], p[2], c->red, c->green, c->blue, c->alpha * alpha, width };
-
-  g_array_append_vals (out, v, LINE_STRIDE);
-}
-
-static void
-push_segment (GArray        *out,
-              const double   a[3],
-              const double   b[3],
-              const GdkRGBA *c,
-              float          alpha,
-              float          width)
-{
-  for (int i = 0; i < 3; i++)
-    if (!isfinite (a[i]) || !isfinite (b[i]))
-      return;
-  push_line_vertex (out, a, c, alpha, width);
-  push_line_vertex (out, b, c, alpha, width);
-}
-
-static void
-push_solid_vertex (GArray        *out,
-                   const double   p[3],
-                   const double   n[3],
-                   const GdkRGBA *c)
-{
-  float v[SOLID_STRIDE] = { p[0], p[1], p[2], n[0], n[1], n[2],
-                            c->red, c->green, c->blue, c->alpha };
-
-  g_array_append_vals (out, v, SOLID_STRIDE);
-}
-
-static double
-norm3 (const double a[3])
-{
-  return sqrt (a[0] * a[0] + a[1] * a[1] + a[2] * a[2]);
-}
-
-/* Two unit vectors completing unit d to an orthonormal basis. */
-static void
-orthonormal_basis (const double d[3],
-                   double       e1[3],
-                   double       e2[3])
-{
-  double helper[3] = { 1, 0, 0 }, len;
-
-  if (fabs (d[0]) > 0.8)
-    {
-      helper[0] = 0;
-      helper[1] = 1;
-    }
-  e1[0] = d[1] * helper[2] - d[2] * helper[1];
-  e1[1] = d[2] * helper[0] - d[0] * helper[2];
-  e1[2] = d[0] * helper[1] - d[1] * helper[0];
-  len = norm3 (e1);
-  for (int i = 0; i < 3; i++)
-    e1[i] /= len;
-  e2[0] = d[1] * e1[2] - d[2] * e1[1];
-  e2[1] = d[2] * e1[0] - d[0] * e1[2];
-  e2[2] = d[0] * e1[1] - d[1] * e1[0];
-}
-
-/* A shaft (thick line) ending in a closed cone, the arrow's head, at origin + length * dir. */
-static void
-push_arrow (DfSurfaceView *self,
-            const double   origin[3],
-            const double   dir_in[3],
-            double         length,
-            const GdkRGBA *colour,
-            float          width)
-{
-  enum { SIDES = 14 };
-  double dir[3], e1[3], e2[3], tip[3], base[3], shaft_end[3], len = norm3 (dir_in);
-  double head = 0.26 * length, radius = 0.08 * length;
-
-  if (!(len > 0) || !isfinite (len) || !isfinite (norm3 (origin)))
-    return;
-  for (int i = 0; i < 3; i++)
-    {
-      dir[i] = dir_in[i] / len;
-      tip[i] = origin[i] + length * dir[i];
-      base[i] = tip[i] - head * dir[i];
-      shaft_end[i] = tip[i] - 0.8 * head * dir[i];
-    }
-  push_segment (self->line_data, origin, shaft_end, colour, 1, width);
-  orthonormal_basis (dir, e1, e2);
-  for (int k = 0; k < SIDES; k++)
-    {
-      double a0 = 2 * G_PI * k / SIDES, a1 = 2 * G_PI * (k + 1) / SIDES, am = 0.5 * (a0 + a1);
-      double r0[3], r1[3], rm[3], p0[3], p1[3], n0[3], n1[3], nm[3], back[3];
-      for (int i = 0; i < 3; i++)
-        {
-          r0[i] = cos (a0) * e1[i] + sin (a0) * e2[i];
-          r1[i] = cos (a1) * e1[i] + sin (a1) * e2[i];
-          rm[i] = cos (am) * e1[i] + sin (am) * e2[i];
-          p0[i] = base[i] + radius * r0[i];
-          p1[i] = base[i] + radius * r1[i];
-          /* The cone's normal leans toward the tip by the half-angle. */
-          n0[i] = head * r0[i] + radius * dir[i];
-          n1[i] = head * r1[i] + radius * dir[i];
-          nm[i] = head * rm[i] + radius * dir[i];
-          back[i] = -dir[i];
-        }
-      push_solid_vertex (self->solid_data, tip, nm, colour);
-      push_solid_vertex (self->solid_data, p0, n0, colour);
-      push_solid_vertex (self->solid_data, p1, n1, colour);
-      push_solid_vertex (self->solid_data, base, back, colour);
-      push_solid_vertex (self->solid_data, p1, back, colour);
-      push_solid_vertex (self->solid_data, p0, back, colour);
-    }
-}
-
-static void
-push_ball (DfSurfaceView *self,
-           const double   centre[3],
-           double         radius,
-           const GdkRGBA *colour)
-{
-  enum { SLICES = 18, STACKS = 10 };
-
-  for (int i = 0; i < STACKS; i++)
-    for (int j = 0; j < SLICES; j++)
-      {
-        double corner[4][3];
-        for (int c = 0; c < 4; c++)
-          {
-            double th = G_PI * (i + (c == 1 || c == 2)) / STACKS;
-            double ph = 2 * G_PI * (j + (c >= 2)) / SLICES;
-            corner[c][0] = sin (th) * cos (ph);
-            corner[c][1] = sin (th) * sin (ph);
-            corner[c][2] = cos (th);
-          }
-        {
-          static const int order[6] = { 0, 1, 2, 0, 2, 3 };
-          for (int t = 0; t < 6; t++)
-            {
-              double p[3];
-              for (int a = 0; a < 3; a++)
-                p[a] = centre[a] + radius * corner[order[t]][a];
-              push_solid_vertex (self->solid_data, p, corner[order[t]], colour);
-            }
-        }
-      }
-}
-
-static double
-scene_size (DfSurfaceView *self)
-{
-  if (self->mesh != NULL && self->mesh->mesh != NULL)
-    return self->mesh->size;
-  if (self->surface != NULL)
-    return df_surface_size (self->surface);
-  return 1;
-}
-
-/* Turns curves, frames, arrows and the marker into vertex arrays; render() only uploads them.
- * Sizes follow the surface, so this runs again whenever the mesh changes. */
-static void
-rebuild_overlay (DfSurfaceView *self)
-{
-  /* Ink-dark carried vectors read on every colour of the blue-white-orange scale; the partner
-   * is a green, a hue the scale does not use; the returned vector is a strong magenta against
-   * the ink start vector, so the two compare at a glance. */
-  static const GdkRGBA carried = { 0.10f, 0.10f, 0.14f, 0.9f };
-  static const GdkRGBA partner = { 0.04f, 0.48f, 0.30f, 0.85f };
-  static const GdkRGBA start = { 0.05f, 0.05f, 0.07f, 1.0f };
-  static const GdkRGBA returned = { 0.85f, 0.05f, 0.55f, 1.0f };
-  double size = scene_size (self);
-  GHashTableIter iter;
-  gpointer value;
-
-  g_array_set_size (self->line_data, 0);
-  g_array_set_size (self->solid_data, 0);
-
-  g_hash_table_iter_init (&iter, self->curves);
-  while (g_hash_table_iter_next (&iter, NULL, &value))
-    {
-      Curve *c = value;
-      for (gsize i = 0; i + 1 < c->n; i++)
-        push_segment (self->line_data, c->xyz[i], c->xyz[i + 1], &c->colour, 1, c->width);
-      if (c->closed && c->n > 2)
-        push_segment (self->line_data, c->xyz[c->n - 1], c->xyz[0], &c->colour, 1, c->width);
-    }
-
-  for (gsize i = 0; i < self->n_frames; i++)
-    {
-      const double *f = &self->frames[9 * i];
-      gboolean first = i == 0, last = i + 1 == self->n_frames && i > 0;
-      double length = (first || last ? HIGHLIGHT_LENGTH : FRAME_LENGTH) * size;
-
-      if (first || last)
-        continue;   /* drawn after the others, so they stay on top */
-      push_arrow (self, f, f + 6, 0.7 * length, &partner, 1.5f);
-      push_arrow (self, f, f + 3, length, &carried, 2.0f);
-    }
-  if (self->n_frames > 0)
-    {
-      gsize ends[2] = { 0, self->n_frames - 1 };
-      for (int e = 0; e < (self->n_frames > 1 ? 2 : 1); e++)
-        {
-          const double *f = &self->frames[9 * ends[e]];
-          double length = HIGHLIGHT_LENGTH * size;
-          push_arrow (self, f, f + 6, 0.7 * length, &partner, 2.5f);
-          push_arrow (self, f, f + 3, length, e == 0 ? &start : &returned, 3.5f);
-        }
-    }
-
-  g_hash_table_iter_init (&iter, self->arrows);
-  while (g_hash_table_iter_next (&iter, NULL, &value))
-    {
-      Arrow *a = value;
-      push_arrow (self, a->origin, a->dir, HIGHLIGHT_LENGTH * size, &a->colour, 3.5f);
-    }
-
-  if (self->has_marker)
-    push_ball (self, self->marker, MARKER_RADIUS * size, &self->marker_colour);
-
-  self->overlay_dirty = TRUE;
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static void
-curve_free (Curve *curve)
-{
-  g_free (curve->xyz);
-  g_free (curve);
-}
-
-/* ---- GL --------------------------------------------------------------------------------- */
+/* ---- GL vfuncs and benchmark ------------------------------------------------------------ */
 
 static void
 fail_gl (DfSurfaceView *self,
@@ -680,92 +288,6 @@ fail_gl (DfSurfaceView *self,
   g_warning ("3D view: %s", error->message);
   g_signal_emit (self, signals[GL_FAILED], 0, error->message);
   gtk_gl_area_set_error (GTK_GL_AREA (self), error);
-}
-
-static void
-setup_vertex_arrays (ViewGl *gl)
-{
-  glGenVertexArrays (1, &gl->surface_vao);
-  glGenBuffers (1, &gl->surface_vbo);
-  glGenBuffers (1, &gl->surface_ibo);
-  glGenBuffers (1, &gl->surface_ibo_coarse);
-  glBindVertexArray (gl->surface_vao);
-  glBindBuffer (GL_ARRAY_BUFFER, gl->surface_vbo);
-  glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo);
-  glEnableVertexAttribArray (0);
-  glVertexAttribPointer (0, 3, GL_FLOAT, GL_FALSE, SURFACE_STRIDE * sizeof (float), (void *) 0);
-  glEnableVertexAttribArray (1);
-  glVertexAttribPointer (1, 3, GL_FLOAT, GL_FALSE, SURFACE_STRIDE * sizeof (float),
-                         (void *) (3 * sizeof (float)));
-  glEnableVertexAttribArray (2);
-  glVertexAttribPointer (2, 2, GL_FLOAT, GL_FALSE, SURFACE_STRIDE * sizeof (float),
-                         (void *) (6 * sizeof (float)));
-  glEnableVertexAttribArray (3);
-  glVertexAttribPointer (3, 2, GL_FLOAT, GL_FALSE, SURFACE_STRIDE * sizeof (float),
-                         (void *) (8 * sizeof (float)));
-
-  glGenVertexArrays (1, &gl->lines_vao);
-  glGenBuffers (1, &gl->lines_vbo);
-  glBindVertexArray (gl->lines_vao);
-  glBindBuffer (GL_ARRAY_BUFFER, gl->lines_vbo);
-  glEnableVertexAttribArray (0);
-  glVertexAttribPointer (0, 3, GL_FLOAT, GL_FALSE, LINE_STRIDE * sizeof (float), (void *) 0);
-  glEnableVertexAttribArray (1);
-  glVertexAttribPointer (1, 4, GL_FLOAT, GL_FALSE, LINE_STRIDE * sizeof (float),
-                         (void *) (3 * sizeof (float)));
-  glEnableVertexAttribArray (2);
-  glVertexAttribPointer (2, 1, GL_FLOAT, GL_FALSE, LINE_STRIDE * sizeof (float),
-                         (void *) (7 * sizeof (float)));
-
-  glGenVertexArrays (1, &gl->solid_vao);
-  glGenBuffers (1, &gl->solid_vbo);
-  glBindVertexArray (gl->solid_vao);
-  glBindBuffer (GL_ARRAY_BUFFER, gl->solid_vbo);
-  glEnableVertexAttribArray (0);
-  glVertexAttribPointer (0, 3, GL_FLOAT, GL_FALSE, SOLID_STRIDE * sizeof (float), (void *) 0);
-  glEnableVertexAttribArray (1);
-  glVertexAttribPointer (1, 3, GL_FLOAT, GL_FALSE, SOLID_STRIDE * sizeof (float),
-                         (void *) (3 * sizeof (float)));
-  glEnableVertexAttribArray (2);
-  glVertexAttribPointer (2, 4, GL_FLOAT, GL_FALSE, SOLID_STRIDE * sizeof (float),
-                         (void *) (6 * sizeof (float)));
-
-  glBindVertexArray (0);
-  glBindBuffer (GL_ARRAY_BUFFER, 0);
-}
-
-static gboolean
-build_programs (ViewGl  *gl,
-                GError **error)
-{
-  if (!df_gl_program_build (&gl->surface_program, SHADER_PREFIX "surface.vert",
-                            SHADER_PREFIX "surface.frag", error)
-      || !df_gl_program_build_full (&gl->lines_program, SHADER_PREFIX "lines.vert",
-                                    SHADER_PREFIX "lines.geom", SHADER_PREFIX "lines.frag", error)
-      || !df_gl_program_build (&gl->solid_program, SHADER_PREFIX "solid.vert",
-                               SHADER_PREFIX "solid.frag", error))
-    return FALSE;
-
-  gl->su.view = glGetUniformLocation (gl->surface_program, "u_view");
-  gl->su.proj = glGetUniformLocation (gl->surface_program, "u_proj");
-  gl->su.shading = glGetUniformLocation (gl->surface_program, "u_shading");
-  gl->su.inv_range = glGetUniformLocation (gl->surface_program, "u_inv_range");
-  gl->su.ramp = glGetUniformLocation (gl->surface_program, "u_ramp");
-  gl->su.plain = glGetUniformLocation (gl->surface_program, "u_plain");
-  gl->su.iso = glGetUniformLocation (gl->surface_program, "u_iso");
-  gl->su.iso_step = glGetUniformLocation (gl->surface_program, "u_iso_step");
-  gl->su.back_shade = glGetUniformLocation (gl->surface_program, "u_back_shade");
-  gl->lu.view = glGetUniformLocation (gl->lines_program, "u_view");
-  gl->lu.proj = glGetUniformLocation (gl->lines_program, "u_proj");
-  gl->lu.bias = glGetUniformLocation (gl->lines_program, "u_bias");
-  gl->lu.viewport = glGetUniformLocation (gl->lines_program, "u_viewport");
-  gl->lu.alpha = glGetUniformLocation (gl->lines_program, "u_alpha");
-  gl->lu.px_scale = glGetUniformLocation (gl->lines_program, "u_px_scale");
-  gl->ou.view = glGetUniformLocation (gl->solid_program, "u_view");
-  gl->ou.proj = glGetUniformLocation (gl->solid_program, "u_proj");
-  gl->ou.bias = glGetUniformLocation (gl->solid_program, "u_bias");
-  gl->ou.alpha = glGetUniformLocation (gl->solid_program, "u_alpha");
-  return TRUE;
 }
 
 static void
@@ -797,62 +319,13 @@ df_surface_view_realize (GtkWidget *widget)
       return;
     }
 
-  setup_vertex_arrays (&self->gl);
-  if (!build_programs (&self->gl, &error))
+  if (!_df_surface_view_gl_create (&self->gl, &error))
     {
       fail_gl (self, error);
       return;
     }
   self->mesh_dirty = TRUE;
   self->overlay_dirty = TRUE;
-}
-
-static void
-delete_program (GLuint *name)
-{
-  if (*name != 0)
-    glDeleteProgram (*name);
-  *name = 0;
-}
-
-static void
-delete_buffer (GLuint *name)
-{
-  if (*name != 0)
-    glDeleteBuffers (1, name);
-  *name = 0;
-}
-
-static void
-delete_vertex_array (GLuint *name)
-{
-  if (*name != 0)
-    glDeleteVertexArrays (1, name);
-  *name = 0;
-}
-
-static void
-delete_gl_names (ViewGl *gl)
-{
-  delete_program (&gl->surface_program);
-  delete_program (&gl->lines_program);
-  delete_program (&gl->solid_program);
-  delete_vertex_array (&gl->surface_vao);
-  delete_vertex_array (&gl->lines_vao);
-  delete_vertex_array (&gl->solid_vao);
-  delete_buffer (&gl->surface_vbo);
-  delete_buffer (&gl->surface_ibo);
-  delete_buffer (&gl->surface_ibo_coarse);
-  delete_buffer (&gl->lines_vbo);
-  delete_buffer (&gl->solid_vbo);
-  if (gl->fbo != 0)
-    glDeleteFramebuffers (1, &gl->fbo);
-  if (gl->fbo_colour != 0)
-    glDeleteRenderbuffers (1, &gl->fbo_colour);
-  if (gl->fbo_depth != 0)
-    glDeleteRenderbuffers (1, &gl->fbo_depth);
-  gl->fbo = gl->fbo_colour = gl->fbo_depth = 0;
-  gl->surface_indices = gl->surface_indices_coarse = gl->line_vertices = gl->solid_vertices = 0;
 }
 
 static void
@@ -864,178 +337,9 @@ df_surface_view_unrealize (GtkWidget *widget)
   if (gtk_gl_area_get_context (area) != NULL)
     {
       gtk_gl_area_make_current (area);
-      delete_gl_names (&self->gl);
+      _df_surface_view_gl_delete (&self->gl);
     }
   GTK_WIDGET_CLASS (df_surface_view_parent_class)->unrealize (widget);
-}
-
-static void
-upload_dirty (DfSurfaceView *self)
-{
-  ViewGl *gl = &self->gl;
-
-  if (self->mesh_dirty)
-    {
-      gsize n_vertices = 0, n_indices = 0, n_coarse = 0;
-      if (self->mesh != NULL && self->mesh->mesh != NULL)
-        {
-          n_vertices = df_mesh_n_vertices (self->mesh->mesh);
-          n_indices = 3 * df_mesh_n_triangles (self->mesh->mesh);
-          n_coarse = 3 * self->mesh->n_coarse;
-        }
-      glBindVertexArray (gl->surface_vao);
-      glBindBuffer (GL_ARRAY_BUFFER, gl->surface_vbo);
-      glBufferData (GL_ARRAY_BUFFER, n_vertices * SURFACE_STRIDE * sizeof (float),
-                    n_vertices > 0 ? self->mesh->vertices : NULL, GL_STATIC_DRAW);
-      glBufferData (GL_ELEMENT_ARRAY_BUFFER, n_indices * sizeof (uint32_t),
-                    n_indices > 0 ? df_mesh_indices (self->mesh->mesh) : NULL, GL_STATIC_DRAW);
-      gl->surface_indices = n_indices;
-      glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo_coarse);
-      glBufferData (GL_ELEMENT_ARRAY_BUFFER, n_coarse * sizeof (uint32_t),
-                    n_coarse > 0 ? self->mesh->coarse : NULL, GL_STATIC_DRAW);
-      gl->surface_indices_coarse = n_coarse;
-      /* The VAO keeps the full index buffer as its own. */
-      glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo);
-      self->mesh_dirty = FALSE;
-    }
-  if (self->overlay_dirty)
-    {
-      glBindBuffer (GL_ARRAY_BUFFER, gl->lines_vbo);
-      glBufferData (GL_ARRAY_BUFFER, self->line_data->len * sizeof (float),
-                    self->line_data->data, GL_DYNAMIC_DRAW);
-      gl->line_vertices = self->line_data->len / LINE_STRIDE;
-      glBindBuffer (GL_ARRAY_BUFFER, gl->solid_vbo);
-      glBufferData (GL_ARRAY_BUFFER, self->solid_data->len * sizeof (float),
-                    self->solid_data->data, GL_DYNAMIC_DRAW);
-      gl->solid_vertices = self->solid_data->len / SOLID_STRIDE;
-      self->overlay_dirty = FALSE;
-    }
-  glBindVertexArray (0);
-  glBindBuffer (GL_ARRAY_BUFFER, 0);
-}
-
-/* A neutral background a little apart from the theme: light grey under dark text, dark grey
- * under light text, so the sheet's light and dark sides both read in either theme. */
-static void
-background_colour (DfSurfaceView *self,
-                   float          rgb[3])
-{
-  GdkRGBA fg;
-  double luma;
-
-  gtk_style_context_get_color (gtk_widget_get_style_context (GTK_WIDGET (self)), &fg);
-  luma = 0.2126 * fg.red + 0.7152 * fg.green + 0.0722 * fg.blue;
-  if (luma > 0.5)
-    {
-      rgb[0] = 0.19f;
-      rgb[1] = 0.20f;
-      rgb[2] = 0.22f;
-    }
-  else
-    {
-      rgb[0] = 0.84f;
-      rgb[1] = 0.86f;
-      rgb[2] = 0.88f;
-    }
-}
-
-static void
-draw_scene (DfSurfaceView *self,
-            int            width,
-            int            height,
-            gboolean       coarse)
-{
-  ViewGl *gl = &self->gl;
-  float bg[3];
-  mat4 view, proj;
-  double range = mesh_range (self);
-
-  background_colour (self, bg);
-  glViewport (0, 0, width, height);
-  glClearColor (bg[0], bg[1], bg[2], 1);
-  glClearDepth (1);
-  glClear (GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT);
-
-  df_camera_view (&self->camera, view);
-  df_camera_projection (&self->camera, height > 0 ? (float) width / height : 1, proj);
-
-  glEnable (GL_DEPTH_TEST);
-  glDepthFunc (GL_LESS);
-  glDepthMask (GL_TRUE);
-  glDisable (GL_BLEND);
-  glDisable (GL_CULL_FACE);
-
-  if (gl->surface_indices > 0)
-    {
-      glUseProgram (gl->surface_program);
-      glUniformMatrix4fv (gl->su.view, 1, GL_FALSE, (float *) view);
-      glUniformMatrix4fv (gl->su.proj, 1, GL_FALSE, (float *) proj);
-      glUniform1i (gl->su.shading, self->shading);
-      glUniform1f (gl->su.inv_range, range > 0 ? 1 / range : 0);
-      glUniform3fv (gl->su.ramp, DF_SHADING_RAMP_STOPS, (const float *) ramp_stops);
-      glUniform3fv (gl->su.plain, 1, plain_colour);
-      glUniform1i (gl->su.iso, self->iso_lines);
-      glUniform2fv (gl->su.iso_step, 1, self->mesh->iso_step);
-      glUniform1f (gl->su.back_shade, BACK_SHADE);
-      glBindVertexArray (gl->surface_vao);
-      if (coarse && gl->surface_indices_coarse > 0)
-        {
-          glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo_coarse);
-          glDrawElements (GL_TRIANGLES, gl->surface_indices_coarse, GL_UNSIGNED_INT, NULL);
-          glBindBuffer (GL_ELEMENT_ARRAY_BUFFER, gl->surface_ibo);
-        }
-      else
-        glDrawElements (GL_TRIANGLES, gl->surface_indices, GL_UNSIGNED_INT, NULL);
-    }
-
-  if (gl->line_vertices > 0 || gl->solid_vertices > 0)
-    {
-      /* Keep destination alpha at 1: GTK composites the area's buffer with its alpha. */
-      glEnable (GL_BLEND);
-      glBlendFuncSeparate (GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ONE, GL_ONE_MINUS_SRC_ALPHA);
-
-      glUseProgram (gl->lines_program);
-      glUniformMatrix4fv (gl->lu.view, 1, GL_FALSE, (float *) view);
-      glUniformMatrix4fv (gl->lu.proj, 1, GL_FALSE, (float *) proj);
-      glUniform1f (gl->lu.bias, OVERLAY_BIAS);
-      glUniform2f (gl->lu.viewport, width, height);
-      glUniform1f (gl->lu.px_scale, gtk_widget_get_scale_factor (GTK_WIDGET (self)));
-      glUseProgram (gl->solid_program);
-      glUniformMatrix4fv (gl->ou.view, 1, GL_FALSE, (float *) view);
-      glUniformMatrix4fv (gl->ou.proj, 1, GL_FALSE, (float *) proj);
-      glUniform1f (gl->ou.bias, OVERLAY_BIAS);
-
-      /* Pass 1: a faint ghost of whatever the surface hides, so a loop on the far side is
-       * still found. Pass 2: the visible parts, solids writing depth first. */
-      for (int pass = 0; pass < 2; pass++)
-        {
-          float alpha = pass == 0 ? GHOST_ALPHA : 1.0f;
-          float solid_alpha = pass == 0 ? GHOST_SOLID_ALPHA : 1.0f;
-          glDepthFunc (pass == 0 ? GL_GREATER : GL_LEQUAL);
-          if (gl->solid_vertices > 0)
-            {
-              glDepthMask (pass == 1);
-              glUseProgram (gl->solid_program);
-              glUniform1f (gl->ou.alpha, solid_alpha);
-              glBindVertexArray (gl->solid_vao);
-              glDrawArrays (GL_TRIANGLES, 0, gl->solid_vertices);
-            }
-          if (gl->line_vertices > 0)
-            {
-              glDepthMask (GL_FALSE);
-              glUseProgram (gl->lines_program);
-              glUniform1f (gl->lu.alpha, alpha);
-              glBindVertexArray (gl->lines_vao);
-              glDrawArrays (GL_LINES, 0, gl->line_vertices);
-            }
-        }
-      glDepthMask (GL_TRUE);
-      glDepthFunc (GL_LESS);
-      glDisable (GL_BLEND);
-    }
-
-  glBindVertexArray (0);
-  glUseProgram (0);
 }
 
 static int
@@ -1119,8 +423,8 @@ df_surface_view_render (GtkGLArea    *area,
   if (gtk_gl_area_get_error (area) != NULL)
     return FALSE;
   start = g_get_monotonic_time ();
-  upload_dirty (self);
-  draw_scene (self, self->fb_width, self->fb_height, self->moving || self->bench != NULL);
+  _df_surface_view_gl_upload (self);
+  _df_surface_view_gl_draw (self, self->fb_width, self->fb_height, self->moving || self->bench != NULL);
   if (self->bench != NULL)
     {
       gint64 now, spent;
@@ -1648,7 +952,7 @@ df_surface_view_init (DfSurfaceView *self)
   self->shading = DF_SHADING_GAUSSIAN;
   self->iso_lines = TRUE;
   self->interaction = DF_INTERACTION_ORBIT;
-  self->curves = g_hash_table_new_full (NULL, NULL, NULL, (GDestroyNotify) curve_free);
+  self->curves = g_hash_table_new_full (NULL, NULL, NULL, (GDestroyNotify) _df_surface_view_curve_free);
   self->arrows = g_hash_table_new_full (NULL, NULL, NULL, g_free);
   self->line_data = g_array_new (FALSE, FALSE, sizeof (float));
   self->solid_data = g_array_new (FALSE, FALSE, sizeof (float));
@@ -1771,7 +1075,7 @@ df_surface_view_set_curve (DfSurfaceView  *self,
   curve->colour = colour != NULL ? *colour : fallback;
   curve->width = width > 0 && isfinite (width) ? width : 2;
   g_hash_table_replace (self->curves, GUINT_TO_POINTER (id), curve);
-  rebuild_overlay (self);
+  _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1781,7 +1085,7 @@ df_surface_view_remove_curve (DfSurfaceView *self,
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
 
   if (g_hash_table_remove (self->curves, GUINT_TO_POINTER (id)))
-    rebuild_overlay (self);
+    _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1790,7 +1094,7 @@ df_surface_view_clear_curves (DfSurfaceView *self)
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
 
   g_hash_table_remove_all (self->curves);
-  rebuild_overlay (self);
+  _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1816,7 +1120,7 @@ df_surface_view_set_frames (DfSurfaceView  *self,
             self->frames[9 * i + 6 + a] = partner[i][a];
           }
     }
-  rebuild_overlay (self);
+  _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1837,7 +1141,7 @@ df_surface_view_set_arrow (DfSurfaceView *self,
   memcpy (arrow->dir, dir, sizeof arrow->dir);
   arrow->colour = colour != NULL ? *colour : fallback;
   g_hash_table_replace (self->arrows, GUINT_TO_POINTER (id), arrow);
-  rebuild_overlay (self);
+  _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1847,7 +1151,7 @@ df_surface_view_remove_arrow (DfSurfaceView *self,
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
 
   if (g_hash_table_remove (self->arrows, GUINT_TO_POINTER (id)))
-    rebuild_overlay (self);
+    _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1863,7 +1167,7 @@ df_surface_view_set_marker (DfSurfaceView *self,
   if (self->has_marker)
     memcpy (self->marker, xyz, sizeof self->marker);
   self->marker_colour = colour != NULL ? *colour : fallback;
-  rebuild_overlay (self);
+  _df_surface_view_rebuild_overlay (self);
 }
 
 void
@@ -1948,7 +1252,7 @@ df_surface_view_get_shading_range (DfSurfaceView *self,
   double m;
 
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
-  m = mesh_range (self);
+  m = _df_surface_view_mesh_range (self);
   if (lo != NULL)
     *lo = -m;
   if (hi != NULL)
@@ -1989,7 +1293,6 @@ df_surface_view_save_png (DfSurfaceView *self,
   g_autoptr (GBytes) png = NULL;
   guchar *data, *row;
   gsize stride;
-  GLenum status;
 
   g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
   g_return_val_if_fail (path != NULL, FALSE);
@@ -2009,39 +1312,12 @@ df_surface_view_save_png (DfSurfaceView *self,
     }
 
   gtk_gl_area_make_current (area);
-  upload_dirty (self);
-  /* Render into a framebuffer of our own, so the picture does not depend on what GTK last
-   * composited. */
-  glGenFramebuffers (1, &gl->fbo);
-  glGenRenderbuffers (1, &gl->fbo_colour);
-  glGenRenderbuffers (1, &gl->fbo_depth);
-  glBindRenderbuffer (GL_RENDERBUFFER, gl->fbo_colour);
-  glRenderbufferStorage (GL_RENDERBUFFER, GL_RGBA8, w, h);
-  glBindRenderbuffer (GL_RENDERBUFFER, gl->fbo_depth);
-  glRenderbufferStorage (GL_RENDERBUFFER, GL_DEPTH_COMPONENT24, w, h);
-  glBindFramebuffer (GL_FRAMEBUFFER, gl->fbo);
-  glFramebufferRenderbuffer (GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_RENDERBUFFER,
-                             gl->fbo_colour);
-  glFramebufferRenderbuffer (GL_FRAMEBUFFER, GL_DEPTH_ATTACHMENT, GL_RENDERBUFFER,
-                             gl->fbo_depth);
-  status = glCheckFramebufferStatus (GL_FRAMEBUFFER);
   data = g_malloc (stride * h);
-  if (status == GL_FRAMEBUFFER_COMPLETE)
-    {
-      draw_scene (self, w, h, FALSE);
-      glPixelStorei (GL_PACK_ALIGNMENT, 1);
-      glReadPixels (0, 0, w, h, GL_RGBA, GL_UNSIGNED_BYTE, data);
-    }
-  glDeleteFramebuffers (1, &gl->fbo);
-  glDeleteRenderbuffers (1, &gl->fbo_colour);
-  glDeleteRenderbuffers (1, &gl->fbo_depth);
-  gl->fbo = gl->fbo_colour = gl->fbo_depth = 0;
-  gtk_gl_area_attach_buffers (area);
-  if (status != GL_FRAMEBUFFER_COMPLETE)
+  if (!_df_surface_view_gl_read_pixels (self, w, h, data))
     {
       g_free (data);
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
-                   "Cannot save %s: no offscreen framebuffer (status 0x%x)", path, status);
+                   "Cannot save %s: no offscreen framebuffer to render into", path);
       return FALSE;
     }
 

@@ -1,0 +1,158 @@
+/* df-surface-view-private.h: what the files of DfSurfaceView share: the instance struct, the
+ * mesh and overlay data it owns, its GL names, and the helpers split out by concern
+ * (df-surface-view-gl.c draws, df-surface-view-overlay.c builds overlay vertex arrays). */
+#pragma once
+
+#include <epoxy/gl.h>
+
+#include "df-camera.h"
+#include "df-mesh.h"
+#include "df-surface-view.h"
+
+G_BEGIN_DECLS
+
+/* Floats per vertex: surface (position, normal, uv, K, H), lines (position, rgba, width),
+ * solids (position, normal, rgba). */
+#define SURFACE_STRIDE 10
+#define LINE_STRIDE 8
+#define SOLID_STRIDE 10
+
+/* Overlay sizes as fractions of the surface's bounding-box diagonal. */
+#define FRAME_LENGTH 0.07
+#define HIGHLIGHT_LENGTH 0.12
+#define MARKER_RADIUS 0.011
+/* How far overlays are pulled toward the eye, as a fraction of their distance: more than the
+ * mesh's chord error (edges ~1/120 of the size, a few degrees of turn) at any sane zoom. */
+#define OVERLAY_BIAS 0.003f
+#define GHOST_ALPHA 0.28f
+#define GHOST_SOLID_ALPHA 0.16f
+#define BACK_SHADE 0.78f
+#define ORBIT_DEG_PER_PX 0.4
+
+/* The surface mesh and its GPU-ready copy, made on the worker thread; immutable after. */
+typedef struct
+{
+  df_mesh *mesh;        /* NULL when nothing could be tessellated */
+  float   *vertices;    /* SURFACE_STRIDE per vertex */
+  uint32_t *coarse;     /* every other grid line, drawn while the view moves */
+  gsize     n_coarse;   /* triangles in coarse */
+  char    *problem;     /* why part of the surface is missing, or NULL */
+  float    lo[3], hi[3];
+  double   size;        /* bounding-box diagonal */
+  float    iso_step[2];
+  double   range[2];    /* colour range of |K|, |H| (area quantile; 0 if the value is nil) */
+  gboolean below[2];    /* some K, H lie below -range */
+  gboolean above[2];    /* some K, H lie above +range */
+} MeshData;
+
+typedef struct
+{
+  df_surface *surface;
+  guint       generation;
+} BuildJob;
+
+typedef struct
+{
+  double  (*xyz)[3];
+  gsize     n;
+  gboolean  closed;
+  GdkRGBA   colour;
+  float     width;
+} Curve;
+
+typedef struct
+{
+  double  origin[3], dir[3];
+  GdkRGBA colour;
+} Arrow;
+
+/* Every GL name the widget creates, deleted together in unrealize. */
+typedef struct
+{
+  GLuint surface_program, lines_program, solid_program;
+  GLuint surface_vao, surface_vbo, surface_ibo, surface_ibo_coarse;
+  GLuint lines_vao, lines_vbo;
+  GLuint solid_vao, solid_vbo;
+  GLuint fbo, fbo_colour, fbo_depth;
+  struct { GLint view, proj, shading, inv_range, ramp, plain, iso, iso_step, back_shade; } su;
+  struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
+  struct { GLint view, proj, bias, alpha; } ou;
+  GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
+} ViewGl;
+
+typedef struct
+{
+  guint    n_frames;
+  GArray  *stamps;      /* gint64 monotonic times of each render */
+  GArray  *render_us;   /* gint64 time spent inside render, GL work finished */
+  guint    tick_id;
+  float    yaw0;
+  void   (*done) (double median_ms, double p95_ms, gpointer user);
+  gpointer user;
+  double   median_ms, p95_ms;
+} Benchmark;
+
+struct _DfSurfaceView
+{
+  GtkGLArea parent_instance;
+
+  /* owned */
+  df_surface   *surface;
+  MeshData     *mesh;
+  GHashTable   *curves;         /* guint id -> Curve */
+  GHashTable   *arrows;         /* guint id -> Arrow */
+  double       *frames;         /* 9 per sample: origin, carried, partner */
+  gsize         n_frames;
+  gboolean      has_marker;
+  double        marker[3];
+  GdkRGBA       marker_colour;
+  GArray       *line_data;      /* floats, LINE_STRIDE per vertex */
+  GArray       *solid_data;     /* floats, SOLID_STRIDE per vertex */
+  Benchmark    *bench;          /* running */
+  Benchmark    *bench_report;   /* finished, waiting for its report */
+  ViewGl        gl;
+
+  /* state */
+  DfCamera      camera;
+  DfShading     shading;
+  gboolean      iso_lines;
+  DfInteraction interaction;
+  guint         generation;     /* bumped by each set_surface; stale builds are dropped */
+  gboolean      building;
+  gboolean      rebuild_pending;
+  gboolean      mesh_dirty;
+  gboolean      overlay_dirty;
+  gboolean      fit_pending;    /* a fit was asked before the mesh or the size was known */
+  gboolean      moving;         /* the user is orbiting, panning or zooming: draw coarse */
+  guint         settle_id;      /* timeout that ends a scroll-zoom's motion */
+  int           fb_width, fb_height;
+  double        drag_last_x, drag_last_y;
+  gboolean      pick_active;    /* a press landed on the surface; released will follow */
+  double        last_u, last_v;
+};
+
+/* df-surface-view.c */
+double   _df_surface_view_mesh_range       (DfSurfaceView *self);
+
+/* df-surface-view-overlay.c: fills line_data and solid_data from curves, frames, arrows and the
+ * marker, marks them dirty and queues a render. */
+void     _df_surface_view_rebuild_overlay  (DfSurfaceView *self);
+void     _df_surface_view_curve_free       (Curve         *curve);
+
+/* df-surface-view-gl.c; all need the area's context current. */
+gboolean _df_surface_view_gl_create        (ViewGl        *gl,
+                                            GError       **error);
+void     _df_surface_view_gl_delete        (ViewGl        *gl);
+void     _df_surface_view_gl_upload        (DfSurfaceView *self);
+void     _df_surface_view_gl_draw          (DfSurfaceView *self,
+                                            int            width,
+                                            int            height,
+                                            gboolean       coarse);
+/* Renders into an offscreen framebuffer of width x height and reads it back, bottom row first,
+ * as RGBA into pixels (4 * width * height bytes). Rebinds the area's own buffers after. */
+gboolean _df_surface_view_gl_read_pixels   (DfSurfaceView *self,
+                                            int            width,
+                                            int            height,
+                                            guchar        *pixels);
+
+G_END_DECLS
