@@ -8,47 +8,8 @@
 #include "df-glib.h"
 #include "df-test.h"
 
-static const char *const var_t[] = { "t" };
-static const char *const var_xy[] = { "x", "y" };
 
 /* ---- helpers ---- */
-
-static df_expr *
-parse_or_die (const char *text, const char *const *vars, int n_vars)
-{
-  g_autoptr (GError) error = NULL;
-  df_expr *expr = df_expr_parse (text, vars, n_vars, NULL, NULL, &error);
-
-  g_assert_no_error (error);
-  g_assert_nonnull (expr);
-  return expr;
-}
-
-static df_surface *
-new_revolution (const char *r, const char *z, double t_min, double t_max)
-{
-  df_surface *s = NULL;
-  df_diag diag;
-  df_status st = df_surface_new_revolution (parse_or_die (r, var_t, 1),
-                                            parse_or_die (z, var_t, 1), t_min, t_max, &s, &diag);
-
-  if (st != DF_OK)
-    g_error ("profile (%s, %s): %s: %s", r, z, df_status_describe (st), diag.detail);
-  return s;
-}
-
-static df_surface *
-new_graph (const char *f, double x_min, double x_max, double y_min, double y_max)
-{
-  df_surface *s = NULL;
-  df_diag diag;
-  df_status st = df_surface_new_graph (parse_or_die (f, var_xy, 2), x_min, x_max, y_min, y_max,
-                                       &s, &diag);
-
-  if (st != DF_OK)
-    g_error ("graph %s: %s: %s", f, df_status_describe (st), diag.detail);
-  return s;
-}
 
 /* Shoots and insists on success; the samples must be finite, evenly spaced in s from 0 and
  * carry unit tangents (df-geodesic.h). */
@@ -118,7 +79,7 @@ test_great_circle (void)
 {
   const double R = 2.0, t0 = G_PI / 2, phi0 = 0.4, heading = 1.2, L = 2 * G_PI * R;
   const size_t n = 401;
-  g_autoptr (df_surface) s = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
   g_auto (df_geodesic_result) res = { 0 };
   const df_geodesic_sample *first, *last, *half;
   double plane[3], want_t0[3];
@@ -189,7 +150,7 @@ static void
 test_clairaut_torus (void)
 {
   const double R = 3.0, a = 1.0, heading = 1.2;
-  g_autoptr (df_surface) s = new_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
   g_auto (df_geodesic_result) res = { 0 };
 
   /* From the outer equator (t = 0, r = R + a) where X_t/|X_t| = (0, 0, -1) and N points out
@@ -205,7 +166,7 @@ static void
 test_clairaut_catenoid (void)
 {
   const double t0 = -1.0, heading = 0.5;
-  g_autoptr (df_surface) s = new_revolution ("cosh(t)", "t", -2.0, 2.0);
+  g_autoptr (df_surface) s = df_test_revolution ("cosh(t)", "t", -2.0, 2.0);
   g_auto (df_geodesic_result) res = { 0 };
   double spread;
 
@@ -228,7 +189,7 @@ test_plane_line (void)
   static const double headings_deg[] = { 0.0, 90.0, 30.0, -135.0 };
   const double x0 = 1.0, y0 = -0.5, L = 3.0;
   const size_t n = 31;
-  g_autoptr (df_surface) s = new_graph ("0*x", -5.0, 5.0, -5.0, 5.0);
+  g_autoptr (df_surface) s = df_test_graph ("0*x", -5.0, 5.0, -5.0, 5.0);
 
   /* The plane z = 0: N = +z, X_x = e_x; a geodesic is the straight line
    * (x0 + s cos h, y0 + s sin h, 0), heading 0 along +x and 90 deg along +y, counter-clockwise
@@ -260,7 +221,7 @@ test_tilted_plane (void)
 {
   const double L = 2.5, h = 0.7;
   const size_t n = 26;
-  g_autoptr (df_surface) s = new_graph ("0.5*x + 0.2*y", -4.0, 4.0, -4.0, 4.0);
+  g_autoptr (df_surface) s = df_test_graph ("0.5*x + 0.2*y", -4.0, 4.0, -4.0, 4.0);
   g_auto (df_geodesic_result) res = { 0 };
   const df_geodesic_sample *first, *last;
   double e1[3] = { 1.0, 0.0, 0.5 }, n_up[3] = { -0.5, -0.2, 1.0 }, e2[3], len;
@@ -295,7 +256,7 @@ test_cylinder_helix (void)
 {
   const double R = 1.5, h = 1.0, L = 15.0;
   const size_t n = 301;
-  g_autoptr (df_surface) s = new_revolution ("1.5", "t", -20.0, 20.0);
+  g_autoptr (df_surface) s = df_test_revolution ("1.5", "t", -20.0, 20.0);
   g_auto (df_geodesic_result) res = { 0 };
   double phi_prev = 0.0, turns = 0.0;
 
@@ -333,7 +294,7 @@ test_normal_acceleration (void)
   const double L = 3.0;
   const size_t n = 301;
   const double ds = L / (n - 1);
-  g_autoptr (df_surface) s = new_graph ("0.3*sin(x)*cos(y) + 0.1*x*y", -3.0, 3.0, -3.0, 3.0);
+  g_autoptr (df_surface) s = df_test_graph ("0.3*sin(x)*cos(y) + 0.1*x*y", -3.0, 3.0, -3.0, 3.0);
   g_auto (df_geodesic_result) res = { 0 };
   double acc_max = 0.0, chords = 0.0;
 
@@ -373,9 +334,9 @@ test_runs_off_domain (void)
 {
   const size_t n = 101;
   const double L = 5.0, spacing = L / (n - 1);
-  g_autoptr (df_surface) plane = new_graph ("0*x", -1.0, 1.0, -1.0, 1.0);
-  g_autoptr (df_surface) sphere = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
-  g_autoptr (df_surface) catenoid = new_revolution ("cosh(t)", "t", -2.0, 2.0);
+  g_autoptr (df_surface) plane = df_test_graph ("0*x", -1.0, 1.0, -1.0, 1.0);
+  g_autoptr (df_surface) sphere = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) catenoid = df_test_revolution ("cosh(t)", "t", -2.0, 2.0);
   g_auto (df_geodesic_result) res = { 0 };
 
   /* From the centre of [-1, 1]^2 along +x: the edge is 1 away. The result keeps what was
@@ -414,7 +375,7 @@ test_runs_off_domain (void)
 static void
 test_bad_input (void)
 {
-  g_autoptr (df_surface) sphere = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) sphere = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
   df_geodesic_result res;
   df_diag diag;
 

@@ -11,47 +11,8 @@
 #include "df-glib.h"
 #include "df-test.h"
 
-static const char *const var_t[] = { "t" };
-static const char *const var_xy[] = { "x", "y" };
 
 /* ---- helpers ---- */
-
-static df_expr *
-parse_or_die (const char *text, const char *const *vars, int n_vars)
-{
-  g_autoptr (GError) error = NULL;
-  df_expr *expr = df_expr_parse (text, vars, n_vars, NULL, NULL, &error);
-
-  g_assert_no_error (error);
-  g_assert_nonnull (expr);
-  return expr;
-}
-
-static df_surface *
-new_revolution (const char *r, const char *z, double t_min, double t_max)
-{
-  df_surface *s = NULL;
-  df_diag diag;
-  df_status st = df_surface_new_revolution (parse_or_die (r, var_t, 1),
-                                            parse_or_die (z, var_t, 1), t_min, t_max, &s, &diag);
-
-  if (st != DF_OK)
-    g_error ("profile (%s, %s): %s: %s", r, z, df_status_describe (st), diag.detail);
-  return s;
-}
-
-static df_surface *
-new_graph (const char *f, double x_min, double x_max, double y_min, double y_max)
-{
-  df_surface *s = NULL;
-  df_diag diag;
-  df_status st = df_surface_new_graph (parse_or_die (f, var_xy, 2), x_min, x_max, y_min, y_max,
-                                       &s, &diag);
-
-  if (st != DF_OK)
-    g_error ("graph %s: %s: %s", f, df_status_describe (st), diag.detail);
-  return s;
-}
 
 static void
 geometry_or_die (const df_surface *s, double u, double v, df_point_geometry *geo)
@@ -92,8 +53,8 @@ static df_surface *
 case_surface (const surface_case *c)
 {
   if (c->graph)
-    return new_graph (c->a, c->dom[0], c->dom[1], c->dom[2], c->dom[3]);
-  return new_revolution (c->a, c->b, c->dom[0], c->dom[1]);
+    return df_test_graph (c->a, c->dom[0], c->dom[1], c->dom[2], c->dom[3]);
+  return df_test_revolution (c->a, c->b, c->dom[0], c->dom[1]);
 }
 
 static void
@@ -157,7 +118,7 @@ static void
 test_sphere_curvature (void)
 {
   const double R = 2.0;
-  g_autoptr (df_surface) s = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
   g_autoptr (GRand) rng = g_rand_new_with_seed (7);
 
   for (int i = 0; i < 20; i++)
@@ -195,8 +156,8 @@ static void
 test_cylinder_curvature (void)
 {
   const double R = 1.5;
-  g_autoptr (df_surface) out = new_revolution ("1.5", "-t", -1.0, 1.0);
-  g_autoptr (df_surface) in = new_revolution ("1.5", "t", -1.0, 1.0);
+  g_autoptr (df_surface) out = df_test_revolution ("1.5", "-t", -1.0, 1.0);
+  g_autoptr (df_surface) in = df_test_revolution ("1.5", "t", -1.0, 1.0);
   df_point_geometry geo;
 
   /* Cylinder: K = 0, |H| = 1/(2R), principal curvatures 0 and 1/R in size (do Carmo sec. 3-2,
@@ -224,7 +185,7 @@ static void
 test_torus_curvature (void)
 {
   const double R = 3.0, a = 1.0;
-  g_autoptr (df_surface) s = new_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("3 + cos(t)", "-sin(t)", -G_PI, G_PI);
 
   /* Torus r = R + a cos t, z = -a sin t. Arc length s = a t, so with K = -r''(s)/r for a
    * profile in arc length (do Carmo sec. 3-3, from memory) K = cos t / (a (R + a cos t)); the
@@ -253,7 +214,7 @@ static void
 test_catenoid_curvature (void)
 {
   const double c = 1.3;
-  g_autoptr (df_surface) s = new_revolution ("1.3*cosh(t/1.3)", "t", -2.0, 2.0);
+  g_autoptr (df_surface) s = df_test_revolution ("1.3*cosh(t/1.3)", "t", -2.0, 2.0);
 
   /* Catenoid r = c cosh(t/c), z = t: K = -1/(c^2 cosh^4(t/c)), a minimal surface H = 0, so
    * k1 = -k2 = 1/(c cosh^2(t/c)) (do Carmo sec. 3-5, from memory). */
@@ -274,7 +235,7 @@ static void
 test_pseudosphere_curvature (void)
 {
   const double a = 1.5;
-  g_autoptr (df_surface) s = new_revolution ("1.5/cosh(t)", "1.5*(t - tanh(t))", 0.2, 3.0);
+  g_autoptr (df_surface) s = df_test_revolution ("1.5/cosh(t)", "1.5*(t - tanh(t))", 0.2, 3.0);
 
   /* Tractrix of length a about its asymptote: constant K = -1/a^2 (do Carmo sec. 3-3,
    * from memory). */
@@ -317,8 +278,8 @@ static void
 test_graph_curvature (void)
 {
   const double a = 1.5;
-  g_autoptr (df_surface) paraboloid = new_graph ("(x^2 + y^2)/(2*1.5)", -2, 2, -2, 2);
-  g_autoptr (df_surface) saddle = new_graph ("x*y", -1.5, 1.5, -1.5, 1.5);
+  g_autoptr (df_surface) paraboloid = df_test_graph ("(x^2 + y^2)/(2*1.5)", -2, 2, -2, 2);
+  g_autoptr (df_surface) saddle = df_test_graph ("x*y", -1.5, 1.5, -1.5, 1.5);
   g_autoptr (df_surface) bumps = case_surface (&cases[6]);
   g_autoptr (GRand) rng = g_rand_new_with_seed (11);
 
@@ -365,8 +326,8 @@ test_paraboloid_two_charts (void)
    * runs upward, so N points up and inward, as the graph's does): every curvature at the same
    * space point must agree, whatever the chart (K and H are chart-independent: do Carmo
    * sec. 3-3, from memory). */
-  g_autoptr (df_surface) graph = new_graph ("(x^2 + y^2)/3", -2, 2, -2, 2);
-  g_autoptr (df_surface) rev = new_revolution ("t", "t^2/3", 0.0, 2.5);
+  g_autoptr (df_surface) graph = df_test_graph ("(x^2 + y^2)/3", -2, 2, -2, 2);
+  g_autoptr (df_surface) rev = df_test_revolution ("t", "t^2/3", 0.0, 2.5);
 
   for (int i = 1; i <= 8; i++)
     {
@@ -644,7 +605,7 @@ test_riemann_identities (void)
 static void
 test_sphere_riemann (void)
 {
-  g_autoptr (df_surface) s = new_revolution ("sin(t)", "cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0.0, G_PI);
 
   /* Unit sphere in (t, phi): Gamma^t_phiphi = -sin t cos t, Gamma^phi_tphi = cot t, so
    * R^t_phitphi = d_t Gamma^t_phiphi - Gamma^t_phiphi Gamma^phi_tphi = -cos 2t + cos^2 t
@@ -673,8 +634,8 @@ static void
 test_pole (void)
 {
   const double R = 2.0, a = 1.5;
-  g_autoptr (df_surface) sphere = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
-  g_autoptr (df_surface) paraboloid = new_revolution ("t", "t^2/(2*1.5)", 0.0, 2.0);
+  g_autoptr (df_surface) sphere = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) paraboloid = df_test_revolution ("t", "t^2/(2*1.5)", 0.0, 2.0);
   df_point_geometry geo;
   df_diag diag;
   double gamma[2][2][2];

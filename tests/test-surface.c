@@ -42,30 +42,6 @@ try_graph (const char *f, double x_min, double x_max, double y_min, double y_max
                                diag);
 }
 
-static df_surface *
-new_revolution (const char *r, const char *z, double t_min, double t_max)
-{
-  df_surface *s = NULL;
-  df_diag diag;
-  df_status st = try_revolution (r, z, t_min, t_max, &s, &diag);
-
-  if (st != DF_OK)
-    g_error ("profile (%s, %s): %s: %s", r, z, df_status_describe (st), diag.detail);
-  return s;
-}
-
-static df_surface *
-new_graph (const char *f, double x_min, double x_max, double y_min, double y_max)
-{
-  df_surface *s = NULL;
-  df_diag diag;
-  df_status st = try_graph (f, x_min, x_max, y_min, y_max, &s, &diag);
-
-  if (st != DF_OK)
-    g_error ("graph %s: %s: %s", f, df_status_describe (st), diag.detail);
-  return s;
-}
-
 static void
 eval_or_die (const df_surface *s, double u, double v, int order, df_chart_jet *jet)
 {
@@ -214,7 +190,7 @@ test_formula_fails (void)
 static void
 test_sphere_poles (void)
 {
-  g_autoptr (df_surface) s = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
   df_pole poles[2];
 
   /* A sphere's profile meets the axis at right angles at both ends: smooth poles with
@@ -238,10 +214,10 @@ test_cone_poles (void)
   g_autofree char *z_up = g_strdup_printf ("-t*%.17g", cos (alpha));
   g_autofree char *r_dn = g_strdup_printf ("(1 - t)*%.17g", sin (alpha));
   g_autofree char *z_dn = g_strdup_printf ("t*%.17g", cos (alpha));
-  g_autoptr (df_surface) apex_first = new_revolution (r_up, z_up, 0.0, 1.0);
-  g_autoptr (df_surface) apex_last = new_revolution (r_dn, z_dn, 0.0, 1.0);
-  g_autoptr (df_surface) cylinder = new_revolution ("1.5", "t", -1.0, 1.0);
-  g_autoptr (df_surface) graph = new_graph ("x*y", -1.0, 1.0, -1.0, 1.0);
+  g_autoptr (df_surface) apex_first = df_test_revolution (r_up, z_up, 0.0, 1.0);
+  g_autoptr (df_surface) apex_last = df_test_revolution (r_dn, z_dn, 0.0, 1.0);
+  g_autoptr (df_surface) cylinder = df_test_revolution ("1.5", "t", -1.0, 1.0);
+  g_autoptr (df_surface) graph = df_test_graph ("x*y", -1.0, 1.0, -1.0, 1.0);
   df_pole poles[2];
 
   /* A cone of half-angle alpha unrolls into a sector of angle 2 pi sin alpha, so its apex
@@ -277,8 +253,8 @@ test_bbox (void)
   const double R = 2.5;
   g_autofree char *r = g_strdup_printf ("%.17g*sin(t)", R);
   g_autofree char *z = g_strdup_printf ("%.17g*cos(t)", R);
-  g_autoptr (df_surface) sphere = new_revolution (r, z, 0.0, G_PI);
-  g_autoptr (df_surface) saddle = new_graph ("x*y", -1.0, 2.0, -1.0, 1.0);
+  g_autoptr (df_surface) sphere = df_test_revolution (r, z, 0.0, G_PI);
+  g_autoptr (df_surface) saddle = df_test_graph ("x*y", -1.0, 2.0, -1.0, 1.0);
   double lo[3], hi[3];
 
   /* A sphere of radius R fills the cube [-R, R]^3 exactly; its diagonal is 2 sqrt(3) R
@@ -306,8 +282,8 @@ test_bbox (void)
 static void
 test_domain (void)
 {
-  g_autoptr (df_surface) sphere = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
-  g_autoptr (df_surface) graph = new_graph ("1/(x - 0.123)", 0.5, 1.0, -1.0, 1.0);
+  g_autoptr (df_surface) sphere = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) graph = df_test_graph ("1/(x - 0.123)", 0.5, 1.0, -1.0, 1.0);
   double u0, u1, v0, v1;
   df_chart_jet jet;
   df_diag diag;
@@ -354,7 +330,7 @@ test_formula_fails_inside (void)
    * df-surface.h: df_surface_eval returns DF_E_DOMAIN only outside the chart's domain and
    * DF_E_NONFINITE where a formula fails inside it, so that callers (geodesics stopping at
    * the domain's edge) can tell the two apart. */
-  g_autoptr (df_surface) graph = new_graph ("1/(x - 0.123)", -1.0, 1.0, -1.0, 1.0);
+  g_autoptr (df_surface) graph = df_test_graph ("1/(x - 0.123)", -1.0, 1.0, -1.0, 1.0);
   df_chart_jet jet;
   df_diag diag;
   df_status st;
@@ -437,7 +413,7 @@ static void
 test_revolution_derivatives (void)
 {
   /* A profile with no symmetry, so that no derivative vanishes by accident. */
-  g_autoptr (df_surface) s = new_revolution ("2 + 0.5*sin(t) + 0.1*t^2", "t + 0.3*cos(2*t)",
+  g_autoptr (df_surface) s = df_test_revolution ("2 + 0.5*sin(t) + 0.1*t^2", "t + 0.3*cos(2*t)",
                                              -1.0, 2.0);
   df_chart_jet jet;
 
@@ -459,7 +435,7 @@ test_revolution_derivatives (void)
 static void
 test_graph_derivatives (void)
 {
-  g_autoptr (df_surface) s = new_graph ("sin(x)*exp(0.5*y) + x^3*y/6 + x*y^2", -2.0, 2.0, -2.0,
+  g_autoptr (df_surface) s = df_test_graph ("sin(x)*exp(0.5*y) + x^3*y/6 + x*y^2", -2.0, 2.0, -2.0,
                                         2.0);
   df_chart_jet jet;
 
@@ -521,8 +497,8 @@ test_copy (void)
   static const double rev_pts[][2] = { { 0.0, 0.0 }, { 0.4, 1.0 }, { 0.9, -2.0 }, { 1.0, 3.0 } };
   static const double graph_pts[][2] = { { -1.0, -1.0 }, { 0.2, 0.7 }, { 1.0, -0.3 } };
 
-  check_copy (new_revolution ("t*0.5", "-t*0.8", 0.0, 1.0), rev_pts, G_N_ELEMENTS (rev_pts));
-  check_copy (new_graph ("exp(x)*cos(y)", -1.0, 1.0, -1.0, 1.0), graph_pts,
+  check_copy (df_test_revolution ("t*0.5", "-t*0.8", 0.0, 1.0), rev_pts, G_N_ELEMENTS (rev_pts));
+  check_copy (df_test_graph ("exp(x)*cos(y)", -1.0, 1.0, -1.0, 1.0), graph_pts,
               G_N_ELEMENTS (graph_pts));
   g_assert_null (df_surface_copy (NULL));
   df_surface_free (NULL);
@@ -535,7 +511,7 @@ test_project_sphere (void)
 {
   const double R = 2.0;
   const double radii[] = { 0.5, 1.5, 2.0, 3.0, 10.0 };
-  g_autoptr (df_surface) s = new_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
+  g_autoptr (df_surface) s = df_test_revolution ("2*sin(t)", "2*cos(t)", 0.0, G_PI);
   g_autoptr (GRand) rng = g_rand_new_with_seed (20240611);
 
   /* The closest point of a sphere of radius R centred at 0 to p != 0 is R p / |p|, at
@@ -586,7 +562,7 @@ test_project_graph (void)
   /* Principal curvatures of this graph stay below about 0.5, so a point at offset |d| <= 0.3
    * along the normal has its foot as the unique closest point (the offset is below the
    * radius of curvature; from memory). */
-  g_autoptr (df_surface) s = new_graph ("0.3*sin(x)*cos(y) + 0.1*x*y", -2.0, 2.0, -2.0, 2.0);
+  g_autoptr (df_surface) s = df_test_graph ("0.3*sin(x)*cos(y) + 0.1*x*y", -2.0, 2.0, -2.0, 2.0);
   static const double feet[][2] = { { 0.2, 0.3 }, { -1.0, 0.7 }, { 1.3, -1.1 }, { 0.0, -1.6 } };
   static const double offsets[] = { 0.3, -0.25, 0.05 };
   double u = NAN, v = NAN, dist = NAN;
