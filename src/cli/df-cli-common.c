@@ -205,8 +205,9 @@ df_cli_require (const char *option, const char *value, GError **error)
 const char *
 df_cli_num (char *buf, gsize len, double value, int digits)
 {
+  /* Adding zero turns a negative zero into a plain one: "-0" on screen reads as a sign. */
   if (isfinite (value))
-    g_snprintf (buf, len, "%.*g", digits, value);
+    g_snprintf (buf, len, "%.*g", digits, value + 0.0);
   else
     g_strlcpy (buf, "n/a", len);
   return buf;

@@ -11,7 +11,8 @@ df_status_to_gerror (df_status status, const df_diag *diag, GError **error)
   if (diag != NULL && diag->index >= 0)
     g_string_append_printf (msg, "point %ld", diag->index + 1);
   if (diag != NULL && diag->has_point)
-    g_string_append_printf (msg, "%s(u = %.6g, v = %.6g)", msg->len ? " " : "", diag->u, diag->v);
+    g_string_append_printf (msg, "%sat chart point (%.6g, %.6g)", msg->len ? " " : "", diag->u,
+                            diag->v);
   if (msg->len)
     g_string_append (msg, ": ");
   g_string_append (msg, df_status_describe (status));
