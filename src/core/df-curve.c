@@ -146,20 +146,22 @@ chart_to_plane (const df_curve *c, double u, double v, double p[2])
 static int
 spline_slopes (const double *x, const double *y, size_t n, bool closed, double *s)
 {
-  size_t m = closed ? n : n;
-  size_t nseg = closed ? n : n - 1;
-  double *h = malloc (nseg * sizeof *h), *d = malloc (nseg * sizeof *d);
-  gsl_vector *diag = gsl_vector_alloc (m), *rhs = gsl_vector_alloc (m);
-  gsl_vector *above = gsl_vector_alloc (closed ? m : m - 1);
-  gsl_vector *below = gsl_vector_alloc (closed ? m : m - 1);
-  gsl_vector_view sol = gsl_vector_view_array (s, m);
+  size_t nseg = closed ? n : n - 1, m_off = closed ? n : n - 1;
+  /* One block: h, d, diagonal, right-hand side, upper and lower diagonals. Filled as plain
+   * arrays and handed to GSL through vector views. */
+  double *work = malloc ((2 * nseg + 2 * n + 2 * m_off) * sizeof *work);
+  double *h, *d, *dg, *rhs, *up, *lo;
+  gsl_vector_view v_dg, v_rhs, v_up, v_lo, sol = gsl_vector_view_array (s, n);
   int rc = 0;
 
-  if (!h || !d || !diag || !rhs || !above || !below)
-    {
-      rc = -1;
-      goto out;
-    }
+  if (work == NULL)
+    return -1;
+  h = work;
+  d = h + nseg;
+  dg = d + nseg;
+  rhs = dg + n;
+  up = rhs + n;
+  lo = up + m_off;
   for (size_t i = 0; i < nseg; i++)
     {
       h[i] = x[i + 1] - x[i];
@@ -171,20 +173,18 @@ spline_slopes (const double *x, const double *y, size_t n, bool closed, double *
         {
           size_t im = (i + n - 1) % n;
 
-          gsl_vector_set (diag, i, 2 * (h[im] + h[i]));
-          gsl_vector_set (rhs, i, 3 * (h[i] * d[im] + h[im] * d[i]));
-          gsl_vector_set (above, i, h[im]);              /* coefficient of s_{i+1} in row i */
-          gsl_vector_set (below, im, h[i]);              /* coefficient of s_{i-1} in row i */
+          dg[i] = 2 * (h[im] + h[i]);
+          rhs[i] = 3 * (h[i] * d[im] + h[im] * d[i]);
+          up[i] = h[im];              /* coefficient of s_{i+1} in row i */
+          lo[im] = h[i];              /* coefficient of s_{i-1} in row i */
         }
-      rc = gsl_linalg_solve_cyc_tridiag (diag, above, below, rhs, &sol.vector);
-      goto out;
     }
-  if (n == 2)
+  else if (n == 2)
     {
       s[0] = s[1] = d[0];
       goto out;
     }
-  if (n == 3)
+  else if (n == 3)
     {
       /* The parabola through three points. */
       double c2 = (d[1] - d[0]) / (h[0] + h[1]);
@@ -194,34 +194,35 @@ spline_slopes (const double *x, const double *y, size_t n, bool closed, double *
       s[2] = d[1] + c2 * h[1];
       goto out;
     }
-  gsl_vector_set (diag, 0, h[1]);
-  gsl_vector_set (above, 0, h[0] + h[1]);
-  gsl_vector_set (rhs, 0, ((h[0] + 2 * (h[0] + h[1])) * h[1] * d[0] + h[0] * h[0] * d[1])
-                          / (h[0] + h[1]));
-  for (size_t i = 1; i + 1 < n; i++)
+  else
     {
-      gsl_vector_set (below, i - 1, h[i]);
-      gsl_vector_set (diag, i, 2 * (h[i - 1] + h[i]));
-      gsl_vector_set (above, i, h[i - 1]);
-      gsl_vector_set (rhs, i, 3 * (h[i] * d[i - 1] + h[i - 1] * d[i]));
+      size_t k = n - 1;
+      double a = h[k - 2], bb = h[k - 1];
+
+      dg[0] = h[1];
+      up[0] = h[0] + h[1];
+      rhs[0] = ((h[0] + 2 * (h[0] + h[1])) * h[1] * d[0] + h[0] * h[0] * d[1]) / (h[0] + h[1]);
+      for (size_t i = 1; i + 1 < n; i++)
+        {
+          lo[i - 1] = h[i];
+          dg[i] = 2 * (h[i - 1] + h[i]);
+          up[i] = h[i - 1];
+          rhs[i] = 3 * (h[i] * d[i - 1] + h[i - 1] * d[i]);
+        }
+      lo[k - 1] = a + bb;
+      dg[k] = a;
+      rhs[k] = (bb * bb * d[k - 2] + (2 * (a + bb) + bb) * a * d[k - 1]) / (a + bb);
     }
-  {
-    size_t k = n - 1;
-    double a = h[k - 2], b = h[k - 1];
-
-    gsl_vector_set (below, k - 1, a + b);
-    gsl_vector_set (diag, k, a);
-    gsl_vector_set (rhs, k, (b * b * d[k - 2] + (2 * (a + b) + b) * a * d[k - 1]) / (a + b));
-  }
-  rc = gsl_linalg_solve_tridiag (diag, above, below, rhs, &sol.vector);
-
+  v_dg = gsl_vector_view_array (dg, n);
+  v_rhs = gsl_vector_view_array (rhs, n);
+  v_up = gsl_vector_view_array (up, m_off);
+  v_lo = gsl_vector_view_array (lo, m_off);
+  rc = closed ? gsl_linalg_solve_cyc_tridiag (&v_dg.vector, &v_up.vector, &v_lo.vector,
+                                              &v_rhs.vector, &sol.vector)
+              : gsl_linalg_solve_tridiag (&v_dg.vector, &v_up.vector, &v_lo.vector,
+                                          &v_rhs.vector, &sol.vector);
 out:
-  free (h);
-  free (d);
-  if (diag) gsl_vector_free (diag);
-  if (rhs) gsl_vector_free (rhs);
-  if (above) gsl_vector_free (above);
-  if (below) gsl_vector_free (below);
+  free (work);
   return rc;
 }
 
