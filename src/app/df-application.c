@@ -154,7 +154,7 @@ df_application_command_line (GApplication            *application,
       g_application_command_line_print (command_line, "driftframe %s\n", DF_VERSION);
       return 0;
     }
-  g_variant_dict_lookup (options, G_OPTION_REMAINING, "^a&ay", &files);
+  g_variant_dict_lookup (options, G_OPTION_REMAINING, "^aay", &files);
   if (files != NULL && g_strv_length (files) > 1)
     {
       g_application_command_line_printerr (command_line,

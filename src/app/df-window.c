@@ -171,14 +171,22 @@ df_window_dispose (GObject *object)
 
   g_clear_handle_id (&self->status_timeout_id, g_source_remove);
   g_clear_handle_id (&self->export_idle_id, g_source_remove);
-  _df_window_tools_finalize (self);
+  /* Children emit signals while they are torn down: stop listening first. */
+  if (self->loops_panel != NULL)
+    {
+      g_signal_handlers_disconnect_by_data (self->loops_panel, self);
+      df_loops_panel_set_document (self->loops_panel, NULL);
+    }
+  if (self->surface_panel != NULL)
+    g_signal_handlers_disconnect_by_data (self->surface_panel, self);
+  if (self->view != NULL)
+    g_signal_handlers_disconnect_by_data (self->view, self);
   if (self->document != NULL)
     {
       g_signal_handlers_disconnect_by_data (self->document, self);
       g_signal_handlers_disconnect_by_data (df_document_get_loops (self->document), self);
     }
-  if (self->loops_panel != NULL)
-    df_loops_panel_set_document (self->loops_panel, NULL);
+  _df_window_tools_finalize (self);
   g_clear_object (&self->document);
   gtk_widget_dispose_template (GTK_WIDGET (self), DF_TYPE_WINDOW);
   G_OBJECT_CLASS (df_window_parent_class)->dispose (object);

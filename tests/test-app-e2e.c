@@ -1,0 +1,534 @@
+/* test-app-e2e.c: end-to-end tests of the desktop app `driftframe`, driven from outside as a
+ * user would: a private Xvfb server, the app binary, xdotool for the mouse. One case sketches a
+ * loop around the pole of a sphere in "Sketch loop" mode and checks the exported measurement
+ * against Gauss-Bonnet; the other exports the view as PNG and checks that the surface, the loop
+ * and its frames are on it. Skips (with the reason) when Xvfb or xdotool is missing. */
+#include <gdk-pixbuf/gdk-pixbuf.h>
+#include <gio/gio.h>
+#include <glib/gstdio.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+#ifdef __linux__
+#include <signal.h>
+#include <sys/prctl.h>
+#endif
+
+#include "df-glib.h"
+#include "df-test.h"
+
+/* Generous: the software rasterizer and a cold start are slow on a loaded machine. */
+#define STEP_TIMEOUT_S 90
+
+typedef struct
+{
+  GSubprocess *server;
+  char        *display;  /* ":N" */
+} Xserver;
+
+/* Children die with the test: a failed assertion aborts the test process, and an orphaned X
+ * server or app would keep running (and keep the test harness's output pipes open). */
+static void
+die_with_parent (gpointer user_data)
+{
+#ifdef __linux__
+  prctl (PR_SET_PDEATHSIG, SIGKILL);
+#endif
+}
+
+static void
+xserver_stop (Xserver *x)
+{
+  if (x->server != NULL)
+    {
+      g_subprocess_force_exit (x->server);
+      g_subprocess_wait (x->server, NULL, NULL);
+    }
+  g_clear_object (&x->server);
+  g_clear_pointer (&x->display, g_free);
+}
+
+/* Waits for an async operation's flag with a deadline, iterating the default context. */
+static gboolean
+wait_for (gboolean *done,
+          int       seconds)
+{
+  gint64 deadline = g_get_monotonic_time () + (gint64) seconds * G_USEC_PER_SEC;
+
+  while (!*done && g_get_monotonic_time () < deadline)
+    {
+      if (!g_main_context_iteration (NULL, FALSE))
+        g_usleep (10000);
+    }
+  return *done;
+}
+
+/* Starts Xvfb on a free display (-displayfd writes the number it took). FALSE (with the test
+ * skipped) when the tools are missing. */
+static gboolean
+xserver_start (Xserver *x)
+{
+  g_autofree char *xvfb = g_find_program_in_path ("Xvfb");
+  g_autofree char *xdotool = g_find_program_in_path ("xdotool");
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GError) error = NULL;
+  char buffer[32] = { 0 };
+  int fds[2];
+  gssize got = 0;
+
+  memset (x, 0, sizeof *x);
+  if (xvfb == NULL || xdotool == NULL)
+    {
+      g_test_skip ("needs Xvfb and xdotool in PATH (Debian: apt install xvfb xdotool)");
+      return FALSE;
+    }
+  g_assert_cmpint (pipe (fds), ==, 0);
+  launcher = g_subprocess_launcher_new (G_SUBPROCESS_FLAGS_STDOUT_SILENCE
+                                        | G_SUBPROCESS_FLAGS_STDERR_SILENCE);
+  g_subprocess_launcher_set_child_setup (launcher, die_with_parent, NULL, NULL);
+  g_subprocess_launcher_take_fd (launcher, fds[1], 3);
+  x->server = g_subprocess_launcher_spawn (launcher, &error, xvfb, "-displayfd", "3", "-screen",
+                                           "0", "1280x800x24", "-nolisten", "tcp", NULL);
+  g_assert_no_error (error);
+  /* The child has its copy of the write end; a read then ends at its first newline or exit. */
+  g_clear_object (&launcher);
+  for (gsize len = 0; len < sizeof buffer - 1; len += (gsize) got)
+    {
+      got = read (fds[0], buffer + len, sizeof buffer - 1 - len);
+      if (got <= 0 || memchr (buffer, '\n', len + (gsize) got) != NULL)
+        break;
+    }
+  close (fds[0]);
+  if (buffer[0] < '0' || buffer[0] > '9')
+    {
+      xserver_stop (x);
+      g_test_skip ("Xvfb did not start (no display number on -displayfd)");
+      return FALSE;
+    }
+  x->display = g_strdup_printf (":%d", atoi (buffer));
+  return TRUE;
+}
+
+static GSubprocessLauncher *
+app_launcher (Xserver *x)
+{
+  GSubprocessLauncher *launcher = g_subprocess_launcher_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE);
+
+  g_subprocess_launcher_set_child_setup (launcher, die_with_parent, NULL, NULL);
+  /* The isolated directories of g_test_init, so the app neither reads nor writes the user's
+   * remembered state. */
+  g_subprocess_launcher_setenv (launcher, "XDG_CONFIG_HOME", g_get_user_config_dir (), TRUE);
+  g_subprocess_launcher_setenv (launcher, "XDG_DATA_HOME", g_get_user_data_dir (), TRUE);
+  g_subprocess_launcher_setenv (launcher, "XDG_CACHE_HOME", g_get_user_cache_dir (), TRUE);
+  g_subprocess_launcher_setenv (launcher, "DISPLAY", x->display, TRUE);
+  g_subprocess_launcher_setenv (launcher, "GDK_BACKEND", "x11", TRUE);
+  g_subprocess_launcher_setenv (launcher, "LIBGL_ALWAYS_SOFTWARE", "1", TRUE);
+  g_subprocess_launcher_setenv (launcher, "NO_AT_BRIDGE", "1", TRUE);
+  g_subprocess_launcher_setenv (launcher, "GSETTINGS_BACKEND", "memory", TRUE);
+  return launcher;
+}
+
+typedef struct
+{
+  gboolean done;
+  char    *line;
+} LineWait;
+
+static void
+line_ready_cb (GObject      *source,
+               GAsyncResult *result,
+               gpointer      user_data)
+{
+  LineWait *wait = user_data;
+
+  wait->line = g_data_input_stream_read_line_finish_utf8 (G_DATA_INPUT_STREAM (source), result,
+                                                          NULL, NULL);
+  wait->done = TRUE;
+}
+
+/* Reads the app's stdout until a line starts with prefix; NULL on end of output or timeout. */
+static char *
+read_until (GDataInputStream *out,
+            const char       *prefix)
+{
+  for (;;)
+    {
+      LineWait wait = { FALSE, NULL };
+
+      g_data_input_stream_read_line_async (out, G_PRIORITY_DEFAULT, NULL, line_ready_cb, &wait);
+      if (!wait_for (&wait.done, STEP_TIMEOUT_S))
+        return NULL;
+      if (wait.line == NULL)
+        return NULL;
+      if (g_str_has_prefix (wait.line, prefix))
+        return wait.line;
+      g_free (wait.line);
+    }
+}
+
+static void
+exited_cb (GObject      *source,
+           GAsyncResult *result,
+           gpointer      user_data)
+{
+  g_subprocess_wait_finish (G_SUBPROCESS (source), result, NULL);
+  *(gboolean *) user_data = TRUE;
+}
+
+/* Waits for the app to quit by itself (it does after its exports); kills it on timeout. */
+static gboolean
+app_wait (GSubprocess *app)
+{
+  gboolean exited = FALSE;
+
+  g_subprocess_wait_async (app, NULL, exited_cb, &exited);
+  if (!wait_for (&exited, STEP_TIMEOUT_S))
+    {
+      g_subprocess_force_exit (app);
+      wait_for (&exited, 10);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* Column index of name in a CSV header line, or -1. */
+static int
+column_of (char      **header,
+           const char *name)
+{
+  for (int i = 0; header[i] != NULL; i++)
+    if (g_str_equal (g_strstrip (header[i]), name))
+      return i;
+  return -1;
+}
+
+/* Reads a numeric CSV with a header into rows of fields; fails the test on a bad file. */
+static GPtrArray *
+read_csv (const char *path,
+          char     ***header_out)
+{
+  g_autofree char *text = NULL;
+  g_auto(GStrv) lines = NULL;
+  g_autoptr(GError) error = NULL;
+  GPtrArray *rows = g_ptr_array_new_with_free_func ((GDestroyNotify) g_strfreev);
+
+  g_file_get_contents (path, &text, NULL, &error);
+  g_assert_no_error (error);
+  lines = g_strsplit (text, "\n", -1);
+  g_assert_nonnull (lines[0]);
+  *header_out = g_strsplit (lines[0], ",", -1);
+  for (int i = 1; lines[i] != NULL; i++)
+    if (lines[i][0] != '\0')
+      g_ptr_array_add (rows, g_strsplit (lines[i], ",", -1));
+  return rows;
+}
+
+static double
+field (GPtrArray *rows,
+       guint      row,
+       int        column)
+{
+  char **fields = g_ptr_array_index (rows, row);
+  char *end = NULL;
+  double value;
+
+  g_assert_cmpint (column, >=, 0);
+  g_assert_cmpuint (g_strv_length (fields), >, (guint) column);
+  value = g_ascii_strtod (fields[column], &end);
+  g_assert_true (end != fields[column]);
+  return value;
+}
+
+/* Sketch a loop around the north pole of the sphere preset, seen from above, through the
+ * app's own pointer handling, and export its measurement through the app's export actions. */
+static void
+test_sketch_pole_loop (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *samples = g_build_filename (dir, "samples.csv", NULL);
+  g_autofree char *summary = g_build_filename (dir, "summary.csv", NULL);
+  g_autofree char *geometry = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_auto(GStrv) parts = NULL;
+  g_autoptr(GPtrArray) xdo = g_ptr_array_new_with_free_func (g_free);
+  g_autoptr(GSubprocess) driver = NULL;
+  g_autoptr(GPtrArray) rows = NULL;
+  g_auto(GStrv) header = NULL;
+  int cx, cy, radius, n_steps = 90;
+  double theta_sum = 0, theta_min = G_MAXDOUBLE, theta_max = -G_MAXDOUBLE, theta_mean;
+  double holonomy, enclosed;
+  int ix, iy, iz, ih, ie;
+
+  if (!xserver_start (&x))
+    return;
+
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--preset", "sphere",
+                                     "--tool", "sketch", "--view", "top",
+                                     "--report-view-geometry", "--export-samples", samples,
+                                     "--export-summary", summary, NULL);
+  g_assert_no_error (error);
+
+  /* "view-geometry XID X Y WIDTH HEIGHT": the view inside the app's X window. */
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  geometry = read_until (out, "view-geometry ");
+  g_assert_nonnull (geometry);
+  parts = g_strsplit (geometry, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 6);
+  cx = atoi (parts[2]) + atoi (parts[4]) / 2;
+  cy = atoi (parts[3]) + atoi (parts[5]) / 2;
+  /* Top view, fitted: the pole is at the view's centre and the sphere fills most of the
+   * smaller side; a fifth of the height keeps the loop well inside the upper hemisphere. */
+  radius = atoi (parts[5]) / 5;
+  g_assert_cmpint (radius, >, 20);
+
+  /* One xdotool run: press, a counter-clockwise circle (screen y points down), release. */
+  g_ptr_array_add (xdo, g_strdup ("xdotool"));
+  g_ptr_array_add (xdo, g_strdup ("sleep"));
+  g_ptr_array_add (xdo, g_strdup ("1"));
+  for (int k = 0; k <= n_steps; k++)
+    {
+      double a = 2 * G_PI * k / n_steps;
+
+      g_ptr_array_add (xdo, g_strdup ("mousemove"));
+      g_ptr_array_add (xdo, g_strdup ("--window"));
+      g_ptr_array_add (xdo, g_strdup (parts[1]));
+      g_ptr_array_add (xdo, g_strdup_printf ("%d", cx + (int) lround (radius * cos (a))));
+      g_ptr_array_add (xdo, g_strdup_printf ("%d", cy - (int) lround (radius * sin (a))));
+      if (k == 0)
+        {
+          g_ptr_array_add (xdo, g_strdup ("mousedown"));
+          g_ptr_array_add (xdo, g_strdup ("1"));
+        }
+      g_ptr_array_add (xdo, g_strdup ("sleep"));
+      g_ptr_array_add (xdo, g_strdup ("0.03"));
+    }
+  g_ptr_array_add (xdo, g_strdup ("mouseup"));
+  g_ptr_array_add (xdo, g_strdup ("1"));
+  g_ptr_array_add (xdo, NULL);
+  {
+    g_autoptr(GSubprocessLauncher) xl = g_subprocess_launcher_new (G_SUBPROCESS_FLAGS_NONE);
+
+    g_subprocess_launcher_setenv (xl, "DISPLAY", x.display, TRUE);
+    driver = g_subprocess_launcher_spawnv (xl, (const char *const *) xdo->pdata, &error);
+    g_assert_no_error (error);
+    g_assert_true (g_subprocess_wait_check (driver, NULL, &error));
+    g_assert_no_error (error);
+  }
+
+  /* The app quits by itself once the loop is measured and both files are written. */
+  g_assert_true (app_wait (app));
+  xserver_stop (&x);
+  g_assert_true (g_file_test (samples, G_FILE_TEST_IS_REGULAR));
+  g_assert_true (g_file_test (summary, G_FILE_TEST_IS_REGULAR));
+
+  /* Mean polar angle of the exported sample points (sphere centred at the origin). */
+  rows = read_csv (samples, &header);
+  ix = column_of (header, "x");
+  iy = column_of (header, "y");
+  iz = column_of (header, "z");
+  g_assert_cmpuint (rows->len, >=, 8);
+  for (guint i = 0; i < rows->len; i++)
+    {
+      double px = field (rows, i, ix), py = field (rows, i, iy), pz = field (rows, i, iz);
+      double theta = acos (pz / sqrt (px * px + py * py + pz * pz));
+
+      theta_sum += theta;
+      theta_min = MIN (theta_min, theta);
+      theta_max = MAX (theta_max, theta);
+    }
+  theta_mean = theta_sum / rows->len;
+  /* The sketch must be close to a latitude circle for the formula below to apply: a hand (or
+   * xdotool) circle in the top view keeps the polar angle within a few hundredths of a radian
+   * (common practice, no source). */
+  g_assert_cmpfloat (theta_max - theta_min, <, 0.05);
+  g_assert_cmpfloat (theta_mean, >, 0.1);
+  g_assert_cmpfloat (theta_mean, <, 1.0);
+  g_clear_pointer (&rows, g_ptr_array_unref);
+  g_clear_pointer (&header, g_strfreev);
+
+  rows = read_csv (summary, &header);
+  g_assert_cmpuint (rows->len, ==, 1);
+  ih = column_of (header, "holonomy_rad");
+  ie = column_of (header, "enclosed_curvature_rad");
+  holonomy = field (rows, 0, ih);
+  enclosed = field (rows, 0, ie);
+
+  /* A loop bounding a disc turns a carried vector by the enclosed total curvature
+   * (Gauss-Bonnet; do Carmo, Differential Geometry of Curves and Surfaces, sec. 4-5, from
+   * memory). The core computes the two independently (transport vs. Green's theorem), so they
+   * agree to the integration tolerance for whatever shape was sketched. */
+  df_assert_close (holonomy, enclosed, 1e-6, 1e-8);
+  /* Counter-clockwise seen from above is counter-clockwise about the outward N at the north
+   * pole, so the cap lies on the left and the holonomy is positive. */
+  g_assert_cmpfloat (holonomy, >, 0.0);
+  /* Latitude circle at polar angle theta on a sphere encloses K dA = 2 pi (1 - cos theta):
+   * Gauss-Bonnet, do Carmo sec. 4-5 (from memory). The sketch is only nearly a circle, so the
+   * comparison uses its mean polar angle and a 2 % tolerance. */
+  df_assert_close (holonomy, 2 * G_PI * (1 - cos (theta_mean)), 0.02, 0.0);
+
+  g_remove (samples);
+  g_remove (summary);
+  g_rmdir (dir);
+}
+
+/* Writes a project: the sphere preset and one latitude loop at polar angle 0.6 rad in a colour
+ * found nowhere else on screen. */
+static void
+write_sphere_project (const char *path,
+                      gboolean    frames)
+{
+  g_autoptr(GError) error = NULL;
+  df_surface_spec *spec = df_surface_spec_new_preset ("sphere", &error);
+  g_autoptr(df_project) project = NULL;
+  double uv[48][2];
+
+  g_assert_no_error (error);
+  project = df_project_new (spec);
+  for (int i = 0; i < 48; i++)
+    {
+      uv[i][0] = 0.6;
+      uv[i][1] = -G_PI + 2 * G_PI * i / 48;
+    }
+  df_project_add_loop (project, "Marker loop", "#ff00ff", frames, (const double (*)[2]) uv, 48);
+  g_assert_true (df_project_save (project, path, &error));
+  g_assert_no_error (error);
+}
+
+/* By explicit type: the isolated XDG_DATA_DIRS of the test hide the MIME database that
+ * gdk_pixbuf_new_from_file would sniff the format with. */
+static GdkPixbuf *
+load_png (const char *path)
+{
+  g_autoptr(GdkPixbufLoader) loader = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autofree char *data = NULL;
+  gsize length = 0;
+  GdkPixbuf *pixbuf;
+
+  g_file_get_contents (path, &data, &length, &error);
+  g_assert_no_error (error);
+  loader = gdk_pixbuf_loader_new_with_type ("png", &error);
+  g_assert_no_error (error);
+  gdk_pixbuf_loader_write (loader, (const guchar *) data, length, &error);
+  g_assert_no_error (error);
+  gdk_pixbuf_loader_close (loader, &error);
+  g_assert_no_error (error);
+  pixbuf = gdk_pixbuf_loader_get_pixbuf (loader);
+  g_assert_nonnull (pixbuf);
+  return g_object_ref (pixbuf);
+}
+
+static GdkPixbuf *
+export_png (Xserver    *x,
+            const char *project,
+            const char *png)
+{
+  g_autoptr(GSubprocessLauncher) launcher = app_launcher (x);
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  GdkPixbuf *pixbuf;
+
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--view", "top",
+                                     "--colouring", "plain", "--export-png", png, NULL);
+  g_assert_no_error (error);
+  g_assert_true (app_wait (app));
+  pixbuf = load_png (png);
+  g_assert_cmpint (gdk_pixbuf_get_n_channels (pixbuf), >=, 3);
+  return pixbuf;
+}
+
+static const guchar *
+pixel (GdkPixbuf *pixbuf,
+       int        x,
+       int        y)
+{
+  return gdk_pixbuf_read_pixels (pixbuf) + (gsize) y * gdk_pixbuf_get_rowstride (pixbuf)
+         + (gsize) x * gdk_pixbuf_get_n_channels (pixbuf);
+}
+
+static int
+colour_distance (const guchar *a,
+                 const guchar *b)
+{
+  return abs (a[0] - b[0]) + abs (a[1] - b[1]) + abs (a[2] - b[2]);
+}
+
+/* The exported view shows the surface, the loop in its colour and its frames. */
+static void
+test_screenshot (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *with = g_build_filename (dir, "with-frames.dfproj", NULL);
+  g_autofree char *without = g_build_filename (dir, "without-frames.dfproj", NULL);
+  g_autofree char *png_with = g_build_filename (dir, "with.png", NULL);
+  g_autofree char *png_without = g_build_filename (dir, "without.png", NULL);
+  g_autoptr(GdkPixbuf) a = NULL;
+  g_autoptr(GdkPixbuf) b = NULL;
+  const guchar *background;
+  int w, h, centre_total = 0, centre_surface = 0, loop_pixels = 0, frame_pixels = 0;
+
+  if (!xserver_start (&x))
+    return;
+  write_sphere_project (with, TRUE);
+  write_sphere_project (without, FALSE);
+  a = export_png (&x, with, png_with);
+  b = export_png (&x, without, png_without);
+  xserver_stop (&x);
+
+  w = gdk_pixbuf_get_width (a);
+  h = gdk_pixbuf_get_height (a);
+  g_assert_cmpint (w, >, 100);
+  g_assert_cmpint (h, >, 100);
+  g_assert_cmpint (gdk_pixbuf_get_width (b), ==, w);
+  g_assert_cmpint (gdk_pixbuf_get_height (b), ==, h);
+
+  /* Thresholds on 8-bit RGB sums: a rendering difference of 40 is far above antialiasing
+   * noise of a deterministic software render (common practice, no source). */
+  background = pixel (a, 2, 2);
+  for (int y = 0; y < h; y++)
+    for (int xx = 0; xx < w; xx++)
+      {
+        const guchar *p = pixel (a, xx, y);
+        const guchar *q = pixel (b, xx, y);
+
+        /* The central tenth of the view lies on the sphere, seen from above. */
+        if (abs (xx - w / 2) < w / 20 && abs (y - h / 2) < h / 20)
+          {
+            centre_total++;
+            centre_surface += colour_distance (p, background) > 40;
+          }
+        /* Magenta: strong red and blue, little green. */
+        loop_pixels += p[0] > 170 && p[2] > 170 && p[1] < 110;
+        frame_pixels += colour_distance (p, q) > 40;
+      }
+  g_test_message ("centre %d/%d surface pixels, %d loop pixels, %d pixels differ with frames",
+                  centre_surface, centre_total, loop_pixels, frame_pixels);
+  g_assert_cmpint (centre_surface, >, centre_total * 9 / 10);
+  g_assert_cmpint (loop_pixels, >, 100);
+  g_assert_cmpint (frame_pixels, >, 200);
+
+  g_remove (with);
+  g_remove (without);
+  g_remove (png_with);
+  g_remove (png_without);
+  g_rmdir (dir);
+}
+
+int
+main (int   argc,
+      char *argv[])
+{
+  df_core_init ();
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+
+  g_test_add_func ("/app/e2e/sketch-pole-loop", test_sketch_pole_loop);
+  g_test_add_func ("/app/e2e/screenshot", test_screenshot);
+  return g_test_run ();
+}
