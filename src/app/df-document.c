@@ -475,24 +475,40 @@ df_document_get_loops (DfDocument *self)
   return G_LIST_MODEL (self->loops);
 }
 
+/* The palette colour farthest (in RGB) from every loop colour in use, so that a new loop never
+ * looks like an existing one, even one read from a file with its own colours. */
 static const char *
 pick_colour (DfDocument *self)
 {
   guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+  const char *best = loop_palette[n % G_N_ELEMENTS (loop_palette)];
+  double best_distance = -1.0;
 
   for (guint c = 0; c < G_N_ELEMENTS (loop_palette); c++)
     {
-      gboolean used = FALSE;
+      GdkRGBA candidate;
+      double nearest = G_MAXDOUBLE;
 
-      for (guint i = 0; i < n && !used; i++)
+      gdk_rgba_parse (&candidate, loop_palette[c]);
+      for (guint i = 0; i < n; i++)
         {
           g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
-          used = g_ascii_strcasecmp (df_loop_item_get_colour (item), loop_palette[c]) == 0;
+          GdkRGBA used;
+          double d;
+
+          df_loop_item_get_rgba (item, &used);
+          d = (candidate.red - used.red) * (candidate.red - used.red)
+              + (candidate.green - used.green) * (candidate.green - used.green)
+              + (candidate.blue - used.blue) * (candidate.blue - used.blue);
+          nearest = MIN (nearest, d);
         }
-      if (!used)
-        return loop_palette[c];
+      if (nearest > best_distance)
+        {
+          best_distance = nearest;
+          best = loop_palette[c];
+        }
     }
-  return loop_palette[n % G_N_ELEMENTS (loop_palette)];
+  return best;
 }
 
 static char *

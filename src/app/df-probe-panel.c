@@ -72,6 +72,17 @@ table_add (GtkWidget  *grid,
   gtk_grid_attach (GTK_GRID (grid), v, 1, row, 1, 1);
 }
 
+/* Components below this fraction of the largest one in their table are rounding noise of
+ * the derivatives (a symmetric chart gives exact zeros analytically): shown as 0. */
+#define DF_NOISE_FRACTION 1e-11
+
+static double
+denoise (double value,
+         double scale)
+{
+  return fabs (value) <= DF_NOISE_FRACTION * scale ? 0.0 : value;
+}
+
 static void
 table_add_number (GtkWidget  *grid,
                   int         row,
@@ -145,6 +156,7 @@ df_probe_panel_show (DfProbePanel            *self,
   gboolean rev;
   const char *idx[2];
   GtkWidget *table;
+  double scale;
   int row = 0;
 
   g_return_if_fail (DF_IS_PROBE_PANEL (self));
@@ -226,11 +238,15 @@ df_probe_panel_show (DfProbePanel            *self,
                             TRUE);
   table = table_new ();
   row = 0;
+  scale = 0.0;
+  for (int i = 0; i < DF_DIM; i++)
+    for (int j = 0; j < DF_DIM; j++)
+      scale = MAX (scale, fabs (g->g[i][j]));
   for (int i = 0; i < DF_DIM; i++)
     for (int j = i; j < DF_DIM; j++)
       {
         g_autofree char *name = g_strdup_printf ("g<sub>%s%s</sub>", idx[i], idx[j]);
-        table_add_number (table, row++, name, g->g[i][j], NULL);
+        table_add_number (table, row++, name, denoise (g->g[i][j], scale), NULL);
       }
   table_add_number (table, row++, "det g", g->det_g, NULL);
   gtk_box_append (self->content_box, table);
@@ -241,13 +257,18 @@ df_probe_panel_show (DfProbePanel            *self,
                             TRUE);
   table = table_new ();
   row = 0;
+  scale = 0.0;
+  for (int k = 0; k < DF_DIM; k++)
+    for (int i = 0; i < DF_DIM; i++)
+      for (int j = 0; j < DF_DIM; j++)
+        scale = MAX (scale, fabs (g->gamma[k][i][j]));
   for (int k = 0; k < DF_DIM; k++)
     for (int i = 0; i < DF_DIM; i++)
       for (int j = i; j < DF_DIM; j++)
         {
           g_autofree char *name = g_strdup_printf ("Γ<sup>%s</sup><sub>%s%s</sub>", idx[k],
                                                    idx[i], idx[j]);
-          table_add_number (table, row++, name, g->gamma[k][i][j], NULL);
+          table_add_number (table, row++, name, denoise (g->gamma[k][i][j], scale), NULL);
         }
   gtk_box_append (self->content_box, table);
 
@@ -257,12 +278,16 @@ df_probe_panel_show (DfProbePanel            *self,
                             TRUE);
   table = table_new ();
   row = 0;
+  scale = 0.0;
+  for (int r = 0; r < DF_DIM; r++)
+    for (int s = 0; s < DF_DIM; s++)
+      scale = MAX (scale, fabs (g->riemann[r][s][0][1]));
   for (int r = 0; r < DF_DIM; r++)
     for (int s = 0; s < DF_DIM; s++)
       {
         g_autofree char *name = g_strdup_printf ("R<sup>%s</sup><sub>%s%s%s</sub>", idx[r],
                                                  idx[s], idx[0], idx[1]);
-        table_add_number (table, row++, name, g->riemann[r][s][0][1], NULL);
+        table_add_number (table, row++, name, denoise (g->riemann[r][s][0][1], scale), NULL);
       }
   gtk_box_append (self->content_box, table);
   {

@@ -22,6 +22,7 @@ enum
 typedef struct
 {
   const char *key;       /* the builder's key: "r", "z", "t-min", ... */
+  const char *name;      /* as messages name it: "r(t)", "t from" */
   const char *label;
   const char *tooltip;
   gboolean    is_formula;
@@ -77,19 +78,19 @@ enum
 static guint signals[N_SIGNALS];
 
 static const FormulaField rev_template[4] = {
-  { "r", "r(t) =", "Distance from the axis as a function of t", TRUE, -1, NULL, NULL },
-  { "z", "z(t) =", "Height along the axis as a function of t", TRUE, -1, NULL, NULL },
-  { "t-min", "t from", "Start of the profile parameter t (a number or expression)", FALSE, 0,
+  { "r", "r(t)", "r(t) =", "Distance from the axis as a function of t", TRUE, -1, NULL, NULL },
+  { "z", "z(t)", "z(t) =", "Height along the axis as a function of t", TRUE, -1, NULL, NULL },
+  { "t-min", "t from", "t from", "Start of the profile parameter t (a number or expression)", FALSE, 0,
     NULL, NULL },
-  { "t-max", "t to", "End of the profile parameter t", FALSE, 1, NULL, NULL },
+  { "t-max", "t to", "t to", "End of the profile parameter t", FALSE, 1, NULL, NULL },
 };
 
 static const FormulaField graph_template[5] = {
-  { "z", "z(x, y) =", "Height as a function of x and y", TRUE, -1, NULL, NULL },
-  { "x-min", "x from", "Smallest x of the panel", FALSE, 0, NULL, NULL },
-  { "x-max", "x to", "Largest x of the panel", FALSE, 1, NULL, NULL },
-  { "y-min", "y from", "Smallest y of the panel", FALSE, 2, NULL, NULL },
-  { "y-max", "y to", "Largest y of the panel", FALSE, 3, NULL, NULL },
+  { "z", "z(x, y)", "z(x, y) =", "Height as a function of x and y", TRUE, -1, NULL, NULL },
+  { "x-min", "x from", "x from", "Smallest x of the panel", FALSE, 0, NULL, NULL },
+  { "x-max", "x to", "x to", "Largest x of the panel", FALSE, 1, NULL, NULL },
+  { "y-min", "y from", "y from", "Smallest y of the panel", FALSE, 2, NULL, NULL },
+  { "y-max", "y to", "y to", "Largest y of the panel", FALSE, 3, NULL, NULL },
 };
 
 static void rebuild_params (DfSurfacePanel *self);
@@ -194,7 +195,7 @@ validate_fields (DfSurfacePanel *self)
         }
       if (error != NULL)
         {
-          message = g_strdup_printf ("%s %s", fields[i].label, error->message);
+          message = g_strdup_printf ("%s: %s", fields[i].name, error->message);
           ok = FALSE;
         }
       set_error_label (fields[i].error, GTK_WIDGET (fields[i].entry), message);
@@ -729,7 +730,7 @@ df_surface_panel_show_error (DfSurfacePanel *self,
 
         if (g_str_has_prefix (error->message, prefix))
           {
-            g_autofree char *message = g_strdup_printf ("%s %s", fields[i].label,
+            g_autofree char *message = g_strdup_printf ("%s: %s", fields[i].name,
                                                         error->message + strlen (prefix));
             set_error_label (fields[i].error, GTK_WIDGET (fields[i].entry), message);
             return;

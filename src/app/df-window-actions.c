@@ -163,7 +163,7 @@ open_demo_confirmed (DfWindow *self)
       _df_window_show_error (self, "Cannot open the demo project", error);
       return;
     }
-  df_document_set_display_name (self->document, "Demo: lamp-shade mould (unsaved copy)");
+  df_document_set_display_name (self->document, "Lamp-shade demo (unsaved)");
   gtk_stack_set_visible_child_name (self->panel_stack, "loops");
   _df_window_status (self, FALSE, "Demo: a lamp-shade mould with three plies (from %s).", path);
 }

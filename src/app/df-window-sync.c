@@ -57,9 +57,8 @@ sync_title (DfWindow *self)
       for (guint i = 0; spec->preset != NULL && presets[i].name != NULL; i++)
         if (g_str_equal (presets[i].name, spec->preset))
           what = presets[i].title;
-      subtitle = g_strdup_printf ("%s, lengths in %s%s", what,
-                                  df_document_get_units (self->document),
-                                  modified ? ", unsaved changes" : "");
+      subtitle = g_strdup_printf ("%s, lengths in %s", what,
+                                  df_document_get_units (self->document));
     }
   gtk_label_set_text (self->subtitle_label, subtitle != NULL ? subtitle : "");
 }

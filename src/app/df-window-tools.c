@@ -14,19 +14,17 @@
 #include "df-window-private.h"
 
 /* Stroke filtering in screen pixels: points closer than this to the previous one are dropped
- * (they add noise, not shape); a stroke smaller than DF_STROKE_MIN_PX across is refused, and a
- * jump longer than DF_STROKE_GAP_PX between hits means the pointer left the surface. Common
- * practice for pointer sketching, no source. */
+ * (they add noise, not shape), and a stroke smaller than DF_STROKE_MIN_PX across is refused.
+ * Common practice for pointer sketching, no source. */
 #define DF_STROKE_STEP_PX 4.0
 #define DF_STROKE_MIN_PX  16.0
-#define DF_STROKE_GAP_PX  60.0
 /* Live readout while sketching: at most one job at a time, at most this often. */
 #define DF_LIVE_INTERVAL_US (150 * 1000)
 #define DF_LIVE_SAMPLES 32
 /* Samples along a shot geodesic. */
 #define DF_GEODESIC_SAMPLES 240
 
-static const char *const colour_path_a = "#2f7fd1";
+static const char *const colour_path_a = "#00838f";
 static const char *const colour_path_b = "#e0a41c";
 static const char *const colour_stroke = "#1b1b1b";
 static const char *const colour_geodesic = "#8c4fc4";
@@ -154,8 +152,6 @@ stroke_add (DfWindow *self,
 
   if (step < DF_STROKE_STEP_PX)
     return FALSE;
-  if (step > DF_STROKE_GAP_PX)
-    self->stroke_left = TRUE;
   /* Keep the angle of a surface of revolution continuous along the stroke, so that a loop
    * around the axis shows as a full turn rather than a jump at +-180 degrees. */
   if (surface != NULL && df_surface_v_periodic (surface))
@@ -173,7 +169,6 @@ static const char *
 stroke_problem (DfWindow *self,
                 guint     min_points)
 {
-  StrokePoint *last;
   double extent = MAX (self->stroke_px_max[0] - self->stroke_px_min[0],
                        self->stroke_px_max[1] - self->stroke_px_min[1]);
 
@@ -181,10 +176,7 @@ stroke_problem (DfWindow *self,
     return "too few distinct points: drag further across the surface";
   if (extent < DF_STROKE_MIN_PX)
     return "too small: drag a larger shape (or zoom in first)";
-  last = &g_array_index (self->stroke_uv, StrokePoint, self->stroke_uv->len - 1);
-  /* Released far from the last point on the surface: the pointer ran off the surface. */
-  if (self->stroke_left
-      || hypot (self->pointer_x - last->px, self->pointer_y - last->py) > DF_STROKE_GAP_PX)
+  if (self->stroke_left)
     return "it left the surface: keep the whole stroke on the surface";
   return NULL;
 }
@@ -699,8 +691,15 @@ pointer_motion_cb (GtkEventControllerMotion *controller,
                    double                    y,
                    DfWindow                 *self)
 {
+  double u, v;
+
   self->pointer_x = x;
   self->pointer_y = y;
+  /* The view reports hits only; a stroke whose pointer passes off the surface (or is released
+   * there) would otherwise silently join its two ends with a chord. */
+  if (self->stroking && !self->stroke_left
+      && !df_surface_view_pick (self->view, x, y, &u, &v))
+    self->stroke_left = TRUE;
 }
 
 /* ---- tool switching ----------------------------------------------------------------------- */
