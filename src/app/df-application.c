@@ -34,8 +34,7 @@ static const GOptionEntry option_entries[] = {
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print where the 3D view lies in the window (for test drivers)", NULL },
   { "version", 0, 0, G_OPTION_ARG_NONE, NULL, "Print the version and quit", NULL },
-  { G_OPTION_REMAINING, 0, 0, G_OPTION_ARG_FILENAME_ARRAY, NULL, NULL,
-    "[FILE.dfproj|FILE.surface]" },
+  { G_OPTION_REMAINING, 0, 0, G_OPTION_ARG_FILENAME_ARRAY, NULL, NULL, NULL },
   { NULL }
 };
 
@@ -118,14 +117,19 @@ df_application_startup (GApplication *application)
                                               GTK_STYLE_PROVIDER_PRIORITY_APPLICATION);
 }
 
-static void
+static gboolean
 open_window (DfApplication   *self,
              const DfStartup *startup)
 {
   DfWindow *window = df_window_new (GTK_APPLICATION (self));
 
-  df_window_start (window, startup);
+  if (!df_window_start (window, startup))
+    {
+      gtk_window_destroy (GTK_WINDOW (window));
+      return FALSE;
+    }
   gtk_window_present (GTK_WINDOW (window));
+  return TRUE;
 }
 
 static void
@@ -190,8 +194,8 @@ df_application_command_line (GApplication            *application,
           status = 2;
         }
     }
-  if (status == 0)
-    open_window (DF_APPLICATION (application), &startup);
+  if (status == 0 && !open_window (DF_APPLICATION (application), &startup))
+    status = 1;
   df_startup_clear (&startup);
   return status;
 }

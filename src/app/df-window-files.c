@@ -11,6 +11,21 @@ typedef void (*DfThen) (DfWindow *self);
 
 /* ---- errors ---------------------------------------------------------------------------- */
 
+static gboolean
+present_later_cb (gpointer user_data)
+{
+  gtk_window_present (GTK_WINDOW (user_data));
+  g_object_unref (user_data);
+  return G_SOURCE_REMOVE;
+}
+
+/* Once the parent is on screen, and after it has been stacked, so the dialog comes on top. */
+static void
+present_after_map (GtkWidget *dialog)
+{
+  g_timeout_add (300, present_later_cb, g_object_ref (dialog));
+}
+
 void
 _df_window_show_error (DfWindow     *self,
                        const char   *primary,
@@ -31,7 +46,13 @@ _df_window_show_error (DfWindow     *self,
                                    GTK_MESSAGE_ERROR, GTK_BUTTONS_CLOSE, "%s", primary);
   gtk_message_dialog_format_secondary_text (GTK_MESSAGE_DIALOG (dialog), "%s", detail);
   g_signal_connect (dialog, "response", G_CALLBACK (gtk_window_destroy), NULL);
-  gtk_window_present (GTK_WINDOW (dialog));
+  /* At startup (a file from the command line that does not open) the window is not shown
+   * yet: a dialog presented now would end up behind it. */
+  if (gtk_widget_get_mapped (GTK_WIDGET (self)))
+    gtk_window_present (GTK_WINDOW (dialog));
+  else
+    g_signal_connect_object (self, "map", G_CALLBACK (present_after_map), dialog,
+                             G_CONNECT_SWAPPED);
 }
 
 /* ---- open ------------------------------------------------------------------------------ */

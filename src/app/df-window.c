@@ -367,7 +367,7 @@ open_demo_or_preset (DfWindow   *self,
     _df_window_show_error (self, "Cannot start from the preset", error);
 }
 
-void
+gboolean
 df_window_start (DfWindow        *self,
                  const DfStartup *startup)
 {
@@ -376,7 +376,7 @@ df_window_start (DfWindow        *self,
   g_autofree char *last = NULL;
   gboolean opened = FALSE;
 
-  g_return_if_fail (DF_IS_WINDOW (self));
+  g_return_val_if_fail (DF_IS_WINDOW (self), FALSE);
 
   df_startup_clear (&self->startup);
   self->startup.file = g_strdup (startup->file);
@@ -402,11 +402,7 @@ df_window_start (DfWindow        *self,
         {
           _df_window_show_error (self, "Cannot open the file", error);
           if (is_one_shot (self))
-            {
-              g_printerr ("driftframe: %s\n", error->message);
-              gtk_window_destroy (GTK_WINDOW (self));
-              return;
-            }
+            return FALSE;
           g_clear_error (&error);
         }
     }
@@ -418,8 +414,9 @@ df_window_start (DfWindow        *self,
                                                         NULL, &error);
       if (!opened)
         {
-          g_printerr ("driftframe: --preset: %s\n", error->message);
           _df_window_show_error (self, "Cannot start from the preset", error);
+          if (is_one_shot (self))
+            return FALSE;
           g_clear_error (&error);
         }
     }
@@ -472,4 +469,5 @@ df_window_start (DfWindow        *self,
                     startup->view);
     }
   _df_window_actions_update (self);
+  return TRUE;
 }

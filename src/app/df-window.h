@@ -30,7 +30,8 @@ G_DECLARE_FINAL_TYPE (DfWindow, df_window, DF, WINDOW, GtkApplicationWindow)
 
 DfWindow *df_window_new   (GtkApplication *application);
 /* Opens what startup names (or the last project, or the demo on a first run) and arranges the
- * one-shot exports; startup is copied. */
-void      df_window_start (DfWindow *self, const DfStartup *startup);
+ * one-shot exports; startup is copied. FALSE when a one-shot run cannot go on (the file does
+ * not open); the message is on stderr and the caller should drop the window. */
+gboolean  df_window_start (DfWindow *self, const DfStartup *startup);
 
 G_END_DECLS
