@@ -1,5 +1,5 @@
 /* df-loop-row.c: a row of the loops list (see df-loop-row.h). It observes its DfLoopItem and
- * reports renames; the owner applies them through the document so that they can be undone. */
+ * shows its colour, name and summary. */
 #include "df-loop-row.h"
 
 struct _DfLoopRow
@@ -8,7 +8,7 @@ struct _DfLoopRow
 
   /* template children */
   GtkDrawingArea   *swatch;
-  GtkEditableLabel *name_label;
+  GtkLabel         *name_label;
   GtkLabel         *summary_label;
 
   /* owned */
@@ -16,14 +16,6 @@ struct _DfLoopRow
 };
 
 G_DEFINE_FINAL_TYPE (DfLoopRow, df_loop_row, GTK_TYPE_WIDGET)
-
-enum
-{
-  RENAME,
-  N_SIGNALS
-};
-
-static guint signals[N_SIGNALS];
 
 static void
 draw_swatch (GtkDrawingArea *area,
@@ -49,8 +41,7 @@ sync_from_item (DfLoopRow *self)
 {
   g_autofree char *accessible = NULL;
 
-  if (!gtk_editable_label_get_editing (self->name_label))
-    gtk_editable_set_text (GTK_EDITABLE (self->name_label), df_loop_item_get_name (self->item));
+  gtk_label_set_text (self->name_label, df_loop_item_get_name (self->item));
   gtk_label_set_text (self->summary_label, df_loop_item_get_summary (self->item));
   accessible = g_strdup_printf ("%s, colour %s", df_loop_item_get_name (self->item),
                                 df_loop_item_get_colour (self->item));
@@ -64,26 +55,6 @@ item_notify_cb (DfLoopItem *item,
                 DfLoopRow  *self)
 {
   sync_from_item (self);
-}
-
-static void
-editing_notify_cb (GtkEditableLabel *label,
-                   GParamSpec       *pspec,
-                   DfLoopRow        *self)
-{
-  g_autofree char *name = NULL;
-
-  if (gtk_editable_label_get_editing (label))
-    return;
-  name = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (label))));
-  if (name[0] == '\0')
-    {
-      /* An empty name is refused: put the old one back. */
-      gtk_editable_set_text (GTK_EDITABLE (label), df_loop_item_get_name (self->item));
-      return;
-    }
-  if (g_strcmp0 (name, df_loop_item_get_name (self->item)) != 0)
-    g_signal_emit (self, signals[RENAME], 0, name);
 }
 
 static void
@@ -110,11 +81,6 @@ df_loop_row_class_init (DfLoopRowClass *klass)
 
   object_class->dispose = df_loop_row_dispose;
 
-  /* The user finished editing the name; the argument is the new, non-empty name. */
-  signals[RENAME] =
-    g_signal_new ("rename", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL, NULL, NULL,
-                  G_TYPE_NONE, 1, G_TYPE_STRING);
-
   gtk_widget_class_set_template_from_resource (widget_class,
                                                "/org/driftframe/Driftframe/ui/df-loop-row.ui");
   gtk_widget_class_bind_template_child (widget_class, DfLoopRow, swatch);
@@ -129,7 +95,6 @@ df_loop_row_init (DfLoopRow *self)
 {
   gtk_widget_init_template (GTK_WIDGET (self));
   gtk_drawing_area_set_draw_func (self->swatch, draw_swatch, self, NULL);
-  g_signal_connect (self->name_label, "notify::editing", G_CALLBACK (editing_notify_cb), self);
 }
 
 GtkWidget *

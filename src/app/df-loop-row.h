@@ -1,5 +1,5 @@
-/* df-loop-row.h: DfLoopRow, one row of the loops list: the loop's colour, its name (editable
- * in place) and a one-line summary. Emits "rename" with the new name when editing ends. */
+/* df-loop-row.h: DfLoopRow, one row of the loops list: the loop's colour, its name and a
+ * one-line summary, kept up to date from its DfLoopItem. */
 #pragma once
 
 #include <gtk/gtk.h>

@@ -15,7 +15,7 @@ struct _DfLoopsPanel
   GtkLabel    *live_label;
   GtkLabel    *empty_label;
   GtkListBox  *list_box;
-  GtkLabel    *details_title;
+  GtkEditableLabel *details_title;
   GtkGrid     *details_grid;
   GtkLabel    *holonomy_value;
   GtkLabel    *enclosed_value;
@@ -79,17 +79,16 @@ update_details (DfLoopsPanel *self)
   g_autoptr(GString) notes = g_string_new (NULL);
 
   show_text (self->error_label, NULL);
+  gtk_widget_set_sensitive (GTK_WIDGET (self->details_title), item != NULL);
   if (item == NULL)
     {
-      gtk_label_set_text (self->details_title, "No loop selected");
+      gtk_editable_set_text (GTK_EDITABLE (self->details_title), "No loop selected");
       clear_values (self, "\u2014");
       show_text (self->note_label, NULL);
       return;
     }
-  {
-    g_autofree char *title = g_strdup_printf ("%s", df_loop_item_get_name (item));
-    gtk_label_set_text (self->details_title, title);
-  }
+  if (!gtk_editable_label_get_editing (self->details_title))
+    gtk_editable_set_text (GTK_EDITABLE (self->details_title), df_loop_item_get_name (item));
 
   switch (df_loop_item_get_state (item))
     {
@@ -175,24 +174,32 @@ update_empty (DfLoopsPanel *self)
   gtk_widget_set_visible (gtk_widget_get_parent (GTK_WIDGET (self->list_box)), n > 0);
 }
 
+/* Renames go through the document, so that they can be undone. */
 static void
-row_rename_cb (DfLoopRow    *row,
-               const char   *name,
-               DfLoopsPanel *self)
+title_editing_cb (GtkEditableLabel *label,
+                  GParamSpec       *pspec,
+                  DfLoopsPanel     *self)
 {
-  if (self->document != NULL)
-    df_document_rename_loop (self->document, df_loop_row_get_item (row), name);
+  DfLoopItem *item = df_loops_panel_get_selected (self);
+  g_autofree char *name = NULL;
+
+  if (gtk_editable_label_get_editing (label) || item == NULL || self->document == NULL)
+    return;
+  name = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (label))));
+  if (name[0] == '\0')
+    {
+      /* An empty name is refused: put the old one back. */
+      gtk_editable_set_text (GTK_EDITABLE (label), df_loop_item_get_name (item));
+      return;
+    }
+  df_document_rename_loop (self->document, item, name);
 }
 
 static GtkWidget *
 create_row (gpointer item,
             gpointer user_data)
 {
-  DfLoopsPanel *self = user_data;
-  GtkWidget *row = df_loop_row_new (DF_LOOP_ITEM (item));
-
-  g_signal_connect (row, "rename", G_CALLBACK (row_rename_cb), self);
-  return row;
+  return df_loop_row_new (DF_LOOP_ITEM (item));
 }
 
 static void
@@ -277,6 +284,7 @@ df_loops_panel_init (DfLoopsPanel *self)
 {
   gtk_widget_init_template (GTK_WIDGET (self));
   g_signal_connect (self->list_box, "row-selected", G_CALLBACK (row_selected_cb), self);
+  g_signal_connect (self->details_title, "notify::editing", G_CALLBACK (title_editing_cb), self);
   update_empty (self);
   update_details (self);
 }

@@ -298,8 +298,15 @@ static void
 selection_changed_cb (DfLoopsPanel *panel,
                       DfWindow     *self)
 {
+  DfLoopItem *item = df_loops_panel_get_selected (panel);
+
   /* Redraw all so that the selected loop is the thick one. */
   sync_all_loops (self);
+  if (item != NULL && df_loop_item_get_result (item) != NULL)
+    {
+      g_autofree char *angle = df_format_angle (df_loop_item_get_result (item)->holonomy_rad);
+      _df_window_status (self, FALSE, "“%s”: holonomy %s.", df_loop_item_get_name (item), angle);
+    }
   _df_window_sync_frames (self);
   _df_window_actions_update (self);
 }
