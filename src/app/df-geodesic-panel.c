@@ -68,8 +68,8 @@ df_geodesic_panel_class_init (DfGeodesicPanelClass *klass)
   GtkWidgetClass *widget_class = GTK_WIDGET_CLASS (klass);
 
   object_class->dispose = df_geodesic_panel_dispose;
-  gtk_widget_class_set_template_from_resource (widget_class,
-                                               "/org/driftframe/Driftframe/ui/df-geodesic-panel.ui");
+  gtk_widget_class_set_template_from_resource (
+    widget_class, "/org/driftframe/Driftframe/ui/df-geodesic-panel.ui");
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, hint_label);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, start_value);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, heading_value);

@@ -1,7 +1,7 @@
 /* df-loops-panel.h: DfLoopsPanel, the side panel listing the project's loops (select; rename in
- * the details heading) and showing the selected loop's measurements with units, the notes on discs and
- * self-crossings, and the fabrication caution. Also the live readout while a loop is being
- * sketched. Delete, frames and exports are window actions named in the template. */
+ * the details heading) and showing the selected loop's measurements with units, the notes on
+ * discs and self-crossings, and the fabrication caution. Also the live readout while a loop is
+ * being sketched. Delete, frames and exports are window actions named in the template. */
 #pragma once
 
 #include <gtk/gtk.h>

@@ -80,8 +80,8 @@ static guint signals[N_SIGNALS];
 static const FormulaField rev_template[4] = {
   { "r", "r(t)", "r(t) =", "Distance from the axis as a function of t", TRUE, -1, NULL, NULL },
   { "z", "z(t)", "z(t) =", "Height along the axis as a function of t", TRUE, -1, NULL, NULL },
-  { "t-min", "t from", "t from", "Start of the profile parameter t (a number or expression)", FALSE, 0,
-    NULL, NULL },
+  { "t-min", "t from", "t from", "Start of the profile parameter t (a number or expression)",
+    FALSE, 0, NULL, NULL },
   { "t-max", "t to", "t to", "End of the profile parameter t", FALSE, 1, NULL, NULL },
 };
 

@@ -42,7 +42,8 @@ _df_window_show_error (DfWindow     *self,
       g_printerr ("driftframe: %s: %s\n", primary, detail);
       return;
     }
-  dialog = gtk_message_dialog_new (GTK_WINDOW (self), GTK_DIALOG_MODAL | GTK_DIALOG_DESTROY_WITH_PARENT,
+  dialog = gtk_message_dialog_new (GTK_WINDOW (self),
+                                   GTK_DIALOG_MODAL | GTK_DIALOG_DESTROY_WITH_PARENT,
                                    GTK_MESSAGE_ERROR, GTK_BUTTONS_CLOSE, "%s", primary);
   gtk_message_dialog_format_secondary_text (GTK_MESSAGE_DIALOG (dialog), "%s", detail);
   g_signal_connect (dialog, "response", G_CALLBACK (gtk_window_destroy), NULL);

@@ -109,12 +109,9 @@ _df_window_state_save (DfWindow *self)
   const char *project = df_document_get_path (self->document);
   int width, height;
 
+  /* GTK 4 keeps the default size in step with the user's resizing (and leaves it alone while
+   * maximized), so it is the size to restore. */
   gtk_window_get_default_size (GTK_WINDOW (self), &width, &height);
-  if (!gtk_window_is_maximized (GTK_WINDOW (self)) && gtk_widget_get_width (GTK_WIDGET (self)) > 0)
-    {
-      width = gtk_widget_get_width (GTK_WIDGET (self));
-      height = gtk_widget_get_height (GTK_WIDGET (self));
-    }
   g_key_file_set_comment (key_file, NULL, NULL,
                           " driftframe window state, rewritten on every close", NULL);
   g_key_file_set_integer (key_file, "window", "width", width);

@@ -100,7 +100,8 @@ static double (*loop_points (DfWindow   *self,
       {
         df_chart_jet jet;
 
-        if (surface != NULL && df_surface_eval (surface, uv[i][0], uv[i][1], 0, &jet, NULL) == DF_OK)
+        if (surface != NULL
+            && df_surface_eval (surface, uv[i][0], uv[i][1], 0, &jet, NULL) == DF_OK)
           {
             for (int k = 0; k < 3; k++)
               xyz[n][k] = jet.x[k];
