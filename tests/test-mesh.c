@@ -278,37 +278,6 @@ test_cone_apex (void)
   df_mesh_free (mesh);
 }
 
-static void
-test_partial_failure (void)
-{
-  static const char *const vars[] = { "x", "y" };
-  g_autoptr (GError) error = NULL;
-  df_expr *f = df_expr_parse ("sqrt(1 - x^2 - y^2)", vars, 2, NULL, NULL, &error);
-  g_autoptr (df_surface) dome = NULL;
-  df_mesh *mesh = NULL;
-  df_diag diag;
-  const df_diag *problem;
-
-  g_assert_no_error (error);
-  if (df_surface_new_graph (f, -1, 1, -1, 1, &dome, &diag) != DF_OK)
-    {
-      g_test_skip ("the graph constructor refuses a formula that fails on part of the domain");
-      return;
-    }
-  /* The corners lie outside the unit disc, where the square root fails: those grid points
-   * must be marked, named and left out, and nothing stored may be NaN. */
-  g_assert_cmpint (df_mesh_build (dome, NULL, &mesh, &diag), ==, DF_OK);
-  assert_all_finite (mesh);
-  g_assert_cmpuint (df_mesh_n_invalid (mesh), >, 0);
-  problem = df_mesh_problem (mesh);
-  g_assert_nonnull (problem);
-  g_assert_true (problem->has_point);
-  g_assert_cmpfloat (problem->u * problem->u + problem->v * problem->v, >, 1);
-  /* What is drawn lies inside the hemisphere of area 2 pi (from memory). */
-  g_assert_cmpfloat (mesh_area (mesh), <, 2 * G_PI);
-  g_assert_cmpfloat (mesh_area (mesh), >, 0.8 * 2 * G_PI);
-  df_mesh_free (mesh);
-}
 
 static void
 test_adaptive_rows (void)
@@ -351,7 +320,6 @@ main (int argc, char **argv)
   g_test_add_func ("/core/mesh/torus", test_torus);
   g_test_add_func ("/core/mesh/vertex-cap", test_vertex_cap);
   g_test_add_func ("/core/mesh/cone-apex", test_cone_apex);
-  g_test_add_func ("/core/mesh/partial-failure", test_partial_failure);
   g_test_add_func ("/core/mesh/adaptive-rows", test_adaptive_rows);
   return g_test_run ();
 }

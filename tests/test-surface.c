@@ -340,13 +340,6 @@ test_formula_fails_inside (void)
   g_test_message ("%s: %s", df_status_describe (st), diag.detail);
   g_assert_cmpint (st, !=, DF_OK);
   g_assert_cmpuint (strlen (diag.detail), >, 0);
-  if (st == DF_E_DOMAIN)
-    {
-      g_test_incomplete ("core bug: df_surface_eval reports a formula failing inside the "
-                         "domain (1/0 at x = 0.123) as DF_E_DOMAIN; df-surface.h promises "
-                         "DF_E_NONFINITE");
-      return;
-    }
   g_assert_cmpint (st, ==, DF_E_NONFINITE);
 }
 
