@@ -8,6 +8,7 @@
  * a curve may be evaluated from several threads.
  * Plain C + libm + GSL; no GLib. */
 #include "df-curve.h"
+#include "df-vec3.h"
 
 #include <gsl/gsl_linalg.h>
 #include <gsl/gsl_vector.h>
@@ -46,20 +47,6 @@ struct df_curve
   int             winding;
   int             tube_winding; /* turns round a closed profile (t) */
 };
-
-static double
-dot3 (const double a[3], const double b[3])
-{
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-}
-
-static void
-cross3 (const double a[3], const double b[3], double out[3])
-{
-  out[0] = a[1] * b[2] - a[2] * b[1];
-  out[1] = a[2] * b[0] - a[0] * b[2];
-  out[2] = a[0] * b[1] - a[1] * b[0];
-}
 
 static df_curve *
 curve_alloc (const df_surface *surface)
@@ -392,20 +379,20 @@ eval_chart (const df_curve *c, df_curve_point *o, df_diag *diag)
       o->ddx[k] = j.d2[0][k] * du * du + 2 * j.d2[1][k] * du * dv + j.d2[2][k] * dv * dv
                   + j.d1[0][k] * o->ddp[0] + j.d1[1][k] * o->ddp[1];
     }
-  cross3 (j.d1[0], j.d1[1], n);
-  len = sqrt (dot3 (n, n));
+  df_cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (df_dot3 (n, n));
   for (int a = 0; a < 2; a++)
     for (int b = 0; b < 2; b++)
-      g[a][b] = dot3 (j.d1[a], j.d1[b]);
+      g[a][b] = df_dot3 (j.d1[a], j.d1[b]);
   det = g[0][0] * g[1][1] - g[0][1] * g[0][1];
   if (!(len > 0) || !(det > 0))
     return df_diag_fail_at (diag, DF_E_SINGULAR, -1, o->u, o->v,
                             "the curve runs through a singular point of the chart");
   for (int k = 0; k < 3; k++)
     o->normal[k] = n[k] / len;
-  ii[0][0] = dot3 (j.d2[0], o->normal);
-  ii[0][1] = ii[1][0] = dot3 (j.d2[1], o->normal);
-  ii[1][1] = dot3 (j.d2[2], o->normal);
+  ii[0][0] = df_dot3 (j.d2[0], o->normal);
+  ii[0][1] = ii[1][0] = df_dot3 (j.d2[1], o->normal);
+  ii[1][1] = df_dot3 (j.d2[2], o->normal);
   /* Weingarten: N_i = -II_ij g^jk X_k, so dN/dtau = -(II g^-1)_ik u'^i X_k. */
   {
     double gi[2][2] = { { g[1][1] / det, -g[0][1] / det }, { -g[0][1] / det, g[0][0] / det } };
@@ -647,7 +634,7 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
     {
       double d[3] = { xs[n - 1][0] - xs[0][0], xs[n - 1][1] - xs[0][1], xs[n - 1][2] - xs[0][2] };
 
-      if (sqrt (dot3 (d, d)) <= 1e-9 * size)
+      if (sqrt (df_dot3 (d, d)) <= 1e-9 * size)
         n--;
     }
   if (closed && n < 3)
@@ -661,7 +648,7 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
       size_t k = (i + 1) % n;
       double d[3] = { xs[k][0] - xs[i][0], xs[k][1] - xs[i][1], xs[k][2] - xs[i][2] };
 
-      if (sqrt (dot3 (d, d)) <= 1e-12 * size)
+      if (sqrt (df_dot3 (d, d)) <= 1e-12 * size)
         {
           st = df_diag_fail (diag, DF_E_INPUT, (long) k,
                              "point %zu repeats point %zu: consecutive points must differ",
@@ -738,7 +725,7 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
       size_t k = (i + 1) % n;
       double d[3] = { xs[k][0] - xs[i][0], xs[k][1] - xs[i][1], xs[k][2] - xs[i][2] };
 
-      c->taus[i + 1] = c->taus[i] + sqrt (dot3 (d, d));
+      c->taus[i + 1] = c->taus[i] + sqrt (df_dot3 (d, d));
     }
   c->tau0 = 0.0;
   c->tau1 = c->taus[nseg];

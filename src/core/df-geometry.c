@@ -2,23 +2,10 @@
  * fundamental form and curvatures at a chart point, from the exact chart derivatives.
  * Index conventions: ../shared/GEOMETRY.md. Plain C + libm; no GLib. */
 #include "df-geometry.h"
+#include "df-vec3.h"
 
 #include <math.h>
 #include <string.h>
-
-static double
-dot3 (const double a[3], const double b[3])
-{
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-}
-
-static void
-cross3 (const double a[3], const double b[3], double out[3])
-{
-  out[0] = a[1] * b[2] - a[2] * b[1];
-  out[1] = a[2] * b[0] - a[0] * b[2];
-  out[2] = a[0] * b[1] - a[1] * b[0];
-}
 
 /* X_ij and X_ijm by index: the number of v's among the indices picks the stored derivative. */
 #define X2(j, a, b)    ((j)->d2[(a) + (b)])
@@ -108,7 +95,7 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
   memcpy (out->xv, j.d1[1], sizeof out->xv);
   for (int a = 0; a < 2; a++)
     for (int b = 0; b < 2; b++)
-      out->g[a][b] = dot3 (j.d1[a], j.d1[b]);
+      out->g[a][b] = df_dot3 (j.d1[a], j.d1[b]);
   out->det_g = out->g[0][0] * out->g[1][1] - out->g[0][1] * out->g[1][0];
   if (metric_singular (out->det_g, out->g[0][0], out->g[1][1]))
     {
@@ -121,8 +108,8 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
   out->ginv[1][1] = out->g[0][0] / out->det_g;
   out->ginv[0][1] = out->ginv[1][0] = -out->g[0][1] / out->det_g;
 
-  cross3 (j.d1[0], j.d1[1], n);
-  len = sqrt (dot3 (n, n));
+  df_cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (df_dot3 (n, n));
   for (int k = 0; k < 3; k++)
     out->normal[k] = n[k] / len;
 
@@ -133,16 +120,16 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
     for (int a = 0; a < 2; a++)
       for (int b = 0; b < 2; b++)
         {
-          gl[l][a][b] = dot3 (X2 (&j, a, b), j.d1[l]);
+          gl[l][a][b] = df_dot3 (X2 (&j, a, b), j.d1[l]);
           for (int m = 0; m < 2; m++)
-            dgl[m][l][a][b] = dot3 (X3 (&j, a, b, m), j.d1[l]) + dot3 (X2 (&j, a, b),
+            dgl[m][l][a][b] = df_dot3 (X3 (&j, a, b, m), j.d1[l]) + df_dot3 (X2 (&j, a, b),
                                                                       X2 (&j, l, m));
         }
   /* d_m g_ab = X_am . X_b + X_a . X_bm; d_m g^kl = -g^ka (d_m g_ab) g^bl. */
   for (int m = 0; m < 2; m++)
     for (int a = 0; a < 2; a++)
       for (int b = 0; b < 2; b++)
-        dg[m][a][b] = dot3 (X2 (&j, a, m), j.d1[b]) + dot3 (j.d1[a], X2 (&j, b, m));
+        dg[m][a][b] = df_dot3 (X2 (&j, a, m), j.d1[b]) + df_dot3 (j.d1[a], X2 (&j, b, m));
   for (int m = 0; m < 2; m++)
     for (int k = 0; k < 2; k++)
       for (int l = 0; l < 2; l++)
@@ -190,7 +177,7 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
 
   for (int a = 0; a < 2; a++)
     for (int b = 0; b < 2; b++)
-      out->second_form[a][b] = dot3 (X2 (&j, a, b), out->normal);
+      out->second_form[a][b] = df_dot3 (X2 (&j, a, b), out->normal);
   out->K = (out->second_form[0][0] * out->second_form[1][1]
             - out->second_form[0][1] * out->second_form[1][0]) / out->det_g;
   out->H = 0.5 * (out->ginv[0][0] * out->second_form[0][0]
@@ -224,7 +211,7 @@ df_chart_jet_christoffel (const df_chart_jet *j, double gamma[DF_DIM][DF_DIM][DF
 
   for (int a = 0; a < 2; a++)
     for (int b = 0; b < 2; b++)
-      g[a][b] = dot3 (j->d1[a], j->d1[b]);
+      g[a][b] = df_dot3 (j->d1[a], j->d1[b]);
   det = g[0][0] * g[1][1] - g[0][1] * g[1][0];
   if (metric_singular (det, g[0][0], g[1][1]))
     return DF_E_SINGULAR;
@@ -234,7 +221,7 @@ df_chart_jet_christoffel (const df_chart_jet *j, double gamma[DF_DIM][DF_DIM][DF
   for (int l = 0; l < 2; l++)
     for (int a = 0; a < 2; a++)
       for (int b = a; b < 2; b++)
-        gl[l][a][b] = dot3 (X2 (j, a, b), j->d1[l]);
+        gl[l][a][b] = df_dot3 (X2 (j, a, b), j->d1[l]);
   for (int k = 0; k < 2; k++)
     for (int a = 0; a < 2; a++)
       for (int b = a; b < 2; b++)
@@ -266,8 +253,8 @@ df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, do
 
   if ((st = df_surface_eval (s, u, v, 2, &j, diag)) != DF_OK)
     return st;
-  cross3 (j.d1[0], j.d1[1], n);
-  len = sqrt (dot3 (n, n));           /* = sqrt(det g) */
+  df_cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (df_dot3 (n, n));           /* = sqrt(det g) */
   if (!(len > 0))
     {
       /* On the axis of a revolution surface the area element vanishes. */
@@ -277,7 +264,7 @@ df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, do
       return DF_OK;
     }
   for (int a = 0; a < 3; a++)
-    ii[a] = dot3 (j.d2[a], n) / len;
+    ii[a] = df_dot3 (j.d2[a], n) / len;
   /* K sqrt(det g) = det II / sqrt(det g). */
   *k_sqrt_g = (ii[0] * ii[2] - ii[1] * ii[1]) / len;
   if (sqrt_g)

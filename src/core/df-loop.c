@@ -6,6 +6,7 @@
  * running values at the sample points.
  * Plain C + libm + GSL; no GLib. */
 #include "df-loop.h"
+#include "df-vec3.h"
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
@@ -38,20 +39,6 @@ typedef struct
   df_cheb2         *fit;          /* graph: x-integrated fit of (K sqrt g, sqrt g), or NULL */
 } line_ctx;
 
-static double
-dot3 (const double a[3], const double b[3])
-{
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-}
-
-static void
-cross3 (const double a[3], const double b[3], double out[3])
-{
-  out[0] = a[1] * b[2] - a[2] * b[1];
-  out[1] = a[2] * b[0] - a[0] * b[2];
-  out[2] = a[0] * b[1] - a[1] * b[0];
-}
-
 double
 df_wrap_angle (double a)
 {
@@ -77,17 +64,6 @@ df_loop_result_clear (df_loop_result *r)
     return;
   free (r->samples);
   memset (r, 0, sizeof *r);
-}
-
-/* Geodesic curvature of the curve at a point: x'' . (N x x') / |x'|^3. */
-static double
-geodesic_curvature (const df_curve_point *cp, double *speed)
-{
-  double nxt[3];
-
-  *speed = sqrt (dot3 (cp->dx, cp->dx));
-  cross3 (cp->normal, cp->dx, nxt);
-  return dot3 (cp->ddx, nxt) / (*speed * *speed * *speed);
 }
 
 /* dr/ds of the profile at t. */
@@ -594,9 +570,9 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       memcpy (ls->point, ts->x, sizeof ls->point);
       memcpy (ls->normal, ts->normal, sizeof ls->normal);
       memcpy (ls->vector, ts->vector, sizeof ls->vector);
-      cross3 (ts->normal, ts->vector, ls->partner);
+      df_cross3 (ts->normal, ts->vector, ls->partner);
       ls->angle_rad = ts->angle - tr.samples[0].angle;
-      ls->k_g = geodesic_curvature (&cp, &speed);
+      ls->k_g = df_geodesic_curvature (cp.dx, cp.ddx, cp.normal, &speed);
       if (fabs (ls->k_g) > max_abs_kg)
         max_abs_kg = fabs (ls->k_g);
       if ((st = df_surface_geometry (ctx.surface, cp.u, cp.v, &geo, diag)) != DF_OK)
@@ -642,12 +618,12 @@ df_compare_paths (const df_curve *a, const df_curve *b, const double *v0,
       d0[k] = a0.x[k] - b0.x[k];
       d1[k] = a1.x[k] - b1.x[k];
     }
-  if (sqrt (dot3 (d0, d0)) > 1e-6 * size)
+  if (sqrt (df_dot3 (d0, d0)) > 1e-6 * size)
     return df_diag_fail (diag, DF_E_INPUT, 0, "the two paths start at different points "
-                         "(%.6g apart)", sqrt (dot3 (d0, d0)));
-  if (sqrt (dot3 (d1, d1)) > 1e-6 * size)
+                         "(%.6g apart)", sqrt (df_dot3 (d0, d0)));
+  if (sqrt (df_dot3 (d1, d1)) > 1e-6 * size)
     return df_diag_fail (diag, DF_E_INPUT, -1, "the two paths end at different points "
-                         "(%.6g apart)", sqrt (dot3 (d1, d1)));
+                         "(%.6g apart)", sqrt (df_dot3 (d1, d1)));
   memcpy (start, v0 ? v0 : a0.dx, sizeof start);
   if ((st = df_transport_run (a, start, options, &ra, diag)) != DF_OK)
     return st;

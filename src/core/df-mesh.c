@@ -4,6 +4,7 @@
  * grid stays a tensor product and (u, v) lines stay straight in the chart).
  * Plain C + libm; no GLib. */
 #include "df-mesh.h"
+#include "df-vec3.h"
 
 #include <float.h>
 #include <math.h>
@@ -38,24 +39,10 @@ typedef struct
 } probe_point;
 
 static double
-dot3 (const double a[3], const double b[3])
-{
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-}
-
-static void
-cross3 (const double a[3], const double b[3], double out[3])
-{
-  out[0] = a[1] * b[2] - a[2] * b[1];
-  out[1] = a[2] * b[0] - a[0] * b[2];
-  out[2] = a[0] * b[1] - a[1] * b[0];
-}
-
-static double
 dist3 (const double a[3], const double b[3])
 {
   double d[3] = { a[0] - b[0], a[1] - b[1], a[2] - b[2] };
-  return sqrt (dot3 (d, d));
+  return sqrt (df_dot3 (d, d));
 }
 
 static int
@@ -69,8 +56,8 @@ static double
 angle3 (const double a[3], const double b[3])
 {
   double c[3];
-  cross3 (a, b, c);
-  return atan2 (sqrt (dot3 (c, c)), dot3 (a, b));
+  df_cross3 (a, b, c);
+  return atan2 (sqrt (df_dot3 (c, c)), df_dot3 (a, b));
 }
 
 /* Unit normal from first derivatives, or 0 where the chart is singular. */
@@ -79,9 +66,9 @@ unit_normal (const double xu[3], const double xv[3], double n[3])
 {
   double c[3], len, scale;
 
-  cross3 (xu, xv, c);
-  len = sqrt (dot3 (c, c));
-  scale = sqrt (dot3 (xu, xu) * dot3 (xv, xv));
+  df_cross3 (xu, xv, c);
+  len = sqrt (df_dot3 (c, c));
+  scale = sqrt (df_dot3 (xu, xu) * df_dot3 (xv, xv));
   if (!(scale > 0) || !(len > SINGULAR_SINE * scale) || !isfinite (len))
     return 0;
   for (int i = 0; i < 3; i++)
@@ -198,12 +185,12 @@ regular_values (const df_chart_jet *jet, vertex_values *out)
 
   if (!unit_normal (jet->d1[0], jet->d1[1], out->n))
     return 0;
-  e = dot3 (jet->d1[0], jet->d1[0]);
-  f = dot3 (jet->d1[0], jet->d1[1]);
-  g = dot3 (jet->d1[1], jet->d1[1]);
-  l = dot3 (jet->d2[0], out->n);
-  m = dot3 (jet->d2[1], out->n);
-  nn = dot3 (jet->d2[2], out->n);
+  e = df_dot3 (jet->d1[0], jet->d1[0]);
+  f = df_dot3 (jet->d1[0], jet->d1[1]);
+  g = df_dot3 (jet->d1[1], jet->d1[1]);
+  l = df_dot3 (jet->d2[0], out->n);
+  m = df_dot3 (jet->d2[1], out->n);
+  nn = df_dot3 (jet->d2[2], out->n);
   det = e * g - f * f;
   if (!(det > 0))
     return 0;
@@ -241,7 +228,7 @@ vertex_eval (const df_surface *surface, double u, double v, double u_min, double
          || (poles[1].on_axis && fabs (u - poles[1].t) <= 1e-9 * (u_max - u_min)
              && fabs (poles[1].concentrated) > 1e-9);
   if (!apex && df_surface_geometry (surface, u, v, &geo, NULL) == DF_OK && finite3 (geo.normal)
-      && fabs (dot3 (geo.normal, geo.normal) - 1) < 1e-6 && isfinite (geo.K) && isfinite (geo.H))
+      && fabs (df_dot3 (geo.normal, geo.normal) - 1) < 1e-6 && isfinite (geo.K) && isfinite (geo.H))
     {
       memcpy (out->n, geo.normal, sizeof out->n);
       out->k = geo.K;
@@ -670,8 +657,8 @@ df_mesh_abs_quantile (const df_mesh    *mesh,
       double e1[3] = { b[0] - a[0], b[1] - a[1], b[2] - a[2] };
       double e2[3] = { c[0] - a[0], c[1] - a[1], c[2] - a[2] };
       double n[3], third;
-      cross3 (e1, e2, n);
-      third = sqrt (dot3 (n, n)) / 6;
+      df_cross3 (e1, e2, n);
+      third = sqrt (df_dot3 (n, n)) / 6;
       for (int i = 0; i < 3; i++)
         w[tri[i]].weight += third;
     }

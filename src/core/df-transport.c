@@ -4,6 +4,7 @@
  * output sample, so steps never straddle a kink.
  * Plain C + libm + GSL; no GLib. */
 #include "df-transport.h"
+#include "df-vec3.h"
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_odeiv2.h>
@@ -29,32 +30,18 @@ typedef struct
 /* The state: the carried vector (2 chart components or 3 space ones), then the arc length,
  * which is as smooth as the vector's right-hand side and so costs no extra steps. */
 
-static double
-dot3 (const double a[3], const double b[3])
-{
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-}
-
-static void
-cross3 (const double a[3], const double b[3], double out[3])
-{
-  out[0] = a[1] * b[2] - a[2] * b[1];
-  out[1] = a[2] * b[0] - a[0] * b[2];
-  out[2] = a[0] * b[1] - a[1] * b[0];
-}
-
 double
 df_signed_angle (const double a[3], const double b[3], const double n[3])
 {
-  double pa[3], pb[3], c[3], an = dot3 (a, n), bn = dot3 (b, n);
+  double pa[3], pb[3], c[3], an = df_dot3 (a, n), bn = df_dot3 (b, n);
 
   for (int k = 0; k < 3; k++)
     {
       pa[k] = a[k] - an * n[k];
       pb[k] = b[k] - bn * n[k];
     }
-  cross3 (pa, pb, c);
-  return atan2 (dot3 (c, n), dot3 (pa, pb));
+  df_cross3 (pa, pb, c);
+  return atan2 (df_dot3 (c, n), df_dot3 (pa, pb));
 }
 
 void
@@ -76,17 +63,6 @@ df_transport_result_clear (df_transport_result *r)
     return;
   free (r->samples);
   memset (r, 0, sizeof *r);
-}
-
-/* Geodesic curvature x'' . (N x x') / |x'|^3 from a point's derivatives; also the speed. */
-static double
-geodesic_curvature (const double dx[3], const double ddx[3], const double n[3], double *speed)
-{
-  double nxt[3];
-
-  *speed = sqrt (dot3 (dx, dx));
-  cross3 (n, dx, nxt);
-  return dot3 (ddx, nxt) / (*speed * *speed * *speed);
 }
 
 /* Gauss-Legendre rule of order 10 on [-1, 1] (Abramowitz and Stegun, table 25.4, from
@@ -161,11 +137,11 @@ rhs_chart (double tau, const double y[], double dydt[], void *data)
       ddx[k] = j.d2[0][k] * dp[0] * dp[0] + 2 * j.d2[1][k] * dp[0] * dp[1]
                + j.d2[2][k] * dp[1] * dp[1] + j.d1[0][k] * ddp[0] + j.d1[1][k] * ddp[1];
     }
-  cross3 (j.d1[0], j.d1[1], n);
-  len = sqrt (dot3 (n, n));
+  df_cross3 (j.d1[0], j.d1[1], n);
+  len = sqrt (df_dot3 (n, n));
   for (int k = 0; k < 3; k++)
     n[k] /= len;
-  note_kg (ctx, geodesic_curvature (dx, ddx, n, &speed));
+  note_kg (ctx, df_geodesic_curvature (dx, ddx, n, &speed));
   dydt[2] = speed;
   return GSL_SUCCESS;
 }
@@ -186,10 +162,10 @@ rhs_extrinsic (double tau, const double y[], double dydt[], void *data)
       ctx->fail_status = st;
       return GSL_EBADFUNC;
     }
-  vdn = dot3 (y, cp.dnormal);
+  vdn = df_dot3 (y, cp.dnormal);
   for (int k = 0; k < 3; k++)
     dydt[k] = -vdn * cp.normal[k];
-  note_kg (ctx, geodesic_curvature (cp.dx, cp.ddx, cp.normal, &speed));
+  note_kg (ctx, df_geodesic_curvature (cp.dx, cp.ddx, cp.normal, &speed));
   dydt[3] = speed;
   return GSL_SUCCESS;
 }
@@ -211,8 +187,8 @@ chart_frame (const df_surface *s, double u, double v, double xu[3], double xv[3]
 static df_status
 space_to_chart (const double xu[3], const double xv[3], const double w[3], double c[2])
 {
-  double g11 = dot3 (xu, xu), g12 = dot3 (xu, xv), g22 = dot3 (xv, xv);
-  double b1 = dot3 (xu, w), b2 = dot3 (xv, w), det = g11 * g22 - g12 * g12;
+  double g11 = df_dot3 (xu, xu), g12 = df_dot3 (xu, xv), g22 = df_dot3 (xv, xv);
+  double b1 = df_dot3 (xu, w), b2 = df_dot3 (xv, w), det = g11 * g22 - g12 * g12;
 
   if (!(det > 0))
     return DF_E_SINGULAR;
@@ -333,12 +309,12 @@ df_transport_run (const df_curve *curve, const double *v0_space,
   else
     memcpy (w0, cp.dx, sizeof w0);
   {
-    double wn = dot3 (w0, cp.normal);
+    double wn = df_dot3 (w0, cp.normal);
 
     for (int k = 0; k < 3; k++)
       w0[k] -= wn * cp.normal[k];
   }
-  len = sqrt (dot3 (w0, w0));
+  len = sqrt (df_dot3 (w0, w0));
   if (!(len > 0) || !isfinite (len))
     return df_diag_fail (diag, DF_E_INPUT, 0, "the start vector has no part in the tangent plane");
   for (int k = 0; k < 3; k++)
@@ -490,7 +466,7 @@ df_transport_run (const df_curve *curve, const double *v0_space,
       goto done;
     memcpy (out->end_vector, w, sizeof w);
     memcpy (out->end_normal, cp.normal, sizeof out->end_normal);
-    out->norm_drift = fabs (sqrt (dot3 (w, w)) - 1.0);
+    out->norm_drift = fabs (sqrt (df_dot3 (w, w)) - 1.0);
     for (int k = 0; k < 3; k++)
       if (!isfinite (w[k]))
         st = df_diag_fail (diag, DF_E_NONFINITE, -1, "the carried vector is not finite");
