@@ -41,7 +41,12 @@ df_signed_angle (const double a[3], const double b[3], const double n[3])
       pb[k] = b[k] - bn * n[k];
     }
   df_cross3 (pa, pb, c);
-  return atan2 (df_dot3 (c, n), df_dot3 (pa, pb));
+  /* atan2 gives -pi for a negative zero sine: fold that onto pi, so the range is (-pi, pi]. */
+  {
+    double a = atan2 (df_dot3 (c, n), df_dot3 (pa, pb));
+
+    return a <= -M_PI ? M_PI : a;
+  }
 }
 
 void
