@@ -123,6 +123,7 @@ struct _DfSurfaceView
   gboolean      mesh_dirty;
   gboolean      overlay_dirty;
   gboolean      fit_pending;    /* a fit was asked before the mesh or the size was known */
+  gboolean      fit_next_mesh;  /* the shape changed: frame the mesh being built once it lands */
   gboolean      moving;         /* the user is orbiting, panning or zooming: draw coarse */
   guint         settle_id;      /* timeout that ends a scroll-zoom's motion */
   int           fb_width, fb_height;

@@ -221,8 +221,12 @@ install_mesh (DfSurfaceView *self,
   g_clear_pointer (&self->mesh, mesh_data_free);
   self->mesh = data;
   self->mesh_dirty = TRUE;
-  if (data != NULL && data->mesh != NULL && (!self->camera.fitted || self->fit_pending))
-    df_surface_view_fit_all (self);
+  if (data != NULL && data->mesh != NULL
+      && (!self->camera.fitted || self->fit_pending || self->fit_next_mesh))
+    {
+      self->fit_next_mesh = FALSE;
+      df_surface_view_fit_all (self);
+    }
   if (data != NULL && data->problem != NULL)
     g_debug ("%s", data->problem);
   _df_surface_view_rebuild_overlay (self);
@@ -994,6 +998,13 @@ df_surface_view_set_surface (DfSurfaceView    *self,
       return;
     }
   start_mesh_build (self);
+}
+
+void
+df_surface_view_fit_next_mesh (DfSurfaceView *self)
+{
+  g_return_if_fail (DF_IS_SURFACE_VIEW (self));
+  self->fit_next_mesh = TRUE;
 }
 
 const df_surface *

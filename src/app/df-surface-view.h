@@ -47,6 +47,9 @@ GtkWidget  *df_surface_view_new                 (void);
  * the first time only. */
 void        df_surface_view_set_surface         (DfSurfaceView    *self,
                                                  const df_surface *surface);
+/* Frames the next mesh that lands (e.g. after another preset was chosen: the old view may
+ * show none of the new shape). */
+void        df_surface_view_fit_next_mesh       (DfSurfaceView    *self);
 /* Borrowed; NULL when there is none. */
 const df_surface *df_surface_view_get_surface   (DfSurfaceView    *self);
 /* TRUE while a mesh is being built ("busy" property). */

@@ -85,6 +85,7 @@ struct _DfWindow
   gboolean      view_reported;
 
   GArray       *loop_curve_ids;     /* of guint: loop curves now in the view */
+  char         *shown_shape;        /* "kind/preset" of the surface in the view, to spot a new shape */
 
   /* pointer position over the view, widget coordinates (for sketch size checks) */
   double        pointer_x, pointer_y;

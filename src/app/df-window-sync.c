@@ -200,6 +200,17 @@ sync_surface (DfWindow *self)
   const df_surface *surface = df_document_get_surface (self->document);
   const df_surface_spec *spec = df_document_get_spec (self->document);
 
+  /* A parameter tweak keeps the user's view; another kind of surface or preset gets framed. */
+  if (spec != NULL)
+    {
+      char *shape = g_strdup_printf ("%d/%s", (int) spec->kind,
+                                     spec->preset != NULL ? spec->preset : "");
+
+      if (self->shown_shape != NULL && !g_str_equal (shape, self->shown_shape))
+        df_surface_view_fit_next_mesh (self->view);
+      g_free (self->shown_shape);
+      self->shown_shape = shape;
+    }
   df_surface_view_set_surface (self->view, surface);
   if (spec != NULL)
     df_surface_panel_set_spec (self->surface_panel, spec);
