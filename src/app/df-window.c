@@ -278,6 +278,10 @@ df_window_init (DfWindow *self)
   _df_window_sync_init (self);
   _df_window_tools_init (self);
   _df_window_actions_update (self);
+  /* The menus read these actions' states while the template was built, before the fields
+   * above were set: tell them, or the colouring radio and the iso-lines check start wrong. */
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_SHADING]);
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_ISO_LINES]);
 }
 
 DfWindow *
