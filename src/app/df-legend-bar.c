@@ -187,6 +187,16 @@ df_legend_bar_snapshot (GtkWidget   *widget,
     float label_y = bar_y + BAR_HEIGHT + GAP;
     int w, h;
 
+    /* A flat or developable shape has a zero range: "0 ... 0" at both ends reads like a
+     * broken scale, so say it once. */
+    if (self->lo == 0 && self->hi == 0)
+      {
+        g_autoptr (PangoLayout) flat_layout = make_layout (self, "0 everywhere");
+
+        pango_layout_get_pixel_size (flat_layout, &w, &h);
+        append_text (snapshot, flat_layout, 0.5f * (width - w), label_y, &fg);
+        return;
+      }
     append_text (snapshot, lo_layout, 0, label_y, &fg);
     pango_layout_get_pixel_size (zero_layout, &w, &h);
     if (self->hi > 0)
