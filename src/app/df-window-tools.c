@@ -265,6 +265,18 @@ sketch_finish (DfWindow *self)
   self->stroking = FALSE;
   live_stop (self);
   df_surface_view_remove_curve (self->view, DF_CURVE_SKETCH);
+  /* A hand-closed loop ends on (or next to) its first point; the loop closes itself, so such
+   * an end adds a closing segment far shorter than the rest with a sharp turn in it, which
+   * read as a steering radius under a millimetre on a smooth loop. Drop it. */
+  while (self->stroke_uv->len > 3)
+    {
+      StrokePoint *first = &g_array_index (self->stroke_uv, StrokePoint, 0);
+      StrokePoint *last = &g_array_index (self->stroke_uv, StrokePoint, self->stroke_uv->len - 1);
+
+      if (hypot (last->px - first->px, last->py - first->py) >= DF_STROKE_STEP_PX)
+        break;
+      g_array_set_size (self->stroke_uv, self->stroke_uv->len - 1);
+    }
   problem = stroke_problem (self, 3);
   if (problem != NULL)
     {
