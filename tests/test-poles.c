@@ -158,6 +158,33 @@ test_cone_apex_outside (void)
 }
 
 static void
+test_both_caps (void)
+{
+  /* A small clockwise circle round the north pole of a sphere of radius 2: the disc on its
+   * left is the large southern cap, the one on its right the small northern cap, whose K-area
+   * is 2 pi (1 - cos theta) and area 2 pi R^2 (1 - cos theta) (Archimedes, from memory). The
+   * two caps together carry 4 pi (Gauss-Bonnet for a closed surface, from memory). */
+  g_autoptr (df_surface) s = df_test_revolution ("2*sin(t)", "2*cos(t)", 0, G_PI);
+  const double theta = 0.4;
+  size_t n = 40;
+  g_autofree double (*uv)[2] = g_malloc (n * sizeof *uv);
+  g_auto (df_loop_result) r = { 0 };
+
+  for (size_t i = 0; i < n; i++)
+    {
+      uv[i][0] = theta;
+      uv[i][1] = -2 * G_PI * i / n;
+    }
+  measure (s, (const double (*)[2]) uv, n, &r, NULL);
+  g_assert_true (r.disc_on_left);
+  g_assert_true (r.has_other_disc);
+  df_assert_close (r.enclosed_curvature_rad, 2 * G_PI * (1 + cos (theta)), 0.0, 1e-8);
+  df_assert_close (r.other_enclosed_curvature_rad, -2 * G_PI * (1 - cos (theta)), 0.0, 1e-8);
+  df_assert_close (r.other_area, 8 * G_PI * (1 - cos (theta)), 1e-9, 0.0);
+  df_assert_close (r.area + r.other_area, 16 * G_PI, 1e-9, 0.0);
+}
+
+static void
 test_near_both_poles (void)
 {
   /* A meridian great circle passes both poles: one chart cannot hold it; a clear error. */
@@ -197,6 +224,7 @@ main (int argc, char **argv)
   g_test_add_func ("/core/poles/circle-through-south-pole", test_circle_through_south_pole);
   g_test_add_func ("/core/poles/paraboloid-two-charts", test_paraboloid_two_charts);
   g_test_add_func ("/core/poles/cone-apex-outside", test_cone_apex_outside);
+  g_test_add_func ("/core/poles/both-caps", test_both_caps);
   g_test_add_func ("/core/poles/near-both-poles", test_near_both_poles);
   g_test_add_func ("/core/poles/pole-probe", test_pole_probe);
   return g_test_run ();

@@ -131,6 +131,16 @@ update_details (DfLoopsPanel *self)
       if (!r->disc_on_left)
         g_string_append (notes, "The disc lies to the right of the direction of travel, so "
                                 "the enclosed curvature is counted negative. ");
+      if (r->has_other_disc)
+        {
+          /* On a closed surface the loop also bounds the cap on its other side; a designer
+           * who drew a small loop round a pole usually means that one. */
+          g_autofree char *other = df_format_angle (r->other_enclosed_curvature_rad);
+          g_autofree char *other_area = df_format_area (r->other_area, units);
+
+          g_string_append_printf (notes, "The cap on the other side of the loop: enclosed "
+                                  "curvature %s, area %s. ", other, other_area);
+        }
     }
   else
     {

@@ -76,6 +76,12 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
               df_cli_num (a, sizeof a, r->residual_rad, 3));
       printf ("%-38s %s %s^2 (%s of the loop)\n", "Enclosed area:",
               df_cli_num (a, sizeof a, r->area, 9), un, r->disc_on_left ? "left" : "right");
+      if (r->has_other_disc)
+        {
+          print_angle_line ("The cap on the other side:", r->other_enclosed_curvature_rad);
+          printf ("%-38s %s %s^2\n", "  its area:", df_cli_num (a, sizeof a, r->other_area, 9),
+                  un);
+        }
     }
   else
     printf ("%-38s not defined: the loop bounds no disc\n", "Enclosed curvature:");

@@ -68,6 +68,10 @@ df_json_add_loop_result (JsonBuilder *builder, const df_loop_result *r)
   df_json_add_double_or_null (builder, "concentrated_curvature_rad", disc, r->concentrated_rad);
   df_json_add_double_or_null (builder, "area", disc, r->area);
   df_json_add_double_or_null (builder, "gauss_bonnet_residual_rad", disc, r->residual_rad);
+  /* The cap on the other side of a loop round a closed surface's axis (same sign rule). */
+  df_json_add_double_or_null (builder, "other_cap_curvature_rad", r->has_other_disc,
+                              r->other_enclosed_curvature_rad);
+  df_json_add_double_or_null (builder, "other_cap_area", r->has_other_disc, r->other_area);
   df_json_add_double (builder, "total_geodesic_curvature_rad", r->total_geodesic_curvature_rad);
   df_json_add_double (builder, "length", r->length);
   df_json_add_double_or_null (builder, "min_steering_radius", r->has_steering_radius,

@@ -475,6 +475,31 @@ choose_disc (const df_curve *c, df_loop_result *out, line_ctx *ctx)
   }
 }
 
+/* The cap on the other side of a loop round the axis of a closed surface of revolution. */
+static df_status
+other_cap (line_ctx *ctx, df_loop_result *out)
+{
+  df_pole poles[2];
+  double u_min, u_max, total_area;
+  inner_ctx ic = { ctx, 0.0, true };
+  gsl_function f = { inner_integrand, &ic };
+  double err;
+
+  df_surface_get_poles (ctx->surface, poles);
+  if (!ctx->revolution || out->axis_winding == 0 || !poles[0].on_axis || !poles[1].on_axis)
+    return DF_OK;
+  df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+  if (gsl_integration_qag (&f, u_min, u_max, 0.0, 1e-12, 200, GSL_INTEG_GAUSS21, ctx->ws,
+                           &total_area, &err) != GSL_SUCCESS || !isfinite (total_area))
+    return DF_OK;   /* the second cap is extra information: without it the rest stands */
+  total_area *= 2 * M_PI;
+  out->has_other_disc = true;
+  out->other_enclosed_curvature_rad = out->enclosed_curvature_rad
+                                      + (out->disc_on_left ? -4 * M_PI : 4 * M_PI);
+  out->other_area = fmax (0.0, total_area - out->area);
+  return DF_OK;
+}
+
 df_status
 df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_result *out,
                  df_diag *diag)
@@ -544,6 +569,8 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       out->enclosed_curvature_rad = tr.extra[0];
       out->area = fabs (tr.extra[1]);
       out->residual_rad = df_wrap_angle (out->holonomy_rad - out->enclosed_curvature_rad);
+      if ((st = other_cap (&ctx, out)) != DF_OK)
+        goto done;
     }
 
   out->samples = calloc (tr.n_samples, sizeof *out->samples);

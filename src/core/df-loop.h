@@ -46,6 +46,13 @@ typedef struct
   double area;                    /* of the disc, positive */
   double residual_rad;            /* holonomy - enclosed, wrapped to (-pi, pi] */
   bool   disc_on_left;            /* the disc lies left of the direction of travel */
+  /* A loop round the axis of a closed surface of revolution (a pole at each end) bounds a cap
+   * on each side. The second one, signed by the same rule (negative on the right): its value
+   * is enclosed -/+ 4 pi, since a closed surface of this kind carries 4 pi in all
+   * (Gauss-Bonnet, Euler characteristic 2). */
+  bool   has_other_disc;
+  double other_enclosed_curvature_rad;
+  double other_area;
   double total_geodesic_curvature_rad;  /* closed integral of k_g ds over the smooth pieces */
   double corner_turning_rad;      /* sum of turning angles at corners (exact curves only) */
   double length;
