@@ -80,17 +80,17 @@ static guint signals[N_SIGNALS];
 static const FormulaField rev_template[4] = {
   { "r", "r(t)", "r(t) =", "Distance from the axis as a function of t", TRUE, -1, NULL, NULL },
   { "z", "z(t)", "z(t) =", "Height along the axis as a function of t", TRUE, -1, NULL, NULL },
-  { "t-min", "t from", "t from", "Start of the profile parameter t (a number or expression)",
+  { "t-min", "t-min", "t-min", "Start of the profile parameter t (a number or expression)",
     FALSE, 0, NULL, NULL },
-  { "t-max", "t to", "t to", "End of the profile parameter t", FALSE, 1, NULL, NULL },
+  { "t-max", "t-max", "t-max", "End of the profile parameter t", FALSE, 1, NULL, NULL },
 };
 
 static const FormulaField graph_template[5] = {
   { "z", "z(x, y)", "z(x, y) =", "Height as a function of x and y", TRUE, -1, NULL, NULL },
-  { "x-min", "x from", "x from", "Smallest x of the panel", FALSE, 0, NULL, NULL },
-  { "x-max", "x to", "x to", "Largest x of the panel", FALSE, 1, NULL, NULL },
-  { "y-min", "y from", "y from", "Smallest y of the panel", FALSE, 2, NULL, NULL },
-  { "y-max", "y to", "y to", "Largest y of the panel", FALSE, 3, NULL, NULL },
+  { "x-min", "x-min", "x-min", "Smallest x of the panel", FALSE, 0, NULL, NULL },
+  { "x-max", "x-max", "x-max", "Largest x of the panel", FALSE, 1, NULL, NULL },
+  { "y-min", "y-min", "y-min", "Smallest y of the panel", FALSE, 2, NULL, NULL },
+  { "y-max", "y-max", "y-max", "Largest y of the panel", FALSE, 3, NULL, NULL },
 };
 
 static void rebuild_params (DfSurfacePanel *self);
