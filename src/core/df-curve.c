@@ -270,9 +270,11 @@ wrap_tau (const df_curve *c, double tau, int *laps)
   return tau;
 }
 
-/* The spline's plane point in segment i at tau (no search). */
+/* The spline's plane point and its first two derivatives in segment i at tau, laps whole
+ * periods past the first (no search). */
 static void
-segment_plane (const df_curve *c, size_t i, double tau, double p[2])
+segment_eval (const df_curve *c, size_t i, double tau, int laps, double p[2], double dp[2],
+              double ddp[2])
 {
   double dt = tau - c->taus[i];
 
@@ -281,9 +283,22 @@ segment_plane (const df_curve *c, size_t i, double tau, double p[2])
       const double *q = &c->coef[k][4 * i];
 
       p[k] = q[0] + dt * (q[1] + dt * (q[2] + dt * q[3]));
+      dp[k] = q[1] + dt * (2 * q[2] + dt * 3 * q[3]);
+      ddp[k] = 2 * q[2] + 6 * dt * q[3];
       if (c->coords == DF_COORDS_CHART && c->closed)
-        p[k] += c->drift[k] * (tau - c->tau0);
+        {
+          p[k] += c->drift[k] * (tau - c->tau0 + laps * (c->tau1 - c->tau0));
+          dp[k] += c->drift[k];
+        }
     }
+}
+
+static void
+segment_plane (const df_curve *c, size_t i, double tau, double p[2])
+{
+  double dp[2], ddp[2];
+
+  segment_eval (c, i, tau, 0, p, dp, ddp);
 }
 
 size_t
@@ -337,25 +352,7 @@ df_curve_eval_plane (const df_curve *c, double tau, double p[2], double dp[2], d
       c->fn (tau, c->user, p, dp, ddp);
       return;
     }
-  {
-    size_t i = segment_of (c, tau);
-    double dt = tau - c->taus[i];
-
-    for (int k = 0; k < 2; k++)
-      {
-        const double *q = &c->coef[k][4 * i];
-
-        p[k] = q[0] + dt * (q[1] + dt * (q[2] + dt * q[3]));
-        dp[k] = q[1] + dt * (2 * q[2] + dt * 3 * q[3]);
-        ddp[k] = 2 * q[2] + 6 * dt * q[3];
-      }
-    if (c->coords == DF_COORDS_CHART && c->closed)
-      for (int k = 0; k < 2; k++)
-        {
-          p[k] += c->drift[k] * (tau - c->tau0 + laps * (c->tau1 - c->tau0));
-          dp[k] += c->drift[k];
-        }
-  }
+  segment_eval (c, segment_of (c, tau), tau, laps, p, dp, ddp);
 }
 
 /* --- evaluation to space ----------------------------------------------------------------- */

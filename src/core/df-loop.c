@@ -32,7 +32,6 @@ typedef struct
   double            h_ref;        /* revolution: dr/ds taken at u_ref (1 or -1 at a pole) */
   double            pole_t;       /* polar curve coordinates: the pole's t */
   double            pole_sign;    /* and dt / drho */
-  size_t            evals;
   df_status         fail_status;
   df_diag           fail;
   gsl_integration_workspace *ws;  /* inner integrals done directly */
@@ -187,7 +186,6 @@ green_integrand (double tau, const double p[2], const double dp[2], double *valu
   df_status st;
 
   (void) tau;
-  ctx->evals++;
   if (coords == DF_COORDS_CHART)
     {
       u = p[0];
