@@ -60,3 +60,27 @@ df_test_graph (const char *f, double x_min, double x_max, double y_min, double y
     g_error ("surface z = %s: %s: %s", f, df_status_describe (st), diag.detail);
   return s;
 }
+
+/* A curve through chart points; aborts the test with the core's message on failure. */
+static inline df_curve *
+df_test_curve (const df_surface *s, const double (*uv)[2], size_t n, bool closed)
+{
+  df_curve *c = NULL;
+  df_diag diag;
+  df_status st = df_curve_new_through_points (s, uv, n, closed, &c, &diag);
+
+  if (st != DF_OK)
+    g_error ("curve: %s: %s", df_status_describe (st), diag.detail);
+  return c;
+}
+
+/* Measures a closed curve at the default options; aborts the test on failure. */
+static inline void
+df_test_measure (const df_curve *c, df_loop_result *r)
+{
+  df_diag diag;
+  df_status st = df_loop_measure (c, NULL, r, &diag);
+
+  if (st != DF_OK)
+    g_error ("measure: %s: %s", df_status_describe (st), diag.detail);
+}

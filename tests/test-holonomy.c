@@ -14,26 +14,9 @@
 static void
 measure_points (const df_surface *s, const double (*uv)[2], size_t n, df_loop_result *r)
 {
-  g_autoptr (df_curve) c = NULL;
-  df_diag diag;
-  df_status st;
+  g_autoptr (df_curve) c = df_test_curve (s, uv, n, true);
 
-  st = df_curve_new_through_points (s, uv, n, true, &c, &diag);
-  if (st != DF_OK)
-    g_error ("curve: %s: %s", df_status_describe (st), diag.detail);
-  st = df_loop_measure (c, NULL, r, &diag);
-  if (st != DF_OK)
-    g_error ("measure: %s: %s", df_status_describe (st), diag.detail);
-}
-
-static void
-measure_curve (const df_curve *c, df_loop_result *r)
-{
-  df_diag diag;
-  df_status st = df_loop_measure (c, NULL, r, &diag);
-
-  if (st != DF_OK)
-    g_error ("measure: %s: %s", df_status_describe (st), diag.detail);
+  df_test_measure (c, r);
 }
 
 /* n points on the chart ellipse centre (u0, v0), half-axes (a, b); dir = +1 counter-clockwise. */
@@ -213,7 +196,7 @@ test_sphere_octant_exact (void)
 
   g_assert_cmpint (df_curve_new_function (s, DF_COORDS_POLAR_MIN, 0, 3 * G_PI / 2, breaks, 2,
                                           true, octant_fn, NULL, &c, &diag), ==, DF_OK);
-  measure_curve (c, &r);
+  df_test_measure (c, &r);
   df_assert_close (r.holonomy_rad, G_PI / 2, 0.0, TOL_SMOOTH);
   df_assert_close (r.enclosed_curvature_rad, G_PI / 2, 0.0, TOL_SMOOTH);
   df_assert_close (r.area, G_PI / 2, 0.0, 1e-8);
@@ -270,7 +253,7 @@ test_torus_rectangle (void)
   g_auto (df_loop_result) r = { 0 };
   double want = (sin (1.1) - sin (-0.4)) * (1.5 - 0.2);
 
-  measure_curve (c, &r);
+  df_test_measure (c, &r);
   df_assert_close (r.enclosed_curvature_rad, want, 0.0, TOL_SMOOTH);
   df_assert_close (df_wrap_angle (r.holonomy_rad - want), 0.0, 0.0, TOL_SMOOTH);
   /* Area a (R (t2 - t1) + a (sin t2 - sin t1)) (p2 - p1), from dA above. */
@@ -322,7 +305,7 @@ test_torus_across_seam (void)
   g_assert_true (df_surface_u_periodic (s));
   g_assert_cmpint (df_curve_new_function (s, DF_COORDS_CHART, 0, 2 * G_PI, NULL, 0, true,
                                           circle_fn, &d, &c, &diag), ==, DF_OK);
-  measure_curve (c, &r);
+  df_test_measure (c, &r);
   g_assert_true (r.bounds_disc);
   df_assert_close (r.enclosed_curvature_rad, want, 0.0, TOL_SMOOTH);
   df_assert_close (df_wrap_angle (r.holonomy_rad - want), 0.0, 0.0, TOL_SMOOTH);
@@ -362,7 +345,7 @@ graph_circle (const df_surface *s, double rad, df_loop_result *r)
 
   g_assert_cmpint (df_curve_new_function (s, DF_COORDS_CHART, 0, 2 * G_PI, NULL, 0, true,
                                           circle_fn, &d, &c, &diag), ==, DF_OK);
-  measure_curve (c, r);
+  df_test_measure (c, r);
 }
 
 static void
@@ -479,7 +462,7 @@ test_small_loop_limit (void)
                        ==, DF_OK);
       g_assert_cmpint (df_curve_new_function (cases[k].s, DF_COORDS_CHART, 0, 2 * G_PI, NULL, 0,
                                               true, circle_fn, &d, &c, &diag), ==, DF_OK);
-      measure_curve (c, &r);
+      df_test_measure (c, &r);
       df_assert_close (r.holonomy_rad / r.area, geo.K, 1e-3, 0.0);
     }
 }

@@ -8,17 +8,11 @@ static void
 measure (const df_surface *s, const double (*uv)[2], size_t n, df_loop_result *r,
          df_curve_coords *coords)
 {
-  g_autoptr (df_curve) c = NULL;
-  df_diag diag;
-  df_status st = df_curve_new_through_points (s, uv, n, true, &c, &diag);
+  g_autoptr (df_curve) c = df_test_curve (s, uv, n, true);
 
-  if (st != DF_OK)
-    g_error ("curve: %s: %s", df_status_describe (st), diag.detail);
   if (coords)
     *coords = df_curve_get_coords (c);
-  st = df_loop_measure (c, NULL, r, &diag);
-  if (st != DF_OK)
-    g_error ("measure: %s: %s", df_status_describe (st), diag.detail);
+  df_test_measure (c, r);
 }
 
 /* n points on the unit sphere's small circle of angular radius rho whose centre lies at polar

@@ -5,18 +5,6 @@
 
 #include "df-test.h"
 
-static df_curve *
-points_curve (const df_surface *s, const double (*uv)[2], size_t n, bool closed)
-{
-  df_curve *c = NULL;
-  df_diag diag;
-  df_status st = df_curve_new_through_points (s, uv, n, closed, &c, &diag);
-
-  if (st != DF_OK)
-    g_error ("curve: %s: %s", df_status_describe (st), diag.detail);
-  return c;
-}
-
 static double (*wobbly_loop (double u0, double v0, double a, size_t n))[2]
 {
   double (*uv)[2] = g_malloc (n * sizeof *uv);
@@ -44,7 +32,7 @@ test_forms_agree (void)
   for (size_t k = 0; k < G_N_ELEMENTS (surfaces); k++)
     {
       g_autofree double (*uv)[2] = wobbly_loop (0.2, 0.3, 1.0, 60);
-      g_autoptr (df_curve) c = points_curve (surfaces[k], (const double (*)[2]) uv, 60, true);
+      g_autoptr (df_curve) c = df_test_curve (surfaces[k], (const double (*)[2]) uv, 60, true);
       df_transport_options o;
       g_auto (df_transport_result) a = { 0 };
       g_auto (df_transport_result) b = { 0 };
@@ -73,7 +61,7 @@ test_angles_preserved (void)
    * memory): two vectors 60 degrees apart stay 60 degrees apart. */
   g_autoptr (df_surface) s = df_test_graph ("x*y + 0.3*x^3", -2, 2, -2, 2);
   double uv[4][2] = { { -1, -1 }, { 0, -0.2 }, { 0.8, 0.4 }, { 1.2, 1.3 } };
-  g_autoptr (df_curve) c = points_curve (s, (const double (*)[2]) uv, 4, false);
+  g_autoptr (df_curve) c = df_test_curve (s, (const double (*)[2]) uv, 4, false);
   g_auto (df_transport_result) a = { 0 };
   g_auto (df_transport_result) b = { 0 };
   df_curve_point cp;
@@ -107,7 +95,7 @@ test_geodesic_tangent_parallel (void)
    * ends as the end tangent. */
   g_autoptr (df_surface) s = df_test_revolution ("1.5 + sin(t)", "-cos(t)", 0.3, 2.8);
   double uv[2][2] = { { 0.4, 0.7 }, { 2.7, 0.7 } };
-  g_autoptr (df_curve) c = points_curve (s, (const double (*)[2]) uv, 2, false);
+  g_autoptr (df_curve) c = df_test_curve (s, (const double (*)[2]) uv, 2, false);
   g_auto (df_transport_result) r = { 0 };
   df_curve_point end;
   double tau0, tau1, len;
@@ -141,7 +129,7 @@ test_latitude_samples (void)
       uv[i][0] = theta;
       uv[i][1] = 2 * G_PI * i / n;
     }
-  c = points_curve (s, (const double (*)[2]) uv, n, true);
+  c = df_test_curve (s, (const double (*)[2]) uv, n, true);
   df_loop_options_init (&o);
   o.n_samples = 50;
   g_assert_cmpint (df_loop_measure (c, &o, &r, &diag), ==, DF_OK);
