@@ -5,6 +5,7 @@
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
+#include "df-cli-report-pdf.h"
 #include "df-json-out.h"
 
 #define NAME "report"
@@ -14,6 +15,8 @@ typedef struct
   char    *project_path;
   char   **params;
   char    *summary_path;
+  char    *pdf_path;
+  char    *paper;
   gboolean json;
 } report_options;
 
@@ -42,7 +45,7 @@ measure_loop (const df_surface *surface, const df_project_loop *loop, df_loop_re
 
 static void
 print_text (const report_options *o, const df_project *project, const df_surface *surface,
-            const df_loop_result *results)
+            const df_loop_result *results, const char *const *failures)
 {
   const char *un = project->spec->units;
 
@@ -56,6 +59,11 @@ print_text (const report_options *o, const df_project *project, const df_surface
       const df_loop_result *r = &results[i];
       char h[40], e[40], res[40], len[40], rad[40];
 
+      if (failures[i] != NULL)
+        {
+          printf ("%-24.24s not measured: %s\n", loop->name, failures[i]);
+          continue;
+        }
       printf ("%-24.24s %14s %14s %12s %12s %14s\n", loop->name,
               df_cli_num (h, sizeof h, r->holonomy_rad * 180.0 / G_PI, 8),
               r->bounds_disc ? df_cli_num (e, sizeof e, r->enclosed_curvature_rad * 180.0 / G_PI,
@@ -72,7 +80,7 @@ print_text (const report_options *o, const df_project *project, const df_surface
 
 static void
 print_json (const report_options *o, const df_project *project, const df_surface *surface,
-            const df_loop_result *results)
+            const df_loop_result *results, const char *const *failures)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -96,7 +104,13 @@ print_json (const report_options *o, const df_project *project, const df_surface
       json_builder_add_string_value (b, loop->colour);
       json_builder_set_member_name (b, "points");
       json_builder_add_int_value (b, (gint64) loop->n);
-      df_json_add_loop_result (b, &results[i]);
+      if (failures[i] != NULL)
+        {
+          json_builder_set_member_name (b, "error");
+          json_builder_add_string_value (b, failures[i]);
+        }
+      else
+        df_json_add_loop_result (b, &results[i]);
       json_builder_end_object (b);
     }
   json_builder_end_array (b);
@@ -115,8 +129,9 @@ run (report_options *o)
   g_autofree df_loop_result *results = NULL;
   g_autofree const char **names = NULL;
   g_autofree const df_loop_result **ptrs = NULL;
+  g_auto (GStrv) failures = NULL;
   int code = DF_CLI_EXIT_OK;
-  guint n;
+  guint n, n_failed = 0;
 
   if (!df_cli_require ("--project", o->project_path, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
@@ -143,7 +158,10 @@ run (report_options *o)
   results = g_new0 (df_loop_result, n);
   names = g_new0 (const char *, n);
   ptrs = g_new0 (const df_loop_result *, n);
-  for (guint i = 0; i < n && code == DF_CLI_EXIT_OK; i++)
+  /* A loop that cannot be measured stays in every output with its reason (a record that
+   * silently drops a ply is worse than none); the run still ends with exit status 2. */
+  failures = g_new0 (char *, n + 1);
+  for (guint i = 0; i < n; i++)
     {
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);
 
@@ -151,21 +169,39 @@ run (report_options *o)
       ptrs[i] = &results[i];
       if (!measure_loop (surface, loop, &results[i], &error))
         {
-          g_prefix_error (&error, "%s: [loop %u] '%s': ", o->project_path, i + 1, loop->name);
-          code = df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+          failures[i] = g_strdup (error->message);
+          g_clear_error (&error);
+          n_failed++;
         }
     }
+  /* g_auto (GStrv) stops at the first NULL: keep the array dense for freeing by hand. */
 
+  if (code == DF_CLI_EXIT_OK && o->pdf_path != NULL
+      && !df_cli_report_write_pdf (o->project_path, project, surface, results,
+                                   (const char *const *) failures, o->paper, o->pdf_path, &error))
+    code = df_cli_fail (NAME, error,
+                        error->code == DF_IO_ERROR_VALUE ? DF_CLI_EXIT_INPUT : DF_CLI_EXIT_OUTPUT);
   if (code == DF_CLI_EXIT_OK && o->summary_path != NULL
       && !df_loop_summary_write (o->summary_path, names, ptrs, n, project->spec->units, &error))
     code = df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
   if (code == DF_CLI_EXIT_OK)
     {
       if (o->json)
-        print_json (o, project, surface, results);
+        print_json (o, project, surface, results, (const char *const *) failures);
       else
-        print_text (o, project, surface, results);
+        print_text (o, project, surface, results, (const char *const *) failures);
     }
+  for (guint i = 0; i < n; i++)
+    if (failures[i] != NULL)
+      {
+        if (code == DF_CLI_EXIT_OK)
+          code = df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: [loop %u] '%s': %s",
+                                  o->project_path, i + 1,
+                                  ((const df_project_loop *) g_ptr_array_index (project->loops,
+                                                                                i))->name,
+                                  failures[i]);
+        g_clear_pointer (&failures[i], g_free);
+      }
 
   for (guint i = 0; i < n; i++)
     df_loop_result_clear (&results[i]);
@@ -184,6 +220,11 @@ df_cli_report (int argc, char **argv)
     { "param", 'P', 0, G_OPTION_ARG_STRING_ARRAY, &o.params,
       "Override a surface parameter, e.g. R=120 (repeatable)", "KEY=VALUE" },
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the results as JSON", NULL },
+    { "pdf", 0, 0, G_OPTION_ARG_FILENAME, &o.pdf_path,
+      "Write the design record as a PDF (title block, inputs with SHA-256, picture, figures, "
+      "k_g plots, caution)", "OUT.pdf" },
+    { "paper", 0, 0, G_OPTION_ARG_STRING, &o.paper, "Paper size of the PDF: a4 (default) or "
+      "letter", "SIZE" },
     { "summary", 'o', 0, G_OPTION_ARG_FILENAME, &o.summary_path,
       "Write one CSV row per loop (name, holonomy, enclosed curvature, residual, ...)",
       "OUT.csv" },
@@ -192,9 +233,11 @@ df_cli_report (int argc, char **argv)
 
   context = df_cli_context_new (NAME, "measure every loop of a project",
                                 "Measures each loop of the project on its surface, as `measure` "
-                                "does for one loop, and prints one row per loop.\n\nExit "
-                                "status: 0 done, 2 bad input, 1 the summary could not be "
-                                "written.");
+                                "does for one loop, and prints one row per loop; --pdf writes "
+                                "the design record. A loop that cannot be measured is listed "
+                                "with its reason in every output.\n\nExit status: 0 done, 2 "
+                                "bad input or a loop that could not be measured, 1 an output "
+                                "could not be written.");
   g_option_context_add_main_entries (context, entries, NULL);
   if (!df_cli_parse (context, NAME, &argc, &argv))
     code = DF_CLI_EXIT_INPUT;
@@ -204,5 +247,7 @@ df_cli_report (int argc, char **argv)
   g_free (o.project_path);
   g_strfreev (o.params);
   g_free (o.summary_path);
+  g_free (o.pdf_path);
+  g_free (o.paper);
   return code;
 }

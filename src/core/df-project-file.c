@@ -11,6 +11,7 @@
 
 #define LOOP_PREFIX "loop "
 #define DEFAULT_COLOUR "#d0563b"
+#define RECORD_GROUP "record"
 
 df_project *
 df_project_new (df_surface_spec *spec)
@@ -29,6 +30,10 @@ df_project_free (df_project *project)
     return;
   df_surface_spec_free (project->spec);
   g_ptr_array_unref (project->loops);
+  g_free (project->record.title);
+  g_free (project->record.part_number);
+  g_free (project->record.revision);
+  g_free (project->record.author);
   g_free (project);
 }
 
@@ -215,10 +220,66 @@ read_loop (GKeyFile *key_file, const char *group, const char *source, const df_s
   return loop;
 }
 
+/* The title block's keys in file order, and where each lives. */
+static char **
+record_slot (df_project_record *r, const char *key)
+{
+  if (g_str_equal (key, "title"))
+    return &r->title;
+  if (g_str_equal (key, "part-number"))
+    return &r->part_number;
+  if (g_str_equal (key, "revision"))
+    return &r->revision;
+  if (g_str_equal (key, "author"))
+    return &r->author;
+  return NULL;
+}
+
+static const char *const record_keys[] = { "title", "part-number", "revision", "author", NULL };
+
+gboolean
+df_project_set_record (df_project *project, const char *key, const char *value)
+{
+  char **slot = record_slot (&project->record, key);
+
+  if (slot == NULL)
+    return FALSE;
+  g_free (*slot);
+  *slot = _df_text_is_blank (value) ? NULL : g_strstrip (g_strdup (value));
+  return TRUE;
+}
+
+static gboolean
+read_record (GKeyFile *key_file, const char *source, df_project *project, GError **error)
+{
+  g_auto (GStrv) keys = NULL;
+
+  if (!g_key_file_has_group (key_file, RECORD_GROUP))
+    return TRUE;
+  keys = g_key_file_get_keys (key_file, RECORD_GROUP, NULL, NULL);
+  for (gsize i = 0; keys != NULL && keys[i] != NULL; i++)
+    {
+      g_autofree char *value = NULL;
+
+      if (record_slot (&project->record, keys[i]) == NULL)
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                       "%s: [%s] unknown key '%s' (known: title, part-number, revision, author)",
+                       source, RECORD_GROUP, keys[i]);
+          return FALSE;
+        }
+      value = _df_key_file_get_text (key_file, RECORD_GROUP, keys[i], FALSE, source, error);
+      if (value == NULL && error != NULL && *error != NULL)
+        return FALSE;
+      df_project_set_record (project, keys[i], value);
+    }
+  return TRUE;
+}
+
 static df_project *
 project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
 {
-  static const char *const groups_known[] = { "surface", "parameters", NULL };
+  static const char *const groups_known[] = { "surface", "parameters", RECORD_GROUP, NULL };
   g_autoptr (df_project) project = NULL;
   g_autoptr (df_surface) surface = NULL;
   g_auto (GStrv) groups = NULL;
@@ -230,6 +291,8 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
   if (spec == NULL)
     return NULL;
   project = df_project_new (spec);
+  if (!read_record (key_file, source, project, error))
+    return NULL;
   surface = df_surface_spec_build (spec, NULL);
 
   /* Loops in file order, which is the order the user made them. */
@@ -292,6 +355,13 @@ df_project_to_data (const df_project *project)
   g_return_val_if_fail (project != NULL && project->spec != NULL, NULL);
   df_surface_spec_to_key_file (project->spec, key_file);
   g_key_file_set_comment (key_file, NULL, NULL, " driftframe project", NULL);
+  for (gsize k = 0; record_keys[k] != NULL; k++)
+    {
+      char **slot = record_slot ((df_project_record *) &project->record, record_keys[k]);
+
+      if (*slot != NULL)
+        g_key_file_set_string (key_file, RECORD_GROUP, record_keys[k], *slot);
+    }
   for (guint i = 0; i < project->loops->len; i++)
     {
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);

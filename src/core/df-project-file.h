@@ -22,9 +22,20 @@ typedef struct
   gsize    n;
 } df_project_loop;
 
+/* Title block of the design record, group [record] (each key optional):
+ *   title=Lamp-shade mould, part-number=LS-220-01, revision=B, author=A. Fitter */
+typedef struct
+{
+  char *title;
+  char *part_number;
+  char *revision;
+  char *author;
+} df_project_record;
+
 typedef struct
 {
   df_surface_spec *spec;
+  df_project_record record;  /* strings owned; NULL where not given */
   GPtrArray       *loops;  /* of df_project_loop*, owned (free func set) */
 } df_project;
 
@@ -34,6 +45,9 @@ void             df_project_free       (df_project *project);     /* NULL: no-op
 void             df_project_add_loop   (df_project *project, const char *name, const char *colour,
                                         gboolean show_frames, const double (*uv)[2], gsize n);
 void             df_project_loop_free  (df_project_loop *loop);
+/* Replaces one title-block field (key "title", "part-number", "revision" or "author"; value
+ * NULL or blank clears it). FALSE for an unknown key. */
+gboolean         df_project_set_record (df_project *project, const char *key, const char *value);
 
 /* Messages name the file and group: "part.dfproj: [loop 2] u: 7 values but v has 6". */
 df_project      *df_project_load       (const char *path, GError **error);

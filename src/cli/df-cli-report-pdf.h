@@ -1,0 +1,19 @@
+/* df-cli-report-pdf.h: the PDF design record of `driftframe-cli report --pdf`: gathers the
+ * project's title block, inputs with their hashes, loops and results for df_report_write_pdf.
+ * CLI layer: computes nothing. */
+#pragma once
+
+#include <glib.h>
+
+#include "df-glib.h"
+
+/* results[i] is loop i's measurement, valid where failures[i] is NULL; failures[i] is the
+ * reason a loop could not be measured. paper: "a4" or "letter". */
+gboolean df_cli_report_write_pdf (const char           *project_path,
+                                  const df_project     *project,
+                                  const df_surface     *surface,
+                                  const df_loop_result *results,
+                                  const char *const    *failures,
+                                  const char           *paper,
+                                  const char           *out_path,
+                                  GError              **error);

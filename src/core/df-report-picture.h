@@ -1,0 +1,32 @@
+/* df-report-picture.h: the report's own picture of a surface for a process without a display
+ * (the CLI): a shaded orthographic view of the core's display mesh coloured by Gaussian
+ * curvature, the loops drawn on it (hidden stretches dashed) with their names, and the colour
+ * legend, all into a box of a cairo context. Reader/writer layer: GLib and cairo allowed. */
+#pragma once
+
+#include <cairo.h>
+#include <glib.h>
+
+#include "df-surface.h"
+
+typedef struct
+{
+  const char *name;
+  double      rgb[3];
+  const double (*xyz)[3];  /* points along the loop in space */
+  gsize       n;
+  gboolean    closed;
+} df_picture_curve;
+
+/* Draws into the box (x, y, w, h) in cairo user units (points in a PDF). units names the
+ * surface's length unit for the legend ("mm"). Fails only when the surface cannot be meshed. */
+gboolean df_report_draw_picture (cairo_t                *cr,
+                                 double                  x,
+                                 double                  y,
+                                 double                  w,
+                                 double                  h,
+                                 const df_surface       *surface,
+                                 const char             *units,
+                                 const df_picture_curve *curves,
+                                 gsize                   n_curves,
+                                 GError                **error);
