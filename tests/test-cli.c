@@ -174,7 +174,7 @@ test_measure_sphere (void)
   lines = g_strsplit (csv, "\r\n", -1);
   /* header + 50 rows + the empty piece after the last CRLF */
   g_assert_cmpuint (g_strv_length (lines), ==, 52);
-  g_assert_cmpstr (lines[0], ==, "s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K");
+  g_assert_cmpstr (lines[0], ==, "s_mm,t,phi_rad,x_mm,y_mm,z_mm,vx,vy,vz,angle_deg,angle_unwrapped_deg,k_g_per_mm,K_per_mm2");
 }
 
 static void
@@ -451,7 +451,8 @@ test_report_demo (void)
   g_assert_true (g_file_get_contents (summary, &csv, NULL, NULL));
   lines = g_strsplit (csv, "\r\n", -1);
   g_assert_cmpuint (g_strv_length (lines), ==, json_array_get_length (loops) + 2);
-  g_assert_true (g_str_has_prefix (lines[0], "name,holonomy_deg,"));
+  g_assert_true (g_str_has_prefix (lines[0], "name,status,surface,normal_side,holonomy_deg,"));
+  g_assert_nonnull (strstr (lines[0], ",length_mm,"));
 }
 
 static void

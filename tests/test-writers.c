@@ -145,8 +145,9 @@ test_points_round_trip (void)
     }
 }
 
-/* The per-sample CSV of a measured loop: header, one row per sample, 12 numbers each, and
- * K = 1/R^2 on the sphere (textbook, from memory). */
+/* The per-sample CSV of a measured loop: header with units, one row per sample, 13 numbers
+ * each, K = 1/R^2 on the sphere (textbook, from memory), the fibre angle wrapped to
+ * (-180, 180] beside its unwrapped value (equal modulo 360). */
 static void
 test_samples_csv (void)
 {
@@ -156,10 +157,12 @@ test_samples_csv (void)
   g_autofree char *path = tmp_path ("samples.csv");
   g_autofree char *text = NULL;
   g_autoptr (GPtrArray) rows = NULL;
-  g_auto (GStrv) header = g_strsplit ("s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K", ",", -1);
+  g_auto (GStrv) header = g_strsplit ("s_mm,t,phi_rad,x_mm,y_mm,z_mm,vx,vy,vz,angle_deg,"
+                                      "angle_unwrapped_deg,k_g_per_mm,K_per_mm2", ",", -1);
+  df_csv_context csv = { "mm", DF_SURFACE_REVOLUTION, "preset sphere", NULL };
 
   measure_latitude (sphere, 1.0, &result);
-  g_assert_true (df_loop_samples_write (path, &result, &error));
+  g_assert_true (df_loop_samples_write (path, &result, &csv, &error));
   g_assert_no_error (error);
   g_assert_true (g_file_get_contents (path, &text, NULL, &error));
   rows = parse_csv (text);
@@ -171,27 +174,37 @@ test_samples_csv (void)
       char **row = rows->pdata[i];
       double x, y, z;
 
-      g_assert_cmpuint (g_strv_length (row), ==, 12);
-      for (int k = 0; k < 12; k++)
+      double wrapped, unwrapped;
+
+      g_assert_cmpuint (g_strv_length (row), ==, 13);
+      for (int k = 0; k < 13; k++)
         parse_double (row[k]);
+      wrapped = parse_double (row[9]);
+      unwrapped = parse_double (row[10]);
+      g_assert_cmpfloat (wrapped, >, -180.0);
+      g_assert_cmpfloat (wrapped, <=, 180.0);
+      df_assert_close (remainder (unwrapped - wrapped, 360.0), 0.0, 0.0, 1e-9);
       x = parse_double (row[3]);
       y = parse_double (row[4]);
       z = parse_double (row[5]);
       df_assert_close (sqrt (x * x + y * y + z * z), 100.0, 1e-9, 0.0);
-      df_assert_close (parse_double (row[11]), 1.0 / (100.0 * 100.0), 1e-9, 0.0);
+      df_assert_close (parse_double (row[12]), 1.0 / (100.0 * 100.0), 1e-9, 0.0);
     }
 }
 
-/* The summary: names with a comma and a quote are quoted; a loop with no disc leaves the
- * enclosed curvature, residual and area empty (no "nan"). */
+/* The summary: units in the column names, the surface and normal side as columns; names with a
+ * comma and a quote are quoted; a loop with no disc leaves the enclosed curvature, residual and
+ * area empty (no "nan"); a loop that was not measured keeps its row with the reason. */
 static void
 test_summary_csv (void)
 {
   g_autoptr (df_surface) sphere = build_preset ("sphere");
   g_auto (df_loop_result) measured = { 0 };
   df_loop_result no_disc = { 0 };
-  const df_loop_result *results[2] = { &measured, &no_disc };
-  const char *names[2] = { "Rim, \"outer\" ply", "Tube loop" };
+  const df_loop_result *results[3] = { &measured, &no_disc, NULL };
+  const char *names[3] = { "Rim, \"outer\" ply", "Tube loop", "Broken ply" };
+  const char *failures[3] = { NULL, NULL, "point 3: repeats point 2" };
+  df_csv_context csv = { "in", DF_SURFACE_REVOLUTION, "dome.surface", "N points outward" };
   g_autofree char *text = NULL;
   g_autoptr (GPtrArray) rows = NULL;
   char **row;
@@ -203,31 +216,49 @@ test_summary_csv (void)
   no_disc.length = 10.0;
   no_disc.total_geodesic_curvature_rad = 0.25;
 
-  text = df_loop_summary_to_csv (names, results, 2, "mm");
+  text = df_loop_summary_to_csv (names, results, failures, 3, &csv);
   g_assert_null (strstr (text, "nan"));
   rows = parse_csv (text);
-  g_assert_cmpuint (rows->len, ==, 3);
-  g_assert_cmpuint (g_strv_length (rows->pdata[0]), ==, 11);
-  g_assert_cmpstr (((char **) rows->pdata[0])[0], ==, "name");
+  g_assert_cmpuint (rows->len, ==, 4);
+  {
+    g_auto (GStrv) header = g_strsplit ("name,status,surface,normal_side,holonomy_deg,"
+                                        "holonomy_rad,enclosed_curvature_rad,"
+                                        "gauss_bonnet_residual_rad,total_geodesic_curvature_rad,"
+                                        "area_in2,length_in,min_steering_radius_in,bounds_disc,"
+                                        "note", ",", -1);
+
+    g_assert_true (g_strv_equal ((const char *const *) rows->pdata[0],
+                                 (const char *const *) header));
+  }
 
   row = rows->pdata[1];
-  g_assert_cmpuint (g_strv_length (row), ==, 11);
+  g_assert_cmpuint (g_strv_length (row), ==, 14);
   g_assert_cmpstr (row[0], ==, names[0]);
-  df_assert_close (parse_double (row[1]), measured.holonomy_rad * 180.0 / G_PI, 1e-15, 0.0);
+  g_assert_cmpstr (row[1], ==, "measured");
+  g_assert_cmpstr (row[2], ==, "dome.surface");
+  g_assert_cmpstr (row[3], ==, "N points outward");
+  df_assert_close (parse_double (row[4]), measured.holonomy_rad * 180.0 / G_PI, 1e-15, 0.0);
   /* Latitude circle at polar angle theta = 1 encloses 2 pi (1 - cos theta): Gauss-Bonnet,
    * do Carmo, Differential Geometry of Curves and Surfaces, sec. 4-5 (from memory). */
-  df_assert_close (parse_double (row[3]), 2 * G_PI * (1 - cos (1.0)), 0.0, 1e-8);
-  g_assert_cmpstr (row[9], ==, "true");
-  g_assert_cmpstr (row[10], ==, "mm");
+  df_assert_close (parse_double (row[6]), 2 * G_PI * (1 - cos (1.0)), 0.0, 1e-8);
+  g_assert_cmpstr (row[12], ==, "true");
 
   row = rows->pdata[2];
+  g_assert_cmpuint (g_strv_length (row), ==, 14);
   g_assert_cmpstr (row[0], ==, names[1]);
-  g_assert_cmpstr (row[3], ==, "");
-  g_assert_cmpstr (row[4], ==, "");
   g_assert_cmpstr (row[6], ==, "");
-  g_assert_cmpstr (row[8], ==, "");   /* no steering radius */
-  g_assert_cmpstr (row[9], ==, "false");
-  df_assert_close (parse_double (row[2]), 0.5, 0.0, 0.0);
+  g_assert_cmpstr (row[7], ==, "");
+  g_assert_cmpstr (row[9], ==, "");
+  g_assert_cmpstr (row[11], ==, "");   /* no steering radius */
+  g_assert_cmpstr (row[12], ==, "false");
+  df_assert_close (parse_double (row[5]), 0.5, 0.0, 0.0);
+
+  row = rows->pdata[3];
+  g_assert_cmpuint (g_strv_length (row), ==, 14);
+  g_assert_cmpstr (row[0], ==, "Broken ply");
+  g_assert_cmpstr (row[1], ==, "not measured");
+  g_assert_cmpstr (row[4], ==, "");
+  g_assert_cmpstr (row[13], ==, failures[2]);
 }
 
 /* Geodesic samples: a geodesic started along the equator of a sphere stays on it (great
@@ -241,11 +272,12 @@ test_geodesic_csv (void)
   g_autofree char *path = tmp_path ("geodesic.csv");
   g_autofree char *text = NULL;
   g_autoptr (GPtrArray) rows = NULL;
-  g_auto (GStrv) header = g_strsplit ("s,u,v,x,y,z,tx,ty,tz", ",", -1);
+  g_auto (GStrv) header = g_strsplit ("s_mm,t,phi_rad,x_mm,y_mm,z_mm,tx,ty,tz", ",", -1);
+  df_csv_context csv = { "mm", DF_SURFACE_REVOLUTION, NULL, NULL };
 
   g_assert_true (df_geodesic_shoot (sphere, G_PI / 2, 0.0, G_PI / 2, 100.0, 21, &result, NULL)
                  == DF_OK);
-  g_assert_true (df_geodesic_samples_write (path, &result, &error));
+  g_assert_true (df_geodesic_samples_write (path, &result, &csv, &error));
   g_assert_no_error (error);
   g_assert_true (g_file_get_contents (path, &text, NULL, &error));
   rows = parse_csv (text);

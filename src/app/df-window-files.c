@@ -364,6 +364,20 @@ export_item (DfWindow *self)
   return NULL;
 }
 
+/* What the exported CSV says about itself; label names the project (it must outlive the
+ * context). */
+static df_csv_context
+export_csv_context (DfWindow   *self,
+                    const char *label)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  df_csv_context c = { df_document_get_units (self->document),
+                       surface != NULL ? df_surface_get_kind (surface) : DF_SURFACE_GRAPH,
+                       label, surface != NULL ? df_surface_normal_side (surface) : NULL };
+
+  return c;
+}
+
 gboolean
 _df_window_export_samples (DfWindow    *self,
                            const char  *path,
@@ -386,7 +400,12 @@ _df_window_export_samples (DfWindow    *self,
                    df_loop_item_get_error (item) != NULL ? df_loop_item_get_error (item) : "");
       return FALSE;
     }
-  return df_loop_samples_write (path, result, error);
+  {
+    g_autofree char *title = df_document_get_title (self->document);
+    df_csv_context csv = export_csv_context (self, title);
+
+    return df_loop_samples_write (path, result, &csv, error);
+  }
 }
 
 gboolean
@@ -398,33 +417,37 @@ _df_window_export_summary (DfWindow    *self,
   guint n = g_list_model_get_n_items (loops);
   g_autoptr(GPtrArray) names = g_ptr_array_new ();
   g_autoptr(GPtrArray) results = g_ptr_array_new ();
-  g_autoptr(GString) skipped = g_string_new (NULL);
+  g_autoptr(GPtrArray) failures = g_ptr_array_new ();
+  g_autofree char *title = df_document_get_title (self->document);
+  df_csv_context csv = export_csv_context (self, title);
+  guint unmeasured = 0;
   gboolean ok;
 
+  /* A loop that is not measured keeps its row, with the reason, so the record is complete. */
   for (guint i = 0; i < n; i++)
     {
       g_autoptr(DfLoopItem) item = g_list_model_get_item (loops, i);
       const df_loop_result *result = df_loop_item_get_result (item);
 
-      if (result == NULL)
-        {
-          g_string_append_printf (skipped, "%s“%s”", skipped->len ? ", " : "",
-                                  df_loop_item_get_name (item));
-          continue;
-        }
       g_ptr_array_add (names, (gpointer) df_loop_item_get_name (item));
       g_ptr_array_add (results, (gpointer) result);
+      g_ptr_array_add (failures, (gpointer) (result != NULL ? NULL
+                                             : df_loop_item_get_error (item) != NULL
+                                               ? df_loop_item_get_error (item)
+                                               : "not measured yet"));
+      unmeasured += result == NULL;
     }
-  if (names->len == 0)
+  if (n == 0)
     {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "no loop is measured yet");
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "there is no loop to export");
       return FALSE;
     }
   ok = df_loop_summary_write (path, (const char *const *) names->pdata,
-                              (const df_loop_result *const *) results->pdata, names->len,
-                              df_document_get_units (self->document), error);
-  if (ok && skipped->len > 0)
-    _df_window_status (self, TRUE, "Summary written without %s (not measured).", skipped->str);
+                              (const df_loop_result *const *) results->pdata,
+                              (const char *const *) failures->pdata, n, &csv, error);
+  if (ok && unmeasured > 0)
+    _df_window_status (self, TRUE, "Summary written; %u loop%s not measured, listed with the "
+                       "reason.", unmeasured, unmeasured == 1 ? " is" : "s are");
   return ok;
 }
 

@@ -229,6 +229,15 @@ df_cli_kind_text (const df_surface *surface)
                                                            : "surface of revolution";
 }
 
+df_csv_context
+df_cli_csv_context (const df_surface_spec *spec, const df_surface *surface, const char *label)
+{
+  df_csv_context c = { spec->units, df_surface_get_kind (surface), label,
+                       df_surface_normal_side (surface) };
+
+  return c;
+}
+
 void
 df_cli_print_json (JsonBuilder *builder)
 {

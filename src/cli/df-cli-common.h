@@ -72,5 +72,10 @@ void      df_cli_chart_names         (const df_surface *surface, const char **u_
 /* "surface of revolution" or "graph z = f(x, y)". */
 const char *df_cli_kind_text         (const df_surface *surface);
 
+/* What the CSV outputs say about themselves: the unit, chart, surface label and normal side
+ * (pointers into spec, surface and label: they must outlive the context). */
+df_csv_context df_cli_csv_context    (const df_surface_spec *spec, const df_surface *surface,
+                                      const char *label);
+
 /* Prints a finished JSON document (builder's root) on stdout. */
 void      df_cli_print_json          (JsonBuilder *builder);

@@ -71,9 +71,13 @@ run (geodesic_options *o)
       g_prefix_error (&error, "--from %s: ", o->from_text);
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
-  if (o->samples_path != NULL
-      && !df_geodesic_samples_write (o->samples_path, &result, &error))
-    return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+  if (o->samples_path != NULL)
+    {
+      df_csv_context csv = df_cli_csv_context (spec, surface, o->surface.label);
+
+      if (!df_geodesic_samples_write (o->samples_path, &result, &csv, &error))
+        return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+    }
 
   if (o->json)
     {

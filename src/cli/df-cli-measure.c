@@ -150,8 +150,13 @@ run (measure_options *o)
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
 
-  if (o->samples_path != NULL && !df_loop_samples_write (o->samples_path, &result, &error))
-    return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+  if (o->samples_path != NULL)
+    {
+      df_csv_context csv = df_cli_csv_context (spec, surface, o->surface.label);
+
+      if (!df_loop_samples_write (o->samples_path, &result, &csv, &error))
+        return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+    }
 
   if (o->json)
     print_json (o, spec, surface, &result, lopt.rel_tol);

@@ -181,9 +181,17 @@ run (report_options *o)
                                    (const char *const *) failures, o->paper, o->pdf_path, &error))
     code = df_cli_fail (NAME, error,
                         error->code == DF_IO_ERROR_VALUE ? DF_CLI_EXIT_INPUT : DF_CLI_EXIT_OUTPUT);
-  if (code == DF_CLI_EXIT_OK && o->summary_path != NULL
-      && !df_loop_summary_write (o->summary_path, names, ptrs, n, project->spec->units, &error))
-    code = df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+  if (code == DF_CLI_EXIT_OK && o->summary_path != NULL)
+    {
+      df_csv_context csv = df_cli_csv_context (project->spec, surface, o->project_path);
+
+      for (guint i = 0; i < n; i++)
+        if (failures[i] != NULL)
+          ptrs[i] = NULL;
+      if (!df_loop_summary_write (o->summary_path, names, ptrs, (const char *const *) failures, n,
+                                  &csv, &error))
+        code = df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+    }
   if (code == DF_CLI_EXIT_OK)
     {
       if (o->json)

@@ -381,18 +381,48 @@ df_loop_csv_write_points (const char *path, const double (*uv)[2], gsize n, GErr
   return df_write_file_atomic (path, out->str, (gssize) out->len, error);
 }
 
-char *
-df_loop_samples_to_csv (const df_loop_result *result)
+/* The unit as a column-name suffix: letters and digits only ("mm", "in"); "unit" if none. */
+static char *
+unit_suffix (const df_csv_context *c)
 {
-  GString *out = g_string_new ("s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K" CSV_EOL);
+  const char *u = c != NULL && c->units != NULL ? c->units : "mm";
+  GString *out = g_string_new (NULL);
 
+  for (const char *p = u; *p; p++)
+    if (g_ascii_isalnum (*p))
+      g_string_append_c (out, *p);
+  if (out->len == 0)
+    g_string_append (out, "unit");
+  return g_string_free (out, FALSE);
+}
+
+static void
+append_chart_header (GString *out, const df_csv_context *c, const char *u)
+{
+  if (c != NULL && c->kind == DF_SURFACE_REVOLUTION)
+    g_string_append (out, "t,phi_rad");
+  else
+    g_string_append_printf (out, "u_%s,v_%s", u, u);
+}
+
+char *
+df_loop_samples_to_csv (const df_loop_result *result, const df_csv_context *context)
+{
+  g_autofree char *u = unit_suffix (context);
+  GString *out = g_string_new (NULL);
+
+  g_string_append_printf (out, "s_%s,", u);
+  append_chart_header (out, context, u);
+  g_string_append_printf (out, ",x_%s,y_%s,z_%s,vx,vy,vz,angle_deg,angle_unwrapped_deg,"
+                          "k_g_per_%s,K_per_%s2" CSV_EOL, u, u, u, u, u);
   for (gsize i = 0; i < result->n_samples; i++)
     {
       const df_loop_sample *s = &result->samples[i];
       /* At a pole the angle v is arbitrary: leave the field empty rather than invent one. */
-      double row[12] = { s->s, s->u, s->at_pole ? NAN : s->v,
+      double row[13] = { s->s, s->u, s->at_pole ? NAN : s->v,
                          s->point[0], s->point[1], s->point[2],
                          s->vector[0], s->vector[1], s->vector[2],
+                         df_wrap_angle (s->angle_rad) * 180.0 / G_PI,
                          s->angle_rad * 180.0 / G_PI, s->k_g, s->K };
 
       append_row (out, row, G_N_ELEMENTS (row));
@@ -401,38 +431,56 @@ df_loop_samples_to_csv (const df_loop_result *result)
 }
 
 gboolean
-df_loop_samples_write (const char *path, const df_loop_result *result, GError **error)
+df_loop_samples_write (const char *path, const df_loop_result *result,
+                       const df_csv_context *context, GError **error)
 {
-  g_autofree char *text = df_loop_samples_to_csv (result);
+  g_autofree char *text = df_loop_samples_to_csv (result, context);
 
   return df_write_file_atomic (path, text, -1, error);
 }
 
 char *
-df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *results, gsize n,
-                        const char *units)
+df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *results,
+                        const char *const *failures, gsize n, const df_csv_context *context)
 {
-  GString *out = g_string_new ("name,holonomy_deg,holonomy_rad,enclosed_curvature_rad,"
-                               "gauss_bonnet_residual_rad,total_geodesic_curvature_rad,area,"
-                               "length,min_steering_radius,bounds_disc,units" CSV_EOL);
+  g_autofree char *u = unit_suffix (context);
+  GString *out = g_string_new (NULL);
 
+  g_string_append_printf (out, "name,status,surface,normal_side,holonomy_deg,holonomy_rad,"
+                          "enclosed_curvature_rad,gauss_bonnet_residual_rad,"
+                          "total_geodesic_curvature_rad,area_%s2,length_%s,"
+                          "min_steering_radius_%s,bounds_disc,note" CSV_EOL, u, u, u);
   for (gsize i = 0; i < n; i++)
     {
       const df_loop_result *r = results[i];
-      double disc = r->bounds_disc ? 1.0 : NAN;
-      double row[8] = { r->holonomy_rad * 180.0 / G_PI, r->holonomy_rad,
-                        r->enclosed_curvature_rad * disc, r->residual_rad * disc,
-                        r->total_geodesic_curvature_rad, r->area * disc, r->length,
-                        r->has_steering_radius ? r->min_steering_radius : NAN };
 
       append_text_field (out, names != NULL ? names[i] : NULL);
-      for (gsize k = 0; k < G_N_ELEMENTS (row); k++)
+      g_string_append_printf (out, ",%s,", r != NULL ? "measured" : "not measured");
+      append_text_field (out, context != NULL ? context->surface : NULL);
+      g_string_append_c (out, ',');
+      append_text_field (out, context != NULL ? context->normal_side : NULL);
+      if (r != NULL)
         {
-          g_string_append_c (out, ',');
-          append_number (out, row[k]);
+          double disc = r->bounds_disc ? 1.0 : NAN;
+          double row[8] = { r->holonomy_rad * 180.0 / G_PI, r->holonomy_rad,
+                            r->enclosed_curvature_rad * disc, r->residual_rad * disc,
+                            r->total_geodesic_curvature_rad, r->area * disc, r->length,
+                            r->has_steering_radius ? r->min_steering_radius : NAN };
+
+          for (gsize k = 0; k < G_N_ELEMENTS (row); k++)
+            {
+              g_string_append_c (out, ',');
+              append_number (out, row[k]);
+            }
+          g_string_append_printf (out, ",%s,", r->bounds_disc ? "true" : "false");
+          append_text_field (out, r->disc_note);
         }
-      g_string_append_printf (out, ",%s,", r->bounds_disc ? "true" : "false");
-      append_text_field (out, units);
+      else
+        {
+          /* Eight empty figures and an empty bounds_disc, then the reason. */
+          g_string_append (out, ",,,,,,,,,,");
+          append_text_field (out, failures != NULL ? failures[i] : NULL);
+        }
       g_string_append (out, CSV_EOL);
     }
   return g_string_free (out, FALSE);
@@ -440,19 +488,24 @@ df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *r
 
 gboolean
 df_loop_summary_write (const char *path, const char *const *names,
-                       const df_loop_result *const *results, gsize n, const char *units,
-                       GError **error)
+                       const df_loop_result *const *results, const char *const *failures,
+                       gsize n, const df_csv_context *context, GError **error)
 {
-  g_autofree char *text = df_loop_summary_to_csv (names, results, n, units);
+  g_autofree char *text = df_loop_summary_to_csv (names, results, failures, n, context);
 
   return df_write_file_atomic (path, text, -1, error);
 }
 
 gboolean
-df_geodesic_samples_write (const char *path, const df_geodesic_result *result, GError **error)
+df_geodesic_samples_write (const char *path, const df_geodesic_result *result,
+                           const df_csv_context *context, GError **error)
 {
-  g_autoptr (GString) out = g_string_new ("s,u,v,x,y,z,tx,ty,tz" CSV_EOL);
+  g_autofree char *u = unit_suffix (context);
+  g_autoptr (GString) out = g_string_new (NULL);
 
+  g_string_append_printf (out, "s_%s,", u);
+  append_chart_header (out, context, u);
+  g_string_append_printf (out, ",x_%s,y_%s,z_%s,tx,ty,tz" CSV_EOL, u, u, u);
   for (gsize i = 0; i < result->n_samples; i++)
     {
       const df_geodesic_sample *s = &result->samples[i];

@@ -31,20 +31,37 @@ gboolean df_loop_csv_parse       (const char       *text,
 gboolean df_loop_csv_write_points (const char *path, const double (*uv)[2], gsize n,
                                    GError **error);
 
-/* Per-sample CSV of a measured loop: s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K (atomic). */
-char    *df_loop_samples_to_csv  (const df_loop_result *result);
+/* What a written CSV says about itself: column names carry the length unit (s_mm, k_g_per_mm,
+ * K_per_mm2) and the summary names the surface and the side N points to. units NULL: "mm". */
+typedef struct
+{
+  const char     *units;        /* length unit as the project names it: "mm", "m", "in" */
+  df_surface_type kind;         /* chart names: (t, phi_rad) or (u_<unit>, v_<unit>) */
+  const char     *surface;      /* the surface file or preset, for the summary */
+  const char     *normal_side;  /* df_surface_normal_side */
+} df_csv_context;
+
+/* Per-sample CSV of a measured loop (atomic): for units mm on a graph
+ * s_mm,u_mm,v_mm,x_mm,y_mm,z_mm,vx,vy,vz,angle_deg,angle_unwrapped_deg,k_g_per_mm,K_per_mm2
+ * (a surface of revolution has t,phi_rad for the chart). angle_deg is the fibre angle to the
+ * path wrapped to (-180, 180]; angle_unwrapped_deg follows it continuously from 0. */
+char    *df_loop_samples_to_csv  (const df_loop_result *result, const df_csv_context *context);
 gboolean df_loop_samples_write   (const char *path, const df_loop_result *result,
-                                  GError **error);
+                                  const df_csv_context *context, GError **error);
 
-/* One row per loop: name,holonomy_deg,holonomy_rad,enclosed_curvature_rad,
- * gauss_bonnet_residual_rad,total_geodesic_curvature_rad,area,length,min_steering_radius,
- * bounds_disc,units. Values that do not exist are empty fields. */
+/* One row per loop: name,status,surface,normal_side,holonomy_deg,holonomy_rad,
+ * enclosed_curvature_rad,gauss_bonnet_residual_rad,total_geodesic_curvature_rad,area_<u>2,
+ * length_<u>,min_steering_radius_<u>,bounds_disc,note. A loop whose results[i] is NULL has
+ * status "not measured" and failures[i] (may be NULL) as its note; values that do not exist
+ * are empty fields. */
 char    *df_loop_summary_to_csv  (const char *const *names, const df_loop_result *const *results,
-                                  gsize n, const char *units);
+                                  const char *const *failures, gsize n,
+                                  const df_csv_context *context);
 gboolean df_loop_summary_write   (const char *path, const char *const *names,
-                                  const df_loop_result *const *results, gsize n,
-                                  const char *units, GError **error);
+                                  const df_loop_result *const *results,
+                                  const char *const *failures, gsize n,
+                                  const df_csv_context *context, GError **error);
 
-/* Geodesic samples: s,u,v,x,y,z,tx,ty,tz (atomic). */
+/* Geodesic samples: s_<u>, the chart pair, x_<u>,y_<u>,z_<u>,tx,ty,tz (atomic). */
 gboolean df_geodesic_samples_write (const char *path, const df_geodesic_result *result,
-                                    GError **error);
+                                    const df_csv_context *context, GError **error);
