@@ -115,7 +115,8 @@ number_after (const char *text, const char *label)
 
   g_assert_nonnull (p);
   p += strlen (label);
-  while (*p == ' ')
+  /* Past the column gap and any opening bracket, to the number. */
+  while (*p != '\0' && *p != '\n' && strchr ("+-0123456789", *p) == NULL)
     p++;
   return g_ascii_strtod (p, NULL);
 }
@@ -339,6 +340,128 @@ test_record_round_trip (void)
   g_assert_nonnull (strstr (error->message, "odd.dfproj: [record] unknown key 'sponsor'"));
 }
 
+/* Geodesics, path pairs, probe points and the view: saved, reloaded, and in the record. */
+static const char extras_text[] =
+  "[geodesic 1]\nname=Meridian run\nstart=1.5707963267948966;0\nheading-deg=0\nlength=50\n\n"
+  "[paths 1]\nname=Two routes\na-u=1.0;1.2;1.4\na-v=0;0;0\nb-u=1.0;1.1;1.3;1.4\n"
+  "b-v=0;0.2;0.2;0\n\n"
+  "[probe 1]\nname=Shoulder\nat=1.0;0.5\n\n"
+  "[view]\ncolouring=mean\nyaw-deg=-20\npitch-deg=35\n";
+
+static void
+test_extras_round_trip (void)
+{
+  g_autofree char *base = sphere_project ("extras-base.dfproj", 0.7, 32);
+  g_autofree char *text = NULL;
+  g_autofree char *saved = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autoptr (df_project) p = NULL;
+  g_autoptr (df_project) q = NULL;
+  const df_project_paths *pp;
+
+  g_assert_true (g_file_get_contents (base, &text, NULL, NULL));
+  {
+    g_autofree char *all = g_strconcat (text, "\n", extras_text, NULL);
+
+    p = df_project_from_data (all, "extras.dfproj", &error);
+  }
+  g_assert_no_error (error);
+  g_assert_cmpuint (p->extras.geodesics->len, ==, 1);
+  g_assert_cmpuint (p->extras.paths->len, ==, 1);
+  g_assert_cmpuint (p->extras.probes->len, ==, 1);
+  g_assert_true (p->extras.view.set);
+  saved = df_project_to_data (p);
+  q = df_project_from_data (saved, "saved.dfproj", &error);
+  g_assert_no_error (error);
+  g_assert_cmpstr (((df_project_geodesic *) q->extras.geodesics->pdata[0])->name, ==,
+                   "Meridian run");
+  g_assert_true (((df_project_geodesic *) q->extras.geodesics->pdata[0])->u == G_PI / 2);
+  pp = q->extras.paths->pdata[0];
+  g_assert_cmpuint (pp->n_a, ==, 3);
+  g_assert_cmpuint (pp->n_b, ==, 4);
+  g_assert_true (pp->b[1][1] == 0.2);
+  g_assert_cmpstr (q->extras.view.colouring, ==, "mean");
+  g_assert_true (q->extras.view.pitch_deg == 35);
+  g_assert_true (((df_project_probe *) q->extras.probes->pdata[0])->v == 0.5);
+}
+
+static void
+test_extras_bad (void)
+{
+  static const struct
+  {
+    const char *group;
+    const char *message;
+  } cases[] = {
+    { "[view]\npitch-deg=100\n", "bad.dfproj: [view] pitch-deg: must lie in [-90, 90]" },
+    { "[view]\ncolouring=rainbow\n", "[view] colouring: 'rainbow' is not one of" },
+    { "[geodesic 1]\nstart=1\nheading-deg=0\nlength=5\n",
+      "[geodesic 1] start: expected two numbers u;v, found 1 value" },
+    { "[geodesic 1]\nstart=1;0\nheading-deg=0\nlength=-5\n",
+      "[geodesic 1] length: must be greater than 0" },
+    { "[geodesic 1]\nstart=1;0\nheading-deg=0\nlength=5\ncolour=red\n",
+      "[geodesic 1] unknown key 'colour'" },
+    { "[paths 1]\na-u=1;2\na-v=0;0\nb-u=1;2;3\nb-v=0;0\n", "[paths 1] b-u: 3 values but b-v has 2" },
+    { "[probe 1]\nat=x;1\n", "[probe 1] at: value 1 'x' is not a number" },
+    { "[probe x]\nat=1;1\n", "unknown group [probe x]" },
+  };
+  g_autofree char *base = sphere_project ("extras-bad.dfproj", 0.7, 32);
+  g_autofree char *text = NULL;
+
+  g_assert_true (g_file_get_contents (base, &text, NULL, NULL));
+  for (gsize i = 0; i < G_N_ELEMENTS (cases); i++)
+    {
+      g_autofree char *all = g_strconcat (text, "\n", cases[i].group, NULL);
+      g_autoptr (GError) error = NULL;
+      g_autoptr (df_project) p = df_project_from_data (all, "bad.dfproj", &error);
+
+      g_assert_null (p);
+      g_assert_nonnull (error);
+      g_test_message ("%s", error->message);
+      g_assert_nonnull (strstr (error->message, cases[i].message));
+    }
+}
+
+/* The record lists the geodesic, the path pair and the probe with figures from closed forms:
+ * on a sphere of radius R a geodesic from the equator heading along the meridian stays on it,
+ * so after length L it is at polar angle pi/2 + L/R (great circles, do Carmo sec. 4-4, from
+ * memory); K = 1/R^2 everywhere. */
+static void
+test_extras_in_record (void)
+{
+  g_autofree char *base = sphere_project ("extras-rec.dfproj", 0.7, 32);
+  g_autofree char *text = NULL;
+  g_autofree char *path = NULL;
+  g_autofree char *pdf = g_build_filename (tmp_dir, "extras.pdf", NULL);
+  g_autofree char *out = NULL;
+  g_auto (run_result) r = { 0 };
+  const char *sec;
+
+  if (!have_poppler ())
+    return;
+  g_assert_true (g_file_get_contents (base, &text, NULL, NULL));
+  {
+    g_autofree char *all = g_strconcat (text, "\n", extras_text, NULL);
+
+    path = write_tmp ("extras.dfproj", all);
+  }
+  {
+    const char *argv[] = { DF_CLI_PATH, "report", "--project", path, "--pdf", pdf, NULL };
+
+    run (&r, argv);
+  }
+  g_assert_cmpint (r.status, ==, 0);
+  out = pdf_text (pdf);
+  sec = strstr (out, "Geodesic 1: Meridian run");
+  g_assert_nonnull (sec);
+  df_assert_close (number_after (sec, "End (chart)") , G_PI / 2 + 0.5, 1e-7, 0);
+  g_assert_nonnull (strstr (out, "Path pair 1: Two routes"));
+  g_assert_nonnull (strstr (out, "Rotation from A to B"));
+  sec = strstr (out, "Probe 1: Shoulder");
+  g_assert_nonnull (sec);
+  df_assert_close (number_after (sec, "Gaussian curvature K"), 1e-4, 1e-8, 0);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -353,6 +476,9 @@ main (int argc, char **argv)
   g_test_add_func ("/report/letter-and-bad-paper", test_letter_and_bad_paper);
   g_test_add_func ("/report/unmeasured-loop-listed", test_unmeasured_loop_listed);
   g_test_add_func ("/report/record-round-trip", test_record_round_trip);
+  g_test_add_func ("/report/extras-round-trip", test_extras_round_trip);
+  g_test_add_func ("/report/extras-bad", test_extras_bad);
+  g_test_add_func ("/report/extras-in-record", test_extras_in_record);
   status = g_test_run ();
   {
     g_autoptr (GDir) dir = g_dir_open (tmp_dir, 0, NULL);

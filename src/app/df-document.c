@@ -22,6 +22,9 @@ struct _DfDocument
   char            *last_label;
   char            *display_name;
   gboolean         modified;
+  /* The title block, geodesics, path pairs, probes and view of the project as loaded: kept so
+   * that saving from the app writes them back (the app does not edit them yet). */
+  df_project      *carried;
 };
 
 G_DEFINE_FINAL_TYPE (DfDocument, df_document, G_TYPE_OBJECT)
@@ -80,6 +83,7 @@ df_document_finalize (GObject *object)
   g_free (self->saved_snapshot);
   g_free (self->last_label);
   g_free (self->display_name);
+  df_project_free (self->carried);
   G_OBJECT_CLASS (df_document_parent_class)->finalize (object);
 }
 
@@ -157,6 +161,8 @@ df_document_to_project (DfDocument *self)
   g_return_val_if_fail (self->spec != NULL, NULL);
 
   project = df_project_new (df_surface_spec_copy (self->spec));
+  if (self->carried != NULL)
+    df_project_copy_meta (project, self->carried);
   n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
   for (guint i = 0; i < n; i++)
     {
@@ -280,6 +286,9 @@ replace_state (DfDocument  *self,
 
   df_surface_spec_free (self->spec);
   self->spec = df_surface_spec_copy (project->spec);
+  df_project_free (self->carried);
+  self->carried = df_project_new (df_surface_spec_copy (project->spec));
+  df_project_copy_meta (self->carried, project);
   df_surface_free (self->surface);
   self->surface = g_steal_pointer (&surface);
 

@@ -3,9 +3,225 @@
  * CLI layer: computes nothing. */
 #include "df-cli-report-pdf.h"
 
+#include <math.h>
+#include <string.h>
+
 #include "df-cli-common.h"
 #include "df-io-error.h"
 #include "df-report.h"
+
+/* Strings and arrays that the report points into, freed together. */
+typedef struct
+{
+  GPtrArray *strings;
+  GArray    *curves;     /* df_report_curve */
+  GArray    *sections;   /* df_report_section */
+  GPtrArray *field_arrays;  /* GArray of df_report_field, one per section */
+  GPtrArray *points;        /* point arrays of the curves */
+} extras_out;
+
+static const char *
+keep (extras_out *x, char *s)
+{
+  g_ptr_array_add (x->strings, s);
+  return s;
+}
+
+static const char *
+num (extras_out *x, double v, int digits)
+{
+  if (!isfinite (v))
+    return "n/a";
+  return keep (x, g_strdup_printf ("%.*g", digits, v));
+}
+
+static void
+add_section (extras_out *x, const char *title, GArray *fields)
+{
+  df_report_section sec = { title, (const df_report_field *) fields->data, fields->len };
+
+  g_ptr_array_add (x->field_arrays, fields);
+  g_array_append_val (x->sections, sec);
+}
+
+static void
+field (GArray *fields, const char *key, const char *value)
+{
+  df_report_field f = { .key = key, .value = value };
+
+  g_array_append_val (fields, f);
+}
+
+static void
+add_curve (extras_out *x, const char *name, double r, double g, double b, double (*xyz)[3],
+           gsize n)
+{
+  df_report_curve c = { name, { r, g, b }, (const double (*)[3]) xyz, n };
+
+  g_ptr_array_add (x->points, xyz);
+  g_array_append_val (x->curves, c);
+}
+
+static void
+geodesic_sections (extras_out *x, const df_project *project, const df_surface *surface,
+                   const char *u)
+{
+  for (guint i = 0; i < project->extras.geodesics->len; i++)
+    {
+      const df_project_geodesic *g = g_ptr_array_index (project->extras.geodesics, i);
+      GArray *fields = g_array_new (FALSE, TRUE, sizeof (df_report_field));
+      df_geodesic_result res = { 0 };
+      df_diag diag;
+      df_status st;
+
+      df_diag_clear (&diag);
+      st = df_geodesic_shoot (surface, g->u, g->v, g->heading_deg * G_PI / 180, g->length, 201,
+                              &res, &diag);
+      field (fields, "Start (chart)", keep (x, g_strdup_printf ("(%s, %s)", num (x, g->u, 10),
+                                                                  num (x, g->v, 10))));
+      field (fields, "Heading", keep (x, g_strdup_printf ("%s\xc2\xb0 from +u, anticlockwise "
+                                                          "about N", num (x, g->heading_deg, 8))));
+      field (fields, "Length asked", keep (x, g_strdup_printf ("%s %s", num (x, g->length, 8), u)));
+      if (st != DF_OK)
+        {
+          g_autoptr (GError) error = NULL;
+
+          df_status_to_gerror (st, &diag, &error);
+          field (fields, "Not traced", keep (x, g_strdup (error->message)));
+        }
+      else
+        {
+          double (*xyz)[3] = g_malloc_n (MAX (res.n_samples, 1), sizeof (double[3]));
+          const df_geodesic_sample *end = &res.samples[res.n_samples - 1];
+
+          for (gsize k = 0; k < res.n_samples; k++)
+            memcpy (xyz[k], res.samples[k].point, sizeof xyz[k]);
+          add_curve (x, g->name, 0.35, 0.2, 0.55, xyz, res.n_samples);
+          field (fields, "Length traced", keep (x, g_strdup_printf ("%s %s", num (x, res.length, 8),
+                                                                    u)));
+          field (fields, "End (chart)", keep (x, g_strdup_printf ("(%s, %s)", num (x, end->u, 10),
+                                                                  num (x, end->v, 10))));
+          field (fields, "End (space)",
+                 keep (x, g_strdup_printf ("(%s, %s, %s) %s", num (x, end->point[0], 8),
+                                           num (x, end->point[1], 8), num (x, end->point[2], 8),
+                                           u)));
+          if (res.stopped_early)
+            field (fields, "Stopped", keep (x, g_strdup (res.stop_reason)));
+        }
+      add_section (x, keep (x, g_strdup_printf ("Geodesic %u: %s", i + 1, g->name)), fields);
+      df_geodesic_result_clear (&res);
+    }
+}
+
+static df_status
+open_curve (const df_surface *surface, const double (*uv)[2], gsize n, df_curve **out,
+            df_diag *diag)
+{
+  df_diag_clear (diag);
+  return df_curve_new_through_points (surface, uv, n, false, out, diag);
+}
+
+static void
+paths_sections (extras_out *x, const df_project *project, const df_surface *surface,
+                const char *u)
+{
+  for (guint i = 0; i < project->extras.paths->len; i++)
+    {
+      const df_project_paths *p = g_ptr_array_index (project->extras.paths, i);
+      GArray *fields = g_array_new (FALSE, TRUE, sizeof (df_report_field));
+      g_autoptr (df_curve) a = NULL;
+      g_autoptr (df_curve) b = NULL;
+      df_transport_options topt;
+      df_transport_result ra = { 0 }, rb = { 0 };
+      double angle = NAN;
+      df_diag diag;
+      df_status st;
+
+      df_transport_options_init (&topt);
+      topt.n_out = 101;
+      st = open_curve (surface, (const double (*)[2]) p->a, p->n_a, &a, &diag);
+      if (st == DF_OK)
+        st = open_curve (surface, (const double (*)[2]) p->b, p->n_b, &b, &diag);
+      if (st == DF_OK)
+        {
+          df_diag_clear (&diag);
+          st = df_compare_paths (a, b, NULL, &topt, &angle, &ra, &rb, &diag);
+        }
+      if (st != DF_OK)
+        {
+          g_autoptr (GError) error = NULL;
+
+          df_status_to_gerror (st, &diag, &error);
+          field (fields, "Not compared", keep (x, g_strdup (error->message)));
+        }
+      else
+        {
+          const df_transport_result *rs[2] = { &ra, &rb };
+
+          for (int k = 0; k < 2; k++)
+            {
+              double (*xyz)[3] = g_malloc_n (MAX (rs[k]->n_samples, 1), sizeof (double[3]));
+
+              for (gsize j = 0; j < rs[k]->n_samples; j++)
+                memcpy (xyz[j], rs[k]->samples[j].x, sizeof xyz[j]);
+              add_curve (x, keep (x, g_strdup_printf ("%s %c", p->name, k ? 'B' : 'A')), 0.1,
+                         k ? 0.45 : 0.3, k ? 0.3 : 0.6, xyz, rs[k]->n_samples);
+            }
+          field (fields, "Rotation from A to B",
+                 keep (x, g_strdup_printf ("%s\xc2\xb0 at the common end, anticlockwise about N "
+                                           "(the start vector carried along each)",
+                                           num (x, angle * 180 / G_PI, 8))));
+          field (fields, "Length of A", keep (x, g_strdup_printf ("%s %s", num (x, ra.length, 8),
+                                                                  u)));
+          field (fields, "Length of B", keep (x, g_strdup_printf ("%s %s", num (x, rb.length, 8),
+                                                                  u)));
+        }
+      add_section (x, keep (x, g_strdup_printf ("Path pair %u: %s", i + 1, p->name)), fields);
+      df_transport_result_clear (&ra);
+      df_transport_result_clear (&rb);
+    }
+}
+
+static void
+probe_sections (extras_out *x, const df_project *project, const df_surface *surface,
+                const char *u)
+{
+  for (guint i = 0; i < project->extras.probes->len; i++)
+    {
+      const df_project_probe *p = g_ptr_array_index (project->extras.probes, i);
+      GArray *fields = g_array_new (FALSE, TRUE, sizeof (df_report_field));
+      df_point_geometry geo;
+      df_diag diag;
+      df_status st;
+
+      df_diag_clear (&diag);
+      st = df_surface_geometry (surface, p->u, p->v, &geo, &diag);
+      field (fields, "At (chart)", keep (x, g_strdup_printf ("(%s, %s)", num (x, p->u, 10),
+                                                             num (x, p->v, 10))));
+      if (st != DF_OK)
+        {
+          g_autoptr (GError) error = NULL;
+
+          df_status_to_gerror (st, &diag, &error);
+          field (fields, "Not evaluated", keep (x, g_strdup (error->message)));
+        }
+      else
+        {
+          field (fields, "Point (space)",
+                 keep (x, g_strdup_printf ("(%s, %s, %s) %s", num (x, geo.point[0], 8),
+                                           num (x, geo.point[1], 8), num (x, geo.point[2], 8),
+                                           u)));
+          field (fields, "Gaussian curvature K",
+                 keep (x, g_strdup_printf ("%s 1/%s\xc2\xb2", num (x, geo.K, 8), u)));
+          field (fields, "Mean curvature H", keep (x, g_strdup_printf ("%s 1/%s", num (x, geo.H, 8),
+                                                                       u)));
+          field (fields, "Principal curvatures",
+                 keep (x, g_strdup_printf ("k1 = %s, k2 = %s 1/%s", num (x, geo.k1, 8),
+                                           num (x, geo.k2, 8), u)));
+        }
+      add_section (x, keep (x, g_strdup_printf ("Probe %u: %s", i + 1, p->name)), fields);
+    }
+}
 
 gboolean
 df_cli_report_write_pdf (const char *project_path, const df_project *project,
@@ -17,6 +233,7 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   df_report_fields fields;
   g_autofree df_report_loop *loops = NULL;
   g_autofree char *base = g_path_get_basename (project_path);
+  extras_out x;
   gboolean ok;
 
   if (!df_paper_from_name (paper != NULL ? paper : "a4", &report.paper))
@@ -25,6 +242,11 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
                    "--paper: '%s' is not a paper size (a4 or letter)", paper);
       return FALSE;
     }
+  x.strings = g_ptr_array_new_with_free_func (g_free);
+  x.curves = g_array_new (FALSE, TRUE, sizeof (df_report_curve));
+  x.sections = g_array_new (FALSE, TRUE, sizeof (df_report_section));
+  x.field_arrays = g_ptr_array_new_with_free_func ((GDestroyNotify) g_array_unref);
+  x.points = g_ptr_array_new_with_free_func (g_free);
   df_report_fields_init (&fields);
   df_report_fields_add_file (&fields, "Project file", project_path);
   df_report_fields_add_spec (&fields, project->spec, surface);
@@ -54,7 +276,23 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   report.loops = loops;
   report.n_loops = project->loops->len;
   report.caution = DF_CLI_CAUTION;
+  report.view_yaw_deg = project->extras.view.set ? project->extras.view.yaw_deg
+                                                 : DF_REPORT_DEFAULT_YAW_DEG;
+  report.view_pitch_deg = project->extras.view.set ? project->extras.view.pitch_deg
+                                                   : DF_REPORT_DEFAULT_PITCH_DEG;
+  geodesic_sections (&x, project, surface, report.units);
+  paths_sections (&x, project, surface, report.units);
+  probe_sections (&x, project, surface, report.units);
+  report.curves = (const df_report_curve *) x.curves->data;
+  report.n_curves = x.curves->len;
+  report.sections = (const df_report_section *) x.sections->data;
+  report.n_sections = x.sections->len;
   ok = df_report_write_pdf (&report, out_path, error);
   df_report_fields_clear (&fields);
+  g_ptr_array_unref (x.strings);
+  g_array_unref (x.curves);
+  g_array_unref (x.sections);
+  g_ptr_array_unref (x.field_arrays);
+  g_ptr_array_unref (x.points);
   return ok;
 }

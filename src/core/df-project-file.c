@@ -20,6 +20,7 @@ df_project_new (df_surface_spec *spec)
 
   project->spec = spec;
   project->loops = g_ptr_array_new_with_free_func ((GDestroyNotify) df_project_loop_free);
+  df_project_extras_init (&project->extras);
   return project;
 }
 
@@ -34,6 +35,7 @@ df_project_free (df_project *project)
   g_free (project->record.part_number);
   g_free (project->record.revision);
   g_free (project->record.author);
+  df_project_extras_clear (&project->extras);
   g_free (project);
 }
 
@@ -220,6 +222,8 @@ read_loop (GKeyFile *key_file, const char *group, const char *source, const df_s
   return loop;
 }
 
+static const char *const record_keys[] = { "title", "part-number", "revision", "author", NULL };
+
 /* The title block's keys in file order, and where each lives. */
 static char **
 record_slot (df_project_record *r, const char *key)
@@ -235,7 +239,14 @@ record_slot (df_project_record *r, const char *key)
   return NULL;
 }
 
-static const char *const record_keys[] = { "title", "part-number", "revision", "author", NULL };
+void
+df_project_copy_meta (df_project *dst, const df_project *src)
+{
+  for (gsize k = 0; record_keys[k] != NULL; k++)
+    df_project_set_record (dst, record_keys[k],
+                           *record_slot ((df_project_record *) &src->record, record_keys[k]));
+  df_project_extras_copy (&dst->extras, &src->extras);
+}
 
 gboolean
 df_project_set_record (df_project *project, const char *key, const char *value)
@@ -279,13 +290,21 @@ read_record (GKeyFile *key_file, const char *source, df_project *project, GError
 static df_project *
 project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
 {
-  static const char *const groups_known[] = { "surface", "parameters", RECORD_GROUP, NULL };
+  g_autoptr (GPtrArray) groups_known = g_ptr_array_new ();
   g_autoptr (df_project) project = NULL;
   g_autoptr (df_surface) surface = NULL;
-  g_auto (GStrv) groups = NULL;
+  g_auto (GStrv) groups = g_key_file_get_groups (key_file, NULL);
   df_surface_spec *spec;
 
-  if (!_df_key_file_check_groups (key_file, source, groups_known, LOOP_PREFIX, error))
+  g_ptr_array_add (groups_known, (char *) "surface");
+  g_ptr_array_add (groups_known, (char *) "parameters");
+  g_ptr_array_add (groups_known, (char *) RECORD_GROUP);
+  for (gsize i = 0; groups[i] != NULL; i++)
+    if (df_project_extras_owns_group (groups[i]))
+      g_ptr_array_add (groups_known, groups[i]);
+  g_ptr_array_add (groups_known, NULL);
+  if (!_df_key_file_check_groups (key_file, source, (const char *const *) groups_known->pdata,
+                                  LOOP_PREFIX, error))
     return NULL;
   spec = df_surface_spec_from_key_file (key_file, source, error);
   if (spec == NULL)
@@ -295,8 +314,9 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
     return NULL;
   surface = df_surface_spec_build (spec, NULL);
 
+  if (!df_project_extras_read (&project->extras, key_file, source, error))
+    return NULL;
   /* Loops in file order, which is the order the user made them. */
-  groups = g_key_file_get_groups (key_file, NULL);
   for (gsize i = 0; groups[i] != NULL; i++)
     {
       df_project_loop *loop;
@@ -377,6 +397,7 @@ df_project_to_data (const df_project *project)
       g_key_file_set_string (key_file, group, "u", u);
       g_key_file_set_string (key_file, group, "v", v);
     }
+  df_project_extras_write (&project->extras, key_file);
   return g_key_file_to_data (key_file, NULL, NULL);
 }
 
@@ -387,4 +408,12 @@ df_project_save (const df_project *project, const char *path, GError **error)
 
   g_return_val_if_fail (data != NULL, FALSE);
   return df_write_file_atomic (path, data, -1, error);
+}
+
+/* For df-project-extras.c: the same list reader, so every list in a project reads alike. */
+double *
+_df_key_file_get_numbers (GKeyFile *key_file, const char *group, const char *key,
+                          const char *source, gsize *n_out, GError **error)
+{
+  return read_numbers (key_file, group, key, source, n_out, error);
 }

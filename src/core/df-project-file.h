@@ -11,6 +11,7 @@
 
 #include <glib.h>
 
+#include "df-project-extras.h"
 #include "df-surface-spec.h"
 
 typedef struct
@@ -36,6 +37,7 @@ typedef struct
 {
   df_surface_spec *spec;
   df_project_record record;  /* strings owned; NULL where not given */
+  df_project_extras extras;  /* geodesics, path pairs, probes, view */
   GPtrArray       *loops;  /* of df_project_loop*, owned (free func set) */
 } df_project;
 
@@ -45,6 +47,10 @@ void             df_project_free       (df_project *project);     /* NULL: no-op
 void             df_project_add_loop   (df_project *project, const char *name, const char *colour,
                                         gboolean show_frames, const double (*uv)[2], gsize n);
 void             df_project_loop_free  (df_project_loop *loop);
+/* Copies everything but the surface and the loops (the title block, geodesics, path pairs,
+ * probes, view) from src to dst: what an editor that rebuilds a project from its own state must
+ * carry over so that saving loses nothing. */
+void             df_project_copy_meta  (df_project *dst, const df_project *src);
 /* Replaces one title-block field (key "title", "part-number", "revision" or "author"; value
  * NULL or blank clears it). FALSE for an unknown key. */
 gboolean         df_project_set_record (df_project *project, const char *key, const char *value);

@@ -7,6 +7,7 @@
 
 #include <math.h>
 #include <stdlib.h>
+#include <string.h>
 
 #include "df-colour-ramp.h"
 #include "df-io-error.h"
@@ -39,11 +40,9 @@ typedef struct
 } view;
 
 static void
-view_init (view *v)
+view_init (view *v, double yaw_deg, double pitch_deg)
 {
-  /* Seen from above and in front, a little to the left: the angle a part is drawn at on a
-   * general-arrangement sheet, showing both its top and its side. */
-  const double az = -55.0 * M_PI / 180, el = 28.0 * M_PI / 180;
+  const double az = yaw_deg * M_PI / 180, el = fmax (-89.9, fmin (89.9, pitch_deg)) * M_PI / 180;
   const double z[3] = { 0, 0, 1 };
 
   v->eye[0] = cos (el) * cos (az);
@@ -266,9 +265,23 @@ format_number (char *buf, size_t len, double value)
     g_snprintf (buf, len, "%.3g", value);
 }
 
+/* Boxes of the labels placed so far, so that a label moves down past those it would cover
+ * (two curves that start at one point). */
+typedef struct
+{
+  double box[64][4];
+  int n;
+} label_boxes;
+
+static gboolean
+boxes_overlap (const double a[4], const double b[4])
+{
+  return a[0] < b[2] && b[0] < a[2] && a[1] < b[3] && b[1] < a[3];
+}
+
 static void
-draw_text (cairo_t *cr, double x, double y, const char *text, double size, gboolean centre,
-           gboolean backdrop)
+draw_text_placed (cairo_t *cr, double x, double y, const char *text, double size,
+                  gboolean centre, gboolean backdrop, label_boxes *placed)
 {
   cairo_text_extents_t ext;
 
@@ -277,6 +290,27 @@ draw_text (cairo_t *cr, double x, double y, const char *text, double size, gbool
   cairo_text_extents (cr, text, &ext);
   if (centre)
     x -= ext.width / 2 + ext.x_bearing;
+  if (placed != NULL)
+    {
+      double b[4];
+
+      for (int tries = 0; tries < 16; tries++)
+        {
+          gboolean clear = TRUE;
+
+          b[0] = x + ext.x_bearing - 2;
+          b[1] = y + ext.y_bearing - 1.5;
+          b[2] = b[0] + ext.width + 4;
+          b[3] = b[1] + ext.height + 3;
+          for (int k = 0; k < placed->n && clear; k++)
+            clear = !boxes_overlap (b, placed->box[k]);
+          if (clear)
+            break;
+          y += ext.height + 3;
+        }
+      if (placed->n < (int) G_N_ELEMENTS (placed->box))
+        memcpy (placed->box[placed->n++], b, sizeof b);
+    }
   if (backdrop)
     {
       cairo_save (cr);
@@ -288,6 +322,13 @@ draw_text (cairo_t *cr, double x, double y, const char *text, double size, gbool
     }
   cairo_move_to (cr, x, y);
   cairo_show_text (cr, text);
+}
+
+static void
+draw_text (cairo_t *cr, double x, double y, const char *text, double size, gboolean centre,
+           gboolean backdrop)
+{
+  draw_text_placed (cr, x, y, text, size, centre, backdrop, NULL);
 }
 
 static void
@@ -331,11 +372,13 @@ static void
 draw_curves (cairo_t *cr, const view *v, const depth_buffer *zb, double px, double ox,
              double oy, double tol, const df_picture_curve *curves, gsize n_curves)
 {
+  label_boxes placed = { .n = 0 };
+
   for (gsize c = 0; c < n_curves; c++)
     {
       const df_picture_curve *pc = &curves[c];
       gsize n = pc->n, segs = pc->closed ? n : n - 1;
-      double label_x = 0, label_y = INFINITY;
+      double label_x = 0, label_y = INFINITY, hidden_x = 0, hidden_y = INFINITY;
 
       if (n < 2)
         continue;
@@ -354,6 +397,11 @@ draw_curves (cairo_t *cr, const view *v, const depth_buffer *zb, double px, doub
               {
                 label_y = ay;
                 label_x = ax;
+              }
+            if (pass == 1 && !vis && ay < hidden_y)
+              {
+                hidden_y = ay;
+                hidden_x = ax;
               }
             cairo_move_to (cr, ax, ay);
             cairo_line_to (cr, bx, by);
@@ -381,17 +429,22 @@ draw_curves (cairo_t *cr, const view *v, const depth_buffer *zb, double px, doub
             cairo_stroke (cr);
           }
       cairo_set_dash (cr, NULL, 0, 0);
+      cairo_set_source_rgb (cr, pc->rgb[0] * 0.6, pc->rgb[1] * 0.6, pc->rgb[2] * 0.6);
       if (pc->name != NULL && isfinite (label_y))
+        draw_text_placed (cr, label_x, label_y - 5, pc->name, 7.5, TRUE, TRUE, &placed);
+      else if (pc->name != NULL && isfinite (hidden_y))
         {
-          cairo_set_source_rgb (cr, pc->rgb[0] * 0.6, pc->rgb[1] * 0.6, pc->rgb[2] * 0.6);
-          draw_text (cr, label_x, label_y - 5, pc->name, 7.5, TRUE, TRUE);
+          /* Wholly behind the surface: still named, so every loop of the record is found. */
+          g_autofree char *text = g_strdup_printf ("%s (behind)", pc->name);
+
+          draw_text_placed (cr, hidden_x, hidden_y - 5, text, 7.5, TRUE, TRUE, &placed);
         }
     }
 }
 
 gboolean
-df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h,
-                        const df_surface *surface, const char *units,
+df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h, double yaw_deg,
+                        double pitch_deg, const df_surface *surface, const char *units,
                         const df_picture_curve *curves, gsize n_curves, GError **error)
 {
   df_mesh_options mo = { PICTURE_MAX_VERTICES, 0, 0 };
@@ -410,7 +463,7 @@ df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h,
       g_prefix_error (error, "picture: ");
       return FALSE;
     }
-  view_init (&v);
+  view_init (&v, isfinite (yaw_deg) ? yaw_deg : -55, isfinite (pitch_deg) ? pitch_deg : 28);
   view_fit (&v, mesh, x, y, w, ph);
   px = fmin (PX_PER_PT, MAX_IMAGE_PX / fmax (w, ph));
   /* The 99 % area quantile, as the app shades: a cone apex's sliver does not wash out the

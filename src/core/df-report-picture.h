@@ -18,13 +18,17 @@ typedef struct
   gboolean    closed;
 } df_picture_curve;
 
-/* Draws into the box (x, y, w, h) in cairo user units (points in a PDF). units names the
- * surface's length unit for the legend ("mm"). Fails only when the surface cannot be meshed. */
+/* Draws into the box (x, y, w, h) in cairo user units (points in a PDF), seen from yaw_deg
+ * about +z (0: the eye on +x) and pitch_deg above the xy plane, as the app's camera. units names
+ * the surface's length unit for the legend ("mm"). Open curves (geodesics, paths) are drawn
+ * like loops. Fails only when the surface cannot be meshed. */
 gboolean df_report_draw_picture (cairo_t                *cr,
                                  double                  x,
                                  double                  y,
                                  double                  w,
                                  double                  h,
+                                 double                  yaw_deg,
+                                 double                  pitch_deg,
                                  const df_surface       *surface,
                                  const char             *units,
                                  const df_picture_curve *curves,

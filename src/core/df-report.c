@@ -454,7 +454,19 @@ picture (flow *f)
           c.n = n;
           g_array_append_val (curves, c);
         }
-      if (!df_report_draw_picture (f->cr, MARGIN, f->y, w, h, r->surface, r->units,
+      for (gsize i = 0; i < r->n_curves; i++)
+        {
+          df_picture_curve c = { 0 };
+
+          c.name = r->curves[i].name;
+          memcpy (c.rgb, r->curves[i].rgb, sizeof c.rgb);
+          c.xyz = r->curves[i].xyz;
+          c.n = r->curves[i].n;
+          c.closed = FALSE;
+          g_array_append_val (curves, c);
+        }
+      if (!df_report_draw_picture (f->cr, MARGIN, f->y, w, h, r->view_yaw_deg, r->view_pitch_deg,
+                                   r->surface, r->units,
                                    (const df_picture_curve *) curves->data, curves->len, &error)
           && f->error == NULL)
         f->error = g_steal_pointer (&error);
@@ -669,6 +681,12 @@ lay_out (flow *f)
   summary_table (f);
   for (gsize i = 0; i < r->n_loops; i++)
     loop_section (f, i);
+  for (gsize i = 0; i < r->n_sections; i++)
+    {
+      ensure (f, 40 + 15.0 * r->sections[i].n_fields);
+      heading (f, r->sections[i].title);
+      key_value_table (f, r->sections[i].fields, r->sections[i].n_fields);
+    }
   caution (f);
 }
 

@@ -45,6 +45,28 @@ typedef struct
   double                kg_limit;
 } df_report_loop;
 
+/* A titled block of fields (a geodesic, a path pair, a probe point). */
+typedef struct
+{
+  const char            *title;
+  const df_report_field *fields;
+  gsize                  n_fields;
+} df_report_section;
+
+/* An open curve drawn in the picture (a geodesic or a path). */
+typedef struct
+{
+  const char    *name;
+  double         rgb[3];
+  const double (*xyz)[3];
+  gsize          n;
+} df_report_curve;
+
+/* The picture's view when none is saved: seen from above and in front, a little to the left,
+ * the angle a part is drawn at on a general-arrangement sheet. */
+#define DF_REPORT_DEFAULT_YAW_DEG   (-55.0)
+#define DF_REPORT_DEFAULT_PITCH_DEG 28.0
+
 typedef struct
 {
   df_paper               paper;
@@ -62,8 +84,16 @@ typedef struct
   gsize                  n_loops;
   const char            *caution;
   /* A ready picture (the app's view with its legend and names); NULL: the report draws its own
-   * shaded view from the core's mesh. */
+   * shaded view from the core's mesh, from these angles (DF_REPORT_DEFAULT_* unless the project
+   * saved a view). */
   cairo_surface_t       *picture;
+  double                 view_yaw_deg;
+  double                 view_pitch_deg;
+  /* Geodesics, path pairs and probe points: drawn (curves) and listed (sections). */
+  const df_report_curve   *curves;
+  gsize                    n_curves;
+  const df_report_section *sections;
+  gsize                    n_sections;
 } df_report;
 
 /* Writes the PDF to path (atomically). Errors name the path. */

@@ -29,3 +29,12 @@ gboolean  _df_key_file_check_groups  (GKeyFile          *key_file,
                                       const char *const *names,
                                       const char        *prefix,
                                       GError           **error);
+
+/* A required ';'-separated list of finite numbers (g_free it); messages name the value's
+ * position. NULL with error set on failure. */
+double   *_df_key_file_get_numbers   (GKeyFile   *key_file,
+                                      const char *group,
+                                      const char *key,
+                                      const char *source,
+                                      gsize      *n_out,
+                                      GError    **error);
