@@ -203,6 +203,35 @@ column_of (char      **header,
   return -1;
 }
 
+/* Splits one RFC 4180 line (quoted fields may hold commas; "" is a quote). */
+static char **
+split_csv_line (const char *line)
+{
+  GPtrArray *fields = g_ptr_array_new ();
+  GString *f = g_string_new (NULL);
+  gboolean quoted = FALSE;
+
+  for (const char *p = line;; p++)
+    {
+      if (*p == '\0' || (*p == ',' && !quoted))
+        {
+          g_ptr_array_add (fields, g_strdup (f->str));
+          g_string_truncate (f, 0);
+          if (*p == '\0')
+            break;
+        }
+      else if (*p == '"' && quoted && p[1] == '"')
+        g_string_append_c (f, *p++);
+      else if (*p == '"')
+        quoted = !quoted;
+      else if (*p != '\r')
+        g_string_append_c (f, *p);
+    }
+  g_string_free (f, TRUE);
+  g_ptr_array_add (fields, NULL);
+  return (char **) g_ptr_array_free (fields, FALSE);
+}
+
 /* Reads a numeric CSV with a header into rows of fields; fails the test on a bad file. */
 static GPtrArray *
 read_csv (const char *path,
@@ -217,10 +246,10 @@ read_csv (const char *path,
   g_assert_no_error (error);
   lines = g_strsplit (text, "\n", -1);
   g_assert_nonnull (lines[0]);
-  *header_out = g_strsplit (lines[0], ",", -1);
+  *header_out = split_csv_line (lines[0]);
   for (int i = 1; lines[i] != NULL; i++)
     if (lines[i][0] != '\0')
-      g_ptr_array_add (rows, g_strsplit (lines[i], ",", -1));
+      g_ptr_array_add (rows, split_csv_line (lines[i]));
   return rows;
 }
 
@@ -329,9 +358,9 @@ test_sketch_pole_loop (void)
 
   /* Mean polar angle of the exported sample points (sphere centred at the origin). */
   rows = read_csv (samples, &header);
-  ix = column_of (header, "x");
-  iy = column_of (header, "y");
-  iz = column_of (header, "z");
+  ix = column_of (header, "x_mm");
+  iy = column_of (header, "y_mm");
+  iz = column_of (header, "z_mm");
   g_assert_cmpuint (rows->len, >=, 8);
   for (guint i = 0; i < rows->len; i++)
     {
@@ -521,6 +550,81 @@ test_screenshot (void)
   g_rmdir (dir);
 }
 
+/* The design record from the app: the demo project's PDF (the view as its picture, the title
+ * block from the project's [record] group, every loop named) and the PNG with its legend (both
+ * ends of the curvature scale drawn on a light backdrop in the bottom-left corner) and caption.
+ * Read back with poppler-utils; skipped without them. */
+static void
+test_record_exports (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *pdf = g_build_filename (dir, "record.pdf", NULL);
+  g_autofree char *png = g_build_filename (dir, "view.png", NULL);
+  g_autofree char *pdftotext = g_find_program_in_path ("pdftotext");
+  g_autofree char *demo = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GdkPixbuf) pb = NULL;
+  g_autofree char *text = NULL;
+  /* df-colour-ramp.c's end stops in 8-bit sRGB. */
+  const guchar blue[3] = { 41, 89, 173 }, orange[3] = { 217, 107, 25 };
+  int w, h, near_blue = 0, near_orange = 0;
+
+  if (pdftotext == NULL)
+    {
+      g_test_skip ("needs pdftotext (Debian: apt install poppler-utils)");
+      return;
+    }
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, demo, "--colouring",
+                                     "gaussian", "--export-report", pdf, "--export-png", png,
+                                     NULL);
+  g_assert_no_error (error);
+  g_assert_true (app_wait (app));
+  xserver_stop (&x);
+
+  {
+    const char *argv[] = { pdftotext, "-layout", pdf, "-", NULL };
+    int status = 0;
+
+    g_assert_true (g_spawn_sync (NULL, (char **) argv, NULL, G_SPAWN_STDERR_TO_DEV_NULL, NULL,
+                                 NULL, &text, NULL, &status, &error));
+    g_assert_no_error (error);
+    g_assert_true (g_spawn_check_wait_status (status, NULL));
+  }
+  g_assert_nonnull (strstr (text, "Lamp-shade mould, three plies"));
+  g_assert_nonnull (strstr (text, "LS-220-01"));
+  g_assert_nonnull (strstr (text, "Rim band"));
+  g_assert_nonnull (strstr (text, "Belly patch"));
+  g_assert_nonnull (strstr (text, "Top seam ply"));
+  g_assert_nonnull (strstr (text, "SHA-256"));
+  g_assert_nonnull (strstr (text, "not a material or structural assessment"));
+
+  pb = load_png (png);
+  w = gdk_pixbuf_get_width (pb);
+  h = gdk_pixbuf_get_height (pb);
+  for (int y = h * 3 / 4; y < h; y++)
+    for (int xx = 0; xx < w / 2; xx++)
+      {
+        const guchar *p = pixel (pb, xx, y);
+
+        near_blue += colour_distance (p, blue) < 40;
+        near_orange += colour_distance (p, orange) < 40;
+      }
+  g_test_message ("legend corner: %d blue-end, %d orange-end pixels", near_blue, near_orange);
+  /* The bar is some 400 x 14 pixels: each end stop covers dozens of pixels. */
+  g_assert_cmpint (near_blue, >, 30);
+  g_assert_cmpint (near_orange, >, 30);
+
+  g_remove (pdf);
+  g_remove (png);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -530,5 +634,6 @@ main (int   argc,
 
   g_test_add_func ("/app/e2e/sketch-pole-loop", test_sketch_pole_loop);
   g_test_add_func ("/app/e2e/screenshot", test_screenshot);
+  g_test_add_func ("/app/e2e/record-exports", test_record_exports);
   return g_test_run ();
 }

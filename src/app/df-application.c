@@ -29,6 +29,9 @@ static const GOptionEntry option_entries[] = {
     "Once the loops are measured, write the loops summary CSV and quit", "PATH" },
   { "export-png", 0, 0, G_OPTION_ARG_FILENAME, NULL,
     "Once everything is drawn, save the view as PNG and quit", "PATH" },
+  { "export-report", 0, 0, G_OPTION_ARG_FILENAME, NULL,
+    "Once everything is drawn, write the PDF design record (the view as its picture) and quit",
+    "PATH" },
   { "bench-orbit", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Orbit the view once, print the median and 95th-percentile frame times and quit", NULL },
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
@@ -179,6 +182,7 @@ df_application_command_line (GApplication            *application,
   g_variant_dict_lookup (options, "export-samples", "^ay", &startup.export_samples);
   g_variant_dict_lookup (options, "export-summary", "^ay", &startup.export_summary);
   g_variant_dict_lookup (options, "export-png", "^ay", &startup.export_png);
+  g_variant_dict_lookup (options, "export-report", "^ay", &startup.export_report);
   startup.bench_orbit = g_variant_dict_contains (options, "bench-orbit");
   startup.report_view = g_variant_dict_contains (options, "report-view-geometry");
 

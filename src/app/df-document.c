@@ -712,3 +712,21 @@ df_document_redo (DfDocument *self)
   g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
   return step (self, FALSE);
 }
+
+const df_project *
+df_document_get_meta (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->carried;
+}
+
+void
+df_document_set_record (DfDocument *self,
+                        const char *key,
+                        const char *value)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  if (self->carried == NULL || !df_project_set_record (self->carried, key, value))
+    return;
+  update_modified (self);
+}

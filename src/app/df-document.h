@@ -51,6 +51,15 @@ gboolean              df_document_set_spec         (DfDocument            *self,
                                                     const df_surface_spec *spec,
                                                     GError               **error);
 
+/* The project's title block, geodesics, paths, probes and view as loaded (read-only; NULL
+ * before a project is set). */
+const df_project     *df_document_get_meta         (DfDocument *self);
+/* Sets one title-block field ("title", "part-number", "revision", "author"; blank clears it).
+ * The document becomes modified. */
+void                  df_document_set_record       (DfDocument *self,
+                                                    const char *key,
+                                                    const char *value);
+
 /* The loops, a GListModel of DfLoopItem. */
 GListModel           *df_document_get_loops        (DfDocument *self);
 /* Adds and measures a loop (points copied); name NULL picks "Loop N". Undoable. */

@@ -1291,6 +1291,104 @@ df_surface_view_get_shading_clipped (DfSurfaceView *self,
     *above = hi;
 }
 
+cairo_surface_t *
+df_surface_view_render_image (DfSurfaceView *self,
+                              int            width,
+                              int            height,
+                              GError       **error)
+{
+  GtkGLArea *area;
+  ViewGl *gl;
+  cairo_surface_t *img;
+  guchar *data, *dst;
+  int w, h, dstride;
+
+  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), NULL);
+  area = GTK_GL_AREA (self);
+  gl = &self->gl;
+  w = width > 0 ? width : self->fb_width;
+  h = height > 0 ? height : self->fb_height;
+  if (!gtk_widget_get_realized (GTK_WIDGET (self)) || w <= 0 || h <= 0 || w > 8192 || h > 8192
+      || gtk_gl_area_get_error (area) != NULL || gl->surface_program == 0
+      || gl->lines_program == 0 || gl->solid_program == 0)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
+                   "the 3D view is not showing anything to render");
+      return NULL;
+    }
+  gtk_gl_area_make_current (area);
+  data = g_malloc ((gsize) w * h * 4);
+  if (!_df_surface_view_gl_read_pixels (self, w, h, data))
+    {
+      g_free (data);
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
+                   "no offscreen framebuffer to render the view into");
+      return NULL;
+    }
+  /* GL's RGBA rows run bottom-up; cairo's ARGB32 is native-endian premultiplied (opaque here). */
+  img = cairo_image_surface_create (CAIRO_FORMAT_ARGB32, w, h);
+  cairo_surface_flush (img);
+  dst = cairo_image_surface_get_data (img);
+  dstride = cairo_image_surface_get_stride (img);
+  for (int y = 0; y < h; y++)
+    {
+      const guchar *src = data + (gsize) (h - 1 - y) * w * 4;
+      guint32 *row = (guint32 *) (void *) (dst + (gsize) y * dstride);
+
+      for (int x = 0; x < w; x++)
+        row[x] = 0xff000000u | ((guint32) src[4 * x] << 16) | ((guint32) src[4 * x + 1] << 8)
+                 | src[4 * x + 2];
+    }
+  cairo_surface_mark_dirty (img);
+  g_free (data);
+  return img;
+}
+
+gboolean
+df_surface_view_project_point (DfSurfaceView *self,
+                               const double   xyz[3],
+                               int            width,
+                               int            height,
+                               double        *px,
+                               double        *py)
+{
+  mat4 view, proj, vp;
+  vec4 p = { (float) xyz[0], (float) xyz[1], (float) xyz[2], 1.0f }, clip;
+
+  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
+  df_camera_view (&self->camera, view);
+  df_camera_projection (&self->camera, height > 0 ? (float) width / height : 1, proj);
+  glm_mat4_mul (proj, view, vp);
+  glm_mat4_mulv (vp, p, clip);
+  if (clip[3] <= 1e-6f)
+    return FALSE;
+  *px = (clip[0] / clip[3] * 0.5 + 0.5) * width;
+  *py = (0.5 - clip[1] / clip[3] * 0.5) * height;
+  return TRUE;
+}
+
+void
+df_surface_view_get_eye (DfSurfaceView *self,
+                         double         eye[3])
+{
+  vec3 e;
+
+  g_return_if_fail (DF_IS_SURFACE_VIEW (self));
+  df_camera_get_eye (&self->camera, e);
+  for (int i = 0; i < 3; i++)
+    eye[i] = e[i];
+}
+
+void
+df_surface_view_get_angles (DfSurfaceView *self,
+                            double        *yaw_deg,
+                            double        *pitch_deg)
+{
+  g_return_if_fail (DF_IS_SURFACE_VIEW (self));
+  *yaw_deg = self->camera.yaw * 180.0 / G_PI;
+  *pitch_deg = self->camera.pitch * 180.0 / G_PI;
+}
+
 gboolean
 df_surface_view_save_png (DfSurfaceView *self,
                           const char    *path,

@@ -121,6 +121,29 @@ gboolean    df_surface_view_save_png            (DfSurfaceView    *self,
                                                  const char       *path,
                                                  GError          **error);
 
+/* Renders the view into an image of width x height device pixels (0, 0: the widget's size),
+ * the camera's framing kept, for the annotated PNG and the design record (cairo_surface_destroy
+ * it). NULL with error when the view is not realized or GL failed. */
+cairo_surface_t *df_surface_view_render_image   (DfSurfaceView    *self,
+                                                 int               width,
+                                                 int               height,
+                                                 GError          **error);
+/* Where a point in space lands in a width x height picture of the view (origin top left); FALSE
+ * behind the eye. */
+gboolean    df_surface_view_project_point       (DfSurfaceView    *self,
+                                                 const double      xyz[3],
+                                                 int               width,
+                                                 int               height,
+                                                 double           *px,
+                                                 double           *py);
+/* The camera's eye point in space. */
+void        df_surface_view_get_eye             (DfSurfaceView    *self,
+                                                 double            eye[3]);
+/* The camera's angles in degrees (yaw about +z, 0 = eye on +x; pitch above the xy plane). */
+void        df_surface_view_get_angles          (DfSurfaceView    *self,
+                                                 double           *yaw_deg,
+                                                 double           *pitch_deg);
+
 /* Shading range (symmetric, +/- max |value|) for the legend, in 1/unit^2 (K) or 1/unit (H);
  * 0, 0 for plain shading or no surface. The max is taken over 99 % of the surface's area, so
  * a divergence on a sliver (a cone apex, a cusp) does not wash the colours out; the values

@@ -217,12 +217,22 @@ export_to_path_action (GtkWidget  *widget,
     ok = _df_window_export_samples (self, path, &error);
   else if (g_str_equal (name, "win.export-summary"))
     ok = _df_window_export_summary (self, path, &error);
+  else if (g_str_equal (name, "win.export-report"))
+    ok = _df_window_export_report (self, path, self->report_paper, &error);
   else
     ok = _df_window_export_png (self, path, &error);
   if (!ok)
     _df_window_show_error (self, "Export failed", error);
   else
     _df_window_status (self, FALSE, "Exported %s.", path);
+}
+
+static void
+edit_record_action (GtkWidget  *widget,
+                    const char *name,
+                    GVariant   *parameter)
+{
+  _df_window_edit_record (DF_WINDOW (widget));
 }
 
 static void
@@ -319,6 +329,11 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.export-summary", "s",
                                    export_to_path_action);
   gtk_widget_class_install_action (widget_class, "win.export-png", "s", export_to_path_action);
+  gtk_widget_class_install_action (widget_class, "win.export-report", "s",
+                                   export_to_path_action);
+  gtk_widget_class_install_action (widget_class, "win.export-report-dialog", NULL,
+                                   export_dialog_action);
+  gtk_widget_class_install_action (widget_class, "win.edit-record", NULL, edit_record_action);
   gtk_widget_class_install_action (widget_class, "win.export-samples-dialog", NULL,
                                    export_dialog_action);
   gtk_widget_class_install_action (widget_class, "win.export-summary-dialog", NULL,
@@ -387,6 +402,10 @@ _df_window_actions_update (DfWindow *self)
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-png",
                                  gtk_widget_get_realized (GTK_WIDGET (self->view)));
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-png-dialog", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-report",
+                                 gtk_widget_get_realized (GTK_WIDGET (self->view)));
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-report-dialog", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.edit-record", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.undo",
                                  df_document_can_undo (self->document));
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.redo",

@@ -36,7 +36,8 @@ _df_window_show_error (DfWindow     *self,
 
   _df_window_status (self, TRUE, "%s: %s", primary, detail);
   if (self->startup.export_samples != NULL || self->startup.export_summary != NULL
-      || self->startup.export_png != NULL || self->startup.bench_orbit)
+      || self->startup.export_png != NULL || self->startup.export_report != NULL
+      || self->startup.bench_orbit)
     {
       /* Nobody is there to close a dialog in a one-shot run. */
       g_printerr ("driftframe: %s: %s\n", primary, detail);
@@ -456,7 +457,8 @@ _df_window_export_png (DfWindow    *self,
                        const char  *path,
                        GError     **error)
 {
-  return df_surface_view_save_png (self->view, path, error);
+  /* The view with its legend, loop names and caption, at the size chosen in the dialog. */
+  return _df_window_export_png_annotated (self, path, self->png_width, self->png_height, error);
 }
 
 typedef struct
@@ -475,6 +477,23 @@ export_response_cb (GtkNativeDialog *dialog,
   if (path != NULL)
     {
       g_autofree char *action = g_strdup_printf ("win.export-%s", job->what);
+      const char *size = gtk_file_chooser_get_choice (GTK_FILE_CHOOSER (dialog), "size");
+      const char *paper = gtk_file_chooser_get_choice (GTK_FILE_CHOOSER (dialog), "paper");
+
+      if (g_str_equal (job->what, "png"))
+        {
+          int w = 0, h = 0;
+
+          if (size == NULL || sscanf (size, "%dx%d", &w, &h) != 2)
+            w = h = 0;
+          job->self->png_width = w;
+          job->self->png_height = h;
+        }
+      if (paper != NULL)
+        {
+          g_free (job->self->report_paper);
+          job->self->report_paper = g_strdup (paper);
+        }
       gtk_widget_activate_action (GTK_WIDGET (job->self), action, "s", path);
     }
   g_object_unref (job->self);
@@ -513,11 +532,29 @@ _df_window_export_dialog (DfWindow   *self,
       gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export Loops Summary");
       add_filter (GTK_FILE_CHOOSER (chooser), "CSV (*.csv)", "*.csv");
     }
+  else if (g_str_equal (what, "report"))
+    {
+      static const char *ids[] = { "a4", "letter", NULL };
+      static const char *labels[] = { "A4", "Letter", NULL };
+
+      name = g_strdup_printf ("%s-record.pdf", title);
+      gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export Design Record");
+      add_filter (GTK_FILE_CHOOSER (chooser), "PDF document (*.pdf)", "*.pdf");
+      gtk_file_chooser_add_choice (GTK_FILE_CHOOSER (chooser), "paper", "Paper", ids, labels);
+      gtk_file_chooser_set_choice (GTK_FILE_CHOOSER (chooser), "paper",
+                                   self->report_paper != NULL ? self->report_paper : "a4");
+    }
   else
     {
+      static const char *ids[] = { "view", "1280x800", "1920x1200", "3840x2400", NULL };
+      static const char *labels[] = { "As shown", "1280 \xc3\x97 800", "1920 \xc3\x97 1200",
+                                      "3840 \xc3\x97 2400", NULL };
+
       name = g_strdup_printf ("%s-view.png", title);
       gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export View as PNG");
       add_filter (GTK_FILE_CHOOSER (chooser), "PNG image (*.png)", "*.png");
+      gtk_file_chooser_add_choice (GTK_FILE_CHOOSER (chooser), "size", "Size", ids, labels);
+      gtk_file_chooser_set_choice (GTK_FILE_CHOOSER (chooser), "size", "view");
     }
   gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), name);
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
@@ -538,6 +575,7 @@ run_exports_cb (gpointer user_data)
     { self->startup.export_samples, "win.export-samples" },
     { self->startup.export_summary, "win.export-summary" },
     { self->startup.export_png, "win.export-png" },
+    { self->startup.export_report, "win.export-report" },
   };
 
   self->export_idle_id = 0;
@@ -553,6 +591,8 @@ run_exports_cb (gpointer user_data)
         ok = _df_window_export_samples (self, jobs[i].path, &error);
       else if (g_str_equal (jobs[i].action, "win.export-summary"))
         ok = _df_window_export_summary (self, jobs[i].path, &error);
+      else if (g_str_equal (jobs[i].action, "win.export-report"))
+        ok = _df_window_export_report (self, jobs[i].path, self->report_paper, &error);
       else
         ok = _df_window_export_png (self, jobs[i].path, &error);
       if (ok)

@@ -78,6 +78,9 @@ struct _DfWindow
   GStrv         recent;             /* most recent first */
   GMenu        *recent_menu;
   int           panel_width;
+  int           png_width;          /* chosen size of the PNG export; 0: as the view shows */
+  int           png_height;
+  char         *report_paper;       /* "a4" or "letter", chosen in the export dialog */
   gboolean      panel_placed;
   gboolean      exports_pending;
   guint         export_idle_id;
@@ -124,6 +127,12 @@ gboolean _df_window_export_samples     (DfWindow *self, const char *path, GError
 gboolean _df_window_export_summary     (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_png         (DfWindow *self, const char *path, GError **error);
 void     _df_window_export_dialog      (DfWindow *self, const char *what);
+/* df-window-report.c: the annotated PNG, the PDF design record and its title-block dialog. */
+gboolean _df_window_export_png_annotated (DfWindow *self, const char *path, int width,
+                                          int height, GError **error);
+gboolean _df_window_export_report      (DfWindow *self, const char *path, const char *paper,
+                                        GError **error);
+void     _df_window_edit_record        (DfWindow *self);
 /* Runs then() once unsaved changes are saved or discarded; not at all on cancel. */
 void     _df_window_confirm_discard    (DfWindow *self, GCallback then, const char *verb);
 void     _df_window_show_error         (DfWindow *self, const char *primary, const GError *error);

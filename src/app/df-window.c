@@ -38,6 +38,7 @@ df_startup_clear (DfStartup *startup)
   g_clear_pointer (&startup->export_samples, g_free);
   g_clear_pointer (&startup->export_summary, g_free);
   g_clear_pointer (&startup->export_png, g_free);
+  g_clear_pointer (&startup->export_report, g_free);
   startup->demo = FALSE;
   startup->bench_orbit = FALSE;
   startup->report_view = FALSE;
@@ -47,7 +48,8 @@ static gboolean
 is_one_shot (DfWindow *self)
 {
   return self->startup.export_samples != NULL || self->startup.export_summary != NULL
-         || self->startup.export_png != NULL || self->startup.bench_orbit;
+         || self->startup.export_png != NULL || self->startup.export_report != NULL
+         || self->startup.bench_orbit;
 }
 
 static void
@@ -199,6 +201,7 @@ df_window_finalize (GObject *object)
 
   df_startup_clear (&self->startup);
   g_strfreev (self->recent);
+  g_free (self->report_paper);
   g_free (self->shown_shape);
   G_OBJECT_CLASS (df_window_parent_class)->finalize (object);
 }
@@ -393,6 +396,7 @@ df_window_start (DfWindow        *self,
   self->startup.export_samples = g_strdup (startup->export_samples);
   self->startup.export_summary = g_strdup (startup->export_summary);
   self->startup.export_png = g_strdup (startup->export_png);
+  self->startup.export_report = g_strdup (startup->export_report);
   self->startup.bench_orbit = startup->bench_orbit;
   self->startup.report_view = startup->report_view;
   self->exports_pending = is_one_shot (self) && !startup->bench_orbit;

@@ -19,6 +19,7 @@ typedef struct
   char    *export_samples;  /* export the selected loop's samples once measured, then quit */
   char    *export_summary;  /* export the loops summary once all are measured, then quit */
   char    *export_png;      /* export the view once everything is drawn, then quit */
+  char    *export_report;   /* write the PDF design record once everything is drawn, then quit */
   gboolean bench_orbit;     /* print orbit frame times, then quit */
   gboolean report_view;     /* print the view's place in the window (for test drivers) */
 } DfStartup;
