@@ -7,6 +7,7 @@
 #include <string.h>
 
 #include "df-glib.h"
+#include "df-limits-file.h"
 #include "df-surface-spec-private.h"
 
 #define LOOP_PREFIX "loop "
@@ -19,6 +20,7 @@ df_project_new (df_surface_spec *spec)
 
   project->spec = spec;
   project->loops = g_ptr_array_new_with_free_func ((GDestroyNotify) df_project_loop_free);
+  project->limits = df_limits_new ();
   return project;
 }
 
@@ -29,6 +31,7 @@ df_project_free (df_project *project)
     return;
   df_surface_spec_free (project->spec);
   g_ptr_array_unref (project->loops);
+  df_limits_free (project->limits);
   g_free (project);
 }
 
@@ -218,7 +221,8 @@ read_loop (GKeyFile *key_file, const char *group, const char *source, const df_s
 static df_project *
 project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
 {
-  static const char *const groups_known[] = { "surface", "parameters", NULL };
+  static const char *const groups_known[] = { "surface", "parameters", DF_LIMITS_GROUP,
+                                               DF_UNITS_GROUP, NULL };
   g_autoptr (df_project) project = NULL;
   g_autoptr (df_surface) surface = NULL;
   g_auto (GStrv) groups = NULL;
@@ -230,6 +234,10 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
   if (spec == NULL)
     return NULL;
   project = df_project_new (spec);
+  df_limits_free (project->limits);
+  project->limits = df_limits_from_key_file (key_file, source, spec->units, error);
+  if (project->limits == NULL)
+    return NULL;
   surface = df_surface_spec_build (spec, NULL);
 
   /* Loops in file order, which is the order the user made them. */
@@ -292,6 +300,7 @@ df_project_to_data (const df_project *project)
   g_return_val_if_fail (project != NULL && project->spec != NULL, NULL);
   df_surface_spec_to_key_file (project->spec, key_file);
   g_key_file_set_comment (key_file, NULL, NULL, " driftframe project", NULL);
+  df_limits_to_key_file (project->limits, key_file);
   for (guint i = 0; i < project->loops->len; i++)
     {
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);

@@ -6,11 +6,13 @@
  *   frames=true
  *   u=0.1;0.2;...        # chart coordinates, same count as v
  *   v=0.0;0.5;...
+ * and optionally the user's limits and display units, [limits] and [units] (df-limits-file.h).
  * Reader layer: GLib allowed. */
 #pragma once
 
 #include <glib.h>
 
+#include "df-limits.h"
 #include "df-surface-spec.h"
 
 typedef struct
@@ -26,6 +28,7 @@ typedef struct
 {
   df_surface_spec *spec;
   GPtrArray       *loops;  /* of df_project_loop*, owned (free func set) */
+  df_limits       *limits; /* [limits] and [units] (df-limits-file.h), owned, never NULL */
 } df_project;
 
 df_project      *df_project_new        (df_surface_spec *spec);   /* takes spec */
