@@ -259,8 +259,11 @@ df_limit_value_text (const df_limit *limit)
 {
   char buf[G_ASCII_DTOSTR_BUF_SIZE];
 
-  /* %.17g: a saved value reloads bit for bit. */
-  g_ascii_dtostr (buf, sizeof buf, limit->value);
+  /* The shortest of %.15g and %.17g that reads back to the same double: "6.35", not
+   * "6.3499999999999996", and still bit for bit. */
+  g_ascii_formatd (buf, sizeof buf, "%.15g", limit->value);
+  if (g_ascii_strtod (buf, NULL) != limit->value)
+    g_ascii_formatd (buf, sizeof buf, "%.17g", limit->value);
   if (limit->has_unit)
     return g_strdup_printf ("%s %s", buf, df_unit_name (limit->unit));
   return g_strdup (buf);
