@@ -3,6 +3,7 @@
 #include "df-decide-out.h"
 
 #include <math.h>
+#include <string.h>
 
 #include "df-glib.h"
 
@@ -96,7 +97,8 @@ df_gores_svg_write (const char *path, const df_gores *gores, df_unit model, df_u
   font = fmax (x_max - x_min, y_max - y_min) / 40.0;
   margin = 2.0 * font;
   width = fmax (x_max - x_min, 42.0 * font) + 2.0 * margin;
-  height = (y_max - y_min) + 2.0 * margin + 10.0 * font;
+  /* Below the pattern: about ten wrapped text rows and the scale bar. */
+  height = (y_max - y_min) + 2.0 * margin + 16.0 * font;
   /* A scale bar of a round length, to check the print is life size. */
   bar = pow (10.0, floor (log10 (fmax (x_max - x_min, 1e-300))));
 
@@ -143,7 +145,7 @@ df_gores_svg_write (const char *path, const df_gores *gores, df_unit model, df_u
       l1 = g_strdup_printf ("Sewing line, no seam allowance. Edge longer than the meridian by "
                             "%.3g %%.", 100.0 * gores->edge_strain);
     l2 = g_strdup_printf ("True scale (print at 100 %%): the bar is %.4g %s.", bar, un);
-    l3 = g_markup_escape_text (DF_DECIDE_CAUTION, -1);
+    l3 = g_strdup (DF_DECIDE_CAUTION);
     lines[0] = l0;
     lines[1] = l1;
     lines[2] = l2;
@@ -151,16 +153,42 @@ df_gores_svg_write (const char *path, const df_gores *gores, df_unit model, df_u
     lines[4] = NULL;
     for (int i = 0; lines[i] != NULL; i++)
       {
-        g_autofree char *x = num (margin), *y = num (ty + i * 1.6 * font);
-        g_autofree char *esc = g_markup_escape_text (lines[i], -1);
+        /* Wrapped at 80 characters: the page is at least 42 em wide (about 84 average
+         * characters of a sans-serif face). */
+        g_auto (GStrv) words = g_strsplit (lines[i], " ", -1);
+        g_autoptr (GString) row = g_string_new (NULL);
 
-        g_string_append_printf (svg, "  <text x=\"%s\" y=\"%s\" font-family=\"sans-serif\" "
-                                "font-size=\"%s\">%s</text>\n", x, y, fs, i == 3 ? lines[i]
-                                                                             : esc);
+        for (int k = 0; words[k] != NULL; k++)
+          {
+            if (row->len > 0 && row->len + 1 + strlen (words[k]) > 80)
+              {
+                g_autofree char *x = num (margin), *y = num (ty);
+                g_autofree char *esc = g_markup_escape_text (row->str, -1);
+
+                g_string_append_printf (svg, "  <text x=\"%s\" y=\"%s\" "
+                                        "font-family=\"sans-serif\" font-size=\"%s\">%s</text>\n",
+                                        x, y, fs, esc);
+                ty += 1.4 * font;
+                g_string_truncate (row, 0);
+              }
+            if (row->len > 0)
+              g_string_append_c (row, ' ');
+            g_string_append (row, words[k]);
+          }
+        if (row->len > 0)
+          {
+            g_autofree char *x = num (margin), *y = num (ty);
+            g_autofree char *esc = g_markup_escape_text (row->str, -1);
+
+            g_string_append_printf (svg, "  <text x=\"%s\" y=\"%s\" font-family=\"sans-serif\" "
+                                    "font-size=\"%s\">%s</text>\n", x, y, fs, esc);
+            ty += 1.4 * font;
+          }
+        ty += 0.4 * font;
       }
     {
       g_autofree char *x0 = num (margin), *x1 = num (margin + bar);
-      g_autofree char *y = num (ty + 4 * 1.6 * font + font);
+      g_autofree char *y = num (ty + 0.5 * font);
       g_autofree char *bw = num (font / 3.0);
 
       g_string_append_printf (svg, "  <line x1=\"%s\" y1=\"%s\" x2=\"%s\" y2=\"%s\" "
