@@ -161,6 +161,33 @@ test_check_within (void)
   g_assert_true (json_object_get_null_member (v, "where"));
 }
 
+/* --units m: the demo's 25 mm minimum radius reads 0.025 m, the stretches scale alike. */
+static void
+test_check_units (void)
+{
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  JsonObject *a, *b;
+
+  run_cli (&mm, "check", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--json", NULL);
+  run_cli (&m, "check", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--units", "m", "--json",
+           NULL);
+  g_assert_cmpint (m.status, ==, 3);
+  a = json_array_get_object_element (
+    json_object_get_array_member (parse_object (p1, mm.out), "verdicts"), 3);
+  b = json_array_get_object_element (
+    json_object_get_array_member (parse_object (p2, m.out), "verdicts"), 3);
+  g_assert_cmpstr (json_object_get_string_member (b, "units"), ==, "m");
+  df_assert_close (json_object_get_double_member (b, "threshold"), 0.025, 1e-15, 0.0);
+  df_assert_close (json_object_get_double_member (b, "value"),
+                   json_object_get_double_member (a, "value") / 1000.0, 1e-14, 0.0);
+  df_assert_close (json_array_get_double_element (json_object_get_array_member (b, "where"), 1),
+                   json_array_get_double_element (json_object_get_array_member (a, "where"), 1)
+                     / 1000.0, 1e-14, 0.0);
+}
+
 static void
 test_check_bad (void)
 {
@@ -258,6 +285,7 @@ main (int argc, char **argv)
   tmp_dir = g_dir_make_tmp ("df-decide-cli-XXXXXX", NULL);
   g_test_add_func ("/decide-cli/check-demo", test_check_demo);
   g_test_add_func ("/decide-cli/check-within", test_check_within);
+  g_test_add_func ("/decide-cli/check-units", test_check_units);
   g_test_add_func ("/decide-cli/check-bad", test_check_bad);
   g_test_add_func ("/decide-cli/gores", test_gores_cli);
   g_test_add_func ("/decide-cli/gores-bad", test_gores_bad);

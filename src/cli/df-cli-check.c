@@ -22,6 +22,7 @@ typedef struct
   char    *project_path;
   char   **params;
   int      samples;
+  char    *units_text;
   gboolean json;
 } check_options;
 
@@ -353,6 +354,18 @@ run (check_options *o)
     return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: [units]: the surface's units '%s' "
                             "are not mm, cm, m or in, so nothing can be converted",
                             o->project_path, project->spec->units);
+  if (o->units_text != NULL)
+    {
+      df_unit model;
+
+      if (!df_unit_from_name (project->spec->units, &model))
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
+                                "are not mm, cm, m or in, so nothing can be converted",
+                                project->spec->units);
+      if (!df_unit_from_name (o->units_text, &du.length))
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: "
+                                "mm, cm, m, in)", o->units_text);
+    }
   for (int i = 0; i < DF_N_LIMITS; i++)
     any_limit = any_limit || project->limits->item[i].set;
   n = project->loops->len;
@@ -403,6 +416,9 @@ df_cli_check (int argc, char **argv)
     { "samples", 'n', 0, G_OPTION_ARG_INT, &o.samples,
       "Samples per loop for the verdicts (default 2000; range ends are refined between them)",
       "N" },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Display lengths in mm, cm, m or in (default: the project's [units], else the surface's)",
+      "UNIT" },
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the verdicts as JSON", NULL },
     { NULL },
   };
@@ -422,5 +438,6 @@ df_cli_check (int argc, char **argv)
 
   g_free (o.project_path);
   g_strfreev (o.params);
+  g_free (o.units_text);
   return code;
 }
