@@ -15,6 +15,7 @@ struct _DfDocument
   /* owned */
   df_surface_spec *spec;
   df_surface      *surface;
+  df_limits       *limits;   /* the project's [limits] and [units], kept through a save */
   GListStore      *loops;
   DfHistory       *history;
   char            *path;
@@ -78,6 +79,7 @@ df_document_finalize (GObject *object)
 
   df_surface_spec_free (self->spec);
   df_surface_free (self->surface);
+  df_limits_free (self->limits);
   df_history_free (self->history);
   g_free (self->path);
   g_free (self->saved_snapshot);
@@ -163,6 +165,11 @@ df_document_to_project (DfDocument *self)
   project = df_project_new (df_surface_spec_copy (self->spec));
   if (self->carried != NULL)
     df_project_copy_meta (project, self->carried);
+  if (self->limits != NULL)
+    {
+      df_limits_free (project->limits);
+      project->limits = df_limits_copy (self->limits);
+    }
   n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
   for (guint i = 0; i < n; i++)
     {
@@ -291,6 +298,8 @@ replace_state (DfDocument  *self,
   df_project_copy_meta (self->carried, project);
   df_surface_free (self->surface);
   self->surface = g_steal_pointer (&surface);
+  df_limits_free (self->limits);
+  self->limits = df_limits_copy (project->limits);
 
   for (guint i = 0; i < project->loops->len; i++)
     {

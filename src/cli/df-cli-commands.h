@@ -3,6 +3,9 @@
  * (df-cli-common.h). */
 #pragma once
 
+int df_cli_check    (int argc, char **argv);
+int df_cli_devmap   (int argc, char **argv);
+int df_cli_gores    (int argc, char **argv);
 int df_cli_measure  (int argc, char **argv);
 int df_cli_probe    (int argc, char **argv);
 int df_cli_compare  (int argc, char **argv);

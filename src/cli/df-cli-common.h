@@ -14,6 +14,8 @@
 #define DF_CLI_EXIT_OK     0
 #define DF_CLI_EXIT_OUTPUT 1
 #define DF_CLI_EXIT_INPUT  2
+/* `check`: a limit of the project is exceeded. */
+#define DF_CLI_EXIT_EXCEEDED 3
 
 #define DF_CLI_CAUTION                                                                           \
   "Geometric estimate only, not a material or structural assessment: check against the "       \

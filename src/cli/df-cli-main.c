@@ -21,6 +21,9 @@ static const command commands[] = {
   { "compare", df_cli_compare, "angle between a direction carried along two paths" },
   { "geodesic", df_cli_geodesic, "trace a geodesic (a straight-laid path) from a point" },
   { "report", df_cli_report, "measure every loop of a project file" },
+  { "check", df_cli_check, "check every loop of a project against its limits (exit 3: exceeded)" },
+  { "gores", df_cli_gores, "flat pattern of gores of a surface of revolution (SVG, CSV)" },
+  { "devmap", df_cli_devmap, "where a flat patch of a given size cannot follow the surface" },
   { "presets", df_cli_presets, "list the built-in surfaces and their parameters" },
 };
 
@@ -34,7 +37,7 @@ print_usage (FILE *out)
     fprintf (out, "  %-10s %s\n", commands[i].name, commands[i].summary);
   fputs ("\n`driftframe-cli COMMAND --help` describes each command's options.\n"
          "Exit status: 0 done, 2 bad input (the message names the file, line or option),\n"
-         "1 an output file could not be written.\n", out);
+         "1 an output file could not be written, 3 (check) a limit is exceeded.\n", out);
 }
 
 int
@@ -84,6 +87,6 @@ main (int argc, char **argv)
       }
 
   fprintf (stderr, "driftframe-cli: unknown command '%s' (commands: measure, probe, compare, "
-           "geodesic, report, presets; see driftframe-cli --help)\n", name);
+           "geodesic, report, check, gores, devmap, presets; see driftframe-cli --help)\n", name);
   return DF_CLI_EXIT_INPUT;
 }

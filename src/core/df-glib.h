@@ -10,6 +10,7 @@
 #include "df-geometry.h"
 #include "df-geodesic.h"
 #include "df-io-error.h"
+#include "df-limits.h"
 #include "df-loop.h"
 #include "df-loop-csv.h"
 #include "df-project.h"
@@ -24,6 +25,7 @@ G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_surface, df_surface_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_surface_spec, df_surface_spec_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_curve, df_curve_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_project, df_project_free)
+G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_limits, df_limits_free)
 G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (df_loop_result, df_loop_result_clear)
 G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (df_transport_result, df_transport_result_clear)
 G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (df_geodesic_result, df_geodesic_result_clear)

@@ -589,6 +589,7 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       if ((st = df_curve_eval (curve, ts->tau, &cp, diag)) != DF_OK)
         goto done;
       ls->s = ts->s;
+      ls->tau = ts->tau;
       ls->u = cp.u;
       ls->v = cp.v;
       ls->at_pole = cp.at_pole;

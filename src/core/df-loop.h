@@ -15,6 +15,7 @@
 typedef struct
 {
   double s;             /* arc length from the start */
+  double tau;           /* the curve's parameter there (df_curve_eval) */
   double u, v;          /* chart point (v meaningless where at_pole) */
   bool   at_pole;
   double point[3];

@@ -7,6 +7,7 @@
 #include <string.h>
 
 #include "df-glib.h"
+#include "df-limits-file.h"
 #include "df-surface-spec-private.h"
 
 #define LOOP_PREFIX "loop "
@@ -21,6 +22,7 @@ df_project_new (df_surface_spec *spec)
   project->spec = spec;
   project->loops = g_ptr_array_new_with_free_func ((GDestroyNotify) df_project_loop_free);
   df_project_extras_init (&project->extras);
+  project->limits = df_limits_new ();
   return project;
 }
 
@@ -36,6 +38,7 @@ df_project_free (df_project *project)
   g_free (project->record.revision);
   g_free (project->record.author);
   df_project_extras_clear (&project->extras);
+  df_limits_free (project->limits);
   g_free (project);
 }
 
@@ -299,6 +302,8 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
   g_ptr_array_add (groups_known, (char *) "surface");
   g_ptr_array_add (groups_known, (char *) "parameters");
   g_ptr_array_add (groups_known, (char *) RECORD_GROUP);
+  g_ptr_array_add (groups_known, (char *) DF_LIMITS_GROUP);
+  g_ptr_array_add (groups_known, (char *) DF_UNITS_GROUP);
   for (gsize i = 0; groups[i] != NULL; i++)
     if (df_project_extras_owns_group (groups[i]))
       g_ptr_array_add (groups_known, groups[i]);
@@ -311,6 +316,10 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
     return NULL;
   project = df_project_new (spec);
   if (!read_record (key_file, source, project, error))
+    return NULL;
+  df_limits_free (project->limits);
+  project->limits = df_limits_from_key_file (key_file, source, spec->units, error);
+  if (project->limits == NULL)
     return NULL;
   surface = df_surface_spec_build (spec, NULL);
 
@@ -382,6 +391,7 @@ df_project_to_data (const df_project *project)
       if (*slot != NULL)
         g_key_file_set_string (key_file, RECORD_GROUP, record_keys[k], *slot);
     }
+  df_limits_to_key_file (project->limits, key_file);
   for (guint i = 0; i < project->loops->len; i++)
     {
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);

@@ -6,12 +6,14 @@
  *   frames=true
  *   u=0.1;0.2;...        # chart coordinates, same count as v
  *   v=0.0;0.5;...
+ * and optionally the user's limits and display units, [limits] and [units] (df-limits-file.h).
  * Reader layer: GLib allowed. */
 #pragma once
 
 #include <glib.h>
 
 #include "df-project-extras.h"
+#include "df-limits.h"
 #include "df-surface-spec.h"
 
 typedef struct
@@ -39,6 +41,7 @@ typedef struct
   df_project_record record;  /* strings owned; NULL where not given */
   df_project_extras extras;  /* geodesics, path pairs, probes, view */
   GPtrArray       *loops;  /* of df_project_loop*, owned (free func set) */
+  df_limits       *limits; /* [limits] and [units] (df-limits-file.h), owned, never NULL */
 } df_project;
 
 df_project      *df_project_new        (df_surface_spec *spec);   /* takes spec */

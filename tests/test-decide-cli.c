@@ -1,0 +1,308 @@
+/* test-decide-cli.c: runs the built driftframe-cli (DF_CLI_PATH) on the decision commands:
+ * `check` (exit status 0, 3 when a limit is exceeded, 2 for bad input; the JSON verdicts),
+ * `gores` (JSON keys, SVG at true scale) and `devmap`, against closed forms. */
+#include <math.h>
+#include <string.h>
+
+#include <glib/gstdio.h>
+#include <json-glib/json-glib.h>
+
+#include "df-glib.h"
+#include "df-test.h"
+
+static char *tmp_dir;
+
+typedef struct
+{
+  int   status;   /* exit code */
+  char *out;
+  char *err;
+} cli_run;
+
+static void
+cli_run_clear (cli_run *r)
+{
+  g_clear_pointer (&r->out, g_free);
+  g_clear_pointer (&r->err, g_free);
+}
+
+G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (cli_run, cli_run_clear)
+
+static char *
+tmp_path (const char *name)
+{
+  return g_build_filename (tmp_dir, name, NULL);
+}
+
+static char *
+write_tmp (const char *name, const char *text)
+{
+  char *path = tmp_path (name);
+
+  g_assert_true (g_file_set_contents (path, text, -1, NULL));
+  return path;
+}
+
+/* Runs the CLI with a NULL-terminated argument list. */
+static void
+run_cli (cli_run *r, const char *first, ...)
+{
+  g_autoptr (GPtrArray) argv = g_ptr_array_new ();
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GError) exit_error = NULL;
+  int wait_status = 0;
+  va_list args;
+
+  g_ptr_array_add (argv, (char *) DF_CLI_PATH);
+  va_start (args, first);
+  for (const char *a = first; a != NULL; a = va_arg (args, const char *))
+    g_ptr_array_add (argv, (char *) a);
+  va_end (args);
+  g_ptr_array_add (argv, NULL);
+
+  g_assert_true (g_spawn_sync (NULL, (char **) argv->pdata, NULL, G_SPAWN_DEFAULT, NULL, NULL,
+                               &r->out, &r->err, &wait_status, &error));
+  g_assert_no_error (error);
+  if (g_spawn_check_wait_status (wait_status, &exit_error))
+    r->status = 0;
+  else
+    {
+      g_assert_true (exit_error->domain == G_SPAWN_EXIT_ERROR);
+      r->status = exit_error->code;
+    }
+  g_test_message ("exit %d\nstdout: %s\nstderr: %s", r->status, r->out, r->err);
+}
+
+static JsonObject *
+parse_object (JsonParser *parser, const char *text)
+{
+  g_autoptr (GError) error = NULL;
+
+  g_assert_true (json_parser_load_from_data (parser, text, -1, &error));
+  g_assert_no_error (error);
+  g_assert_true (JSON_NODE_HOLDS_OBJECT (json_parser_get_root (parser)));
+  return json_node_get_object (json_parser_get_root (parser));
+}
+
+/* The demo carries limits invented for it; its two small plies bend tighter than the 25 mm
+ * minimum steering radius (report: 19.08 and 16.66 mm), so check exits 3. */
+static void
+test_check_demo (void)
+{
+  g_auto (cli_run) r = { 0 };
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonObject *root;
+  JsonArray *verdicts;
+  guint n_steer_exceeded = 0;
+
+  run_cli (&r, "check", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 3);
+  root = parse_object (parser, r.out);
+  g_assert_false (json_object_get_boolean_member (root, "within"));
+  g_assert_nonnull (strstr (json_object_get_string_member (root, "caution"),
+                            "licensed engineering review"));
+  verdicts = json_object_get_array_member (root, "verdicts");
+  g_assert_cmpuint (json_array_get_length (verdicts), >, 0);
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+      static const char *const keys[] = { "loop", "limit", "value", "threshold", "units",
+                                          "source", "within", "where", "caution" };
+
+      for (gsize k = 0; k < G_N_ELEMENTS (keys); k++)
+        g_assert_true (json_object_has_member (v, keys[k]));
+      g_assert_cmpstr (json_object_get_string_member (v, "source"), ==,
+                       "invented for the demo");
+      if (g_str_equal (json_object_get_string_member (v, "limit"), "min-steering-radius")
+          && !json_object_get_boolean_member (v, "within"))
+        {
+          JsonArray *where = json_object_get_array_member (v, "where");
+
+          n_steer_exceeded++;
+          g_assert_cmpuint (json_array_get_length (where), ==, 2);
+          g_assert_cmpfloat (json_object_get_double_member (v, "value"), <, 25.0);
+          df_assert_close (json_object_get_double_member (v, "threshold"), 25.0, 1e-15, 0.0);
+          g_assert_cmpstr (json_object_get_string_member (v, "units"), ==, "mm");
+        }
+    }
+  /* Each small ply bends too tight on both of its flanks. */
+  g_assert_cmpuint (n_steer_exceeded, ==, 4);
+}
+
+/* Generous limits: exit 0; the same in inches converts the values (25.4 mm to the inch). */
+static void
+test_check_within (void)
+{
+  g_autofree char *demo = NULL;
+  g_autofree char *text = NULL;
+  g_autofree char *path = NULL;
+  g_auto (cli_run) r = { 0 };
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonObject *root, *v;
+  char *cut;
+
+  g_assert_true (g_file_get_contents (DF_EXAMPLES_DIR "/demo.dfproj", &demo, NULL, NULL));
+  cut = strstr (demo, "[limits]");
+  g_assert_nonnull (cut);
+  *cut = '\0';
+  text = g_strconcat (demo, "[limits]\nmin-steering-radius=0.5 in\nmin-steering-radius-source="
+                      "test\n[units]\nlength=in\n", strstr (cut + 1, "[loop 1]"), NULL);
+  path = write_tmp ("within.dfproj", text);
+  run_cli (&r, "check", "--project", path, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  root = parse_object (parser, r.out);
+  g_assert_true (json_object_get_boolean_member (root, "within"));
+  g_assert_cmpstr (json_object_get_string_member (root, "units"), ==, "in");
+  /* Belly patch: its tightest radius, 19.08 mm (report), in inches. */
+  v = json_array_get_object_element (json_object_get_array_member (root, "verdicts"), 1);
+  g_assert_cmpstr (json_object_get_string_member (v, "loop"), ==, "Belly patch");
+  df_assert_close (json_object_get_double_member (v, "value"), 19.08 / 25.4, 2e-3, 0.0);
+  df_assert_close (json_object_get_double_member (v, "threshold"), 0.5, 1e-15, 0.0);
+  g_assert_true (json_object_get_null_member (v, "where"));
+}
+
+/* --units m: the demo's 25 mm minimum radius reads 0.025 m, the stretches scale alike. */
+static void
+test_check_units (void)
+{
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  JsonObject *a, *b;
+
+  run_cli (&mm, "check", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--json", NULL);
+  run_cli (&m, "check", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--units", "m", "--json",
+           NULL);
+  g_assert_cmpint (m.status, ==, 3);
+  a = json_array_get_object_element (
+    json_object_get_array_member (parse_object (p1, mm.out), "verdicts"), 3);
+  b = json_array_get_object_element (
+    json_object_get_array_member (parse_object (p2, m.out), "verdicts"), 3);
+  g_assert_cmpstr (json_object_get_string_member (b, "units"), ==, "m");
+  df_assert_close (json_object_get_double_member (b, "threshold"), 0.025, 1e-15, 0.0);
+  df_assert_close (json_object_get_double_member (b, "value"),
+                   json_object_get_double_member (a, "value") / 1000.0, 1e-14, 0.0);
+  df_assert_close (json_array_get_double_element (json_object_get_array_member (b, "where"), 1),
+                   json_array_get_double_element (json_object_get_array_member (a, "where"), 1)
+                     / 1000.0, 1e-14, 0.0);
+}
+
+static void
+test_check_bad (void)
+{
+  g_autofree char *path = write_tmp ("bad.dfproj",
+                                     "[surface]\nkind=revolution\nr=sin(t)\nz=cos(t)\nt-min=0\n"
+                                     "t-max=pi\n[limits]\nfriction=-0.2\n");
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) r2 = { 0 };
+
+  run_cli (&r, "check", "--project", path, NULL);
+  g_assert_cmpint (r.status, ==, 2);
+  g_assert_nonnull (strstr (r.err, "bad.dfproj: [limits] friction"));
+  g_assert_nonnull (g_str_has_suffix (r.err, "\n") ? r.err : NULL);
+  run_cli (&r2, "check", NULL);
+  g_assert_cmpint (r2.status, ==, 2);
+}
+
+/* Sphere gores from the pole to the equator: length pi R / 2, flat area 2 pi R^2 / n each
+ * (GEOMETRY.md "Decisions"; Archimedes' cap area). */
+static void
+test_gores_cli (void)
+{
+  g_autofree char *svg = tmp_path ("g.svg");
+  g_autofree char *csv = tmp_path ("g.csv");
+  g_autofree char *text = NULL;
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) r2 = { 0 };
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonObject *root;
+  const double R = 150.0;
+
+  run_cli (&r, "gores", "--preset", "sphere", "--param", "R=150", "--from", "0", "--to",
+           "pi/2", "--count", "6", "--svg", svg, "--csv", csv, "--json", NULL);
+  /* "pi/2" is no number for the CLI: bad input. */
+  g_assert_cmpint (r.status, ==, 2);
+  run_cli (&r2, "gores", "--preset", "sphere", "--param", "R=150", "--from", "0", "--to",
+           "1.5707963267948966", "--count", "6", "--svg", svg, "--csv", csv, "--json", NULL);
+  g_assert_cmpint (r2.status, ==, 0);
+  root = parse_object (parser, r2.out);
+  g_assert_cmpint (json_object_get_int_member (root, "count"), ==, 6);
+  df_assert_close (json_object_get_double_member (root, "length"), G_PI * R / 2, 1e-10, 0.0);
+  df_assert_close (json_object_get_double_member (root, "area_each"), 2 * G_PI * R * R / 6,
+                   1e-10, 0.0);
+  df_assert_close (json_object_get_double_member (root, "max_width"), 2 * G_PI * R / 6, 1e-10,
+                   0.0);
+  g_assert_true (json_object_has_member (root, "caution"));
+  g_assert_true (g_file_get_contents (svg, &text, NULL, NULL));
+  g_assert_nonnull (strstr (text, "mm\" height=\""));
+  g_assert_nonnull (strstr (text, "<svg xmlns=\"http://www.w3.org/2000/svg\""));
+  g_assert_true (g_file_test (csv, G_FILE_TEST_EXISTS));
+}
+
+static void
+test_gores_bad (void)
+{
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) r2 = { 0 };
+
+  run_cli (&r, "gores", "--preset", "saddle", "--from", "0", "--to", "1", "--count", "4", NULL);
+  g_assert_cmpint (r.status, ==, 2);
+  g_assert_nonnull (strstr (r.err, "surface of revolution"));
+  run_cli (&r2, "gores", "--preset", "sphere", "--from", "0", "--to", "9", "--count", "4", NULL);
+  g_assert_cmpint (r2.status, ==, 2);
+  g_assert_null (strstr (r2.err, "nan"));
+}
+
+/* The map on a sphere: every rim strain is 1 - sin(a/R)/(a/R) (geodesic circle 2 pi R
+ * sin(a/R); do Carmo sec. 4-6, from memory). */
+static void
+test_devmap_cli (void)
+{
+  g_autofree char *csv = tmp_path ("map.csv");
+  g_auto (cli_run) r = { 0 };
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonObject *root;
+  const double x = 20.0 / 150.0;
+
+  run_cli (&r, "devmap", "--preset", "sphere", "--param", "R=150", "--radius", "20", "--grid",
+           "6,4", "--csv", csv, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  root = parse_object (parser, r.out);
+  g_assert_cmpint (json_object_get_int_member (root, "points_with_disc"), ==, 24);
+  df_assert_close (json_object_get_double_member (root, "max_strain_percent"),
+                   100.0 * (1 - sin (x) / x), 1e-5, 0.0);
+  g_assert_true (g_file_test (csv, G_FILE_TEST_EXISTS));
+}
+
+int
+main (int argc, char **argv)
+{
+  int code;
+
+  df_core_init ();
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+  tmp_dir = g_dir_make_tmp ("df-decide-cli-XXXXXX", NULL);
+  g_test_add_func ("/decide-cli/check-demo", test_check_demo);
+  g_test_add_func ("/decide-cli/check-within", test_check_within);
+  g_test_add_func ("/decide-cli/check-units", test_check_units);
+  g_test_add_func ("/decide-cli/check-bad", test_check_bad);
+  g_test_add_func ("/decide-cli/gores", test_gores_cli);
+  g_test_add_func ("/decide-cli/gores-bad", test_gores_bad);
+  g_test_add_func ("/decide-cli/devmap", test_devmap_cli);
+  code = g_test_run ();
+  {
+    g_autoptr (GDir) d = g_dir_open (tmp_dir, 0, NULL);
+    const char *name;
+
+    while (d != NULL && (name = g_dir_read_name (d)) != NULL)
+      {
+        g_autofree char *p = g_build_filename (tmp_dir, name, NULL);
+
+        g_remove (p);
+      }
+  }
+  g_rmdir (tmp_dir);
+  g_free (tmp_dir);
+  return code;
+}
