@@ -410,11 +410,6 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
   s->lo[1] = s->lo[0];
   s->hi[1] = s->hi[0];
   bbox_finish (s);
-  if ((st = check_scale (s, "the profile (t)", profile_length, diag)) != DF_OK)
-    {
-      df_surface_free (s);
-      return st;
-    }
 
   for (int i = 0; i < PROFILE_CHECK_SAMPLES; i++)
     {
@@ -442,6 +437,13 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
           return df_diag_fail_at (diag, DF_E_SINGULAR, -1, t, 0.0,
                                   "the profile has zero speed (r' = z' = 0) at t = %.6g", t);
         }
+    }
+
+  /* After the profile's own checks, whose messages name a t, as the sharper diagnosis. */
+  if ((st = check_scale (s, "the profile (t)", profile_length, diag)) != DF_OK)
+    {
+      df_surface_free (s);
+      return st;
     }
 
   for (int e = 0; e < 2; e++)
