@@ -47,7 +47,7 @@ LLVMFuzzerTestOneInput (const unsigned char *data, size_t size)
   g_autoptr (df_project) reloaded = NULL;
   g_autoptr (GError) error = NULL;
 
-  if (size > FUZZ_MAX_INPUT)
+  if ((size > FUZZ_MAX_INPUT && !fuzz_replaying))
     return 0;
   project = df_project_from_bytes ((const char *) data, size, "fuzz.dfproj", &error);
   if (project == NULL)

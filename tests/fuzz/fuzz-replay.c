@@ -10,6 +10,8 @@
 
 int LLVMFuzzerInitialize (int *argc, char ***argv);
 
+int fuzz_replaying = 1;
+
 static int
 compare_paths (gconstpointer a, gconstpointer b)
 {
