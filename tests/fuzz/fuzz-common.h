@@ -100,4 +100,8 @@ int LLVMFuzzerTestOneInput (const unsigned char *data, size_t size);
 /* Set by the replay driver (fuzz-replay.c), which defines it again without weak: replayed
  * inputs are read whatever their size, while the fuzzer skips inputs above each target's
  * FUZZ_MAX_INPUT to keep one run fast. */
+#ifdef FUZZ_REPLAY_MAIN
+extern int fuzz_replaying;
+#else
 __attribute__ ((weak)) int fuzz_replaying;
+#endif

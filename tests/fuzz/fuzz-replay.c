@@ -2,6 +2,8 @@
  * the corpora and every input that ever crashed are checked by `meson test` with any
  * compiler. Arguments are files or directories (every regular file in them, sorted). Prints
  * one TAP case per input; a broken rule aborts inside the target, which fails the test. */
+#define FUZZ_REPLAY_MAIN 1
+
 #include <glib.h>
 #include <stdio.h>
 
