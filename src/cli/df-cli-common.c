@@ -142,6 +142,9 @@ df_cli_fail_msg (const char *name, int code, const char *format, ...)
   va_end (args);
   /* One line, whatever the message holds, so scripts can read it with a single read. */
   g_strdelimit (msg, "\r\n", ' ');
+  /* The last guard: a number that slipped through unchecked reads as a word. */
+  if (strlen (msg) < 1000)
+    df_words_for_nonfinite (msg, strlen (msg) + 1);
   fprintf (stderr, "driftframe-cli %s: %s\n", name, msg);
   return code;
 }

@@ -1,6 +1,7 @@
 /* df-cli-geodesic.c: `driftframe-cli geodesic`: shoots a geodesic (the path a tape laid
  * without in-plane steering follows) from a chart point with a heading (df_geodesic_shoot) and
  * prints where it ends, optionally writing its samples as CSV. */
+#include <math.h>
 #include <stdio.h>
 
 #include "df-cli-commands.h"
@@ -39,6 +40,11 @@ run (geodesic_options *o)
       || !df_cli_require ("--length", o->length_text, &error)
       || !df_cli_parse_number ("--length", o->length_text, &length, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  /* An angle: a full turn either way covers every heading, and beyond that a huge value
+   * (1e308) would overflow on the way to radians. */
+  if (!(fabs (heading_deg) <= 360.0))
+    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
+                            "--heading: %s degrees is outside [-360, 360]", o->heading_text);
   if (!(length > 0.0))
     return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--length: must be positive, is %s",
                             o->length_text);

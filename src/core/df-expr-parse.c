@@ -590,6 +590,16 @@ parse_full (const char        *text,
   p.pos = p.text;
   p.tok_start = p.text;
 
+  if (strlen (p.text) > DF_EXPR_MAX_LENGTH)
+    {
+      /* Every surface check and every transport step evaluates the formula: a formula of
+       * 10^5 characters already takes seconds to build a surface from. */
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                   "column 1: the formula is %zu characters long, more than the %d allowed",
+                   strlen (p.text), DF_EXPR_MAX_LENGTH);
+      p.error_column = 1;
+      goto out;
+    }
   if (!g_utf8_validate (p.text, -1, &bad_utf8))
     {
       /* column_of needs valid UTF-8 up to the point; the prefix before bad_utf8 is. */
@@ -806,6 +816,13 @@ df_params_set (df_params *params, const char *name, const char *text, GError **e
 
   if (index < 0)
     {
+      if (params->items->len >= DF_PARAMS_MAX)
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                       "'%s': more than %d parameters, the most a surface may have", name,
+                       DF_PARAMS_MAX);
+          return FALSE;
+        }
       /* A new parameter sees every parameter defined so far. */
       if (!parse_value_with (text, params, params->items->len, &value, NULL, error))
         return FALSE;

@@ -11,6 +11,11 @@
 #include "df-expr.h"
 #include "df-io-error.h"
 
+/* Caps: the longest formula (or parameter value, or range) in characters, and the most
+ * parameters a surface may have. Beyond them a message says so. */
+#define DF_EXPR_MAX_LENGTH 10000
+#define DF_PARAMS_MAX      1000
+
 typedef struct df_params df_params;
 
 df_params  *df_params_new      (void);

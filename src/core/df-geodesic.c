@@ -96,8 +96,10 @@ df_geodesic_shoot (const df_surface *surface, double u, double v, double heading
 
   memset (out, 0, sizeof *out);
   df_diag_clear (diag);
-  if (!(length > 0) || !isfinite (length) || !isfinite (heading_rad))
+  if (!(length > 0) || !isfinite (length))
     return df_diag_fail (diag, DF_E_INPUT, -1, "the length must be a positive number");
+  if (!isfinite (heading_rad))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the heading must be a finite angle");
   if (n_samples < 2)
     n_samples = 2;
   if ((st = df_surface_geometry (surface, u, v, &geo, diag)) != DF_OK)

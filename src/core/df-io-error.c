@@ -18,6 +18,8 @@ df_status_to_gerror (df_status status, const df_diag *diag, GError **error)
   g_string_append (msg, df_status_describe (status));
   if (diag != NULL && diag->detail[0] != '\0')
     g_string_append_printf (msg, ": %s", diag->detail);
+  g_string_set_size (msg, MIN (msg->len, 1000));
+  df_words_for_nonfinite (msg->str, msg->len + 1);
   g_set_error_literal (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY, msg->str);
   return FALSE;
 }

@@ -7,6 +7,7 @@
 #include "df-loop-csv.h"
 
 #include <math.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include "df-glib.h"
@@ -113,6 +114,35 @@ domain_text (const df_surface *surface, double u, double v, char *buf, gsize len
   return buf;
 }
 
+static int
+compare_points (gconstpointer a, gconstpointer b)
+{
+  const double *p = a, *q = b;
+
+  if (p[0] != q[0])
+    return p[0] < q[0] ? -1 : 1;
+  if (p[1] != q[1])
+    return p[1] < q[1] ? -1 : 1;
+  return 0;
+}
+
+/* How many different chart points (exactly equal ones counted once), up to MIN_POINTS. */
+static guint
+count_distinct (const double (*uv)[2], guint n)
+{
+  g_autofree double (*sorted)[2] = NULL;
+  guint distinct = n > 0 ? 1 : 0;
+
+  if (n == 0)
+    return 0;
+  sorted = g_memdup2 (uv, n * sizeof *uv);
+  qsort (sorted, n, sizeof *sorted, compare_points);
+  for (guint i = 1; i < n && distinct < MIN_POINTS; i++)
+    if (compare_points (sorted[i - 1], sorted[i]) != 0)
+      distinct++;
+  return distinct;
+}
+
 gboolean
 df_loop_csv_parse (const char *text, const char *source, const df_surface *surface,
                    double (**uv_out)[2], gsize *n_out, GError **error)
@@ -202,15 +232,28 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
             }
           else
             {
+              g_autoptr (GString) shown = g_string_new (NULL);
+
+              /* The fields, not the line: the fast path above has cut it at each comma. */
+              for (guint i = 0; i < fields->len && shown->len < 80; i++)
+                g_string_append_printf (shown, "%s%s", i ? "," : "",
+                                        (const char *) g_ptr_array_index (fields, i));
               g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
                            "%s:%u: unknown header '%s' (expected u,v or x,y,z)", source,
-                           lineno, line);
+                           lineno, shown->str);
               return FALSE;
             }
           have_header = TRUE;
           continue;
         }
 
+      if (points->len >= DF_LOOP_MAX_POINTS)
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                       "%s:%u: more than %d points, the most a loop may have; thin the points "
+                       "or split the loop", source, lineno, DF_LOOP_MAX_POINTS);
+          return FALSE;
+        }
       if (fields->len != n_cols)
         {
           g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
@@ -299,6 +342,20 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
       return FALSE;
     }
 
+  {
+    /* Repeated rows would otherwise surface as the curve's "distinct points" count, which
+     * does not say that the file repeats itself. */
+    guint distinct = count_distinct ((const double (*)[2]) (void *) points->data, points->len);
+
+    if (distinct < MIN_POINTS)
+      {
+        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                     "%s: the %u points are only %u different point%s (rows repeat); a loop "
+                     "needs at least %d different points", source, points->len, distinct,
+                     distinct == 1 ? "" : "s", MIN_POINTS);
+        return FALSE;
+      }
+  }
   *n_out = points->len;
   *uv_out = (double (*)[2]) (void *) g_array_free (g_steal_pointer (&points), FALSE);
   return TRUE;

@@ -12,6 +12,10 @@
 #include "df-loop.h"
 #include "df-surface.h"
 
+/* The most points a loop or path file may have (a 10^6-point scan fits); more is refused
+ * naming the line. */
+#define DF_LOOP_MAX_POINTS 2000000
+
 /* Reads a loop or path file into chart points (g_free *uv_out). Space points are projected;
  * one farther than 1e-3 x surface size from the surface is an error naming its line. */
 gboolean df_loop_csv_read        (const char       *path,

@@ -5,15 +5,26 @@
  * Reader layer: GLib. */
 #include "df-surface-spec.h"
 
+#include <math.h>
 #include <string.h>
 
 #include "df-glib.h"
+#include "df-surface-spec-private.h"
 
+/* A parameter, its default and the range where the preset means what it says: lo < value
+ * (or lo <= value when lo_closed), value < hi, and value < the parameter named by below. An
+ * infinite bound is no bound. */
 typedef struct
 {
   const char *name;
   const char *value;
+  double      lo, hi;
+  gboolean    lo_closed;
+  const char *below;
 } preset_param;
+
+#define POSITIVE 0.0, INFINITY, FALSE, NULL
+#define ANY      -INFINITY, INFINITY, FALSE, NULL
 
 typedef struct
 {
@@ -55,50 +66,111 @@ static const df_preset_info preset_infos[] = {
 
 static const preset_def preset_defs[] = {
   /* plane: z = 0 over a square. */
-  { DF_SURFACE_GRAPH, NULL, "0", { "-L", "L", "-L", "L" }, { { "L", "100" } } },
+  { DF_SURFACE_GRAPH, NULL, "0", { "-L", "L", "-L", "L" }, { { "L", "100", POSITIVE } } },
   /* sphere: t = polar angle from the north pole; z decreasing, so N points outward. */
-  { DF_SURFACE_REVOLUTION, "R*sin(t)", "R*cos(t)", { "0", "pi" }, { { "R", "100" } } },
+  { DF_SURFACE_REVOLUTION, "R*sin(t)", "R*cos(t)", { "0", "pi" }, { { "R", "100", POSITIVE } } },
   /* dome: a cap of the sphere of radius R = (a^2 + h^2)/(2h), a = span/2; its half-angle is
    * 2 atan(h/a) (inscribed angle), base at z = 0. */
   { DF_SURFACE_REVOLUTION, "R*sin(t)", "R*cos(t) - R + rise", { "0", "2*atan(2*rise/span)" },
-    { { "span", "300" }, { "rise", "60" }, { "R", "(span^2/4 + rise^2)/(2*rise)" } } },
+    { { "span", "300", POSITIVE }, { "rise", "60", POSITIVE },
+      { "R", "(span^2/4 + rise^2)/(2*rise)", POSITIVE } } },
   /* spheroid: same parametrisation as the sphere with unequal semi-axes. */
   { DF_SURFACE_REVOLUTION, "a*sin(t)", "c*cos(t)", { "0", "pi" },
-    { { "a", "100" }, { "c", "60" } } },
+    { { "a", "100", POSITIVE }, { "c", "60", POSITIVE } } },
   /* torus: z = -a sin t (not +a sin t) makes the profile circle run clockwise in the (r, z)
    * half-plane, so its left side, where N points, is away from the tube's centre. */
   { DF_SURFACE_REVOLUTION, "R + a*cos(t)", "-a*sin(t)", { "-pi", "pi" },
-    { { "R", "100" }, { "a", "40" } } },
+    { { "R", "100", POSITIVE }, { "a", "40", 0.0, INFINITY, FALSE, "R" } } },
   /* cylinder: straight profile running down. */
-  { DF_SURFACE_REVOLUTION, "R", "h - t", { "0", "h" }, { { "R", "50" }, { "h", "150" } } },
+  { DF_SURFACE_REVOLUTION, "R", "h - t", { "0", "h" }, { { "R", "50", POSITIVE }, { "h", "150", POSITIVE } } },
   /* cone: t = slant distance from the apex at height h, running down and out. */
   { DF_SURFACE_REVOLUTION, "t*sin(alpha_deg*pi/180)", "h - t*cos(alpha_deg*pi/180)",
-    { "0", "h/cos(alpha_deg*pi/180)" }, { { "alpha_deg", "30" }, { "h", "100" } } },
+    { "0", "h/cos(alpha_deg*pi/180)" }, { { "alpha_deg", "30", 0.0, 90.0, FALSE, NULL }, { "h", "100", POSITIVE } } },
   /* paraboloid: z = -r^2/(4f), apex at the top (a hanging-dish mould seen from outside). */
   { DF_SURFACE_REVOLUTION, "t", "-t^2/(4*f)", { "0", "rmax" },
-    { { "f", "100" }, { "rmax", "120" } } },
+    { { "f", "100", POSITIVE }, { "rmax", "120", POSITIVE } } },
   /* catenoid: r = c cosh(z/c), with t = -z so z decreases. */
-  { DF_SURFACE_REVOLUTION, "c*cosh(t/c)", "-t", { "-h", "h" }, { { "c", "50" }, { "h", "80" } } },
+  { DF_SURFACE_REVOLUTION, "c*cosh(t/c)", "-t", { "-h", "h" }, { { "c", "50", POSITIVE }, { "h", "80", POSITIVE } } },
   /* hyperboloid: r = a cosh t, z = -c sinh t; |z| <= h at t = asinh(h/c), asinh written with
    * log and sqrt because the formula language has no asinh. */
   { DF_SURFACE_REVOLUTION, "a*cosh(t)", "-c*sinh(t)",
     { "-log(h/c + sqrt((h/c)^2 + 1))", "log(h/c + sqrt((h/c)^2 + 1))" },
-    { { "a", "50" }, { "c", "80" }, { "h", "100" } } },
+    { { "a", "50", POSITIVE }, { "c", "80", POSITIVE }, { "h", "100", POSITIVE } } },
   /* pseudosphere: tractrix r = R sech t, z = R (tanh t - t), running down from the rim; the
    * rim t = 0 is a cusp (zero profile speed), so the range starts just after it. */
-  { DF_SURFACE_REVOLUTION, "R/cosh(t)", "R*(tanh(t) - t)", { "0.2", "3" }, { { "R", "60" } } },
+  { DF_SURFACE_REVOLUTION, "R/cosh(t)", "R*(tanh(t) - t)", { "0.2", "3" }, { { "R", "60", POSITIVE } } },
   /* saddle: hyperbolic paraboloid. */
   { DF_SURFACE_GRAPH, NULL, "(x^2 - y^2)/(2*R)", { "-L", "L", "-L", "L" },
-    { { "R", "200" }, { "L", "100" } } },
+    { { "R", "200", POSITIVE }, { "L", "100", POSITIVE } } },
   /* bump: Gaussian of height h and standard width w. */
   { DF_SURFACE_GRAPH, NULL, "h*exp(-(x^2 + y^2)/(2*w^2))", { "-L", "L", "-L", "L" },
-    { { "h", "30" }, { "w", "40" }, { "L", "120" } } },
+    { { "h", "30", ANY }, { "w", "40", POSITIVE }, { "L", "120", POSITIVE } } },
   /* wave: doubly periodic egg crate. */
   { DF_SURFACE_GRAPH, NULL, "A*cos(2*pi*x/W)*cos(2*pi*y/W)", { "-L", "L", "-L", "L" },
-    { { "A", "10" }, { "W", "200" }, { "L", "150" } } },
+    { { "A", "10", ANY }, { "W", "200", POSITIVE }, { "L", "150", POSITIVE } } },
 };
 
 G_STATIC_ASSERT (G_N_ELEMENTS (preset_infos) == G_N_ELEMENTS (preset_defs) + 1);
+
+static const preset_def *
+find_preset (const char *name)
+{
+  for (gsize i = 0; name != NULL && preset_infos[i].name != NULL; i++)
+    if (g_str_equal (preset_infos[i].name, name))
+      return &preset_defs[i];
+  return NULL;
+}
+
+/* The valid range of a preset parameter in words: "greater than 0 and less than 90". */
+static char *
+describe_range (const preset_param *param)
+{
+  GString *text = g_string_new (NULL);
+
+  if (isfinite (param->lo))
+    g_string_append_printf (text, "%s %g", param->lo_closed ? "at least" : "greater than",
+                            param->lo);
+  if (isfinite (param->hi))
+    g_string_append_printf (text, "%sless than %g", text->len ? " and " : "", param->hi);
+  if (param->below != NULL)
+    g_string_append_printf (text, "%sless than %s", text->len ? " and " : "", param->below);
+  return g_string_free (text, FALSE);
+}
+
+gboolean
+_df_preset_check_params (const df_surface_spec *spec, GError **error)
+{
+  const preset_def *def = find_preset (spec->preset);
+
+  /* A spec whose formulas were edited is no longer the preset: its parameters mean what the
+   * user's formulas make of them, and the surface checks judge it. */
+  if (def == NULL || g_strcmp0 (spec->z_text, def->z) != 0
+      || (def->r != NULL && g_strcmp0 (spec->r_text, def->r) != 0))
+    return TRUE;
+  for (gsize i = 0; i < G_N_ELEMENTS (def->params) && def->params[i].name != NULL; i++)
+    {
+      const preset_param *param = &def->params[i];
+      double value, limit = INFINITY;
+      gboolean ok;
+
+      if (!df_params_lookup (spec->params, param->name, &value))
+        continue;
+      if (param->below != NULL)
+        df_params_lookup (spec->params, param->below, &limit);
+      ok = (param->lo_closed ? value >= param->lo : value > param->lo) && value < param->hi
+           && value < limit;
+      if (!ok)
+        {
+          g_autofree char *range = describe_range (param);
+
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                       "%s: %.10g is outside the %s preset's range: %s must be %s",
+                       param->name, value, spec->preset, param->name, range);
+          return FALSE;
+        }
+    }
+  return TRUE;
+}
 
 const df_preset_info *
 df_presets_list (void)
@@ -110,11 +182,8 @@ df_surface_spec *
 df_surface_spec_new_preset (const char *name, GError **error)
 {
   g_autoptr (df_surface_spec) spec = NULL;
-  const preset_def *def = NULL;
+  const preset_def *def = find_preset (name);
 
-  for (gsize i = 0; name != NULL && preset_infos[i].name != NULL; i++)
-    if (g_str_equal (preset_infos[i].name, name))
-      def = &preset_defs[i];
   if (def == NULL)
     {
       g_autoptr (GString) known = g_string_new (NULL);
@@ -189,10 +258,21 @@ df_surface_spec_set_param (df_surface_spec *spec, const char *key, const char *v
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_SYNTAX, "%s: no value given", name);
       return FALSE;
     }
-  if (!df_params_set (spec->params, name, text, error))
-    {
-      g_prefix_error (error, "%s: ", name);
-      return FALSE;
-    }
+  {
+    /* Tried on a copy, so a value outside the preset's range leaves the spec as it was. */
+    g_autoptr (df_params) before = df_params_copy (spec->params);
+
+    if (!df_params_set (spec->params, name, text, error))
+      {
+        g_prefix_error (error, "%s: ", name);
+        return FALSE;
+      }
+    if (!_df_preset_check_params (spec, error))
+      {
+        df_params_free (spec->params);
+        spec->params = g_steal_pointer (&before);
+        return FALSE;
+      }
+  }
   return TRUE;
 }

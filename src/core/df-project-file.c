@@ -91,6 +91,14 @@ read_numbers (GKeyFile *key_file, const char *group, const char *key, const char
 
   if (text == NULL)
     return NULL;
+  /* g_strsplit of "" gives no parts, and an empty array would read as a failure. */
+  if (text[0] == '\0')
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                   "%s: [%s] %s: no values (expected numbers separated by ';')", source, group,
+                   key);
+      return NULL;
+    }
   parts = g_strsplit (text, ";", -1);
   for (guint i = 0; parts[i] != NULL; i++)
     {
@@ -343,11 +351,17 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
 df_project *
 df_project_from_data (const char *data, const char *source, GError **error)
 {
+  return df_project_from_bytes (data, strlen (data), source, error);
+}
+
+df_project *
+df_project_from_bytes (const char *data, gsize length, const char *source, GError **error)
+{
   g_autoptr (GKeyFile) key_file = NULL;
 
   if (source == NULL)
     source = "project";
-  key_file = _df_key_file_load_data (data, source, error);
+  key_file = _df_key_file_load_bytes (data, length, source, error);
   if (key_file == NULL)
     return NULL;
   return project_from_key_file (key_file, source, error);

@@ -61,6 +61,9 @@ gboolean         df_project_set_record (df_project *project, const char *key, co
 /* Messages name the file and group: "part.dfproj: [loop 2] u: 7 values but v has 6". */
 df_project      *df_project_load       (const char *path, GError **error);
 df_project      *df_project_from_data  (const char *data, const char *source, GError **error);
+/* From bytes with their length, so a NUL byte inside is reported instead of cutting the text. */
+df_project      *df_project_from_bytes (const char *data, gsize length, const char *source,
+                                        GError **error);
 char            *df_project_to_data    (const df_project *project);
 gboolean         df_project_save       (const df_project *project, const char *path,
                                         GError **error);

@@ -43,10 +43,80 @@ df_diag_clear (df_diag *diag)
   diag->detail[0] = '\0';
 }
 
+static int
+is_word_char (char c)
+{
+  return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9') || c == '_'
+         || c == '.';
+}
+
+static int
+word_at (const char *s, const char *word)
+{
+  size_t n = strlen (word);
+
+  for (size_t i = 0; i < n; i++)
+    if (s[i] == '\0' || (s[i] | 0x20) != word[i])
+      return 0;
+  return !is_word_char (s[n]) ? (int) n : 0;
+}
+
+void
+df_words_for_nonfinite (char *text, size_t size)
+{
+  char out[1024];
+  size_t o = 0;
+  char quote = 0;
+
+  if (text == NULL || size == 0)
+    return;
+  for (const char *s = text; *s != '\0' && o + 24 < sizeof out;)
+    {
+      int neg = 0, n = 0;
+
+      /* The user's own text is quoted ('...') or a group name ([...]): left as typed. */
+      if (quote != 0 || *s == '\'' || *s == '[')
+        {
+          if (quote == 0)
+            quote = *s == '[' ? ']' : '\'';
+          else if (*s == quote)
+            quote = 0;
+          out[o++] = *s++;
+          continue;
+        }
+      if (s == text || !is_word_char (s[-1]))
+        {
+          neg = (*s == '-' || *s == '+') ? 1 : 0;
+          if ((n = word_at (s + neg, "infinity")) == 0 && (n = word_at (s + neg, "inf")) == 0
+              && (n = word_at (s + neg, "nan")) == 0)
+            neg = 0;
+        }
+      if (n > 0)
+        {
+          const char *word = (s[neg] | 0x20) == 'n' ? "undefined"
+                             : (neg && *s == '-') ? "too large (negative)" : "too large";
+
+          memcpy (out + o, word, strlen (word));
+          o += strlen (word);
+          s += neg + n;
+          continue;
+        }
+      out[o++] = *s++;
+    }
+  out[o] = '\0';
+  if (o >= size)
+    o = size - 1;
+  memcpy (text, out, o);
+  text[o] = '\0';
+}
+
 static void
 diag_vformat (df_diag *diag, const char *format, va_list ap)
 {
   vsnprintf (diag->detail, sizeof diag->detail, format, ap);
+  /* The one place every core failure is worded: a number that overflowed or did not exist
+   * reads as a word, never as "inf" or "nan". */
+  df_words_for_nonfinite (diag->detail, sizeof diag->detail);
 }
 
 df_status

@@ -53,5 +53,11 @@ df_status   df_diag_fail_at    (df_diag    *diag,
 /* Resets diag to "nothing known". NULL is allowed. */
 void        df_diag_clear      (df_diag *diag);
 
+/* Rewrites, in place, every "inf", "-inf", "infinity" or "nan" word of text (as printf prints
+ * a non-finite double) outside quoted user text ('...', [...]) as "too large", "too large
+ * (negative)" or "undefined", so no message shows a non-finite number. Text is cut to 1000
+ * bytes. */
+void        df_words_for_nonfinite (char *text, size_t size);
+
 /* Maps a GSL error number to a df_status; the one place that knows GSL's codes. */
 df_status   df_status_from_gsl (int gsl_errno);

@@ -5,6 +5,12 @@
 
 #include <glib.h>
 
+#include "df-surface-spec.h"
+
+/* Surface and project files larger than this are refused (a real one is a few kB; 64 MB
+ * holds 10^6 loop points). */
+#define DF_MAX_FILE_BYTES (64 * 1024 * 1024)
+
 /* TRUE for NULL, "" or only white space. */
 gboolean  _df_text_is_blank          (const char *text);
 
@@ -12,6 +18,12 @@ gboolean  _df_text_is_blank          (const char *text);
  * blank is reported with its number ("part.dfproj:7: ..."), which GKeyFile does not do. */
 GKeyFile *_df_key_file_load          (const char *path, GError **error);
 GKeyFile *_df_key_file_load_data     (const char *data, const char *source, GError **error);
+/* The same from bytes with their length: a NUL byte, a byte-order mark, a repeated group or
+ * key and a bad escape are reported with their line. */
+GKeyFile *_df_key_file_load_bytes    (const char *data,
+                                      gsize       length,
+                                      const char *source,
+                                      GError    **error);
 
 /* The value of group/key, stripped of surrounding white space; NULL when absent (an error
  * "source: [group] missing key 'key'" only when required). */
@@ -38,3 +50,8 @@ double   *_df_key_file_get_numbers   (GKeyFile   *key_file,
                                       const char *source,
                                       gsize      *n_out,
                                       GError    **error);
+/* A preset's parameters within the range where the preset means what it says (a cone's
+ * half-angle in (0, 90) degrees, a radius above 0); TRUE for a spec that is not an unedited
+ * preset. The message names the parameter and its valid range. */
+gboolean  _df_preset_check_params    (const df_surface_spec *spec,
+                                      GError               **error);

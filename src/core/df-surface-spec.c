@@ -185,6 +185,8 @@ df_surface_spec_build (const df_surface_spec *spec, GError **error)
   df_status status;
 
   g_return_val_if_fail (spec != NULL, NULL);
+  if (!_df_preset_check_params (spec, error))
+    return NULL;
   if (!compile_spec (spec, &r, &z, range, error))
     return NULL;
 
@@ -402,70 +404,171 @@ _df_text_is_blank (const char *text)
   return TRUE;
 }
 
-/* GKeyFile's parse errors quote the line but not its number; check the shape of each line
- * first so the message can point at it. */
+/* GKeyFile's parse errors quote the line but not its number, and it merges a repeated group
+ * and lets a repeated key win silently. GLib stays the parser (it is the format's reference);
+ * this pass runs first, over the raw text, so that each of those is refused with its line:
+ * a line's shape, repeated groups and keys (naming both lines), and escapes in a value
+ * (GLib 2.74 sets one GError over another for an invalid escape followed by a trailing
+ * backslash, which prints a warning and is fatal under G_DEBUG=fatal-warnings). */
+static gboolean
+check_escapes (const char *value, const char *key, const char *source, guint lineno,
+               GError **error)
+{
+  for (const char *s = value; *s != '\0'; s++)
+    {
+      if (*s != '\\')
+        continue;
+      if (s[1] == '\0')
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                       "%s:%u: %s: the value ends with a lone '\\' (write '\\\\' for a "
+                       "backslash)", source, lineno, key);
+          return FALSE;
+        }
+      if (strchr ("sntr\\", s[1]) == NULL)
+        {
+          g_autofree char *shown = g_utf8_make_valid (s + 1, g_utf8_next_char (s + 1) - (s + 1));
+
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                       "%s:%u: %s: unknown escape '\\%s' (known: \\s \\n \\t \\r \\\\)", source,
+                       lineno, key, shown);
+          return FALSE;
+        }
+      s++;
+    }
+  return TRUE;
+}
+
 static gboolean
 check_key_file_lines (const char *data, const char *source, GError **error)
 {
   g_auto (GStrv) lines = g_strsplit (data, "\n", -1);
-  gboolean in_group = FALSE;
+  g_autoptr (GHashTable) groups = g_hash_table_new_full (g_str_hash, g_str_equal, g_free, NULL);
+  g_autoptr (GHashTable) keys = g_hash_table_new_full (g_str_hash, g_str_equal, g_free, NULL);
+  g_autofree char *group = NULL;
 
   for (guint i = 0; lines[i] != NULL; i++)
     {
       char *line = g_strstrip (lines[i]);
       gsize len = strlen (line);
+      guint lineno = i + 1;
+      char *eq;
 
       if (len == 0 || line[0] == '#')
         continue;
       if (line[0] == '[')
         {
+          gpointer first;
+
           if (line[len - 1] != ']' || len < 3)
             {
               g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
-                           "%s:%u: a group header must look like [name]", source, i + 1);
+                           "%s:%u: a group header must look like [name]", source, lineno);
               return FALSE;
             }
-          in_group = TRUE;
+          g_free (group);
+          group = g_strndup (line + 1, len - 2);
+          if (g_hash_table_lookup_extended (groups, group, NULL, &first))
+            {
+              g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                           "%s:%u: group [%s] appears again (first at line %u); merge the two",
+                           source, lineno, group, GPOINTER_TO_UINT (first));
+              return FALSE;
+            }
+          g_hash_table_insert (groups, g_strdup (group), GUINT_TO_POINTER (lineno));
+          g_hash_table_remove_all (keys);
           continue;
         }
-      if (strchr (line, '=') == NULL || line[0] == '=')
+      eq = strchr (line, '=');
+      if (eq == NULL || line[0] == '=')
         {
           g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
-                       "%s:%u: expected key=value, a [group] or a # comment", source, i + 1);
+                       "%s:%u: expected key=value, a [group] or a # comment", source, lineno);
           return FALSE;
         }
-      if (!in_group)
+      if (group == NULL)
         {
           g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
-                       "%s:%u: key=value before the first [group]", source, i + 1);
+                       "%s:%u: key=value before the first [group]", source, lineno);
           return FALSE;
         }
+      {
+        g_autofree char *key = g_strstrip (g_strndup (line, (gsize) (eq - line)));
+        gpointer first;
+
+        if (g_hash_table_lookup_extended (keys, key, NULL, &first))
+          {
+            g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                         "%s:%u: [%s] key '%s' is given again (first at line %u); keep one",
+                         source, lineno, group, key, GPOINTER_TO_UINT (first));
+            return FALSE;
+          }
+        if (!check_escapes (eq + 1, key, source, lineno, error))
+          return FALSE;
+        g_hash_table_insert (keys, g_steal_pointer (&key), GUINT_TO_POINTER (lineno));
+      }
     }
   return TRUE;
 }
 
+/* The 1-based line of the byte at offset in data. */
+static guint
+line_of (const char *data, gsize offset)
+{
+  guint line = 1;
+
+  for (gsize i = 0; i < offset; i++)
+    if (data[i] == '\n')
+      line++;
+  return line;
+}
+
 GKeyFile *
-_df_key_file_load_data (const char *data, const char *source, GError **error)
+_df_key_file_load_bytes (const char *data, gsize length, const char *source, GError **error)
 {
   g_autoptr (GKeyFile) key_file = g_key_file_new ();
   g_autoptr (GError) local = NULL;
+  g_autofree char *text = NULL;
+  const char *nul, *bad = NULL;
 
   if (source == NULL)
     source = "(data)";
-  if (_df_text_is_blank (data))
+  /* A UTF-8 byte order mark, as some editors on Windows write, is not part of the text. */
+  if (length >= 3 && memcmp (data, "\xEF\xBB\xBF", 3) == 0)
+    {
+      data += 3;
+      length -= 3;
+    }
+  nul = memchr (data, '\0', length);
+  if (nul != NULL)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                   "%s:%u: a NUL byte: this is not a text file", source,
+                   line_of (data, (gsize) (nul - data)));
+      return NULL;
+    }
+  if (length > DF_MAX_FILE_BYTES)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                   "%s: the file is %" G_GSIZE_FORMAT " bytes, more than the %d allowed",
+                   source, length, DF_MAX_FILE_BYTES);
+      return NULL;
+    }
+  text = g_strndup (data, length);
+  if (_df_text_is_blank (text))
     {
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: the file is empty", source);
       return NULL;
     }
-  if (!g_utf8_validate (data, -1, NULL))
+  if (!g_utf8_validate (text, -1, &bad))
     {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: the file is not UTF-8 text",
-                   source);
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s:%u: the file is not UTF-8 text",
+                   source, line_of (text, (gsize) (bad - text)));
       return NULL;
     }
-  if (!check_key_file_lines (data, source, error))
+  if (!check_key_file_lines (text, source, error))
     return NULL;
-  if (!g_key_file_load_from_data (key_file, data, (gsize) -1, G_KEY_FILE_NONE, &local))
+  if (!g_key_file_load_from_data (key_file, text, (gsize) -1, G_KEY_FILE_NONE, &local))
     {
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: %s", source, local->message);
       return NULL;
@@ -474,18 +577,25 @@ _df_key_file_load_data (const char *data, const char *source, GError **error)
 }
 
 GKeyFile *
+_df_key_file_load_data (const char *data, const char *source, GError **error)
+{
+  return _df_key_file_load_bytes (data, strlen (data), source, error);
+}
+
+GKeyFile *
 _df_key_file_load (const char *path, GError **error)
 {
   g_autofree char *data = NULL;
   g_autoptr (GError) local = NULL;
+  gsize length = 0;
 
-  if (!g_file_get_contents (path, &data, NULL, &local))
+  if (!g_file_get_contents (path, &data, &length, &local))
     {
       /* GLib's message already names the file. */
       g_set_error_literal (error, DF_IO_ERROR, DF_IO_ERROR_FILE, local->message);
       return NULL;
     }
-  return _df_key_file_load_data (data, path, error);
+  return _df_key_file_load_bytes (data, length, path, error);
 }
 
 char *
@@ -509,6 +619,17 @@ _df_key_file_get_text (GKeyFile *key_file, const char *group, const char *key,
                    key, local->message);
       return NULL;
     }
+  /* An escaped line break or other control character would break the one-line places a
+   * value is shown in (a text report's header, a CSV field). */
+  for (const char *c = value; *c != '\0'; c++)
+    if ((guchar) *c < 0x20 && *c != '\t')
+      {
+        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                     "%s: [%s] %s: the value holds a line break or control character", source,
+                     group, key);
+        g_free (value);
+        return NULL;
+      }
   return g_strstrip (value);
 }
 

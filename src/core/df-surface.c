@@ -13,6 +13,17 @@
 #define PROFILE_CHECK_SAMPLES 2049
 #define GRAPH_CHECK_SAMPLES   97
 
+/* The sizes a surface may have, in its units. Beyond them squared lengths (the metric, the
+ * area) and inverse squares (the curvature) leave double precision's comfortable range or
+ * the numbers stop meaning a part; common practice, no source. */
+#define SURFACE_MAX_SIZE 1e12
+#define SURFACE_MIN_SIZE 1e-9
+/* A chart direction shorter in space than this fraction of the surface's size is a strip
+ * too thin to measure on (its metric is singular to double precision). */
+#define MIN_EXTENT_FRACTION 1e-8
+/* A range narrower than this fraction of its own values leaves too few digits to step in. */
+#define MIN_RANGE_DIGITS 1e-9
+
 typedef struct
 {
   const char     *name;
@@ -290,12 +301,51 @@ profile_at (const df_surface *s, double t, double *r, double *speed, double *drd
   return DF_OK;
 }
 
+/* A chart range [lo, hi] with enough digits to step in, checked before any sampling. */
+static df_status
+check_range (const char *name_lo, const char *name_hi, double lo, double hi, df_diag *diag)
+{
+  if (!(isfinite (lo) && isfinite (hi) && lo < hi))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "%s (%.6g) must be less than %s (%.6g)",
+                         name_lo, lo, name_hi, hi);
+  if (!isfinite (hi - lo))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the range %s to %s (%.3g to %.3g) is too wide "
+                         "to compute with", name_lo, name_hi, lo, hi);
+  if (hi - lo < MIN_RANGE_DIGITS * fmax (fabs (lo), fabs (hi)))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the range %s to %s (%.10g to %.10g) is too "
+                         "narrow for its numbers: widen it, or shift the variable so that the "
+                         "range starts near 0", name_lo, name_hi, lo, hi);
+  return DF_OK;
+}
+
+/* The surface's size and its thinnest chart direction (extent, the length in space of the
+ * shortest chart line across it), checked once the box is known. */
+static df_status
+check_scale (const df_surface *s, const char *direction, double extent, df_diag *diag)
+{
+  if (!isfinite (s->size))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the surface's extent overflows (its box is "
+                         "too large to compute); it may be at most %.0e across", SURFACE_MAX_SIZE);
+  if (s->size > SURFACE_MAX_SIZE)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the surface is %.3g across, more than the %.0e "
+                         "allowed; check the parameters and units", s->size, SURFACE_MAX_SIZE);
+  if (!(s->size >= SURFACE_MIN_SIZE))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the surface is %.3g across, less than the %.0e "
+                         "allowed; check the parameters and units", s->size, SURFACE_MIN_SIZE);
+  if (!(extent >= MIN_EXTENT_FRACTION * s->size))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the surface is only %.3g long along %s, against "
+                         "%.3g across: a strip that thin cannot be measured on; widen the "
+                         "range", extent, direction, s->size);
+  return DF_OK;
+}
+
 df_status
 df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, df_surface **out,
                            df_diag *diag)
 {
   df_surface *s;
   double rs[PROFILE_CHECK_SAMPLES], speed_max = 0.0, r_max = 0.0;
+  double profile_length = 0.0, prev[2] = { 0.0, 0.0 };
   df_status st;
 
   *out = NULL;
@@ -306,12 +356,11 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
       df_expr_free (z);
       return df_diag_fail (diag, DF_E_INPUT, -1, "missing profile formula");
     }
-  if (!(isfinite (t_min) && isfinite (t_max) && t_min < t_max))
+  if ((st = check_range ("t-min", "t-max", t_min, t_max, diag)) != DF_OK)
     {
       df_expr_free (r);
       df_expr_free (z);
-      return df_diag_fail (diag, DF_E_INPUT, -1, "t-min (%.6g) must be less than t-max (%.6g)",
-                           t_min, t_max);
+      return st;
     }
   s = surface_alloc (&revolution_kind, r, z);
   if (s == NULL)
@@ -329,7 +378,7 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
 
   for (int i = 0; i < PROFILE_CHECK_SAMPLES; i++)
     {
-      double t = t_min + (t_max - t_min) * i / (PROFILE_CHECK_SAMPLES - 1);
+      double t = t_min + (t_max - t_min) * ((double) i / (PROFILE_CHECK_SAMPLES - 1));
       double speed, drds, dzds;
       df_chart_jet j;
 
@@ -344,6 +393,10 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
       if (fabs (rs[i]) > r_max)
         r_max = fabs (rs[i]);
       s->kind->eval (s, t, 0.0, 0, &j, NULL);
+      if (i > 0)
+        profile_length += hypot (j.x[0] - prev[0], j.x[2] - prev[1]);
+      prev[0] = j.x[0];
+      prev[1] = j.x[2];
       bbox_add (s, j.x);
       j.x[0] = -j.x[0];
       bbox_add (s, j.x);
@@ -360,7 +413,7 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
 
   for (int i = 0; i < PROFILE_CHECK_SAMPLES; i++)
     {
-      double t = t_min + (t_max - t_min) * i / (PROFILE_CHECK_SAMPLES - 1);
+      double t = t_min + (t_max - t_min) * ((double) i / (PROFILE_CHECK_SAMPLES - 1));
       double rr, speed, drds, dzds;
       bool end = (i == 0 || i == PROFILE_CHECK_SAMPLES - 1);
 
@@ -384,6 +437,13 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
           return df_diag_fail_at (diag, DF_E_SINGULAR, -1, t, 0.0,
                                   "the profile has zero speed (r' = z' = 0) at t = %.6g", t);
         }
+    }
+
+  /* After the profile's own checks, whose messages name a t, as the sharper diagnosis. */
+  if ((st = check_scale (s, "the profile (t)", profile_length, diag)) != DF_OK)
+    {
+      df_surface_free (s);
+      return st;
     }
 
   for (int e = 0; e < 2; e++)
@@ -450,17 +510,11 @@ df_surface_new_graph (df_expr *f, double x_min, double x_max, double y_min, doub
   df_diag_clear (diag);
   if (f == NULL)
     return df_diag_fail (diag, DF_E_INPUT, -1, "missing formula z(x, y)");
-  if (!(isfinite (x_min) && isfinite (x_max) && x_min < x_max))
+  if ((st = check_range ("x-min", "x-max", x_min, x_max, diag)) != DF_OK
+      || (st = check_range ("y-min", "y-max", y_min, y_max, diag)) != DF_OK)
     {
       df_expr_free (f);
-      return df_diag_fail (diag, DF_E_INPUT, -1, "x-min (%.6g) must be less than x-max (%.6g)",
-                           x_min, x_max);
-    }
-  if (!(isfinite (y_min) && isfinite (y_max) && y_min < y_max))
-    {
-      df_expr_free (f);
-      return df_diag_fail (diag, DF_E_INPUT, -1, "y-min (%.6g) must be less than y-max (%.6g)",
-                           y_min, y_max);
+      return st;
     }
   s = surface_alloc (&graph_kind, f, NULL);
   if (s == NULL)
@@ -477,8 +531,8 @@ df_surface_new_graph (df_expr *f, double x_min, double x_max, double y_min, doub
   for (int i = 0; i < GRAPH_CHECK_SAMPLES; i++)
     for (int k = 0; k < GRAPH_CHECK_SAMPLES; k++)
       {
-        double x = x_min + (x_max - x_min) * i / (GRAPH_CHECK_SAMPLES - 1);
-        double y = y_min + (y_max - y_min) * k / (GRAPH_CHECK_SAMPLES - 1);
+        double x = x_min + (x_max - x_min) * ((double) i / (GRAPH_CHECK_SAMPLES - 1));
+        double y = y_min + (y_max - y_min) * ((double) k / (GRAPH_CHECK_SAMPLES - 1));
         df_chart_jet j;
 
         st = df_surface_eval (s, x, y, 2, &j, diag);
@@ -490,6 +544,13 @@ df_surface_new_graph (df_expr *f, double x_min, double x_max, double y_min, doub
         bbox_add (s, j.x);
       }
   bbox_finish (s);
+  /* A graph's chart lines are at least as long in space as their range. */
+  if ((st = check_scale (s, x_max - x_min < y_max - y_min ? "x" : "y",
+                         fmin (x_max - x_min, y_max - y_min), diag)) != DF_OK)
+    {
+      df_surface_free (s);
+      return st;
+    }
   snprintf (s->normal_side, sizeof s->normal_side,
             "N points upward (+z side of the graph z = f(x, y))");
   *out = s;
