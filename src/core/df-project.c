@@ -42,6 +42,11 @@ struct df_placer
   double (*seed_uv)[2];
   double (*seed_x)[3];
   double *seed_d2;
+  /* Buckets over the seeds' bounding box (counting sort: bucket b holds
+   * bucket_item[bucket_start[b] .. bucket_start[b + 1]]), for "is any seed closer than d?". */
+  double bucket_lo[3], bucket_cell;
+  int bucket_n[3];
+  size_t *bucket_start, *bucket_item;
 
   /* The previous answer: its working-frame target, distance, and the jet the next Newton
    * starts from (at x, within STEP_DONE of the answer). */
@@ -265,6 +270,8 @@ newton (const df_placer *pl, const double q[3], point_state *st, int max_steps, 
   return converged;
 }
 
+static bool build_buckets (df_placer *pl);
+
 static bool
 build_seeds (df_placer *pl)
 {
@@ -293,7 +300,130 @@ build_seeds (df_placer *pl)
           pl->seed_x[k][0] = NAN;  /* never chosen: its distance is not finite */
       }
   pl->seeds_built = true;
+  return build_buckets (pl);
+}
+
+static size_t
+bucket_of (const df_placer *pl, const double x[3])
+{
+  size_t b = 0;
+
+  for (int k = 0; k < 3; k++)
+    {
+      int i = (int) floor ((x[k] - pl->bucket_lo[k]) / pl->bucket_cell);
+
+      i = i < 0 ? 0 : i >= pl->bucket_n[k] ? pl->bucket_n[k] - 1 : i;
+      b = b * (size_t) pl->bucket_n[k] + (size_t) i;
+    }
+  return b;
+}
+
+/* Buckets about twice the mean seed spacing wide, at most 8 per seed in all. */
+static bool
+build_buckets (df_placer *pl)
+{
+  double hi[3], spacing = 0.0;
+  size_t n_pairs = 0, total = 1;
+
+  for (int k = 0; k < 3; k++)
+    {
+      pl->bucket_lo[k] = INFINITY;
+      hi[k] = -INFINITY;
+    }
+  for (size_t i = 0; i < pl->n_seeds; i++)
+    {
+      if (!isfinite (pl->seed_x[i][0]))
+        continue;
+      for (int k = 0; k < 3; k++)
+        {
+          pl->bucket_lo[k] = fmin (pl->bucket_lo[k], pl->seed_x[i][k]);
+          hi[k] = fmax (hi[k], pl->seed_x[i][k]);
+        }
+      if (i + 1 < pl->n_seeds && isfinite (pl->seed_x[i + 1][0]))
+        {
+          spacing += sqrt (dist2 (pl->seed_x[i], pl->seed_x[i + 1]));
+          n_pairs++;
+        }
+    }
+  if (!isfinite (pl->bucket_lo[0]))
+    for (int k = 0; k < 3; k++)
+      pl->bucket_lo[k] = hi[k] = 0.0;
+  pl->bucket_cell = n_pairs > 0 && spacing > 0 ? 2 * spacing / n_pairs : 1.0;
+  for (int pass = 0; pass < 2; pass++)
+    {
+      total = 1;
+      for (int k = 0; k < 3; k++)
+        {
+          double cells = floor ((hi[k] - pl->bucket_lo[k]) / pl->bucket_cell) + 1;
+
+          pl->bucket_n[k] = cells > 1024 ? 1024 : (int) cells;
+          total *= (size_t) pl->bucket_n[k];
+        }
+      if (total <= 8 * pl->n_seeds)
+        break;
+      pl->bucket_cell *= cbrt ((double) total / (8.0 * pl->n_seeds)) * 1.01;
+    }
+  pl->bucket_start = calloc (total + 1, sizeof *pl->bucket_start);
+  pl->bucket_item = malloc (pl->n_seeds * sizeof *pl->bucket_item);
+  if (!pl->bucket_start || !pl->bucket_item)
+    return false;
+  for (size_t i = 0; i < pl->n_seeds; i++)
+    if (isfinite (pl->seed_x[i][0]))
+      pl->bucket_start[bucket_of (pl, pl->seed_x[i]) + 1]++;
+  for (size_t b = 0; b < total; b++)
+    pl->bucket_start[b + 1] += pl->bucket_start[b];
+  for (size_t i = 0; i < pl->n_seeds; i++)
+    if (isfinite (pl->seed_x[i][0]))
+      {
+        size_t b = bucket_of (pl, pl->seed_x[i]);
+
+        /* bucket_start[b] runs ahead while filling and is shifted back below. */
+        pl->bucket_item[pl->bucket_start[b]++] = i;
+      }
+  for (size_t b = total; b > 0; b--)
+    pl->bucket_start[b] = pl->bucket_start[b - 1];
+  pl->bucket_start[0] = 0;
   return true;
+}
+
+/* Does a seed lie closer to q than r? Every surface point is at least the closest distance
+ * from q, so a true answer never triggers this; a wrong basin does once it is worse than the
+ * true closest point by more than the seed spacing (a seed lies that near the true foot). */
+static bool
+seed_closer_than (const df_placer *pl, const double q[3], double r)
+{
+  int lo[3], hi[3];
+  size_t visits = 1;
+
+  for (int k = 0; k < 3; k++)
+    {
+      lo[k] = (int) floor ((q[k] - r - pl->bucket_lo[k]) / pl->bucket_cell);
+      hi[k] = (int) floor ((q[k] + r - pl->bucket_lo[k]) / pl->bucket_cell);
+      if (hi[k] < 0 || lo[k] >= pl->bucket_n[k])
+        return false;
+      lo[k] = lo[k] < 0 ? 0 : lo[k];
+      hi[k] = hi[k] >= pl->bucket_n[k] ? pl->bucket_n[k] - 1 : hi[k];
+      visits *= (size_t) (hi[k] - lo[k] + 1);
+    }
+  if (visits > pl->n_seeds / 4)
+    {
+      /* A ball that covers much of the box: a plain scan is cheaper. */
+      for (size_t i = 0; i < pl->n_seeds; i++)
+        if (dist2 (pl->seed_x[i], q) < r * r)
+          return true;
+      return false;
+    }
+  for (int a = lo[0]; a <= hi[0]; a++)
+    for (int b = lo[1]; b <= hi[1]; b++)
+      for (int c = lo[2]; c <= hi[2]; c++)
+        {
+          size_t cell = ((size_t) a * pl->bucket_n[1] + (size_t) b) * pl->bucket_n[2] + c;
+
+          for (size_t m = pl->bucket_start[cell]; m < pl->bucket_start[cell + 1]; m++)
+            if (dist2 (pl->seed_x[pl->bucket_item[m]], q) < r * r)
+              return true;
+        }
+  return false;
 }
 
 /* Is seed k no farther than its grid neighbours (a sampled basin)? */
@@ -420,6 +550,8 @@ df_placer_free (df_placer *pl)
   free (pl->seed_uv);
   free (pl->seed_x);
   free (pl->seed_d2);
+  free (pl->bucket_start);
+  free (pl->bucket_item);
   free (pl);
 }
 
@@ -476,6 +608,10 @@ df_placer_place (df_placer *pl, const double p[3], double max_dist, double *u, d
        * is the sign of a basin left behind. */
       if (d > pl->prev_dist + moved * (1 + 1e-9) + 1e-12 * pl->size
           || d > 2 * pl->prev_dist + 0.1 * moved + 1e-9 * pl->size)
+        ok = false;
+      /* A seed nearer than the answer: another basin is closer. */
+      if (ok && pl->bucket_start != NULL && d > 1e-12 * pl->size
+          && seed_closer_than (pl, q, d * (1 - 1e-9)))
         ok = false;
     }
   if (ok)
