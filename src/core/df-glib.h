@@ -7,6 +7,7 @@
 #include "df-curve.h"
 #include "df-expr.h"
 #include "df-expr-parse.h"
+#include "df-fair.h"
 #include "df-geometry.h"
 #include "df-geodesic.h"
 #include "df-io-error.h"
