@@ -80,7 +80,7 @@ typedef struct
 const char *
 df_fair_method_name (void)
 {
-  return "periodic cubic smoothing spline (third-difference penalty)";
+  return "periodic cubic smoothing spline (P-spline)";
 }
 
 /* Uniform cubic B-spline weights of the four coefficients j..j+3 at fraction f of segment j,

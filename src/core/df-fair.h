@@ -21,7 +21,7 @@ typedef struct
   bool   met;             /* max_deviation <= tolerance */
 } df_fair_info;
 
-/* The method's name for outputs: "periodic cubic smoothing spline (third-difference penalty)". */
+/* The method's name for outputs: "periodic cubic smoothing spline (P-spline)". */
 const char *df_fair_method_name (void);
 
 /* Fairs the closed loop through the chart points uv[0..n-1] (n >= 4) with tolerance tol > 0
