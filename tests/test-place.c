@@ -219,6 +219,35 @@ test_jumps_and_local_minima (void)
     }
 }
 
+/* A torus tube r = 2 + cos t, z = sin t (a closed profile: t wraps round): the closest point
+ * to p lies in its meridian half-plane at t = atan2 (z, rho - 2), rho = |p_xy| (the closest
+ * point of a circle is along the radius; from memory). A loop round the tube crosses the seam
+ * t = +-pi every lap; answers come wrapped into [t_min, t_max]. */
+static void
+test_torus_seam (void)
+{
+  g_autoptr (df_surface) s = df_test_revolution ("2 + cos(t)", "sin(t)", -G_PI, G_PI);
+  g_autoptr (df_placer) pl = df_placer_new (s);
+  const int n = 900;
+
+  g_assert_true (df_surface_u_periodic (s));
+  for (int i = 0; i < n; i++)
+    {
+      double a = 4 * G_PI * i / n + 2.5, phi = 0.3 + 0.2 * sin (a), off = 0.1 * sin (3 * a);
+      double rho = 2 + (1 + off) * cos (a), p[3], u, v, dist;
+
+      p[0] = rho * cos (phi);
+      p[1] = rho * sin (phi);
+      p[2] = (1 + off) * sin (a);
+      place_or_die (pl, p, &u, &v, &dist);
+      g_assert_cmpfloat (u, >=, -G_PI);
+      g_assert_cmpfloat (u, <=, G_PI);
+      df_assert_close (remainder (u - atan2 (p[2], rho - 2), 2 * G_PI), 0.0, 0.0, 1e-10);
+      df_assert_close (v, phi, 0.0, 1e-12);
+      df_assert_close (dist, fabs (off), 0.0, 1e-10);
+    }
+}
+
 /* The x,y,z loop reader places by continuation: a latitude circle on the unit sphere given as
  * space points, starting at phi = 3 (near the seam), measures the holonomy 2 pi (1 - cos theta)
  * (Gauss-Bonnet; do Carmo, sec. 4-5, from memory) and agrees with the same loop given as
@@ -270,6 +299,7 @@ main (int argc, char **argv)
   g_test_add_func ("/core/place/sphere", test_sphere_closed_form);
   g_test_add_func ("/core/place/paraboloid", test_paraboloid);
   g_test_add_func ("/core/place/jumps", test_jumps_and_local_minima);
+  g_test_add_func ("/core/place/torus-seam", test_torus_seam);
   g_test_add_func ("/core/place/reader-latitude", test_reader_sphere_latitude);
   return g_test_run ();
 }
