@@ -2,6 +2,10 @@
  * z = 0.3 sin(1.3x) cos(0.7y) + 0.1xy at the default tolerance. Prints the median time per
  * loop (reading the CSV included), the ODE right-hand-side evaluations and the holonomy, then
  * the median time of the same measurement as a whole `driftframe-cli measure` process.
+ * Then the x,y,z case: the shared bench loop (../shared/bench/bench_loop.csv beside the
+ * repository, 10 000 space points placed on the surface) in process and as a whole CLI process,
+ * beside the SymPy + SciPy reference script timed in the same run, and the ratio; and 10^6
+ * x,y,z rows resampled from the same loop (written to a temporary file, never committed).
  * Usage: bench-measure [REPEATS]. */
 #include <malloc.h>
 #include <glib.h>
@@ -12,6 +16,7 @@
 #include <time.h>
 
 #include "df-glib.h"
+#include "bench-xyz.h"
 
 #define N_POINTS 10000
 
@@ -138,6 +143,7 @@ main (int argc, char **argv)
       printf ("whole `driftframe-cli measure --json` process: median %.2f ms over %d runs\n",
               median (times, repeats), repeats);
     }
+  bench_xyz_run (repeats, dir);
   g_unlink (loop_path);
   g_unlink (surface_path);
   g_rmdir (dir);

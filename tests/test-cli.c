@@ -601,6 +601,66 @@ test_output_failure (void)
   g_assert_false (g_file_test ("/nonexistent-dir/s.csv", G_FILE_TEST_EXISTS));
 }
 
+/* measure --fair: the JSON says which fairing was used and its deviation ("none" without);
+ * 48 exact points of a latitude circle, faired, still enclose 2 pi (1 - cos theta)
+ * (Gauss-Bonnet, do Carmo sec. 4-5, from memory); a tolerance that is not a positive length
+ * is refused. */
+static void
+test_measure_fair (void)
+{
+  const double theta = 0.9;
+  g_autofree char *loop = write_latitude ("latitude-fair.csv", theta);
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonObject *o, *f;
+
+  {
+    g_auto (cli_run) r = { 0 };
+
+    run_cli (&r, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+             NULL);
+    g_assert_cmpint (r.status, ==, 0);
+    o = parse_object (parser, r.out);
+    f = json_object_get_object_member (o, "fairing");
+    g_assert_nonnull (f);
+    g_assert_cmpstr (json_object_get_string_member (f, "method"), ==, "none");
+    g_assert_true (json_object_get_null_member (f, "tolerance"));
+    df_assert_close (get_number (f, "max_deviation"), 0.0, 0.0, 0.0);
+    df_assert_close (get_number (f, "points"), 48.0, 0.0, 0.0);
+  }
+  {
+    g_auto (cli_run) r = { 0 };
+
+    run_cli (&r, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+             "--fair", "0.05", NULL);
+    g_assert_cmpint (r.status, ==, 0);
+    o = parse_object (parser, r.out);
+    f = json_object_get_object_member (o, "fairing");
+    g_assert_nonnull (f);
+    g_assert_nonnull (strstr (json_object_get_string_member (f, "method"), "smoothing spline"));
+    df_assert_close (get_number (f, "tolerance"), 0.05, 0.0, 1e-15);
+    g_assert_cmpfloat (get_number (f, "max_deviation"), <=, 0.05);
+    g_assert_true (json_object_get_boolean_member (f, "within_tolerance"));
+    df_assert_close (get_number (o, "holonomy_rad"), 2 * G_PI * (1 - cos (theta)), 0.0, 1e-6);
+  }
+  {
+    g_auto (cli_run) r = { 0 };
+
+    run_cli (&r, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--fair",
+             "0.05", NULL);
+    g_assert_cmpint (r.status, ==, 0);
+    g_assert_nonnull (strstr (r.out, "Fairing: periodic cubic smoothing spline"));
+    g_assert_nonnull (strstr (r.out, "largest deviation from the points"));
+  }
+  {
+    g_auto (cli_run) r = { 0 };
+
+    run_cli (&r, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--fair",
+             "0", NULL);
+    g_assert_cmpint (r.status, ==, 2);
+    g_assert_nonnull (strstr (r.err, "--fair"));
+  }
+}
+
 int
 main (int argc, char **argv)
 {
@@ -615,6 +675,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/measure/sphere-latitude", test_measure_sphere);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
+  g_test_add_func ("/cli/measure/fair", test_measure_fair);
   g_test_add_func ("/cli/probe/sphere", test_probe_sphere);
   g_test_add_func ("/cli/probe/pole", test_probe_pole);
   g_test_add_func ("/cli/probe/saddle", test_probe_saddle);

@@ -163,6 +163,10 @@ update_details (DfLoopsPanel *self)
   if (!r->simple)
     g_string_append (notes, "The loop crosses itself: the enclosed curvature counts regions "
                             "with their winding number. ");
+  /* Set by the Sketch tool (df-window-tools.c): which fairing the stroke got. */
+  if (g_object_get_data (G_OBJECT (item), "df-fairing") != NULL)
+    g_string_append_printf (notes, "%s ",
+                            (const char *) g_object_get_data (G_OBJECT (item), "df-fairing"));
   set_value (self->length_value, df_format_length (r->length, units));
   set_value (self->kg_value, df_format_angle (r->total_geodesic_curvature_rad));
   if (r->has_steering_radius)

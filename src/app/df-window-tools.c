@@ -18,6 +18,9 @@
  * Common practice for pointer sketching, no source. */
 #define DF_STROKE_STEP_PX 4.0
 #define DF_STROKE_MIN_PX  16.0
+/* Sketches are faired within this many pixels at the stroke's depth: pointer positions come
+ * in whole pixels and a hand jitters by a pixel or two. Common practice, no source. */
+#define DF_SKETCH_FAIR_PX 2.0
 /* Live readout while sketching: at most one job at a time, at most this often. */
 #define DF_LIVE_INTERVAL_US (150 * 1000)
 #define DF_LIVE_SAMPLES 32
@@ -255,11 +258,84 @@ live_stop (DfWindow *self)
 
 /* ---- Sketch loop -------------------------------------------------------------------------- */
 
+static gint
+compare_doubles (gconstpointer a,
+                 gconstpointer b)
+{
+  double x = *(const double *) a, y = *(const double *) b;
+
+  return (x > y) - (x < y);
+}
+
+/* The length one pixel stands for at the stroke's depth: the median over the stroke of the
+ * step in space per step on the screen (a median, so the few steps foreshortened on a slope
+ * or lengthened by a jump do not decide it). 0 when it cannot be told. */
+static double
+stroke_pixel_size (DfWindow *self)
+{
+  g_autoptr(GArray) ratios = g_array_new (FALSE, FALSE, sizeof (double));
+  double a[3], b[3];
+
+  for (guint i = 1; i < self->stroke_uv->len; i++)
+    {
+      StrokePoint *p = &g_array_index (self->stroke_uv, StrokePoint, i - 1);
+      StrokePoint *q = &g_array_index (self->stroke_uv, StrokePoint, i);
+      double px = hypot (q->px - p->px, q->py - p->py), r;
+
+      if (px > 0 && surface_point (self, p->u, p->v, a) && surface_point (self, q->u, q->v, b))
+        {
+          r = sqrt ((b[0] - a[0]) * (b[0] - a[0]) + (b[1] - a[1]) * (b[1] - a[1])
+                    + (b[2] - a[2]) * (b[2] - a[2])) / px;
+          g_array_append_val (ratios, r);
+        }
+    }
+  if (ratios->len == 0)
+    return 0.0;
+  g_array_sort (ratios, compare_doubles);
+  return g_array_index (ratios, double, ratios->len / 2);
+}
+
+/* Fairs the stroke's points in place (the core's smoothing spline within DF_SKETCH_FAIR_PX
+ * pixels); returns the text for the loop's details, or NULL when it was not faired (*why says
+ * why). */
+static char *
+sketch_fair (DfWindow   *self,
+             double    (**uv)[2],
+             gsize        n,
+             const char **why)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  const char *units = df_document_get_units (self->document);
+  double tol = DF_SKETCH_FAIR_PX * stroke_pixel_size (self);
+  double (*faired)[2] = NULL;
+  df_fair_info info;
+  df_diag diag;
+  g_autofree char *t = NULL, *d = NULL;
+
+  *why = "the stroke's scale on screen could not be told";
+  if (!(tol > 0))
+    return NULL;
+  if (df_fair_closed_loop (surface, (const double (*)[2]) *uv, n, tol, &faired, &info, &diag)
+      != DF_OK)
+    {
+      *why = "the stroke is too small beside its own jitter";
+      return NULL;
+    }
+  g_free (*uv);
+  *uv = faired;
+  t = df_format_length (info.tolerance, units);
+  d = df_format_length (info.max_deviation, units);
+  return g_strdup_printf ("Faired as drawn: %s within %s (%g px at the stroke's depth), largest "
+                          "deviation from the stroke %s%s.", df_fair_method_name (), t,
+                          DF_SKETCH_FAIR_PX, d, info.met ? "" : ", more than the tolerance");
+}
+
 static void
 sketch_finish (DfWindow *self)
 {
   g_autofree double (*uv)[2] = NULL;
-  const char *problem;
+  g_autofree char *fairing = NULL;
+  const char *problem, *why = NULL;
   DfLoopItem *item;
 
   self->stroking = FALSE;
@@ -284,8 +360,14 @@ sketch_finish (DfWindow *self)
       return;
     }
   uv = stroke_uv (self->stroke_uv);
+  /* A sketch is always faired, so its steering radius shows the shape meant, not the hand's
+   * jitter; the loop's details say so (df-loops-panel.c reads "df-fairing"). */
+  fairing = sketch_fair (self, &uv, self->stroke_uv->len, &why);
   item = df_document_add_loop (self->document, NULL, (const double (*)[2]) uv,
                                self->stroke_uv->len);
+  g_object_set_data_full (G_OBJECT (item), "df-fairing",
+                          fairing ? g_steal_pointer (&fairing)
+                                  : g_strdup_printf ("Not faired: %s.", why), g_free);
   _df_window_status (self, FALSE, "“%s” closed with %u points, measuring… (Ctrl+Z removes it)",
                      df_loop_item_get_name (item), self->stroke_uv->len);
 }

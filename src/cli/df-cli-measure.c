@@ -15,13 +15,32 @@ typedef struct
   char    *loop_path;
   char    *samples_path;
   char    *tolerance_text;
+  char    *fair_text;
   int      count;
   gboolean json;
 } measure_options;
 
+/* "fairing": which fairing was used and the largest deviation from the given points (none:
+ * the curve passes through them). */
+static void
+add_fairing_json (JsonBuilder *b, const df_fair_info *fair, gsize n_points)
+{
+  json_builder_set_member_name (b, "fairing");
+  json_builder_begin_object (b);
+  json_builder_set_member_name (b, "method");
+  json_builder_add_string_value (b, fair ? df_fair_method_name () : "none");
+  df_json_add_double_or_null (b, "tolerance", fair != NULL, fair ? fair->tolerance : 0.0);
+  df_json_add_double (b, "max_deviation", fair ? fair->max_deviation : 0.0);
+  json_builder_set_member_name (b, "points");
+  json_builder_add_int_value (b, (gint64) (fair ? fair->n_points : n_points));
+  json_builder_set_member_name (b, "within_tolerance");
+  json_builder_add_boolean_value (b, fair ? fair->met : TRUE);
+  json_builder_end_object (b);
+}
+
 static void
 print_json (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            const df_loop_result *r, double tol)
+            const df_loop_result *r, double tol, const df_fair_info *fair, gsize n_points)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -31,6 +50,7 @@ print_json (const measure_options *o, const df_surface_spec *spec, const df_surf
   json_builder_set_member_name (b, "loop");
   json_builder_add_string_value (b, o->loop_path);
   df_json_add_loop_result (b, r);
+  add_fairing_json (b, fair, n_points);
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
   json_builder_set_member_name (b, "units");
@@ -53,7 +73,7 @@ print_angle_line (const char *label, double rad)
 
 static void
 print_text (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            gsize n_points, const df_loop_result *r, double tol)
+            gsize n_points, const df_loop_result *r, double tol, const df_fair_info *fair)
 {
   const char *un = spec->units;
   char a[40], b[40];
@@ -64,7 +84,15 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
   if (r->axis_winding != 0)
     printf (", winds %d time%s around the axis", r->axis_winding,
             ABS (r->axis_winding) == 1 ? "" : "s");
-  printf ("%s\n\n", r->simple ? "" : ", CROSSES ITSELF");
+  printf ("%s\n", r->simple ? "" : ", CROSSES ITSELF");
+  if (fair == NULL)
+    printf ("Fairing: none (the curve passes through the points)\n\n");
+  else
+    printf ("Fairing: %s within %s %s: largest deviation from the points %s %s%s\n\n",
+            df_fair_method_name (), df_cli_num (a, sizeof a, fair->tolerance, 6), un,
+            df_cli_num (b, sizeof b, fair->max_deviation, 6), un,
+            fair->met ? "" : " (MORE than the tolerance: the points are rougher than that at "
+                             "their spacing; the lightest fairing is used)");
 
   print_angle_line ("Holonomy (about N, + anticlockwise):", r->holonomy_rad);
   if (r->bounds_disc)
@@ -110,6 +138,8 @@ run (measure_options *o)
   g_autoptr (df_curve) curve = NULL;
   g_auto (df_loop_result) result = { 0 };
   g_autofree double (*uv)[2] = NULL;
+  df_fair_info fair;
+  double fair_tol = 0.0;
   df_loop_options lopt;
   gsize n = 0;
   df_diag diag;
@@ -131,10 +161,36 @@ run (measure_options *o)
                                 "--count: %d is outside [8, 1000000]", o->count);
       lopt.n_samples = (size_t) o->count;
     }
+  if (o->fair_text != NULL)
+    {
+      if (!df_cli_parse_number ("--fair", o->fair_text, &fair_tol, &error))
+        return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+      if (!(fair_tol > 0))
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
+                                "--fair: %s is not a positive length", o->fair_text);
+    }
   if (!df_cli_require ("--loop", o->loop_path, &error)
       || !df_cli_surface_load (&o->surface, &spec, &surface, &error)
       || !df_loop_csv_read (o->loop_path, surface, &uv, &n, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  if (o->fair_text != NULL)
+    {
+      double (*faired)[2] = NULL;
+
+      df_diag_clear (&diag);
+      st = df_fair_closed_loop (surface, (const double (*)[2]) uv, n, fair_tol, &faired, &fair,
+                                &diag);
+      if (st != DF_OK)
+        {
+          df_status_to_gerror (st, &diag, &error);
+          g_prefix_error (&error, "%s: --fair: ", o->loop_path);
+          return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+        }
+      /* The core allocates with malloc; uv is freed by g_free, the same allocator in GLib 2.46
+       * and later. */
+      g_free (uv);
+      uv = faired;
+    }
 
   df_diag_clear (&diag);
   st = df_curve_new_through_points (surface, (const double (*)[2]) uv, n, true, &curve, &diag);
@@ -159,9 +215,9 @@ run (measure_options *o)
     }
 
   if (o->json)
-    print_json (o, spec, surface, &result, lopt.rel_tol);
+    print_json (o, spec, surface, &result, lopt.rel_tol, o->fair_text ? &fair : NULL, n);
   else
-    print_text (o, spec, surface, n, &result, lopt.rel_tol);
+    print_text (o, spec, surface, n, &result, lopt.rel_tol, o->fair_text ? &fair : NULL);
   return DF_CLI_EXIT_OK;
 }
 
@@ -179,6 +235,9 @@ df_cli_measure (int argc, char **argv)
       "Write the carried frame along the loop as CSV (s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K)",
       "OUT.csv" },
     { "count", 'n', 0, G_OPTION_ARG_INT, &o.count, "Number of samples (default 200)", "N" },
+    { "fair", 0, 0, G_OPTION_ARG_STRING, &o.fair_text,
+      "Fair noisy points first: a smoothing spline within TOL (a length, in the surface's "
+      "units) of them, so the steering radius shows the design, not the noise", "TOL" },
     { "tolerance", 0, 0, G_OPTION_ARG_STRING, &o.tolerance_text,
       "Relative tolerance of the transport integration (default 1e-11)", "REL" },
     { NULL },
@@ -202,5 +261,6 @@ df_cli_measure (int argc, char **argv)
   g_free (o.loop_path);
   g_free (o.samples_path);
   g_free (o.tolerance_text);
+  g_free (o.fair_text);
   return code;
 }

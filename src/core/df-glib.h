@@ -7,6 +7,7 @@
 #include "df-curve.h"
 #include "df-expr.h"
 #include "df-expr-parse.h"
+#include "df-fair.h"
 #include "df-geometry.h"
 #include "df-geodesic.h"
 #include "df-io-error.h"
@@ -24,6 +25,7 @@ G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_params, df_params_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_surface, df_surface_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_surface_spec, df_surface_spec_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_curve, df_curve_free)
+G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_placer, df_placer_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_project, df_project_free)
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_limits, df_limits_free)
 G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (df_loop_result, df_loop_result_clear)

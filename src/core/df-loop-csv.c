@@ -152,6 +152,8 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
   gboolean have_header = FALSE;
   guint n_cols = 0;
   double max_dist;
+  /* Space points are placed in sequence, each from its neighbour's answer. */
+  g_autoptr (df_placer) placer = NULL;
 
   g_return_val_if_fail (text != NULL && surface != NULL, FALSE);
   if (source == NULL)
@@ -308,7 +310,13 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
           df_status st;
 
           df_diag_clear (&diag);
-          st = df_surface_project (surface, val, 0.0, &uv[0], &uv[1], &dist, &diag);
+          if (placer == NULL && (placer = df_placer_new (surface)) == NULL)
+            {
+              g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY,
+                           "%s:%u: out of memory placing the points", source, lineno);
+              return FALSE;
+            }
+          st = df_placer_place (placer, val, 0.0, &uv[0], &uv[1], &dist, &diag);
           if (st != DF_OK && !(st == DF_E_DOMAIN && isfinite (dist)))
             {
               g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY,
