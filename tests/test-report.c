@@ -462,6 +462,38 @@ test_extras_in_record (void)
   df_assert_close (number_after (sec, "Gaussian curvature K"), 1e-4, 1e-8, 0);
 }
 
+/* The demo's record carries the verdicts of `check` against its (invented) limits: the same
+ * stretches, each with its source, and the caution of the decision layer. */
+static void
+test_demo_verdicts (void)
+{
+  g_autofree char *demo = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *pdf = g_build_filename (tmp_dir, "demo.pdf", NULL);
+  const char *argv[] = { DF_CLI_PATH, "report", "--project", demo, "--pdf", pdf, NULL };
+  const char *check[] = { DF_CLI_PATH, "check", "--project", demo, NULL };
+  g_auto (run_result) r = { 0 };
+  g_auto (run_result) c = { 0 };
+  g_autofree char *text = NULL;
+  guint in_pdf = 0, in_check = 0;
+
+  if (!have_poppler ())
+    return;
+  run (&r, argv);
+  g_assert_cmpint (r.status, ==, 0);
+  run (&c, check);
+  g_assert_cmpint (c.status, ==, 3);
+  text = pdf_text (pdf);
+  for (const char *p = text; (p = strstr (p, ": EXCEEDED")) != NULL; p++)
+    in_pdf++;
+  for (const char *p = c.out; (p = strstr (p, "EXCEEDED")) != NULL; p++)
+    in_check++;
+  g_assert_cmpuint (in_check, >, 0);
+  g_assert_cmpuint (in_pdf, ==, in_check);
+  g_assert_nonnull (strstr (text, "Source: invented for the demo"));
+  g_assert_nonnull (strstr (text, "LIMITS"));
+  g_assert_nonnull (strstr (text, "Geometric indicators only"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -479,6 +511,7 @@ main (int argc, char **argv)
   g_test_add_func ("/report/extras-round-trip", test_extras_round_trip);
   g_test_add_func ("/report/extras-bad", test_extras_bad);
   g_test_add_func ("/report/extras-in-record", test_extras_in_record);
+  g_test_add_func ("/report/demo-verdicts", test_demo_verdicts);
   status = g_test_run ();
   {
     g_autoptr (GDir) dir = g_dir_open (tmp_dir, 0, NULL);

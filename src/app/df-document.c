@@ -739,3 +739,10 @@ df_document_set_record (DfDocument *self,
     return;
   update_modified (self);
 }
+
+const df_limits *
+df_document_get_limits (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->limits;
+}

@@ -54,6 +54,8 @@ gboolean              df_document_set_spec         (DfDocument            *self,
 /* The project's title block, geodesics, paths, probes and view as loaded (read-only; NULL
  * before a project is set). */
 const df_project     *df_document_get_meta         (DfDocument *self);
+/* The project's limits with their sources (read-only; NULL before a project is set). */
+const df_limits      *df_document_get_limits       (DfDocument *self);
 /* Sets one title-block field ("title", "part-number", "revision", "author"; blank clears it).
  * The document becomes modified. */
 void                  df_document_set_record       (DfDocument *self,

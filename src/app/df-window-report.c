@@ -10,11 +10,13 @@
 
 #include "df-colour-ramp.h"
 #include "df-io-error.h"
+#include "df-decide-out.h"
 #include "df-report.h"
+#include "df-report-verdicts.h"
 
 #define CAUTION_TEXT                                                                             \
   "Geometric estimate only, not a material or structural assessment: check against the "       \
-  "material supplier's data, local codes and licensed engineering practice."
+  "material supplier's data, local codes and licensed engineering practice. " DF_DECIDE_CAUTION
 
 static void
 show_text (cairo_t *cr, double x, double y, const char *text, double size, gboolean bold,
@@ -261,6 +263,7 @@ _df_window_export_report (DfWindow    *self,
   g_autofree char *title = df_document_get_title (self->document);
   g_autofree df_report_loop *rl = g_new0 (df_report_loop, MAX (n, 1));
   g_autoptr (GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
+  g_autoptr (GPtrArray) lines = g_ptr_array_new_with_free_func ((GDestroyNotify) g_strfreev);
   df_report report = { 0 };
   df_report_fields fields;
   cairo_surface_t *picture;
@@ -300,6 +303,18 @@ _df_window_export_report (DfWindow    *self,
       rl[i].failure = rl[i].result != NULL ? NULL
                       : df_loop_item_get_error (item) != NULL ? df_loop_item_get_error (item)
                                                               : "not measured yet";
+      if (rl[i].result != NULL)
+        {
+          char **v = df_report_verdict_lines (surface, rl[i].uv, rl[i].n,
+                                              df_document_get_limits (self->document),
+                                              df_document_get_units (self->document),
+                                              &rl[i].kg_limit, &rl[i].checked,
+                                              &rl[i].n_exceeded);
+
+          if (v != NULL)
+            g_ptr_array_add (lines, v);
+          rl[i].verdicts = (const char *const *) v;
+        }
     }
   report.title = meta != NULL && meta->record.title != NULL ? meta->record.title : title;
   report.part_number = meta != NULL ? meta->record.part_number : NULL;

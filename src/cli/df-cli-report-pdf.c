@@ -7,8 +7,10 @@
 #include <string.h>
 
 #include "df-cli-common.h"
+#include "df-decide-out.h"
 #include "df-io-error.h"
 #include "df-report.h"
+#include "df-report-verdicts.h"
 
 /* Strings and arrays that the report points into, freed together. */
 typedef struct
@@ -18,6 +20,7 @@ typedef struct
   GArray    *sections;   /* df_report_section */
   GPtrArray *field_arrays;  /* GArray of df_report_field, one per section */
   GPtrArray *points;        /* point arrays of the curves */
+  GPtrArray *line_arrays;   /* the verdict lines of each loop (GStrv) */
 } extras_out;
 
 static const char *
@@ -247,6 +250,7 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   x.sections = g_array_new (FALSE, TRUE, sizeof (df_report_section));
   x.field_arrays = g_ptr_array_new_with_free_func ((GDestroyNotify) g_array_unref);
   x.points = g_ptr_array_new_with_free_func (g_free);
+  x.line_arrays = g_ptr_array_new_with_free_func ((GDestroyNotify) g_strfreev);
   df_report_fields_init (&fields);
   df_report_fields_add_file (&fields, "Project file", project_path);
   df_report_fields_add_spec (&fields, project->spec, surface);
@@ -262,6 +266,17 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
       loops[i].n = pl->n;
       loops[i].result = failures[i] == NULL ? &results[i] : NULL;
       loops[i].failure = failures[i];
+      if (failures[i] == NULL)
+        {
+          char **lines = df_report_verdict_lines (surface, (const double (*)[2]) pl->uv, pl->n,
+                                                  project->limits, project->spec->units,
+                                                  &loops[i].kg_limit, &loops[i].checked,
+                                                  &loops[i].n_exceeded);
+
+          if (lines != NULL)
+            g_ptr_array_add (x.line_arrays, lines);
+          loops[i].verdicts = (const char *const *) lines;
+        }
     }
 
   report.title = project->record.title != NULL ? project->record.title : base;
@@ -275,7 +290,7 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   report.surface = surface;
   report.loops = loops;
   report.n_loops = project->loops->len;
-  report.caution = DF_CLI_CAUTION;
+  report.caution = DF_CLI_CAUTION " " DF_DECIDE_CAUTION;
   report.view_yaw_deg = project->extras.view.set ? project->extras.view.yaw_deg
                                                  : DF_REPORT_DEFAULT_YAW_DEG;
   report.view_pitch_deg = project->extras.view.set ? project->extras.view.pitch_deg
@@ -294,5 +309,6 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   g_array_unref (x.sections);
   g_ptr_array_unref (x.field_arrays);
   g_ptr_array_unref (x.points);
+  g_ptr_array_unref (x.line_arrays);
   return ok;
 }

@@ -523,9 +523,12 @@ summary_table (flow *f)
               cell[4] = num (f, res->length, 7);
               cell[5] = res->has_steering_radius ? num (f, res->min_steering_radius, 6)
                                                  : "none (geodesic)";
-              cell[6] = lp->verdicts != NULL && lp->verdicts[0] != NULL
-                          ? "measured; limits: see section"
-                          : "measured";
+              cell[6] = !lp->checked ? "measured"
+                        : lp->n_exceeded > 0
+                          ? keep (f, g_strdup_printf ("LIMITS EXCEEDED (%u stretch%s)",
+                                                      lp->n_exceeded,
+                                                      lp->n_exceeded == 1 ? "" : "es"))
+                          : "within the limits";
             }
         }
       for (int c = 0; c < 7; c++)

@@ -40,6 +40,8 @@ typedef struct
    * dart and gore results. */
   const char *const    *verdicts;
   const char *const    *extra;
+  gboolean              checked;       /* limits were checked: n_exceeded is meaningful */
+  guint                 n_exceeded;    /* stretches beyond a limit */
   /* Optional limit drawn on the k_g plot as +/- 1/R (R the user's minimum steering radius);
    * 0: none. */
   double                kg_limit;

@@ -1,0 +1,149 @@
+/* df-report-verdicts.c: the design record's lines for the user's limits along a loop and its
+ * darts, from the decision layer (df-verdict, df-gores); every number through one formatter
+ * that never prints NaN. Reader/writer layer: GLib allowed. */
+#include "df-report-verdicts.h"
+
+#include <math.h>
+
+#include "df-glib.h"
+#include "df-gores.h"
+#include "df-io-error.h"
+#include "df-verdict.h"
+
+typedef struct
+{
+  GPtrArray *strings;
+} extras_out;
+
+static const char *
+keep (extras_out *x, char *s)
+{
+  g_ptr_array_add (x->strings, s);
+  return s;
+}
+
+static const char *
+num (extras_out *x, double v, int digits)
+{
+  if (!isfinite (v))
+    return "n/a";
+  return keep (x, g_strdup_printf ("%.*g", digits, v));
+}
+
+static const char *
+limit_name (df_limit_id id)
+{
+  switch (id)
+    {
+    case DF_LIMIT_MIN_STEERING_RADIUS:
+      return "Steering radius";
+    case DF_LIMIT_MAX_FIBRE_DEVIATION:
+      return "Fibre deviation";
+    case DF_LIMIT_FRICTION:
+      return "|k_g/k_n| against friction";
+    default:
+      return df_limit_key (id);
+    }
+}
+
+char **
+df_report_verdict_lines (const df_surface *surface, const double (*uv)[2], gsize n,
+                         const df_limits *limits, const char *u, double *kg_limit,
+                         gboolean *checked, guint *n_exceeded)
+{
+  g_autoptr (GPtrArray) scratch = g_ptr_array_new_with_free_func (g_free);
+  extras_out xs = { scratch }, *x = &xs;
+  g_autoptr (df_curve) curve = NULL;
+  GPtrArray *lines;
+  df_loop_options opt;
+  df_loop_result res = { 0 };
+  df_verdict_list list = { 0 };
+  gboolean any = FALSE;
+  df_diag diag;
+  df_status st;
+
+  *kg_limit = 0;
+  *checked = FALSE;
+  *n_exceeded = 0;
+  for (int i = 0; limits != NULL && i < DF_N_LIMITS; i++)
+    any = any || limits->item[i].set;
+  if (!any)
+    return NULL;
+  if (limits->item[DF_LIMIT_MIN_STEERING_RADIUS].set
+      && limits->item[DF_LIMIT_MIN_STEERING_RADIUS].model_value > 0)
+    *kg_limit = 1 / limits->item[DF_LIMIT_MIN_STEERING_RADIUS].model_value;
+  lines = g_ptr_array_new ();
+
+  df_loop_options_init (&opt);
+  /* As `check` does: enough samples that the range ends refine from close brackets. */
+  opt.n_samples = 2000;
+  df_diag_clear (&diag);
+  st = df_curve_new_through_points (surface, uv, n, true, &curve, &diag);
+  if (st == DF_OK)
+    st = df_loop_measure (curve, &opt, &res, &diag);
+  if (st == DF_OK)
+    st = df_verdicts_measure (curve, res.samples, res.n_samples, res.length, limits, &list,
+                              &diag);
+  if (st != DF_OK)
+    {
+      g_autoptr (GError) error = NULL;
+
+      df_status_to_gerror (st, &diag, &error);
+      g_ptr_array_add (lines, (g_strdup_printf ("Limits not checked: %s",
+                                                                 error->message)));
+    }
+  for (size_t k = 0; st == DF_OK && k < list.n; k++)
+    {
+      const df_verdict *v = &list.items[k];
+      const df_limit *l = &limits->item[v->limit];
+      df_limit_kind kind = df_limit_kind_of (v->limit);
+      const char *vu = kind == DF_LIMIT_KIND_LENGTH ? u
+                       : kind == DF_LIMIT_KIND_RATIO ? "" : df_limit_kind_units (kind);
+      g_autoptr (GString) t = g_string_new (NULL);
+
+      g_string_append_printf (t, "%s: %s \xe2\x80\x94 worst %s%s%s against the limit %s%s%s",
+                              limit_name (v->limit), v->within ? "within" : "EXCEEDED",
+                              v->has_value ? num (x, v->value, 5) : "unbounded",
+                              *vu ? " " : "", vu, num (x, v->threshold, 5), *vu ? " " : "", vu);
+      if (v->has_where)
+        g_string_append_printf (t, ", from s = %s to %s %s%s, worst at s = %s %s",
+                                num (x, v->s0, 6), num (x, v->s1, 6), u,
+                                v->s0 > v->s1 ? " (through the start)" : "",
+                                num (x, v->s_worst, 6), u);
+      if (v->has_tow)
+        g_string_append_printf (t, "; tow inner edge compressed about %s %%",
+                                num (x, 100 * v->tow_compression, 3));
+      g_string_append_printf (t, ". Source: %s.", l->source != NULL ? l->source : "none given");
+      g_ptr_array_add (lines, (g_string_free (g_steal_pointer (&t), FALSE)));
+    }
+  if (st == DF_OK && res.bounds_disc && res.area > 0)
+    {
+      df_darts d;
+      int least = 0;
+
+      if (df_darts_compute (res.enclosed_curvature_rad, res.area, 1, &d, NULL) == DF_OK)
+        {
+          g_autoptr (GString) t = g_string_new (NULL);
+
+          g_string_append_printf (t, "Darts: one %s of %s\xc2\xb0 lets a flat sheet fit",
+                                  d.gusset ? "gusset (inserted)" : "dart (removed)",
+                                  num (x, fabs (d.omega_rad) * 180 / G_PI, 4));
+          if (limits->item[DF_LIMIT_MAX_SHEAR].set
+              && df_darts_least_count (res.enclosed_curvature_rad,
+                                       limits->item[DF_LIMIT_MAX_SHEAR].model_value * G_PI / 180,
+                                       &least, NULL) == DF_OK && least > 0)
+            g_string_append_printf (t, ", or %d of %s\xc2\xb0 each within max-shear-deg", least,
+                                    num (x, fabs (d.omega_rad) / least * 180 / G_PI, 4));
+          g_string_append_printf (t, "; each about %s %s long (estimate).",
+                                  num (x, d.length, 4), u);
+          g_ptr_array_add (lines, (g_string_free (g_steal_pointer (&t), FALSE)));
+        }
+    }
+  *checked = st == DF_OK;
+  *n_exceeded = (guint) list.n_exceeded;
+  df_verdict_list_clear (&list);
+  df_loop_result_clear (&res);
+  g_ptr_array_add (lines, NULL);
+  return (char **) g_ptr_array_free (lines, FALSE);
+}
+
