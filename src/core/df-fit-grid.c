@@ -340,9 +340,30 @@ df_fit_grid (const double (*xyz)[3], size_t n, double tolerance, df_fn **out,
           hi[k] = fmax (hi[k], xyz[i][k]);
         }
     }
-  if (!(hi[0] > lo[0]) || !(hi[1] > lo[1]))
-    return df_diag_fail (diag, DF_E_INPUT, -1, "the points lie on a line (%s is constant)",
-                         hi[0] > lo[0] ? "y" : "x");
+  {
+    /* All on one line (any direction): the spread of (x, y) across its main axis vanishes. */
+    double mx = 0.0, my = 0.0, sxx = 0.0, syy = 0.0, sxy = 0.0, tr, det, lmin;
+
+    for (size_t i = 0; i < n; i++)
+      {
+        mx += xyz[i][0] / (double) n;
+        my += xyz[i][1] / (double) n;
+      }
+    for (size_t i = 0; i < n; i++)
+      {
+        double dx = xyz[i][0] - mx, dy = xyz[i][1] - my;
+
+        sxx += dx * dx;
+        syy += dy * dy;
+        sxy += dx * dy;
+      }
+    tr = sxx + syy;
+    det = sxx * syy - sxy * sxy;
+    lmin = 0.5 * (tr - sqrt (fmax (tr * tr - 4.0 * det, 0.0)));
+    if (!(lmin > 1e-12 * tr))
+      return df_diag_fail (diag, DF_E_INPUT, -1, "the points lie on a line in (x, y): they "
+                           "span no area to fit a surface over");
+  }
   c.xs = malloc (sizeof (double) * n);
   c.ys = malloc (sizeof (double) * n);
   if (c.xs == NULL || c.ys == NULL)
