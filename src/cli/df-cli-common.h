@@ -72,5 +72,9 @@ void      df_cli_chart_names         (const df_surface *surface, const char **u_
 /* "surface of revolution" or "graph z = f(x, y)". */
 const char *df_cli_kind_text         (const df_surface *surface);
 
+/* For a surface fitted to data: "Fit: N points, RMS ..., max ... at (x, y, z), tolerance ...
+ * (given | chosen by GCV)" and the noise caution; nothing for formulas. */
+void      df_cli_print_fit           (const df_surface *surface, const char *units);
+
 /* Prints a finished JSON document (builder's root) on stdout. */
 void      df_cli_print_json          (JsonBuilder *builder);

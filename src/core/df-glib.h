@@ -5,8 +5,10 @@
 #include <glib.h>
 
 #include "df-curve.h"
+#include "df-data-csv.h"
 #include "df-expr.h"
 #include "df-expr-parse.h"
+#include "df-fit.h"
 #include "df-geometry.h"
 #include "df-geodesic.h"
 #include "df-io-error.h"
