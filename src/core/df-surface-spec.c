@@ -77,6 +77,7 @@ df_surface_spec_copy (const df_surface_spec *spec)
   copy->data_path = g_strdup (spec->data_path);
   copy->base_dir = g_strdup (spec->base_dir);
   copy->fit_tolerance_text = g_strdup (spec->fit_tolerance_text);
+  copy->data_sha256 = g_strdup (spec->data_sha256);
   return copy;
 }
 
@@ -96,6 +97,7 @@ df_surface_spec_free (df_surface_spec *spec)
   g_free (spec->data_path);
   g_free (spec->base_dir);
   g_free (spec->fit_tolerance_text);
+  g_free (spec->data_sha256);
   g_free (spec);
 }
 
@@ -309,7 +311,7 @@ is_surface_key (const char *key)
 {
   static const char *const keys[] = { "kind", "preset", "r", "z", "t-min", "t-max", "x-min",
                                       "x-max", "y-min", "y-max", "units", "profile", "heights",
-                                      "fit-tolerance", NULL };
+                                      "fit-tolerance", "data-sha256", NULL };
 
   return g_strv_contains (keys, key);
 }
@@ -366,6 +368,26 @@ read_data_keys (GKeyFile *key_file, const char *source, df_surface_spec *spec, c
       return FALSE;
     }
   spec->base_dir = g_path_get_dirname (source);
+  {
+    g_autofree char *path = df_surface_spec_data_file (spec);
+    g_autofree char *saved = _df_key_file_get_text (key_file, GROUP_SURFACE, "data-sha256",
+                                                    FALSE, source, NULL);
+
+    spec->data_sha256 = df_data_file_sha256 (path, error);
+    if (spec->data_sha256 == NULL)
+      {
+        g_prefix_error (error, "%s: [%s] %s: ", source, GROUP_SURFACE, key);
+        return FALSE;
+      }
+    if (saved != NULL && g_ascii_strcasecmp (saved, spec->data_sha256) != 0)
+      {
+        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "%s: [%s] %s: the data file %s has "
+                     "changed since this file was saved (SHA-256 %.12s... now, %.12s... then): "
+                     "check it and import it again; it is not re-fitted silently", source,
+                     GROUP_SURFACE, key, path, spec->data_sha256, saved);
+        return FALSE;
+      }
+  }
   if (g_key_file_has_key (key_file, GROUP_SURFACE, "fit-tolerance", NULL))
     {
       double tol;
@@ -408,7 +430,7 @@ df_surface_spec_from_key_file (GKeyFile *key_file, const char *source, GError **
       {
         g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
                      "%s: [%s] unknown key '%s' (known: kind, preset, r, z, t-min, t-max, "
-                     "x-min, x-max, y-min, y-max, units, profile, heights, fit-tolerance)", source, GROUP_SURFACE, keys[i]);
+                     "x-min, x-max, y-min, y-max, units, profile, heights, fit-tolerance, data-sha256)", source, GROUP_SURFACE, keys[i]);
         return NULL;
       }
 
@@ -529,9 +551,15 @@ df_surface_spec_to_key_file (const df_surface_spec *spec, GKeyFile *key_file)
   if (spec->data_key != NULL)
     {
       g_key_file_set_string (key_file, GROUP_SURFACE, spec->data_key, spec->data_path);
+      g_autofree char *path = df_surface_spec_data_file (spec);
+      g_autofree char *sha = spec->data_sha256 != NULL ? g_strdup (spec->data_sha256)
+                                                       : df_data_file_sha256 (path, NULL);
+
       if (spec->fit_tolerance_text != NULL)
         g_key_file_set_string (key_file, GROUP_SURFACE, "fit-tolerance",
                                spec->fit_tolerance_text);
+      if (sha != NULL)
+        g_key_file_set_string (key_file, GROUP_SURFACE, "data-sha256", sha);
     }
   if (rev && spec->data_key == NULL)
     g_key_file_set_string (key_file, GROUP_SURFACE, "r", spec->r_text ? spec->r_text : "");

@@ -20,7 +20,8 @@
  *   kind=revolution  profile=mould.csv   (header r,z; points in order along the profile)
  *   kind=graph       heights=panel.csv   (header x,y,z; a full grid of heights)
  *   fit-tolerance=0.01                   # optional: RMS distance the fit may keep, in units;
- *                                        # 0 interpolates; absent: chosen from the data (GCV) */
+ *                                        # 0 interpolates; absent: chosen from the data (GCV)
+ *   data-sha256=...                      # written on save; checked on load */
 #pragma once
 
 #include <glib.h>
@@ -44,6 +45,9 @@ typedef struct
   char      *data_path;
   char      *base_dir;
   char      *fit_tolerance_text;
+  /* SHA-256 of the data file as first read (key data-sha256): a saved project records it,
+   * and a file that changed since is reported on load, never silently re-fitted. */
+  char      *data_sha256;
 } df_surface_spec;
 
 /* A surface fitted to the data file path (key "profile" for a revolution, "heights" for a
