@@ -146,6 +146,8 @@ typedef struct
   double    *w;            /* work: count_x x ny */
   double    *v;            /* work: count_x x count_y */
   double    *u;            /* work: nx x count_y */
+  int       *by_first;     /* the y basis at each ys[j], computed once */
+  double    *by_val;
   double     scale_x, scale_y;
 } grid_ctx;
 
@@ -194,18 +196,24 @@ grid_solve (grid_ctx *c, double lambda, double *trace, df_diag *diag)
       gsl_matrix_free (ay);
       return DF_E_NOMEM;
     }
-  for (size_t j = 0; j < c->ny; j++)
+  /* V = W By row by row (contiguous in both), then transposed into t. */
+  memset (c->v, 0, sizeof (double) * (size_t) mx * (size_t) my);
+  for (int a = 0; a < mx; a++)
     {
-      int f = df_bspline_eval_basis (&g->by, c->ys[j], 0, v);
+      const double *wr = c->w + (size_t) a * c->ny;
+      double *vr = c->v + (size_t) a * my;
 
-      for (int m = 0; m <= g->by.degree; m++)
+      for (size_t j = 0; j < c->ny; j++)
         {
-          double *tr = gsl_matrix_ptr (t, (size_t) (f + m), 0);
+          const double *bv = c->by_val + j * (DF_BSPLINE_MAX_DEGREE + 1);
 
-          for (int a = 0; a < mx; a++)
-            tr[a] += v[0][m] * c->w[(size_t) a * c->ny + j];
+          for (int m = 0; m <= g->by.degree; m++)
+            vr[c->by_first[j] + m] += bv[m] * wr[j];
         }
     }
+  for (int a = 0; a < mx; a++)
+    for (int b = 0; b < my; b++)
+      gsl_matrix_set (t, (size_t) b, (size_t) a, c->v[(size_t) a * my + b]);
   tv = gsl_matrix_submatrix (t, 0, 0, (size_t) my, (size_t) mx);
   gsl_linalg_cholesky_band_svxm (ay, &tv.matrix);
   for (int a = 0; a < mx; a++)
@@ -250,19 +258,20 @@ grid_residuals (grid_ctx *c, bool normal, df_fit_info *info)
         }
     }
   info->max = 0.0;
-  for (size_t j = 0; j < c->ny; j++)
-    {
-      int f = df_bspline_eval_basis (&g->by, c->ys[j], 1, vy);
-
-      for (size_t i = 0; i < c->nx; i++)
+  for (size_t i = 0; i < c->nx; i++)
+    for (size_t j = 0; j < c->ny; j++)
         {
+          int f = c->by_first[j];
           const double *ur = c->u + i * (size_t) my + f;
           double z = 0.0, zx = 0.0, zy = 0.0, d;
 
+          if (normal)
+            df_bspline_eval_basis (&g->by, c->ys[j], 1, vy);
           for (int b = 0; b <= q; b++)
             {
-              z += ur[b] * vy[0][b];
-              zy += ur[b] * vy[1][b];
+              z += ur[b] * c->by_val[j * (DF_BSPLINE_MAX_DEGREE + 1) + b];
+              if (normal)
+                zy += ur[b] * vy[1][b];
               if (normal)
                 zx += u1[i * (size_t) my + f + b] * vy[0][b];
             }
@@ -278,7 +287,6 @@ grid_residuals (grid_ctx *c, bool normal, df_fit_info *info)
               info->max_at[2] = c->z[i * c->ny + j];
             }
         }
-    }
   free (u1);
   info->points = c->nx * c->ny;
   info->rms = sqrt (sum / (double) info->points);
@@ -424,10 +432,21 @@ df_fit_grid (const double (*xyz)[3], size_t n, double tolerance, df_fn **out,
   g->theta = malloc (sizeof (double) * (size_t) mx * (size_t) my);
   c.w = malloc (sizeof (double) * (size_t) mx * c.ny);
   c.u = malloc (sizeof (double) * c.nx * (size_t) my);
-  if (g->theta == NULL || c.w == NULL || c.u == NULL)
+  c.v = malloc (sizeof (double) * (size_t) mx * (size_t) my);
+  c.by_first = malloc (sizeof (int) * c.ny);
+  c.by_val = malloc (sizeof (double) * c.ny * (DF_BSPLINE_MAX_DEGREE + 1));
+  if (g->theta == NULL || c.w == NULL || c.u == NULL || c.v == NULL || c.by_first == NULL
+      || c.by_val == NULL)
     {
       st = DF_E_NOMEM;
       goto out;
+    }
+  for (size_t j = 0; j < c.ny; j++)
+    {
+      double v[4][DF_BSPLINE_MAX_DEGREE + 1];
+
+      c.by_first[j] = df_bspline_eval_basis (&g->by, c.ys[j], 0, v);
+      memcpy (c.by_val + j * (DF_BSPLINE_MAX_DEGREE + 1), v[0], sizeof v[0]);
     }
   c.g = g;
   c.scale_x = df_bspline_lambda_scale (&g->bx, c.nx, c.xs);
@@ -464,6 +483,9 @@ out:
   free (c.z);
   free (c.w);
   free (c.u);
+  free (c.v);
+  free (c.by_first);
+  free (c.by_val);
   free (owner);
   return st;
 }

@@ -58,7 +58,8 @@ _df_fit_choose_lambda (_df_fit_trial trial, void *ctx, double tolerance, double 
             lo = mid;
           else
             hi = mid;
-          if (fabs (rms - tolerance) <= 1e-3 * tolerance)
+          /* Within 1 % of the tolerance is as close as the tolerance itself is known. */
+          if (fabs (rms - tolerance) <= 1e-2 * tolerance)
             break;
         }
       *lambda = exp (lo);
