@@ -86,8 +86,10 @@ main (int argc, char **argv)
       {
         double a = 2 * G_PI * i / np;
 
-        uv[i][0] = 250 + 120 * cos (a) + 10 * cos (5 * a);
-        uv[i][1] = 250 + 90 * sin (a);
+        double cx = 0.5 * (dom[0] + dom[1]), w = dom[1] - dom[0];
+
+        uv[i][0] = cx + 0.24 * w * cos (a) + 0.02 * w * cos (5 * a);
+        uv[i][1] = cx + 0.18 * w * sin (a);
       }
     for (int rep = 0; rep < 7; rep++)
       {
