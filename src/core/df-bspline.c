@@ -20,11 +20,15 @@ df_bspline_eval_basis (const df_bspline *b, double x, int nder,
   int p = b->degree, s;
   double u = (x - b->a) / b->h, tau, hk = 1.0;
 
-  s = (int) floor (u);
-  if (s < 0)
+  /* Clamp before the conversion: a non-finite or huge x must not overflow the int. */
+  if (!(u >= 0.0))
     s = 0;
-  if (s > b->spans - 1)
+  else if (!(u < (double) b->spans))
     s = b->spans - 1;
+  else
+    s = (int) floor (u);
+  if (!isfinite (u))
+    u = s;
   tau = u - s;
   N[0][0] = 1.0;
   for (int d = 1; d <= p; d++)
