@@ -279,6 +279,46 @@ test_domain (void)
   g_assert_nonnull (strstr (diag.detail, "60"));
 }
 
+/* Scattered points of the paraboloid (uniform in the square, fixed seed, with a hole round
+ * (35, 35)): the same closed form, and a loop through the hole is refused. */
+static void
+test_paraboloid_scattered (void)
+{
+  const size_t n = 20000;
+  g_autofree double (*xyz)[3] = g_malloc (n * sizeof *xyz);
+  gsl_rng *rng = gsl_rng_alloc (gsl_rng_mt19937);
+  df_fit_info info;
+  size_t k = 0;
+
+  gsl_rng_set (rng, 42);
+  while (k < n)
+    {
+      double x = gsl_rng_uniform (rng) * 100 - 50, y = gsl_rng_uniform (rng) * 100 - 50;
+
+      if (hypot (x - 35, y - 35) < 8)
+        continue;
+      xyz[k][0] = x;
+      xyz[k][1] = y;
+      xyz[k][2] = A_PARA * (x * x + y * y);
+      k++;
+    }
+  gsl_rng_free (rng);
+  {
+    g_autoptr (df_surface) s = grid_surface ((const double (*)[3]) xyz, n, 0.0, &info);
+    double uv[4][2] = { { 30, 30 }, { 40, 30 }, { 40, 40 }, { 30, 40 } };
+    df_curve *c = NULL;
+    df_diag diag;
+
+    g_assert_cmpuint (info.points, ==, n);
+    g_assert_cmpfloat (info.rms, <, 1e-8);
+    /* A quadratic lies in the penalty's null space: the fit reproduces it to rounding. */
+    df_assert_close (centred_circle (s, 30), paraboloid_want (30), 0.0, 1e-6);
+    g_assert_cmpint (df_curve_new_through_points (s, (const double (*)[2]) uv, 4, true, &c,
+                                                  &diag), !=, DF_OK);
+    g_assert_nonnull (strstr (diag.detail, "covered by the data"));
+  }
+}
+
 static void
 expect_profile_error (const double (*rz)[2], size_t n, long row, const char *word)
 {
@@ -371,6 +411,7 @@ main (int argc, char **argv)
   g_test_add_func ("/core/fit/paraboloid-noise", test_paraboloid_noise);
   g_test_add_func ("/core/fit/paraboloid-gcv", test_paraboloid_gcv);
   g_test_add_func ("/core/fit/domain", test_domain);
+  g_test_add_func ("/core/fit/paraboloid-scattered", test_paraboloid_scattered);
   g_test_add_func ("/core/fit/bad-profiles", test_bad_profiles);
   g_test_add_func ("/core/fit/bad-grids", test_bad_grids);
   return g_test_run ();

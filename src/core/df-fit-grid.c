@@ -381,11 +381,17 @@ df_fit_grid (const double (*xyz)[3], size_t n, double tolerance, df_fn **out,
     }
   c.nx = distinct (xyz, n, 0, 1e-7 * (hi[0] - lo[0]), c.xs);
   c.ny = distinct (xyz, n, 1, 1e-7 * (hi[1] - lo[1]), c.ys);
-  if (c.nx * c.ny > 2 * n || c.nx < MIN_NODES || c.ny < MIN_NODES)
+  if (c.nx * c.ny > 2 * n)
     {
-      st = df_diag_fail (diag, DF_E_INPUT, -1, "the points are no lattice (%zu distinct x and "
-                         "%zu distinct y for %zu points; at least %d a side): give a full grid "
-                         "of heights", c.nx, c.ny, n, MIN_NODES);
+      /* Far more lattice nodes than points: scattered points, not a grid with holes. */
+      free (c.xs);
+      free (c.ys);
+      return _df_fit_scattered (xyz, n, lo, hi, tolerance, out, info, diag);
+    }
+  if (c.nx < MIN_NODES || c.ny < MIN_NODES)
+    {
+      st = df_diag_fail (diag, DF_E_INPUT, -1, "a grid of %zu x %zu heights: a quintic height "
+                         "map needs at least %d a side", c.nx, c.ny, MIN_NODES);
       goto out;
     }
   c.z = malloc (sizeof (double) * c.nx * c.ny);

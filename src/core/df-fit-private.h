@@ -18,3 +18,9 @@ df_status _df_fit_choose_lambda (_df_fit_trial trial, void *ctx, double toleranc
 extern const df_fn_type _df_fit_grid_type;
 extern const df_fn_type _df_fit_profile_type;
 const df_fit_info *_df_fit_grid_info (const void *data);
+extern const df_fn_type _df_fit_scattered_type;
+const df_fit_info *_df_fit_scattered_info (const void *data);
+/* Points that form no lattice (df-fit-scattered.c); lo, hi their bounding box. */
+df_status _df_fit_scattered (const double (*xyz)[3], size_t n, const double lo[2],
+                             const double hi[2], double tolerance, df_fn **out,
+                             df_fit_info *info, df_diag *diag);

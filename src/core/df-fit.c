@@ -511,11 +511,14 @@ df_fit_get_info (const df_fn *fn, df_fit_info *info)
 {
   const profile_data *p = df_fn_get_data (fn, &_df_fit_profile_type);
   const void *g = df_fn_get_data (fn, &_df_fit_grid_type);
+  const void *sc = df_fn_get_data (fn, &_df_fit_scattered_type);
 
   if (p != NULL)
     *info = p->info;
   else if (g != NULL)
     *info = *_df_fit_grid_info (g);
+  else if (sc != NULL)
+    *info = *_df_fit_scattered_info (sc);
   else
     return false;
   return true;

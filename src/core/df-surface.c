@@ -495,6 +495,10 @@ df_surface_new_graph_fn (df_fn *f, double x_min, double x_max, double y_min, dou
         double y = y_min + (y_max - y_min) * k / (GRAPH_CHECK_SAMPLES - 1);
         df_chart_jet j;
 
+        /* Data with gaps: only where the function is defined. */
+        if (!df_fn_contains (f, x, y))
+          continue;
+
         st = df_surface_eval (s, x, y, 2, &j, diag);
         if (st != DF_OK)
           {
