@@ -49,7 +49,9 @@ df_status df_fit_profile  (const double (*rz)[2],
  * method of Currie, Durban & Eilers 2006, in the separable "sandwich" form whose smoother is
  * the Kronecker product of the two one-dimensional ones), so a 1000 x 1000 grid costs two
  * banded solves per direction. DF_E_INPUT for a lattice with a missing or repeated node
- * (named), fewer than 8 nodes a side, or points that are no lattice. */
+ * (named), fewer than 8 nodes a side, or points all on one line. Points that form no lattice
+ * (more than twice as many lattice nodes as points) are fitted as scattered points
+ * (df-fit-scattered.c), whose domain leaves out the knot cells without data. */
 df_status df_fit_grid     (const double (*xyz)[3],
                            size_t          n,
                            double          tolerance,
