@@ -242,6 +242,61 @@ test_measure_examples (void)
   }
 }
 
+/* The data examples: the bowl mould is a sphere crown R = 120 mm, so the ring at t = 60 mm
+ * (polar angle 0.5 rad) carries 2 pi (1 - cos 0.5), Gauss-Bonnet (do Carmo sec. 4-5, from
+ * memory); the scanned panel reports its fit and the holonomy's sensitivity to it. */
+static void
+test_measure_data (void)
+{
+  g_autofree char *mould = g_build_filename (DF_EXAMPLES_DIR, "mould.surface", NULL);
+  g_autofree char *ring = g_build_filename (DF_EXAMPLES_DIR, "mould-ring.csv", NULL);
+  g_autofree char *panel = g_build_filename (DF_EXAMPLES_DIR, "panel-scan.surface", NULL);
+  g_autofree char *patch = g_build_filename (DF_EXAMPLES_DIR, "panel-patch.csv", NULL);
+
+  {
+    g_autoptr (JsonParser) parser = json_parser_new ();
+    g_auto (cli_run) r = { 0 };
+    JsonObject *o, *fit;
+
+    run_cli (&r, "measure", "--surface", mould, "--loop", ring, "--json", NULL);
+    g_assert_cmpint (r.status, ==, 0);
+    o = parse_object (parser, r.out);
+    df_assert_close (get_number (o, "holonomy_rad"), 2 * G_PI * (1 - cos (0.5)), 0.0, 1e-6);
+    fit = json_object_get_object_member (o, "fit");
+    g_assert_nonnull (fit);
+    g_assert_cmpint ((int) get_number (fit, "points"), ==, 121);
+    g_assert_cmpfloat (get_number (fit, "rms"), <, 1e-5);
+  }
+  {
+    g_autoptr (JsonParser) parser = json_parser_new ();
+    g_auto (cli_run) r = { 0 };
+    JsonObject *o, *fit;
+    JsonArray *at;
+
+    run_cli (&r, "measure", "--surface", panel, "--loop", patch, "--json", NULL);
+    g_assert_cmpint (r.status, ==, 0);
+    o = parse_object (parser, r.out);
+    fit = json_object_get_object_member (o, "fit");
+    g_assert_nonnull (fit);
+    g_assert_cmpint ((int) get_number (fit, "points"), ==, 61 * 41);
+    /* make-data.py adds Gaussian noise of 0.02 mm; the fit keeps at most that. */
+    g_assert_cmpfloat (get_number (fit, "rms"), <=, 0.02 * 1.001);
+    g_assert_cmpfloat (get_number (fit, "rms"), >, 0.015);
+    g_assert_cmpfloat (get_number (fit, "max"), >=, get_number (fit, "rms"));
+    df_assert_close (get_number (fit, "tolerance"), 0.02, 1e-12, 0.0);
+    at = json_object_get_array_member (fit, "max_at");
+    g_assert_cmpuint (json_array_get_length (at), ==, 3);
+    g_assert_cmpfloat (get_number (o, "fit_sensitivity_rad"), <, 1e-2);
+    g_assert_cmpfloat (get_number (o, "fit_sensitivity_rad"), >, 0.0);
+  }
+  {
+    g_auto (cli_run) r = { 0 };
+
+    run_cli (&r, "measure", "--surface", mould, "--loop", patch, NULL);
+    g_assert_cmpint (r.status, ==, 2);
+  }
+}
+
 /* Sphere of radius R at polar angle t (do Carmo sec. 4-3, from memory): g = diag(R^2,
  * R^2 sin^2 t), Gamma^t_phiphi = -sin t cos t, Gamma^phi_tphi = cot t, K = 1/R^2, both
  * principal curvatures of magnitude 1/R, R^t_phitphi = K g_phiphi = sin^2 t. */
@@ -676,6 +731,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);
+  g_test_add_func ("/cli/measure/data", test_measure_data);
   g_test_add_func ("/cli/probe/sphere", test_probe_sphere);
   g_test_add_func ("/cli/probe/pole", test_probe_pole);
   g_test_add_func ("/cli/probe/saddle", test_probe_saddle);

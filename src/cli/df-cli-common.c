@@ -2,6 +2,8 @@
  * driftframe-cli (see df-cli-common.h). CLI layer: no geometry is computed here. */
 #include "df-cli-common.h"
 
+#include "df-fit.h"
+
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -248,4 +250,24 @@ df_cli_print_json (JsonBuilder *builder)
   g_autofree char *text = df_json_to_string (root, TRUE);
 
   fputs (text, stdout);
+}
+
+void
+df_cli_print_fit (const df_surface *surface, const char *units)
+{
+  df_fit_info info;
+  char a[40], b[40], c[3][40], t[40];
+
+  if (!df_fit_get_info (df_surface_get_fn (surface), &info))
+    return;
+  printf ("Fit:     %zu points, RMS distance %s %s, max %s %s at (%s, %s, %s); tolerance %s %s "
+          "(%s)\n", info.points, df_cli_num (a, sizeof a, info.rms, 3), units,
+          df_cli_num (b, sizeof b, info.max, 3), units,
+          df_cli_num (c[0], sizeof c[0], info.max_at[0], 6),
+          df_cli_num (c[1], sizeof c[1], info.max_at[1], 6),
+          df_cli_num (c[2], sizeof c[2], info.max_at[2], 6),
+          df_cli_num (t, sizeof t, info.tolerance, 3), units,
+          info.chosen ? "chosen from the data by GCV" : "fit-tolerance given");
+  printf ("         curvature is a second derivative of fitted data: K at a point is noisier "
+          "than a loop's holonomy\n");
 }

@@ -78,6 +78,9 @@ const char *df_cli_kind_text         (const df_surface *surface);
  * (pointers into spec, surface and label: they must outlive the context). */
 df_csv_context df_cli_csv_context    (const df_surface_spec *spec, const df_surface *surface,
                                       const char *label);
+/* For a surface fitted to data: "Fit: N points, RMS ..., max ... at (x, y, z), tolerance ...
+ * (given | chosen by GCV)" and the noise caution; nothing for formulas. */
+void      df_cli_print_fit           (const df_surface *surface, const char *units);
 
 /* Prints a finished JSON document (builder's root) on stdout. */
 void      df_cli_print_json          (JsonBuilder *builder);

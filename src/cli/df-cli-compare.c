@@ -89,6 +89,7 @@ run (compare_options *o)
       df_json_add_double (j, "angle_rad", angle);
       json_builder_set_member_name (j, "normal_side");
       json_builder_add_string_value (j, df_surface_normal_side (surface));
+      df_json_add_fit (j, surface);
       json_builder_set_member_name (j, "units");
       json_builder_add_string_value (j, spec->units);
       df_json_add_double (j, "tolerance", topt.rel_tol);
@@ -104,6 +105,7 @@ run (compare_options *o)
       printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label,
               df_cli_kind_text (surface), spec->units);
       printf ("Normal:  %s\n", df_surface_normal_side (surface));
+      df_cli_print_fit (surface, spec->units);
       printf ("Paths:   A = %s, B = %s (common ends)\n\n", o->path_a, o->path_b);
       printf ("A direction carried along B arrives turned %s deg (%s rad) from the same "
               "direction carried along A,\nmeasured anticlockwise about N at the end point.\n",

@@ -98,6 +98,7 @@ run (geodesic_options *o)
       df_json_add_geodesic (j, &result);
       json_builder_set_member_name (j, "normal_side");
       json_builder_add_string_value (j, df_surface_normal_side (surface));
+      df_json_add_fit (j, surface);
       json_builder_set_member_name (j, "units");
       json_builder_add_string_value (j, spec->units);
       json_builder_set_member_name (j, "caution");
@@ -112,6 +113,7 @@ run (geodesic_options *o)
       printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label,
               df_cli_kind_text (surface), spec->units);
       printf ("Normal:  %s\n", df_surface_normal_side (surface));
+      df_cli_print_fit (surface, spec->units);
       printf ("Start:   %s = %s, %s = %s, heading %s deg from the %s direction (anticlockwise "
               "about N)\n\n", un, df_cli_num (a, sizeof a, u, 10), vn,
               df_cli_num (b, sizeof b, v, 10), df_cli_num (c, sizeof c, heading_deg, 10), un);

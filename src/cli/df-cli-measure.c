@@ -1,6 +1,7 @@
 /* df-cli-measure.c: `driftframe-cli measure`: reads a surface and a closed loop (CSV), measures
  * the loop with the core (df_loop_measure) and prints the holonomy, the enclosed curvature and
  * the steering figures as text or JSON, optionally writing the per-sample CSV. */
+#include <math.h>
 #include <stdio.h>
 
 #include "df-cli-commands.h"
@@ -38,9 +39,45 @@ add_fairing_json (JsonBuilder *b, const df_fair_info *fair, gsize n_points)
   json_builder_end_object (b);
 }
 
+/* For a surface from data: the largest change of the holonomy when the fit tolerance is
+ * halved and doubled (the same loop points, refitted), an error bar on the figure. FALSE when
+ * a refit or its measurement fails (the figure is then left out, not guessed). */
+static gboolean
+fit_sensitivity (const df_surface_spec *spec, const df_surface *surface, const double (*uv)[2],
+                 gsize n, const df_loop_options *lopt, double holonomy, double *out)
+{
+  df_fit_info info;
+  double worst = 0.0;
+
+  if (spec->data_key == NULL || !df_fit_get_info (df_surface_get_fn (surface), &info)
+      || !(info.tolerance > 0.0))
+    return FALSE;
+  for (int k = 0; k < 2; k++)
+    {
+      g_autoptr (df_surface_spec) alt = df_surface_spec_copy (spec);
+      g_autoptr (df_surface) s = NULL;
+      g_autoptr (df_curve) c = NULL;
+      g_auto (df_loop_result) r = { 0 };
+      char text[G_ASCII_DTOSTR_BUF_SIZE];
+
+      g_free (alt->fit_tolerance_text);
+      alt->fit_tolerance_text = g_strdup (g_ascii_dtostr (text, sizeof text,
+                                                          info.tolerance * (k ? 2.0 : 0.5)));
+      s = df_surface_spec_build (alt, NULL);
+      if (s == NULL
+          || df_curve_new_through_points (s, uv, n, true, &c, NULL) != DF_OK
+          || df_loop_measure (c, lopt, &r, NULL) != DF_OK)
+        return FALSE;
+      worst = MAX (worst, fabs (df_wrap_angle (r.holonomy_rad - holonomy)));
+    }
+  *out = worst;
+  return TRUE;
+}
+
 static void
 print_json (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            const df_loop_result *r, double tol, const df_fair_info *fair, gsize n_points)
+            const df_loop_result *r, double tol, const df_fair_info *fair, gsize n_points,
+            gboolean has_sens, double sens)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -56,6 +93,9 @@ print_json (const measure_options *o, const df_surface_spec *spec, const df_surf
   json_builder_set_member_name (b, "units");
   json_builder_add_string_value (b, spec->units);
   df_json_add_double (b, "tolerance", tol);
+  df_json_add_fit (b, surface);
+  if (spec->data_key != NULL)
+    df_json_add_double_or_null (b, "fit_sensitivity_rad", has_sens, sens);
   json_builder_set_member_name (b, "caution");
   json_builder_add_string_value (b, DF_CLI_CAUTION);
   json_builder_end_object (b);
@@ -73,13 +113,15 @@ print_angle_line (const char *label, double rad)
 
 static void
 print_text (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            gsize n_points, const df_loop_result *r, double tol, const df_fair_info *fair)
+            gsize n_points, const df_loop_result *r, double tol, const df_fair_info *fair,
+            gboolean has_sens, double sens)
 {
   const char *un = spec->units;
   char a[40], b[40];
 
   printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface), un);
   printf ("Normal:  %s\n", df_surface_normal_side (surface));
+  df_cli_print_fit (surface, un);
   printf ("Loop:    %s, %zu points", o->loop_path, n_points);
   if (r->axis_winding != 0)
     printf (", winds %d time%s around the axis", r->axis_winding,
@@ -95,6 +137,11 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
                              "their spacing; the lightest fairing is used)");
 
   print_angle_line ("Holonomy (about N, + anticlockwise):", r->holonomy_rad);
+  if (has_sens)
+    print_angle_line ("  moves with the fit (tolerance x0.5, x2):", sens);
+  else if (spec->data_key != NULL)
+    printf ("%-38s not available (a refit failed or the fit interpolates)\n",
+            "  moves with the fit:");
   if (r->bounds_disc)
     {
       print_angle_line ("Enclosed curvature (integral K dA):", r->enclosed_curvature_rad);
@@ -214,10 +261,18 @@ run (measure_options *o)
         return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
     }
 
-  if (o->json)
-    print_json (o, spec, surface, &result, lopt.rel_tol, o->fair_text ? &fair : NULL, n);
-  else
-    print_text (o, spec, surface, n, &result, lopt.rel_tol, o->fair_text ? &fair : NULL);
+  {
+    double sens = 0.0;
+    gboolean has_sens = fit_sensitivity (spec, surface, (const double (*)[2]) uv, n, &lopt,
+                                         result.holonomy_rad, &sens);
+
+    if (o->json)
+      print_json (o, spec, surface, &result, lopt.rel_tol, o->fair_text ? &fair : NULL, n,
+                  has_sens, sens);
+    else
+      print_text (o, spec, surface, n, &result, lopt.rel_tol, o->fair_text ? &fair : NULL,
+                  has_sens, sens);
+  }
   return DF_CLI_EXIT_OK;
 }
 

@@ -5,9 +5,11 @@
 #include <glib.h>
 
 #include "df-curve.h"
+#include "df-data-csv.h"
 #include "df-expr.h"
 #include "df-expr-parse.h"
 #include "df-fair.h"
+#include "df-fit.h"
 #include "df-geometry.h"
 #include "df-geodesic.h"
 #include "df-io-error.h"

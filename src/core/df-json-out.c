@@ -2,6 +2,8 @@
  * json-glib's JsonBuilder, with non-finite values as null. Reader/writer layer (GLib). */
 #include "df-json-out.h"
 
+#include "df-fit.h"
+
 #include <math.h>
 #include <string.h>
 
@@ -285,4 +287,24 @@ df_json_write (const char *path, JsonNode *root, GError **error)
   g_autofree char *text = df_json_to_string (root, TRUE);
 
   return df_write_file_atomic (path, text, -1, error);
+}
+
+void
+df_json_add_fit (JsonBuilder *b, const df_surface *surface)
+{
+  df_fit_info info;
+
+  if (!df_fit_get_info (df_surface_get_fn (surface), &info))
+    return;
+  json_builder_set_member_name (b, "fit");
+  json_builder_begin_object (b);
+  json_builder_set_member_name (b, "points");
+  json_builder_add_int_value (b, (gint64) info.points);
+  df_json_add_double (b, "rms", info.rms);
+  df_json_add_double (b, "max", info.max);
+  df_json_add_vector (b, "max_at", info.max_at, 3);
+  df_json_add_double (b, "tolerance", info.tolerance);
+  json_builder_set_member_name (b, "tolerance_chosen");
+  json_builder_add_string_value (b, info.chosen ? "gcv" : "given");
+  json_builder_end_object (b);
 }

@@ -27,6 +27,9 @@ void     df_json_add_vector         (JsonBuilder *builder, const char *name, con
  * without a disc), concentrated_curvature_rad, total_geodesic_curvature_rad, length,
  * min_steering_radius (null for a geodesic loop), max_abs_geodesic_curvature, samples (count),
  * bounds_disc, disc_on_left, simple, axis_winding, note, rhs_evaluations, norm_drift. */
+/* Member "fit" {points, rms, max, max_at [x, y, z], tolerance, tolerance_chosen} for a surface
+ * fitted to data; nothing for a formula surface. */
+void     df_json_add_fit            (JsonBuilder *builder, const df_surface *surface);
 void     df_json_add_loop_result    (JsonBuilder *builder, const df_loop_result *result);
 /* Members of a point's geometry: u, v, chart_regular, point, normal, metric [[g11, g12],
  * [g21, g22]], christoffel [k][i][j] = Gamma^k_ij, riemann [r][s][m][n] = R^r_smn,

@@ -13,7 +13,15 @@
  *   units=mm                   # optional, default mm
  *   [parameters]               # optional, in order; values may use earlier parameters
  *   R=120
- * A graph has z=f(x, y) and x-min, x-max, y-min, y-max. Range values are expressions too. */
+ * A graph has z=f(x, y) and x-min, x-max, y-min, y-max. Range values are expressions too.
+ *
+ * Surfaces from data (df-fit.h) name a CSV file instead of formulas and ranges, relative to
+ * the file that names them:
+ *   kind=revolution  profile=mould.csv   (header r,z; points in order along the profile)
+ *   kind=graph       heights=panel.csv   (header x,y,z; a full grid of heights)
+ *   fit-tolerance=0.01                   # optional: RMS distance the fit may keep, in units;
+ *                                        # 0 interpolates; absent: chosen from the data (GCV)
+ *   data-sha256=...                      # written on save; checked on load */
 #pragma once
 
 #include <glib.h>
@@ -30,7 +38,24 @@ typedef struct
   char      *range_text[4]; /* t-min, t-max, (unused, unused)  or  x-min, x-max, y-min, y-max */
   df_params *params;
   char      *units;         /* "mm" unless given */
+  /* A surface from data: data_key "profile" or "heights" (NULL for formulas), data_path as
+   * written, base_dir the folder of the file naming it (NULL: the working folder), and the
+   * fit-tolerance text (NULL: chosen from the data). */
+  char      *data_key;
+  char      *data_path;
+  char      *base_dir;
+  char      *fit_tolerance_text;
+  /* SHA-256 of the data file as first read (key data-sha256): a saved project records it,
+   * and a file that changed since is reported on load, never silently re-fitted. */
+  char      *data_sha256;
 } df_surface_spec;
+
+/* A surface fitted to the data file path (key "profile" for a revolution, "heights" for a
+ * graph). */
+df_surface_spec *df_surface_spec_new_data       (df_surface_type kind, const char *path,
+                                                 const char *fit_tolerance_text);
+/* The data file's path as opened (base_dir applied; g_free), or NULL for formulas. */
+char            *df_surface_spec_data_file      (const df_surface_spec *spec);
 
 df_surface_spec *df_surface_spec_new_revolution (const char *r_text, const char *z_text,
                                                  const char *t_min_text, const char *t_max_text);

@@ -1,5 +1,6 @@
-/* df-surface.c: surfaces of revolution and graphs as const method tables over formula jets:
- * X and its partial derivatives to third order, exactly, from forward-mode differentiation.
+/* df-surface.c: surfaces of revolution and graphs as const method tables over a defining
+ * function (df-fn.h: a formula or a fitted spline): X and its partial derivatives to third
+ * order, exactly, from the function's own derivatives.
  * Plain C + libm; no GLib. */
 #include "df-surface.h"
 
@@ -35,7 +36,7 @@ typedef struct
 struct df_surface
 {
   const df_surface_kind *kind;
-  df_expr *e[2];          /* revolution: r, z; graph: f, NULL */
+  df_fn   *fn;            /* revolution: (r, z)(t); graph: f(x, y) */
   double   dom[4];        /* u_min, u_max, v_min, v_max */
   double   margin[2];     /* tolerated excess beyond the u and v ranges */
   double   lo[3], hi[3];
@@ -46,40 +47,22 @@ struct df_surface
 };
 
 static df_status
-eval_expr_jet (const df_expr *e, const df_jet *vars, df_jet *out, const char *what, double u,
-               double v, df_diag *diag)
-{
-  df_diag local;
-  df_status st = df_expr_eval_jet (e, vars, out, &local);
-
-  /* Inside the chart's range a failing formula is a singular value of the surface, not a
-   * point outside it. */
-  if (st != DF_OK)
-    return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "%s: %s", what, local.detail);
-  return DF_OK;
-}
-
-static df_status
 revolution_eval (const df_surface *s, double t, double phi, int order, df_chart_jet *out,
                  df_diag *diag)
 {
-  df_jet tj, rj, zj;
+  df_fn_jet d;
   double r[4], z[4], c, sn;
   df_status st;
 
-  df_jet_var (&tj, t, 0);
-  if ((st = eval_expr_jet (s->e[0], &tj, &rj, "r(t)", t, phi, diag)) != DF_OK)
+  if ((st = df_fn_eval (s->fn, t, 0.0, order, d, diag)) != DF_OK)
     return st;
-  if ((st = eval_expr_jet (s->e[1], &tj, &zj, "z(t)", t, phi, diag)) != DF_OK)
-    return st;
-  r[0] = rj.c[DF_JET_D];
-  z[0] = zj.c[DF_JET_D];
-  r[1] = df_jet_deriv (&rj, DF_JET_DX);
-  z[1] = df_jet_deriv (&zj, DF_JET_DX);
-  r[2] = df_jet_deriv (&rj, DF_JET_DXX);
-  z[2] = df_jet_deriv (&zj, DF_JET_DXX);
-  r[3] = df_jet_deriv (&rj, DF_JET_DXXX);
-  z[3] = df_jet_deriv (&zj, DF_JET_DXXX);
+  for (int k = 0; k < 4; k++)
+    {
+      static const df_jet_index idx[4] = { DF_JET_D, DF_JET_DX, DF_JET_DXX, DF_JET_DXXX };
+
+      r[k] = k <= order ? d[0][idx[k]] : 0.0;
+      z[k] = k <= order ? d[1][idx[k]] : 0.0;
+    }
   c = cos (phi);
   sn = sin (phi);
 
@@ -109,33 +92,32 @@ revolution_eval (const df_surface *s, double t, double phi, int order, df_chart_
 static df_status
 graph_eval (const df_surface *s, double x, double y, int order, df_chart_jet *out, df_diag *diag)
 {
-  df_jet vars[2], f;
+  df_fn_jet d;
+  const double *f = d[0];
   df_status st;
 
-  df_jet_var (&vars[0], x, 0);
-  df_jet_var (&vars[1], y, 1);
-  if ((st = eval_expr_jet (s->e[0], vars, &f, "z(x, y)", x, y, diag)) != DF_OK)
+  if ((st = df_fn_eval (s->fn, x, y, order, d, diag)) != DF_OK)
     return st;
 
   memset (out, 0, sizeof *out);
-  out->x[0] = x; out->x[1] = y; out->x[2] = f.c[DF_JET_D];
+  out->x[0] = x; out->x[1] = y; out->x[2] = f[DF_JET_D];
   if (order >= 1)
     {
-      out->d1[0][0] = 1.0; out->d1[0][2] = df_jet_deriv (&f, DF_JET_DX);
-      out->d1[1][1] = 1.0; out->d1[1][2] = df_jet_deriv (&f, DF_JET_DY);
+      out->d1[0][0] = 1.0; out->d1[0][2] = f[DF_JET_DX];
+      out->d1[1][1] = 1.0; out->d1[1][2] = f[DF_JET_DY];
     }
   if (order >= 2)
     {
-      out->d2[0][2] = df_jet_deriv (&f, DF_JET_DXX);
-      out->d2[1][2] = df_jet_deriv (&f, DF_JET_DXY);
-      out->d2[2][2] = df_jet_deriv (&f, DF_JET_DYY);
+      out->d2[0][2] = f[DF_JET_DXX];
+      out->d2[1][2] = f[DF_JET_DXY];
+      out->d2[2][2] = f[DF_JET_DYY];
     }
   if (order >= 3)
     {
-      out->d3[0][2] = df_jet_deriv (&f, DF_JET_DXXX);
-      out->d3[1][2] = df_jet_deriv (&f, DF_JET_DXXY);
-      out->d3[2][2] = df_jet_deriv (&f, DF_JET_DXYY);
-      out->d3[3][2] = df_jet_deriv (&f, DF_JET_DYYY);
+      out->d3[0][2] = f[DF_JET_DXXX];
+      out->d3[1][2] = f[DF_JET_DXXY];
+      out->d3[2][2] = f[DF_JET_DXYY];
+      out->d3[3][2] = f[DF_JET_DYYY];
     }
   return DF_OK;
 }
@@ -156,38 +138,28 @@ jet_finite (const df_chart_jet *j)
   return true;
 }
 
-/* The point alone, on doubles: a tenth of the cost of a jet evaluation, and what chord lengths,
- * seed grids and meshes need. */
+/* The point alone: for a formula a tenth of the cost of a jet evaluation, and what chord
+ * lengths, seed grids and meshes need. */
 static df_status
 point_eval (const df_surface *s, double u, double v, df_chart_jet *out, df_diag *diag)
 {
-  df_diag local;
+  df_fn_jet d;
   df_status st;
 
   memset (out, 0, sizeof *out);
+  if ((st = df_fn_eval (s->fn, u, v, 0, d, diag)) != DF_OK)
+    return st;
   if (s->kind->type == DF_SURFACE_REVOLUTION)
     {
-      double r, z;
-
-      if ((st = df_expr_eval (s->e[0], &u, &r, &local)) != DF_OK
-          || (st = df_expr_eval (s->e[1], &u, &z, &local)) != DF_OK)
-        return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "%s: %s",
-                                st == DF_OK ? "z(t)" : "r(t) or z(t)", local.detail);
-      out->x[0] = r * cos (v);
-      out->x[1] = r * sin (v);
-      out->x[2] = z;
+      out->x[0] = d[0][DF_JET_D] * cos (v);
+      out->x[1] = d[0][DF_JET_D] * sin (v);
+      out->x[2] = d[1][DF_JET_D];
       return DF_OK;
     }
-  {
-    double xy[2] = { u, v }, f;
-
-    if ((st = df_expr_eval (s->e[0], xy, &f, &local)) != DF_OK)
-      return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "z(x, y): %s", local.detail);
-    out->x[0] = u;
-    out->x[1] = v;
-    out->x[2] = f;
-    return DF_OK;
-  }
+  out->x[0] = u;
+  out->x[1] = v;
+  out->x[2] = d[0][DF_JET_D];
+  return DF_OK;
 }
 
 /* t wrapped into [t_min, t_max) for a closed profile. */
@@ -210,7 +182,8 @@ df_surface_contains (const df_surface *s, double u, double v)
     return false;
   if (s->kind->type == DF_SURFACE_REVOLUTION)
     return isfinite (v);
-  return v >= s->dom[2] - s->margin[1] && v <= s->dom[3] + s->margin[1];
+  return v >= s->dom[2] - s->margin[1] && v <= s->dom[3] + s->margin[1]
+         && df_fn_contains (s->fn, u, v);
 }
 
 df_status
@@ -224,9 +197,13 @@ df_surface_eval (const df_surface *s, double u, double v, int order, df_chart_je
       if (s->kind->type == DF_SURFACE_REVOLUTION)
         return df_diag_fail_at (diag, DF_E_DOMAIN, -1, u, v, "t outside [%.6g, %.6g]",
                                 s->dom[0], s->dom[1]);
+      if (u >= s->dom[0] - s->margin[0] && u <= s->dom[1] + s->margin[0]
+          && v >= s->dom[2] - s->margin[1] && v <= s->dom[3] + s->margin[1])
+        return df_diag_fail_at (diag, DF_E_DOMAIN, -1, u, v, "(x, y) = (%.6g, %.6g) is "
+                                "outside the region covered by the data", u, v);
       return df_diag_fail_at (diag, DF_E_DOMAIN, -1, u, v,
-                              "(x, y) outside [%.6g, %.6g] x [%.6g, %.6g]",
-                              s->dom[0], s->dom[1], s->dom[2], s->dom[3]);
+                              "(x, y) = (%.6g, %.6g) outside [%.6g, %.6g] x [%.6g, %.6g]",
+                              u, v, s->dom[0], s->dom[1], s->dom[2], s->dom[3]);
     }
   u = wrap_u (s, u);
   if (order == 0)
@@ -264,15 +241,14 @@ bbox_finish (df_surface *s)
 }
 
 static df_surface *
-surface_alloc (const df_surface_kind *kind, df_expr *a, df_expr *b)
+surface_alloc (const df_surface_kind *kind, df_fn *fn)
 {
   df_surface *s = calloc (1, sizeof *s);
 
   if (s == NULL)
     return NULL;
   s->kind = kind;
-  s->e[0] = a;
-  s->e[1] = b;
+  s->fn = fn;
   for (int k = 0; k < 3; k++)
     {
       s->lo[k] = INFINITY;
@@ -343,10 +319,8 @@ df_status
 df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, df_surface **out,
                            df_diag *diag)
 {
-  df_surface *s;
-  double rs[PROFILE_CHECK_SAMPLES], speed_max = 0.0, r_max = 0.0;
-  double profile_length = 0.0, prev[2] = { 0.0, 0.0 };
-  df_status st;
+  static const char *const names[2] = { "r(t)", "z(t)" };
+  df_fn *fn;
 
   *out = NULL;
   df_diag_clear (diag);
@@ -356,17 +330,37 @@ df_surface_new_revolution (df_expr *r, df_expr *z, double t_min, double t_max, d
       df_expr_free (z);
       return df_diag_fail (diag, DF_E_INPUT, -1, "missing profile formula");
     }
+  fn = df_fn_new_formula (1, 2, (df_expr *[2]) { r, z }, names);
+  if (fn == NULL)
+    return DF_E_NOMEM;
+  return df_surface_new_revolution_fn (fn, t_min, t_max, out, diag);
+}
+
+df_status
+df_surface_new_revolution_fn (df_fn *fn, double t_min, double t_max, df_surface **out,
+                              df_diag *diag)
+{
+  df_surface *s;
+  double rs[PROFILE_CHECK_SAMPLES], speed_max = 0.0, r_max = 0.0;
+  double profile_length = 0.0, prev[2] = { 0.0, 0.0 };
+  df_status st;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (fn == NULL || df_fn_dim (fn) != 1 || df_fn_n_out (fn) != 2)
+    {
+      df_fn_free (fn);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "missing profile function (r, z)(t)");
+    }
   if ((st = check_range ("t-min", "t-max", t_min, t_max, diag)) != DF_OK)
     {
-      df_expr_free (r);
-      df_expr_free (z);
+      df_fn_free (fn);
       return st;
     }
-  s = surface_alloc (&revolution_kind, r, z);
+  s = surface_alloc (&revolution_kind, fn);
   if (s == NULL)
     {
-      df_expr_free (r);
-      df_expr_free (z);
+      df_fn_free (fn);
       return DF_E_NOMEM;
     }
   s->dom[0] = t_min;
@@ -503,23 +497,43 @@ df_status
 df_surface_new_graph (df_expr *f, double x_min, double x_max, double y_min, double y_max,
                       df_surface **out, df_diag *diag)
 {
-  df_surface *s;
-  df_status st;
+  static const char *const names[1] = { "z(x, y)" };
+  df_fn *fn;
 
   *out = NULL;
   df_diag_clear (diag);
   if (f == NULL)
     return df_diag_fail (diag, DF_E_INPUT, -1, "missing formula z(x, y)");
+  fn = df_fn_new_formula (2, 1, &f, names);
+  if (fn == NULL)
+    return DF_E_NOMEM;
+  return df_surface_new_graph_fn (fn, x_min, x_max, y_min, y_max, out, diag);
+}
+
+df_status
+df_surface_new_graph_fn (df_fn *f, double x_min, double x_max, double y_min, double y_max,
+                         df_surface **out, df_diag *diag)
+{
+  df_surface *s;
+  df_status st;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (f == NULL || df_fn_dim (f) != 2 || df_fn_n_out (f) != 1)
+    {
+      df_fn_free (f);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "missing height function z(x, y)");
+    }
   if ((st = check_range ("x-min", "x-max", x_min, x_max, diag)) != DF_OK
       || (st = check_range ("y-min", "y-max", y_min, y_max, diag)) != DF_OK)
     {
-      df_expr_free (f);
+      df_fn_free (f);
       return st;
     }
-  s = surface_alloc (&graph_kind, f, NULL);
+  s = surface_alloc (&graph_kind, f);
   if (s == NULL)
     {
-      df_expr_free (f);
+      df_fn_free (f);
       return DF_E_NOMEM;
     }
   s->dom[0] = x_min;
@@ -534,6 +548,10 @@ df_surface_new_graph (df_expr *f, double x_min, double x_max, double y_min, doub
         double x = x_min + (x_max - x_min) * ((double) i / (GRAPH_CHECK_SAMPLES - 1));
         double y = y_min + (y_max - y_min) * ((double) k / (GRAPH_CHECK_SAMPLES - 1));
         df_chart_jet j;
+
+        /* Data with gaps: only where the function is defined. */
+        if (!df_fn_contains (f, x, y))
+          continue;
 
         st = df_surface_eval (s, x, y, 2, &j, diag);
         if (st != DF_OK)
@@ -568,11 +586,10 @@ df_surface_copy (const df_surface *s)
   if (c == NULL)
     return NULL;
   *c = *s;
-  c->e[0] = df_expr_copy (s->e[0]);
-  c->e[1] = s->e[1] ? df_expr_copy (s->e[1]) : NULL;
-  if (c->e[0] == NULL || (s->e[1] != NULL && c->e[1] == NULL))
+  c->fn = df_fn_copy (s->fn);
+  if (c->fn == NULL)
     {
-      df_surface_free (c);
+      free (c);
       return NULL;
     }
   return c;
@@ -583,9 +600,14 @@ df_surface_free (df_surface *s)
 {
   if (s == NULL)
     return;
-  df_expr_free (s->e[0]);
-  df_expr_free (s->e[1]);
+  df_fn_free (s->fn);
   free (s);
+}
+
+const df_fn *
+df_surface_get_fn (const df_surface *s)
+{
+  return s->fn;
 }
 
 df_surface_type

@@ -7,6 +7,7 @@
 #include <stdbool.h>
 
 #include "df-expr.h"
+#include "df-fn.h"
 #include "df-status.h"
 
 typedef struct df_surface df_surface;
@@ -56,6 +57,25 @@ df_status   df_surface_new_graph      (df_expr     *f,
                                        double       y_max,
                                        df_surface **out,
                                        df_diag     *diag);
+
+/* The same from any defining function (df-fn.h): profile (r, z)(t) of dimension 1 with two
+ * outputs, or height f(x, y) of dimension 2 with one; takes ownership of fn (freed also on
+ * failure) and runs the same checks. A fitted function gives its own range
+ * (df_fn_get_domain), and may cover only part of the rectangle (df_fn_contains). */
+df_status   df_surface_new_revolution_fn (df_fn       *fn,
+                                          double       t_min,
+                                          double       t_max,
+                                          df_surface **out,
+                                          df_diag     *diag);
+df_status   df_surface_new_graph_fn   (df_fn       *f,
+                                       double       x_min,
+                                       double       x_max,
+                                       double       y_min,
+                                       double       y_max,
+                                       df_surface **out,
+                                       df_diag     *diag);
+/* The defining function (owned by the surface). */
+const df_fn *df_surface_get_fn        (const df_surface *surface);
 
 df_surface *df_surface_copy           (const df_surface *surface);
 void        df_surface_free           (df_surface *surface);   /* NULL is a no-op */

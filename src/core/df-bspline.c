@@ -1,0 +1,288 @@
+/* df-bspline.c: uniform B-spline basis with derivatives, and the penalised one-dimensional
+ * smoother (banded normal equations). Plain C + libm + GSL; no GLib. */
+#include "df-bspline.h"
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_linalg.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define PENALTY_ORDER 3
+
+int
+df_bspline_eval_basis (const df_bspline *b, double x, int nder,
+                       double vals[4][DF_BSPLINE_MAX_DEGREE + 1])
+{
+  /* N[d][m] = B_{m-d,d}(tau) on the unit span [0, 1): the Cox-de Boor recursion on integer
+   * knots, B_{i,d} = (x - i)/d B_{i,d-1} + (i + d + 1 - x)/d B_{i+1,d-1}. */
+  double N[DF_BSPLINE_MAX_DEGREE + 1][DF_BSPLINE_MAX_DEGREE + 1];
+  int p = b->degree, s;
+  double u = (x - b->a) / b->h, tau, hk = 1.0;
+
+  /* Clamp before the conversion: a non-finite or huge x must not overflow the int. */
+  if (!(u >= 0.0))
+    s = 0;
+  else if (!(u < (double) b->spans))
+    s = b->spans - 1;
+  else
+    s = (int) floor (u);
+  if (!isfinite (u))
+    u = s;
+  tau = u - s;
+  N[0][0] = 1.0;
+  for (int d = 1; d <= p; d++)
+    for (int m = 0; m <= d; m++)
+      {
+        double left = m >= 1 ? (tau - m + d) / d * N[d - 1][m - 1] : 0.0;
+        double right = m <= d - 1 ? (m + 1 - tau) / d * N[d - 1][m] : 0.0;
+
+        N[d][m] = left + right;
+      }
+  /* k-th derivative (unit spacing): sum_j (-1)^j C(k, j) B_{i+j, p-k}. */
+  for (int k = 0; k <= nder && k <= 3; k++)
+    {
+      static const double binom[4][4] = { { 1 }, { 1, 1 }, { 1, 2, 1 }, { 1, 3, 3, 1 } };
+
+      for (int m = 0; m <= p; m++)
+        {
+          double sum = 0.0;
+
+          if (k <= p)
+            for (int j = 0; j <= k; j++)
+              {
+                int idx = m + j - k;
+
+                if (idx >= 0 && idx <= p - k)
+                  sum += ((j & 1) ? -1.0 : 1.0) * binom[k][j] * N[p - k][idx];
+              }
+          vals[k][m] = sum / hk;
+        }
+      hk *= b->h;
+    }
+  return s;
+}
+
+/* D_q^T D_q for q = 3 is banded with half-width 3: entry (i, i + o) accumulates
+ * d_r[i - r] d_r[i + o - r] over the difference rows r. */
+static void
+add_penalty (gsl_matrix *ab, int count, double lambda)
+{
+  static const double d[PENALTY_ORDER + 1] = { -1.0, 3.0, -3.0, 1.0 };
+
+  for (int r = 0; r + PENALTY_ORDER < count; r++)
+    for (int i = 0; i <= PENALTY_ORDER; i++)
+      for (int j = i; j <= PENALTY_ORDER; j++)
+        {
+          double *e = gsl_matrix_ptr (ab, (size_t) (r + i), (size_t) (j - i));
+
+          *e += lambda * d[i] * d[j];
+        }
+}
+
+double
+df_bspline_lambda_scale (const df_bspline *b, size_t n, const double *x)
+{
+  double tr_b = 0.0, tr_p = 20.0 * fmax (1, df_bspline_count (b) - PENALTY_ORDER);
+  double v[4][DF_BSPLINE_MAX_DEGREE + 1];
+
+  for (size_t i = 0; i < n; i++)
+    {
+      df_bspline_eval_basis (b, x[i], 0, v);
+      for (int m = 0; m <= b->degree; m++)
+        tr_b += v[0][m] * v[0][m];
+    }
+  return tr_b / tr_p;
+}
+
+df_status
+df_bspline_smooth (const df_bspline *b, size_t n, const double *x, const double *y, int ncol,
+                   double lambda, const df_bspline_constraint *cons, int ncons, double *coef,
+                   double *trace_h, df_diag *diag)
+{
+  int count = df_bspline_count (b), p = b->degree, bw = p + 1;
+  gsl_matrix *ab = gsl_matrix_calloc ((size_t) count, (size_t) bw);
+  gsl_matrix *g = trace_h ? gsl_matrix_calloc ((size_t) count, (size_t) bw) : NULL;
+  gsl_vector *rhs = gsl_vector_alloc ((size_t) count);
+  gsl_matrix *ct = NULL;
+  df_status st = DF_OK;
+  double v[4][DF_BSPLINE_MAX_DEGREE + 1];
+  int err;
+
+  if (ab == NULL || rhs == NULL || (trace_h && g == NULL))
+    {
+      st = DF_E_NOMEM;
+      goto out;
+    }
+  memset (coef, 0, sizeof (double) * (size_t) count * (size_t) ncol);
+  for (size_t i = 0; i < n; i++)
+    {
+      int f = df_bspline_eval_basis (b, x[i], 0, v);
+
+      for (int m = 0; m <= p; m++)
+        {
+          for (int l = m; l <= p; l++)
+            {
+              *gsl_matrix_ptr (ab, (size_t) (f + m), (size_t) (l - m)) += v[0][m] * v[0][l];
+              if (g)
+                *gsl_matrix_ptr (g, (size_t) (f + m), (size_t) (l - m)) += v[0][m] * v[0][l];
+            }
+          for (int c = 0; c < ncol; c++)
+            coef[(size_t) (f + m) * ncol + c] += v[0][m] * y[i * ncol + c];
+        }
+    }
+  add_penalty (ab, count, lambda);
+  if ((err = gsl_linalg_cholesky_band_decomp (ab)) != GSL_SUCCESS)
+    {
+      st = df_diag_fail (diag, DF_E_SINGULAR, -1, "too few points for the spline (%d "
+                         "coefficients): the fit is not determined", count);
+      goto out;
+    }
+  for (int c = 0; c < ncol; c++)
+    {
+      for (int i = 0; i < count; i++)
+        gsl_vector_set (rhs, (size_t) i, coef[(size_t) i * ncol + c]);
+      gsl_linalg_cholesky_band_svx (ab, rhs);
+      for (int i = 0; i < count; i++)
+        coef[(size_t) i * ncol + c] = gsl_vector_get (rhs, (size_t) i);
+    }
+
+  if (ncons > 0)
+    {
+      /* Exact conditions by the Schur complement: c = c0 - A^-1 C^T mu with
+       * (C A^-1 C^T) mu = C c0 - d. Few conditions, each touching degree + 1 coefficients. */
+      gsl_matrix *s = gsl_matrix_calloc ((size_t) ncons, (size_t) ncons);
+      gsl_vector *r = gsl_vector_alloc ((size_t) ncons);
+      gsl_permutation *perm = gsl_permutation_alloc ((size_t) ncons);
+      int sign;
+
+      ct = gsl_matrix_calloc ((size_t) count, (size_t) ncons);
+      for (int k = 0; k < ncons; k++)
+        {
+          int f = df_bspline_eval_basis (b, cons[k].x, cons[k].deriv, v);
+          double cc0 = 0.0;
+
+          for (int m = 0; m <= p; m++)
+            {
+              gsl_matrix_set (ct, (size_t) (f + m), (size_t) k, v[cons[k].deriv][m]);
+              cc0 += v[cons[k].deriv][m] * coef[(size_t) (f + m) * ncol + cons[k].col];
+            }
+          gsl_vector_set (r, (size_t) k, cc0 - cons[k].value);
+        }
+      /* ct <- A^-1 C^T, then S = C A^-1 C^T, only among conditions on one column. */
+      {
+        gsl_matrix *craw = gsl_matrix_alloc ((size_t) count, (size_t) ncons);
+
+        gsl_matrix_memcpy (craw, ct);
+        gsl_linalg_cholesky_band_svxm (ab, ct);
+        for (int k = 0; k < ncons; k++)
+          for (int l = 0; l < ncons; l++)
+            {
+              double sum = 0.0;
+
+              if (cons[k].col == cons[l].col)
+                for (int i = 0; i < count; i++)
+                  sum += gsl_matrix_get (craw, (size_t) i, (size_t) k)
+                         * gsl_matrix_get (ct, (size_t) i, (size_t) l);
+              gsl_matrix_set (s, (size_t) k, (size_t) l, sum);
+            }
+        gsl_matrix_free (craw);
+      }
+      if (gsl_linalg_LU_decomp (s, perm, &sign) != GSL_SUCCESS
+          || gsl_linalg_LU_svx (s, perm, r) != GSL_SUCCESS)
+        st = df_diag_fail (diag, DF_E_SINGULAR, -1, "the end conditions of the fit conflict");
+      else
+        for (int k = 0; k < ncons; k++)
+          for (int i = 0; i < count; i++)
+            coef[(size_t) i * ncol + cons[k].col] -= gsl_matrix_get (ct, (size_t) i, (size_t) k)
+                                                     * gsl_vector_get (r, (size_t) k);
+      gsl_matrix_free (s);
+      gsl_vector_free (r);
+      gsl_permutation_free (perm);
+    }
+
+  if (st == DF_OK && trace_h)
+    {
+      /* tr(A^-1 G), G = B^T B: column by column of A^-1 within G's band. */
+      double tr = 0.0;
+
+      for (int j = 0; j < count; j++)
+        {
+          gsl_vector_set_zero (rhs);
+          gsl_vector_set (rhs, (size_t) j, 1.0);
+          gsl_linalg_cholesky_band_svx (ab, rhs);
+          for (int i = (j - p > 0 ? j - p : 0); i <= j + p && i < count; i++)
+            {
+              int lo = i < j ? i : j, hi = i < j ? j : i;
+
+              tr += gsl_vector_get (rhs, (size_t) i) * gsl_matrix_get (g, (size_t) lo,
+                                                                        (size_t) (hi - lo));
+            }
+        }
+      *trace_h = tr;
+    }
+  for (size_t i = 0; st == DF_OK && i < (size_t) count * (size_t) ncol; i++)
+    if (!isfinite (coef[i]))
+      st = df_diag_fail (diag, DF_E_NONFINITE, -1, "the fit gave a non-finite coefficient");
+out:
+  gsl_matrix_free (ab);
+  if (g)
+    gsl_matrix_free (g);
+  if (ct)
+    gsl_matrix_free (ct);
+  if (rhs)
+    gsl_vector_free (rhs);
+  return st;
+}
+
+gsl_matrix *
+df_bspline_factor (const df_bspline *b, size_t n, const double *x, double lambda,
+                   double *trace_h)
+{
+  int count = df_bspline_count (b), p = b->degree;
+  gsl_matrix *ab = gsl_matrix_calloc ((size_t) count, (size_t) p + 1);
+  gsl_matrix *g = gsl_matrix_calloc ((size_t) count, (size_t) p + 1);
+  gsl_vector *e = gsl_vector_alloc ((size_t) count);
+  double v[4][DF_BSPLINE_MAX_DEGREE + 1];
+
+  if (ab == NULL || g == NULL || e == NULL)
+    goto fail;
+  for (size_t i = 0; i < n; i++)
+    {
+      int f = df_bspline_eval_basis (b, x[i], 0, v);
+
+      for (int m = 0; m <= p; m++)
+        for (int l = m; l <= p; l++)
+          *gsl_matrix_ptr (g, (size_t) (f + m), (size_t) (l - m)) += v[0][m] * v[0][l];
+    }
+  gsl_matrix_memcpy (ab, g);
+  add_penalty (ab, count, lambda);
+  if (gsl_linalg_cholesky_band_decomp (ab) != GSL_SUCCESS)
+    goto fail;
+  if (trace_h)
+    {
+      double tr = 0.0;
+
+      for (int j = 0; j < count; j++)
+        {
+          gsl_vector_set_basis (e, (size_t) j);
+          gsl_linalg_cholesky_band_svx (ab, e);
+          for (int i = (j - p > 0 ? j - p : 0); i <= j + p && i < count; i++)
+            {
+              int lo = i < j ? i : j, hi = i < j ? j : i;
+
+              tr += gsl_vector_get (e, (size_t) i) * gsl_matrix_get (g, (size_t) lo,
+                                                                      (size_t) (hi - lo));
+            }
+        }
+      *trace_h = tr;
+    }
+  gsl_matrix_free (g);
+  gsl_vector_free (e);
+  return ab;
+fail:
+  gsl_matrix_free (ab);
+  gsl_matrix_free (g);
+  gsl_vector_free (e);
+  return NULL;
+}
