@@ -494,6 +494,34 @@ test_demo_verdicts (void)
   g_assert_nonnull (strstr (text, "Geometric indicators only"));
 }
 
+/* A surface from data: the record names the data file with its SHA-256 (computed here by GLib)
+ * and the fit's quality, and shows its picture. */
+static void
+test_data_surface_record (void)
+{
+  g_autofree char *proj = g_build_filename (DF_EXAMPLES_DIR, "panel-scan.dfproj", NULL);
+  g_autofree char *data_path = g_build_filename (DF_EXAMPLES_DIR, "panel-scan.csv", NULL);
+  g_autofree char *pdf = g_build_filename (tmp_dir, "panel.pdf", NULL);
+  const char *argv[] = { DF_CLI_PATH, "report", "--project", proj, "--pdf", pdf, NULL };
+  g_auto (run_result) r = { 0 };
+  g_autofree char *text = NULL;
+  g_autofree char *data = NULL;
+  g_autofree char *sum = NULL;
+  gsize len;
+
+  if (!have_poppler ())
+    return;
+  run (&r, argv);
+  g_assert_cmpint (r.status, ==, 0);
+  text = pdf_text (pdf);
+  g_assert_true (g_file_get_contents (data_path, &data, &len, NULL));
+  sum = g_compute_checksum_for_data (G_CHECKSUM_SHA256, (const guchar *) data, len);
+  g_assert_nonnull (strstr (text, "panel-scan.csv"));
+  g_assert_nonnull (strstr (text, sum));
+  g_assert_nonnull (strstr (text, "RMS distance"));
+  g_assert_nonnull (strstr (text, "Centre ply"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -512,6 +540,7 @@ main (int argc, char **argv)
   g_test_add_func ("/report/extras-bad", test_extras_bad);
   g_test_add_func ("/report/extras-in-record", test_extras_in_record);
   g_test_add_func ("/report/demo-verdicts", test_demo_verdicts);
+  g_test_add_func ("/report/data-surface-record", test_data_surface_record);
   status = g_test_run ();
   {
     g_autoptr (GDir) dir = g_dir_open (tmp_dir, 0, NULL);

@@ -9,6 +9,7 @@
 #include <pango/pangocairo.h>
 #include <string.h>
 
+#include "df-fit.h"
 #include "df-io-error.h"
 #include "df-report-picture.h"
 #include "df-report-plot.h"
@@ -84,7 +85,30 @@ df_report_fields_add_spec (df_report_fields *f, const df_surface_spec *spec,
                           : "graph z = f(x, y), chart (x, y)");
   if (spec->preset != NULL)
     df_report_fields_add (f, "Preset", spec->preset);
-  if (spec->kind == DF_SURFACE_REVOLUTION)
+  if (spec->data_key != NULL)
+    {
+      g_autofree char *path = spec->base_dir != NULL && !g_path_is_absolute (spec->data_path)
+                                ? g_build_filename (spec->base_dir, spec->data_path, NULL)
+                                : g_strdup (spec->data_path);
+      df_fit_info info;
+
+      df_report_fields_add_file (f, g_str_equal (spec->data_key, "profile") ? "Profile data"
+                                                                            : "Height data",
+                                 path);
+      if (surface != NULL && df_fit_get_info (df_surface_get_fn (surface), &info))
+        {
+          g_autofree char *text = g_strdup_printf (
+            "%zu points; RMS distance %.4g %s, largest %.4g %s at (%.6g, %.6g, %.6g); "
+            "tolerance %.4g %s (%s). Curvature from a fit amplifies the data's noise; the "
+            "holonomy of a loop is far less sensitive than K at a point.",
+            info.points, info.rms, spec->units, info.max, spec->units, info.max_at[0],
+            info.max_at[1], info.max_at[2], info.tolerance, spec->units,
+            info.chosen ? "chosen from the data by cross-validation" : "given");
+
+          df_report_fields_add (f, "Fit", text);
+        }
+    }
+  else if (spec->kind == DF_SURFACE_REVOLUTION)
     {
       df_report_fields_add (f, "r(t)", spec->r_text);
       df_report_fields_add (f, "z(t)", spec->z_text);
