@@ -1,0 +1,1615 @@
+/* df-drape.c: the pin-jointed (Chebyshev) net of a woven ply on a surface (df-drape.h).
+ *
+ * Construction. The two generators are the geodesics through the start point along the warp
+ * and the weft (90 deg anticlockwise from it), pinned every h. Every other pin P has two known
+ * neighbours A (along the warp) and B (along the weft) and lies at geodesic distance h from
+ * both: the intersection of two geodesic circles of radius h. It is found by shooting: the
+ * headings at A and B are the unknowns, each shot a geodesic of length exactly h, and Newton's
+ * method makes the two ends meet. So every thread segment is a true geodesic of length h
+ * and its end tangents come with it, which is what the exact checks need (a cell bounded by
+ * four geodesic segments obeys Gauss-Bonnet exactly). The Jacobian of an end point with
+ * respect to its heading is the Jacobi field, h (1 - K h^2 / 6 + ...) times the end tangent
+ * turned by 90 deg; taking h alone costs a convergence rate of K h^2 / 6 per step and no
+ * derivative of the Christoffel symbols.
+ *
+ * Geodesics are stepped here, not by df_geodesic_shoot: that driver adapts its step size,
+ * which makes the end point a non-smooth function of the heading (bad for Newton), and it
+ * allocates and samples per call, too heavy for some 10^5 short shots. A fixed number of GSL
+ * rk8pd steps per segment keeps the map smooth; the number is chosen once from a
+ * step-halving test on the first segment.
+ *
+ * Plain C + libm + GSL; no GLib. */
+#include "df-drape.h"
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_integration.h>
+#include <gsl/gsl_odeiv2.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "df-geometry.h"
+#include "df-vec3.h"
+
+enum { DIR_PI = 0, DIR_MI = 1, DIR_PJ = 2, DIR_MJ = 3 };
+
+static const int dir_di[4] = { 1, -1, 0, 0 };
+static const int dir_dj[4] = { 0, 0, 1, -1 };
+static const int dir_opp[4] = { DIR_MI, DIR_PI, DIR_MJ, DIR_PJ };
+
+typedef struct
+{
+  bool   valid;
+  bool   inside;
+  double uv[2];
+  double x[3], xu[3], xv[3], n[3];
+  double g[2][2];
+  double sqrt_det;
+  double gamma[2][2][2];
+  bool   has[4];
+  double out[4][2];   /* unit chart velocity of the segment leaving towards each neighbour */
+  /* derived */
+  double warp[3], weft[3];
+  double shear, deviation;
+} net_node;
+
+struct df_drape
+{
+  df_surface      *surface;
+  df_drape_options opt;
+  int              i_min, j_min, ni, nj;
+  net_node        *nodes;
+  df_drape_cell   *cells;      /* (ni - 1) x (nj - 1), valid where cell_ok */
+  bool            *cell_ok;
+  size_t           n_outline;
+  double         (*outline)[2];
+  double         (*flat)[2];
+  bool            *mapped;
+  df_drape_summary sum;
+  /* while building */
+  double           x0[3];      /* the start point in space */
+  double           dcap;       /* generators stop farther than this from it (chord) */
+};
+
+/* Which pins to place, per quadrant q (bit 0: i < 0, bit 1: j < 0): in row |j| = b, the pins
+ * 1 <= |i| <= ext[q][b], for b < rows[q]. NULL: every pin the generators allow. */
+typedef struct
+{
+  int  rows[4];
+  int *ext[4];
+} envelope;
+
+/* ---- geodesic shots ---------------------------------------------------------------------- */
+
+typedef struct
+{
+  const df_surface  *surface;
+  gsl_odeiv2_step   *step;
+  gsl_odeiv2_system  sys;
+  df_diag            fail;
+  int                substeps;
+  long               shots;
+} shooter;
+
+static int
+shot_rhs (double s, const double y[], double dydt[], void *data)
+{
+  shooter *sh = data;
+  double gamma[2][2][2];
+
+  (void) s;
+  if (df_surface_christoffel (sh->surface, y[0], y[1], gamma, &sh->fail) != DF_OK)
+    return GSL_EBADFUNC;
+  dydt[0] = y[2];
+  dydt[1] = y[3];
+  for (int k = 0; k < 2; k++)
+    dydt[2 + k] = -(gamma[k][0][0] * y[2] * y[2] + 2 * gamma[k][0][1] * y[2] * y[3]
+                    + gamma[k][1][1] * y[3] * y[3]);
+  return GSL_SUCCESS;
+}
+
+/* Geodesic of length len from uv with unit chart velocity vel; end point and velocity. */
+static bool
+shoot (shooter *sh, const double uv[2], const double vel[2], double len, int substeps,
+       double end[2], double end_vel[2])
+{
+  double y[4] = { uv[0], uv[1], vel[0], vel[1] }, yerr[4], ds = len / substeps;
+
+  sh->shots++;
+  gsl_odeiv2_step_reset (sh->step);
+  for (int k = 0; k < substeps; k++)
+    if (gsl_odeiv2_step_apply (sh->step, k * ds, ds, y, yerr, NULL, NULL, &sh->sys)
+        != GSL_SUCCESS)
+      return false;
+  if (!(isfinite (y[0]) && isfinite (y[1]) && isfinite (y[2]) && isfinite (y[3]))
+      || !df_surface_contains (sh->surface, y[0], y[1]))
+    return false;
+  end[0] = y[0];
+  end[1] = y[1];
+  end_vel[0] = y[2];
+  end_vel[1] = y[3];
+  return true;
+}
+
+/* ---- small tangent-plane helpers --------------------------------------------------------- */
+
+static double
+g_norm (const double g[2][2], const double a[2])
+{
+  return sqrt (g[0][0] * a[0] * a[0] + 2 * g[0][1] * a[0] * a[1] + g[1][1] * a[1] * a[1]);
+}
+
+/* a turned by +90 deg about N: with N = X_u x X_v / sqrt(det g) this is
+ * (-(g12 a1 + g22 a2), g11 a1 + g12 a2) / sqrt(det g). */
+static void
+g_rot (const double g[2][2], const double a[2], double out[2])
+{
+  double sd = sqrt (g[0][0] * g[1][1] - g[0][1] * g[0][1]);
+  double r0 = -(g[0][1] * a[0] + g[1][1] * a[1]) / sd, r1 = (g[0][0] * a[0] + g[0][1] * a[1]) / sd;
+
+  out[0] = r0;
+  out[1] = r1;
+}
+
+static void
+metric_at (const df_surface *s, const double uv[2], double g[2][2])
+{
+  df_chart_jet j;
+
+  if (df_surface_eval (s, uv[0], uv[1], 1, &j, NULL) != DF_OK)
+    {
+      g[0][0] = g[1][1] = 1.0;
+      g[0][1] = g[1][0] = 0.0;
+      return;
+    }
+  g[0][0] = df_dot3 (j.d1[0], j.d1[0]);
+  g[0][1] = g[1][0] = df_dot3 (j.d1[0], j.d1[1]);
+  g[1][1] = df_dot3 (j.d1[1], j.d1[1]);
+}
+
+static void
+to_space (const net_node *nd, const double a[2], double out[3])
+{
+  for (int k = 0; k < 3; k++)
+    out[k] = nd->xu[k] * a[0] + nd->xv[k] * a[1];
+}
+
+/* Unsigned angle between two space vectors in (0, pi). */
+static double
+angle_between (const double a[3], const double b[3])
+{
+  double c[3];
+
+  df_cross3 (a, b, c);
+  return atan2 (sqrt (df_dot3 (c, c)), df_dot3 (a, b));
+}
+
+/* Angle from a to b anticlockwise about n. */
+static double
+angle_about (const double a[3], const double b[3], const double n[3])
+{
+  double c[3];
+
+  df_cross3 (a, b, c);
+  return atan2 (df_dot3 (c, n), df_dot3 (a, b));
+}
+
+static double
+wrap_pi (double a)
+{
+  a = fmod (a, 2 * M_PI);
+  if (a <= -M_PI)
+    a += 2 * M_PI;
+  else if (a > M_PI)
+    a -= 2 * M_PI;
+  return a;
+}
+
+/* ---- the grid ---------------------------------------------------------------------------- */
+
+static net_node *
+node_at (const df_drape *d, int i, int j)
+{
+  int a = i - d->i_min, b = j - d->j_min;
+
+  if (a < 0 || b < 0 || a >= d->ni || b >= d->nj)
+    return NULL;
+  return &d->nodes[(size_t) b * d->ni + a];
+}
+
+static net_node *
+valid_node (const df_drape *d, int i, int j)
+{
+  net_node *n = node_at (d, i, j);
+
+  return n != NULL && n->valid ? n : NULL;
+}
+
+static bool
+point_in_polygon (const double (*poly)[2], size_t n, double u, double v)
+{
+  bool in = false;
+
+  /* Crossing number in the chart (even-odd rule). */
+  for (size_t a = 0, b = n - 1; a < n; b = a++)
+    if ((poly[a][1] > v) != (poly[b][1] > v)
+        && u < (poly[b][0] - poly[a][0]) * (v - poly[a][1]) / (poly[b][1] - poly[a][1])
+                 + poly[a][0])
+      in = !in;
+  return in;
+}
+
+/* Evaluates the node's frame, metric and Christoffel symbols at uv. */
+static bool
+node_fill (df_drape *d, net_node *nd, const double uv[2])
+{
+  df_chart_jet j;
+  double len;
+
+  if (df_surface_eval (d->surface, uv[0], uv[1], 2, &j, NULL) != DF_OK
+      || df_chart_jet_christoffel (&j, nd->gamma) != DF_OK)
+    return false;
+  nd->uv[0] = uv[0];
+  nd->uv[1] = uv[1];
+  memcpy (nd->x, j.x, sizeof nd->x);
+  memcpy (nd->xu, j.d1[0], sizeof nd->xu);
+  memcpy (nd->xv, j.d1[1], sizeof nd->xv);
+  nd->g[0][0] = df_dot3 (j.d1[0], j.d1[0]);
+  nd->g[0][1] = nd->g[1][0] = df_dot3 (j.d1[0], j.d1[1]);
+  nd->g[1][1] = df_dot3 (j.d1[1], j.d1[1]);
+  df_cross3 (j.d1[0], j.d1[1], nd->n);
+  len = sqrt (df_dot3 (nd->n, nd->n));
+  if (!(len > 0) || !isfinite (len))
+    return false;
+  for (int k = 0; k < 3; k++)
+    nd->n[k] /= len;
+  nd->sqrt_det = len;
+  nd->valid = true;
+  nd->inside = point_in_polygon ((const double (*)[2]) d->outline, d->n_outline, uv[0], uv[1]);
+  return true;
+}
+
+static void
+note_lost (df_drape *d, int i, int j, const char *why)
+{
+  d->sum.n_nodes_lost++;
+  if (d->sum.lost_note[0] == '\0')
+    snprintf (d->sum.lost_note, sizeof d->sum.lost_note, "pin (%d, %d): %s", i, j, why);
+}
+
+/* Places pin (i, j) from A = (i - si, j), B = (i, j - sj), C = (i - si, j - sj). */
+static void
+place_node (df_drape *d, shooter *sh, int i, int j, int si, int sj)
+{
+  net_node *a = valid_node (d, i - si, j), *b = valid_node (d, i, j - sj);
+  net_node *c = valid_node (d, i - si, j - sj), *p = node_at (d, i, j);
+  int da = si > 0 ? DIR_PI : DIR_MI, db = sj > 0 ? DIR_PJ : DIR_MJ;
+  double h = d->opt.cell, guess[2], ra[2], rb[2], qa[2], qb[2], ta = 0, tb = 0;
+  double va[2], vb[2], ea[2], eb[2], wa[2], wb[2], ga[2][2], gap = HUGE_VAL, len;
+  bool ok = false;
+
+  if (a == NULL || b == NULL || c == NULL || p == NULL)
+    return;
+  if (!a->has[dir_opp[db]] || !b->has[dir_opp[da]])
+    return;
+
+  /* Predictor: the chart parallelogram, right to first order. */
+  for (int k = 0; k < 2; k++)
+    guess[k] = a->uv[k] + b->uv[k] - c->uv[k];
+  for (int k = 0; k < 2; k++)
+    {
+      ra[k] = guess[k] - a->uv[k];
+      rb[k] = guess[k] - b->uv[k];
+    }
+  len = g_norm (a->g, ra);
+  if (!(len > 0))
+    goto lost;
+  ra[0] /= len;
+  ra[1] /= len;
+  len = g_norm (b->g, rb);
+  if (!(len > 0))
+    goto lost;
+  rb[0] /= len;
+  rb[1] /= len;
+  g_rot (a->g, ra, qa);
+  g_rot (b->g, rb, qb);
+
+  for (int it = 0; it < 16; it++)
+    {
+      double ca[2], cb[2], m[2][2], det, dta, dtb, res[2];
+
+      for (int k = 0; k < 2; k++)
+        {
+          va[k] = cos (ta) * ra[k] + sin (ta) * qa[k];
+          vb[k] = cos (tb) * rb[k] + sin (tb) * qb[k];
+        }
+      if (!shoot (sh, a->uv, va, h, sh->substeps, ea, wa)
+          || !shoot (sh, b->uv, vb, h, sh->substeps, eb, wb))
+        goto edge;
+      res[0] = ea[0] - eb[0];
+      res[1] = ea[1] - eb[1];
+      metric_at (d->surface, ea, ga);
+      gap = g_norm (ga, res);
+      if (gap <= 1e-13 * h)
+        {
+          ok = true;
+          break;
+        }
+      /* d(end)/d(heading) ~ h x the end tangent turned by 90 deg (the Jacobi field). */
+      g_rot (ga, wa, ca);
+      g_rot (ga, wb, cb);
+      m[0][0] = h * ca[0];
+      m[1][0] = h * ca[1];
+      m[0][1] = -h * cb[0];
+      m[1][1] = -h * cb[1];
+      det = m[0][0] * m[1][1] - m[0][1] * m[1][0];
+      if (!(fabs (det) > 0))
+        goto fold;
+      dta = (-res[0] * m[1][1] + res[1] * m[0][1]) / det;
+      dtb = (-m[0][0] * res[1] + m[1][0] * res[0]) / det;
+      ta += dta;
+      tb += dtb;
+      if (!isfinite (ta) || !isfinite (tb) || fabs (ta) > 1.0 || fabs (tb) > 1.0)
+        goto fold;
+    }
+  if (!ok)
+    {
+      /* Converged as far as rounding allows (a large, steep chart): accept a tiny gap. */
+      if (!(gap <= 1e-9 * h))
+        goto fold;
+    }
+  {
+    double mid[2] = { 0.5 * (ea[0] + eb[0]), 0.5 * (ea[1] + eb[1]) };
+    double s1[3], s2[3], s3[3];
+
+    if (!node_fill (d, p, mid))
+      goto edge;
+    /* Threads that cross at a vanishing angle mean the net folds (past any locking). */
+    {
+      double back_a[2] = { -wa[0], -wa[1] }, back_b[2] = { -wb[0], -wb[1] };
+      double angle_p, angle_a;
+
+      to_space (p, back_a, s1);
+      to_space (p, back_b, s2);
+      angle_p = angle_between (s1, s2);
+      to_space (a, va, s1);
+      to_space (a, a->out[dir_opp[db]], s3);
+      angle_a = angle_between (s1, s3);
+      if (angle_p < 1e-3 || angle_p > M_PI - 1e-3 || angle_a < 1e-3)
+        {
+          p->valid = false;
+          goto fold;
+        }
+    }
+    a->has[da] = true;
+    memcpy (a->out[da], va, sizeof va);
+    b->has[db] = true;
+    memcpy (b->out[db], vb, sizeof vb);
+    p->has[dir_opp[da]] = true;
+    p->out[dir_opp[da]][0] = -wa[0];
+    p->out[dir_opp[da]][1] = -wa[1];
+    p->has[dir_opp[db]] = true;
+    p->out[dir_opp[db]][0] = -wb[0];
+    p->out[dir_opp[db]][1] = -wb[1];
+  }
+  return;
+
+edge:
+  note_lost (d, i, j, "a thread segment leaves the surface or meets a singular point");
+  return;
+fold:
+  note_lost (d, i, j, "the threads fold onto each other (no crossing at distance h)");
+  return;
+lost:
+  note_lost (d, i, j, "degenerate neighbours");
+}
+
+/* ---- segments as quintic Hermite curves -------------------------------------------------- */
+
+typedef struct
+{
+  double p0[2], p1[2], m0[2], m1[2], a0[2], a1[2];
+} hermite;
+
+static void
+accel (const net_node *nd, const double v[2], double out[2])
+{
+  for (int k = 0; k < 2; k++)
+    out[k] = -(nd->gamma[k][0][0] * v[0] * v[0] + 2 * nd->gamma[k][0][1] * v[0] * v[1]
+               + nd->gamma[k][1][1] * v[1] * v[1]);
+}
+
+static bool
+segment_hermite (const df_drape *d, int i, int j, int dir, hermite *hm)
+{
+  const net_node *a = valid_node (d, i, j), *b = valid_node (d, i + dir_di[dir], j + dir_dj[dir]);
+  double h = d->opt.cell, v1[2], acc[2];
+
+  if (a == NULL || b == NULL || !a->has[dir] || !b->has[dir_opp[dir]])
+    return false;
+  v1[0] = -b->out[dir_opp[dir]][0];
+  v1[1] = -b->out[dir_opp[dir]][1];
+  for (int k = 0; k < 2; k++)
+    {
+      hm->p0[k] = a->uv[k];
+      hm->p1[k] = b->uv[k];
+      hm->m0[k] = h * a->out[dir][k];
+      hm->m1[k] = h * v1[k];
+    }
+  accel (a, a->out[dir], acc);
+  hm->a0[0] = h * h * acc[0];
+  hm->a0[1] = h * h * acc[1];
+  accel (b, v1, acc);
+  hm->a1[0] = h * h * acc[0];
+  hm->a1[1] = h * h * acc[1];
+  return true;
+}
+
+/* Value and first two derivatives in f of the quintic Hermite interpolant. */
+static void
+hermite_eval (const hermite *hm, double f, double p[2], double dp[2], double ddp[2])
+{
+  double f2 = f * f, f3 = f2 * f, f4 = f3 * f, f5 = f4 * f;
+  double b[6] = { 1 - 10 * f3 + 15 * f4 - 6 * f5, f - 6 * f3 + 8 * f4 - 3 * f5,
+                  0.5 * f2 - 1.5 * f3 + 1.5 * f4 - 0.5 * f5, 0.5 * f3 - f4 + 0.5 * f5,
+                  -4 * f3 + 7 * f4 - 3 * f5, 10 * f3 - 15 * f4 + 6 * f5 };
+  double db[6] = { -30 * f2 + 60 * f3 - 30 * f4, 1 - 18 * f2 + 32 * f3 - 15 * f4,
+                   f - 4.5 * f2 + 6 * f3 - 2.5 * f4, 1.5 * f2 - 4 * f3 + 2.5 * f4,
+                   -12 * f2 + 28 * f3 - 15 * f4, 30 * f2 - 60 * f3 + 30 * f4 };
+  double ddb[6] = { -60 * f + 180 * f2 - 120 * f3, -36 * f + 96 * f2 - 60 * f3,
+                    1 - 9 * f + 18 * f2 - 10 * f3, 3 * f - 12 * f2 + 10 * f3,
+                    -24 * f + 84 * f2 - 60 * f3, 60 * f - 180 * f2 + 120 * f3 };
+
+  for (int k = 0; k < 2; k++)
+    {
+      double c[6] = { hm->p0[k], hm->m0[k], hm->a0[k], hm->a1[k], hm->m1[k], hm->p1[k] };
+
+      p[k] = dp[k] = 0;
+      if (ddp)
+        ddp[k] = 0;
+      for (int q = 0; q < 6; q++)
+        {
+          p[k] += b[q] * c[q];
+          dp[k] += db[q] * c[q];
+          if (ddp)
+            ddp[k] += ddb[q] * c[q];
+        }
+    }
+}
+
+bool
+df_drape_segment_point (const df_drape *d, int i, int j, int dir, double f, double uv[2])
+{
+  hermite hm;
+  double dp[2];
+
+  if (d == NULL || dir < 0 || dir > 3 || !segment_hermite (d, i, j, dir, &hm))
+    return false;
+  hermite_eval (&hm, fmin (1.0, fmax (0.0, f)), uv, dp, NULL);
+  return true;
+}
+
+/* ---- cells: Coons patch of the four sides ------------------------------------------------- */
+
+typedef struct
+{
+  hermite bottom, top, left, right;   /* bottom (i,j)->(i+1,j), top (i,j+1)->(i+1,j+1),
+                                       * left (i,j)->(i,j+1), right (i+1,j)->(i+1,j+1) */
+} coons;
+
+static bool
+cell_coons (const df_drape *d, int i, int j, coons *c)
+{
+  return segment_hermite (d, i, j, DIR_PI, &c->bottom)
+         && segment_hermite (d, i, j + 1, DIR_PI, &c->top)
+         && segment_hermite (d, i, j, DIR_PJ, &c->left)
+         && segment_hermite (d, i + 1, j, DIR_PJ, &c->right);
+}
+
+/* Transfinite (Coons) map of the unit square onto the cell: its sides are exactly the four
+ * Hermite segments, so the region integrated over is the cell bounded by its geodesics. */
+static void
+coons_eval (const coons *c, double s, double t, double x[2], double xs[2], double xt[2])
+{
+  double b[2], bd[2], tp[2], td[2], l[2], ld[2], r[2], rd[2];
+  const double *p00 = c->bottom.p0, *p10 = c->bottom.p1, *p01 = c->top.p0, *p11 = c->top.p1;
+
+  hermite_eval (&c->bottom, s, b, bd, NULL);
+  hermite_eval (&c->top, s, tp, td, NULL);
+  hermite_eval (&c->left, t, l, ld, NULL);
+  hermite_eval (&c->right, t, r, rd, NULL);
+  for (int k = 0; k < 2; k++)
+    {
+      x[k] = (1 - t) * b[k] + t * tp[k] + (1 - s) * l[k] + s * r[k]
+             - ((1 - s) * (1 - t) * p00[k] + s * (1 - t) * p10[k] + (1 - s) * t * p01[k]
+                + s * t * p11[k]);
+      xs[k] = (1 - t) * bd[k] + t * td[k] - l[k] + r[k]
+              - (-(1 - t) * p00[k] + (1 - t) * p10[k] - t * p01[k] + t * p11[k]);
+      xt[k] = -b[k] + tp[k] + (1 - s) * ld[k] + s * rd[k]
+              - (-(1 - s) * p00[k] - s * p10[k] + (1 - s) * p01[k] + s * p11[k]);
+    }
+}
+
+typedef struct
+{
+  const df_surface *surface;
+  const coons      *c;
+  gsl_integration_glfixed_table *lo, *hi;
+  bool failed;
+} quad_ctx;
+
+static void
+quad_rule (quad_ctx *q, gsl_integration_glfixed_table *tab, double s0, double s1, double t0,
+           double t1, double *k_out, double *a_out)
+{
+  double ks = 0, as = 0;
+
+  for (size_t a = 0; a < tab->n; a++)
+    for (size_t b = 0; b < tab->n; b++)
+      {
+        double s, t, ws, wt, x[2], xs[2], xt[2], jac, ksg, sg;
+
+        gsl_integration_glfixed_point (s0, s1, a, &s, &ws, tab);
+        gsl_integration_glfixed_point (t0, t1, b, &t, &wt, tab);
+        coons_eval (q->c, s, t, x, xs, xt);
+        jac = fabs (xs[0] * xt[1] - xs[1] * xt[0]);
+        if (df_surface_k_area (q->surface, x[0], x[1], &ksg, &sg, NULL) != DF_OK)
+          {
+            q->failed = true;
+            return;
+          }
+        ks += ws * wt * ksg * jac;
+        as += ws * wt * sg * jac;
+      }
+  *k_out = ks;
+  *a_out = as;
+}
+
+/* Adaptive: a 3x3 and a 5x5 Gauss-Legendre rule on each square; split in four where they
+ * disagree. On a cell of a smooth surface the first level nearly always suffices. */
+static void
+quad_adapt (quad_ctx *q, double s0, double s1, double t0, double t1, int depth, double *k,
+            double *area)
+{
+  double k3, a3, k5, a5;
+
+  quad_rule (q, q->lo, s0, s1, t0, t1, &k3, &a3);
+  if (q->failed)
+    return;
+  quad_rule (q, q->hi, s0, s1, t0, t1, &k5, &a5);
+  if (q->failed)
+    return;
+  if (depth >= 5 || fabs (k5 - k3) <= 1e-15 + 1e-11 * fabs (k5))
+    {
+      *k += k5;
+      *area += a5;
+      return;
+    }
+  {
+    double sm = 0.5 * (s0 + s1), tm = 0.5 * (t0 + t1);
+
+    quad_adapt (q, s0, sm, t0, tm, depth + 1, k, area);
+    quad_adapt (q, sm, s1, t0, tm, depth + 1, k, area);
+    quad_adapt (q, s0, sm, tm, t1, depth + 1, k, area);
+    quad_adapt (q, sm, s1, tm, t1, depth + 1, k, area);
+  }
+}
+
+/* Inverts the Coons map by Newton's method: (s, t) of chart point q in the cell. */
+static bool
+coons_invert (const coons *c, const double q[2], double st[2])
+{
+  st[0] = st[1] = 0.5;
+  for (int it = 0; it < 30; it++)
+    {
+      double x[2], xs[2], xt[2], det, ds, dt, r[2];
+
+      coons_eval (c, st[0], st[1], x, xs, xt);
+      r[0] = x[0] - q[0];
+      r[1] = x[1] - q[1];
+      det = xs[0] * xt[1] - xs[1] * xt[0];
+      if (!(fabs (det) > 0))
+        return false;
+      ds = (-r[0] * xt[1] + r[1] * xt[0]) / det;
+      dt = (-xs[0] * r[1] + xs[1] * r[0]) / det;
+      st[0] += ds;
+      st[1] += dt;
+      if (!isfinite (st[0]) || !isfinite (st[1]) || fabs (st[0]) > 3 || fabs (st[1]) > 3)
+        return false;
+      if (fabs (ds) + fabs (dt) < 1e-14)
+        break;
+    }
+  return st[0] >= -1e-9 && st[0] <= 1 + 1e-9 && st[1] >= -1e-9 && st[1] <= 1 + 1e-9;
+}
+
+/* ---- building ---------------------------------------------------------------------------- */
+
+void
+df_drape_options_init (df_drape_options *o)
+{
+  memset (o, 0, sizeof *o);
+  o->warp_rad = 0.0;
+  o->cell = 0.0;
+  o->max_shear_rad = NAN;
+  o->max_fibre_deviation_rad = NAN;
+  o->substeps = 0;
+  o->check_closure = true;
+  o->max_nodes_per_side = 4000;
+}
+
+void
+df_drape_free (df_drape *d)
+{
+  if (d == NULL)
+    return;
+  df_surface_free (d->surface);
+  free (d->nodes);
+  free (d->cells);
+  free (d->cell_ok);
+  free (d->outline);
+  free (d->flat);
+  free (d->mapped);
+  free (d);
+}
+
+/* One generator ray from the start: pins every h along the geodesic with heading theta, at
+ * most cap, until one lies farther than dcap from the start. Writes chart points and unit
+ * velocities. */
+static size_t
+generator (df_drape *d, shooter *sh, const net_node *start, double theta, size_t cap,
+           double (*uv)[2], double (*vel)[2], bool *hit_edge)
+{
+  double e1[2] = { 1.0 / sqrt (start->g[0][0]), 0.0 }, e2[2];
+  size_t n = 1;
+
+  g_rot (start->g, e1, e2);
+  uv[0][0] = start->uv[0];
+  uv[0][1] = start->uv[1];
+  for (int k = 0; k < 2; k++)
+    vel[0][k] = cos (theta) * e1[k] + sin (theta) * e2[k];
+  *hit_edge = false;
+  while (n < cap)
+    {
+      df_chart_jet j;
+
+      if (df_surface_eval (d->surface, uv[n - 1][0], uv[n - 1][1], 0, &j, NULL) != DF_OK)
+        break;
+      if (sqrt ((j.x[0] - d->x0[0]) * (j.x[0] - d->x0[0]) + (j.x[1] - d->x0[1]) * (j.x[1] - d->x0[1])
+                + (j.x[2] - d->x0[2]) * (j.x[2] - d->x0[2])) > d->dcap)
+        break;
+      if (!shoot (sh, uv[n - 1], vel[n - 1], d->opt.cell, sh->substeps, uv[n], vel[n]))
+        {
+          *hit_edge = true;
+          break;
+        }
+      n++;
+    }
+  return n;
+}
+
+/* Steps per segment: the fewest (1, 2, 4...) for which halving the step moves the end of
+ * the first warp segment by less than 1e-12 h. */
+static int
+choose_substeps (df_drape *d, shooter *sh, const net_node *start)
+{
+  double e1[2] = { 1.0 / sqrt (start->g[0][0]), 0.0 }, e2[2], v[2], a[2], av[2], b[2], bv[2];
+  double h = d->opt.cell;
+
+  g_rot (start->g, e1, e2);
+  for (int k = 0; k < 2; k++)
+    v[k] = cos (d->opt.warp_rad) * e1[k] + sin (d->opt.warp_rad) * e2[k];
+  for (int n = 1; n <= 64; n *= 2)
+    {
+      double diff[2];
+
+      if (!shoot (sh, start->uv, v, h, n, a, av) || !shoot (sh, start->uv, v, h, 2 * n, b, bv))
+        return n;
+      diff[0] = a[0] - b[0];
+      diff[1] = a[1] - b[1];
+      if (g_norm (start->g, diff) < 1e-12 * h
+          && g_norm (start->g, (double[2]) { av[0] - bv[0], av[1] - bv[1] }) < 1e-12)
+        return n;
+    }
+  return 64;
+}
+
+static void
+derive_node (df_drape *d, net_node *nd)
+{
+  double a[3] = { 0 }, b[3] = { 0 }, s[3], len, e1[3], e2[3], want[3], w = d->opt.warp_rad;
+
+  if (nd->has[DIR_PI])
+    {
+      to_space (nd, nd->out[DIR_PI], s);
+      for (int k = 0; k < 3; k++) a[k] += s[k];
+    }
+  if (nd->has[DIR_MI])
+    {
+      to_space (nd, nd->out[DIR_MI], s);
+      for (int k = 0; k < 3; k++) a[k] -= s[k];
+    }
+  if (nd->has[DIR_PJ])
+    {
+      to_space (nd, nd->out[DIR_PJ], s);
+      for (int k = 0; k < 3; k++) b[k] += s[k];
+    }
+  if (nd->has[DIR_MJ])
+    {
+      to_space (nd, nd->out[DIR_MJ], s);
+      for (int k = 0; k < 3; k++) b[k] -= s[k];
+    }
+  len = sqrt (df_dot3 (a, a));
+  for (int k = 0; k < 3; k++)
+    nd->warp[k] = len > 0 ? a[k] / len : NAN;
+  len = sqrt (df_dot3 (b, b));
+  for (int k = 0; k < 3; k++)
+    nd->weft[k] = len > 0 ? b[k] / len : NAN;
+  nd->shear = M_PI_2 - angle_about (nd->warp, nd->weft, nd->n);
+  len = sqrt (df_dot3 (nd->xu, nd->xu));
+  for (int k = 0; k < 3; k++)
+    e1[k] = nd->xu[k] / len;
+  df_cross3 (nd->n, e1, e2);
+  for (int k = 0; k < 3; k++)
+    want[k] = cos (w) * e1[k] + sin (w) * e2[k];
+  nd->deviation = wrap_pi (angle_about (want, nd->warp, nd->n));
+}
+
+static void
+derive_cell (df_drape *d, int i, int j, gsl_integration_glfixed_table *lo,
+             gsl_integration_glfixed_table *hi)
+{
+  const net_node *c[4] = { valid_node (d, i, j), valid_node (d, i + 1, j),
+                           valid_node (d, i + 1, j + 1), valid_node (d, i, j + 1) };
+  /* At each corner, the two segments that bound the cell. */
+  static const int dirs[4][2] = { { DIR_PI, DIR_PJ }, { DIR_MI, DIR_PJ }, { DIR_MI, DIR_MJ },
+                                  { DIR_PI, DIR_MJ } };
+  size_t idx = (size_t) (j - d->j_min) * (d->ni - 1) + (i - d->i_min);
+  df_drape_cell *cell = &d->cells[idx];
+  coons co;
+
+  memset (cell, 0, sizeof *cell);
+  for (int k = 0; k < 4; k++)
+    if (c[k] == NULL || !c[k]->has[dirs[k][0]] || !c[k]->has[dirs[k][1]])
+      return;
+  if (!cell_coons (d, i, j, &co))
+    return;
+  cell->i = i;
+  cell->j = j;
+  cell->excess_rad = -2 * M_PI;
+  for (int k = 0; k < 4; k++)
+    {
+      double s1[3], s2[3];
+
+      to_space (c[k], c[k]->out[dirs[k][0]], s1);
+      to_space (c[k], c[k]->out[dirs[k][1]], s2);
+      cell->angle_rad[k] = angle_between (s1, s2);
+      cell->excess_rad += cell->angle_rad[k];
+      cell->corners_inside += c[k]->inside;
+    }
+  cell->whole = cell->corners_inside == 4;
+  cell->shear_rad = 0.25 * (cell->angle_rad[1] + cell->angle_rad[3] - cell->angle_rad[0]
+                            - cell->angle_rad[2]);
+  cell->over_limit = isfinite (d->opt.max_shear_rad)
+                     && fabs (cell->shear_rad) > d->opt.max_shear_rad;
+  cell->k_area_rad = NAN;
+  cell->area = NAN;
+  if (d->opt.check_closure)
+    {
+      quad_ctx q = { d->surface, &co, lo, hi, false };
+      double k = 0, area = 0;
+
+      quad_adapt (&q, 0, 1, 0, 1, 0, &k, &area);
+      if (!q.failed)
+        {
+          cell->k_area_rad = k;
+          cell->area = area;
+        }
+    }
+  d->cell_ok[idx] = true;
+}
+
+/* Maps every outline point through the cell that contains it (a bucket grid over the cells'
+ * chart boxes finds the candidates). */
+static void
+map_outline (df_drape *d)
+{
+  size_t nc = (size_t) (d->ni - 1) * (d->nj - 1), nb, *count, *start, *list = NULL;
+  double lo[2] = { HUGE_VAL, HUGE_VAL }, hi[2] = { -HUGE_VAL, -HUGE_VAL }, cw[2];
+  int gb = 1;
+  double (*box)[4];
+  double h = d->opt.cell;
+
+  if (d->ni < 2 || d->nj < 2)
+    {
+      d->sum.n_outline_unmapped = d->n_outline;
+      return;
+    }
+  box = calloc (nc, sizeof *box);
+  for (size_t c = 0; c < nc; c++)
+    {
+      int i = (int) (c % (d->ni - 1)) + d->i_min, j = (int) (c / (d->ni - 1)) + d->j_min;
+      double b[4] = { HUGE_VAL, -HUGE_VAL, HUGE_VAL, -HUGE_VAL }, m0, m1;
+
+      if (!d->cell_ok[c])
+        continue;
+      for (int k = 0; k < 4; k++)
+        {
+          const net_node *n = valid_node (d, i + (k & 1), j + (k >> 1));
+
+          b[0] = fmin (b[0], n->uv[0]);
+          b[1] = fmax (b[1], n->uv[0]);
+          b[2] = fmin (b[2], n->uv[1]);
+          b[3] = fmax (b[3], n->uv[1]);
+        }
+      /* The geodesic sides bow out of the corners' box by a fraction of it. */
+      m0 = 0.25 * (b[1] - b[0]) + 1e-12;
+      m1 = 0.25 * (b[3] - b[2]) + 1e-12;
+      box[c][0] = b[0] - m0;
+      box[c][1] = b[1] + m0;
+      box[c][2] = b[2] - m1;
+      box[c][3] = b[3] + m1;
+      lo[0] = fmin (lo[0], box[c][0]);
+      hi[0] = fmax (hi[0], box[c][1]);
+      lo[1] = fmin (lo[1], box[c][2]);
+      hi[1] = fmax (hi[1], box[c][3]);
+    }
+  if (!(hi[0] > lo[0]))
+    {
+      free (box);
+      d->sum.n_outline_unmapped = d->n_outline;
+      return;
+    }
+  while ((size_t) gb * gb < nc && gb < 1024)
+    gb *= 2;
+  nb = (size_t) gb * gb;
+  cw[0] = (hi[0] - lo[0]) / gb;
+  cw[1] = (hi[1] - lo[1]) / gb;
+  count = calloc (nb + 1, sizeof *count);
+  start = calloc (nb + 1, sizeof *start);
+  /* Two passes (count, fill) give a compact bucket list. */
+  for (int pass = 0; pass < 2; pass++)
+    {
+      if (pass == 1)
+        {
+          for (size_t b = 0; b < nb; b++)
+            start[b + 1] = start[b] + count[b];
+          list = malloc ((start[nb] + 1) * sizeof *list);
+          memset (count, 0, (nb + 1) * sizeof *count);
+        }
+      for (size_t c = 0; c < nc; c++)
+        {
+          int a0, a1, b0, b1;
+
+          if (!d->cell_ok[c])
+            continue;
+          a0 = (int) fmax (0, floor ((box[c][0] - lo[0]) / cw[0]));
+          a1 = (int) fmin (gb - 1, floor ((box[c][1] - lo[0]) / cw[0]));
+          b0 = (int) fmax (0, floor ((box[c][2] - lo[1]) / cw[1]));
+          b1 = (int) fmin (gb - 1, floor ((box[c][3] - lo[1]) / cw[1]));
+          for (int bj = b0; bj <= b1; bj++)
+            for (int bi = a0; bi <= a1; bi++)
+              {
+                size_t b = (size_t) bj * gb + bi;
+
+                if (pass == 1)
+                  list[start[b] + count[b]] = c;
+                count[b]++;
+              }
+        }
+    }
+
+  for (size_t k = 0; k < d->n_outline; k++)
+    {
+      const double *q = d->outline[k];
+      int bi = (int) floor ((q[0] - lo[0]) / cw[0]), bj = (int) floor ((q[1] - lo[1]) / cw[1]);
+
+      d->mapped[k] = false;
+      if (bi < 0 || bj < 0 || bi >= gb || bj >= gb)
+        continue;
+      for (size_t e = start[(size_t) bj * gb + bi]; e < start[(size_t) bj * gb + bi + 1]; e++)
+        {
+          size_t c = list[e];
+          int i = (int) (c % (d->ni - 1)) + d->i_min, j = (int) (c / (d->ni - 1)) + d->j_min;
+          coons co;
+          double st[2];
+
+          if (q[0] < box[c][0] || q[0] > box[c][1] || q[1] < box[c][2] || q[1] > box[c][3])
+            continue;
+          if (cell_coons (d, i, j, &co) && coons_invert (&co, q, st))
+            {
+              d->flat[k][0] = (i + st[0]) * h;
+              d->flat[k][1] = (j + st[1]) * h;
+              d->mapped[k] = true;
+              break;
+            }
+        }
+      if (!d->mapped[k])
+        {
+          d->flat[k][0] = d->flat[k][1] = NAN;
+          d->sum.n_outline_unmapped++;
+        }
+    }
+  free (list);
+  free (count);
+  free (start);
+  free (box);
+}
+
+static void
+summarise (df_drape *d)
+{
+  df_drape_summary *s = &d->sum;
+  const net_node *start = valid_node (d, 0, 0);
+  bool any_inside = false;
+  double best_shear = -1, best_dev = -1, best_cell = -1, area2 = 0;
+
+  s->max_shear_rad = start->shear;
+  s->max_shear_u = start->uv[0];
+  s->max_shear_v = start->uv[1];
+  s->max_warp_deviation_rad = start->deviation;
+  s->max_warp_deviation_u = start->uv[0];
+  s->max_warp_deviation_v = start->uv[1];
+  for (int j = d->j_min; j < d->j_min + d->nj; j++)
+    for (int i = d->i_min; i < d->i_min + d->ni; i++)
+      {
+        const net_node *n = valid_node (d, i, j);
+
+        if (n == NULL)
+          continue;
+        s->n_nodes++;
+        if (!n->inside || !isfinite (n->shear))
+          continue;
+        s->n_nodes_inside++;
+        any_inside = true;
+        if (fabs (n->shear) > best_shear)
+          {
+            best_shear = fabs (n->shear);
+            s->max_shear_rad = n->shear;
+            s->max_shear_u = n->uv[0];
+            s->max_shear_v = n->uv[1];
+          }
+        if (fabs (n->deviation) > best_dev)
+          {
+            best_dev = fabs (n->deviation);
+            s->max_warp_deviation_rad = n->deviation;
+            s->max_warp_deviation_u = n->uv[0];
+            s->max_warp_deviation_v = n->uv[1];
+          }
+        if (isfinite (d->opt.max_fibre_deviation_rad)
+            && fabs (n->deviation) > d->opt.max_fibre_deviation_rad)
+          s->n_nodes_over_deviation++;
+      }
+  (void) any_inside;
+
+  s->enclosed_curvature_rad = 0;
+  s->enclosed_k_area_rad = d->opt.check_closure ? 0 : NAN;
+  s->closure_max_residual_rad = d->opt.check_closure ? 0 : NAN;
+  s->max_cell_shear_rad = 0;
+  for (int j = d->j_min; j < d->j_min + d->nj - 1; j++)
+    for (int i = d->i_min; i < d->i_min + d->ni - 1; i++)
+      {
+        size_t idx = (size_t) (j - d->j_min) * (d->ni - 1) + (i - d->i_min);
+        const df_drape_cell *c = &d->cells[idx];
+
+        if (!d->cell_ok[idx])
+          continue;
+        if (c->corners_inside == 0)
+          continue;
+        if (d->opt.check_closure)
+          {
+            double r = fabs (c->excess_rad - c->k_area_rad);
+
+            if (!(r <= s->closure_max_residual_rad))
+              {
+                s->closure_max_residual_rad = r;   /* NAN propagates: a failed quadrature */
+                s->closure_worst_i = i;
+                s->closure_worst_j = j;
+              }
+          }
+        s->n_cells++;
+        s->n_cells_over_limit += c->over_limit;
+        if (fabs (c->shear_rad) > best_cell)
+          {
+            best_cell = fabs (c->shear_rad);
+            s->max_cell_shear_rad = c->shear_rad;
+          }
+        if (c->whole)
+          {
+            s->n_whole_cells++;
+            s->enclosed_curvature_rad += c->excess_rad;
+            if (d->opt.check_closure)
+              s->enclosed_k_area_rad += c->k_area_rad;
+          }
+      }
+
+  s->n_outline = d->n_outline;
+  s->flat_lo[0] = s->flat_lo[1] = HUGE_VAL;
+  s->flat_hi[0] = s->flat_hi[1] = -HUGE_VAL;
+  for (size_t k = 0; k < d->n_outline; k++)
+    {
+      const double *p = d->flat[k], *q = d->flat[(k + 1) % d->n_outline];
+
+      if (!d->mapped[k])
+        continue;
+      for (int a = 0; a < 2; a++)
+        {
+          s->flat_lo[a] = fmin (s->flat_lo[a], p[a]);
+          s->flat_hi[a] = fmax (s->flat_hi[a], p[a]);
+        }
+      area2 += p[0] * q[1] - q[0] * p[1];
+    }
+  s->flat_area = s->n_outline_unmapped == 0 ? 0.5 * fabs (area2) : NAN;
+}
+
+static df_status
+drape_build (const df_surface *surface, const double (*outline)[2], size_t n_outline,
+             double u, double v, const df_drape_options *options, const envelope *env,
+             double dcap, df_drape **out, df_diag *diag)
+{
+  df_drape *d = NULL;
+  shooter sh = { 0 };
+  net_node start = { 0 };
+  double (*guv[4])[2] = { NULL }, (*gvel[4])[2] = { NULL };
+  size_t glen[4] = { 0 }, cap;
+  df_status st = DF_OK;
+  gsl_integration_glfixed_table *lo = NULL, *hi = NULL;
+
+  *out = NULL;
+  df_diag_clear (diag);
+  if (!(options->cell > 0) || !isfinite (options->cell))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the cell size must be a positive number");
+  if (!isfinite (options->warp_rad))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the warp angle must be a finite number");
+  if (n_outline < 3)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the ply outline needs at least 3 points");
+  if (options->substeps < 0 || options->substeps > 64)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "substeps must lie in [0, 64]");
+  if (options->cell > 0.5 * df_surface_size (surface))
+    return df_diag_fail (diag, DF_E_INPUT, -1, "the cell size %.6g is larger than half the "
+                         "surface (%.6g across)", options->cell, df_surface_size (surface));
+  if (!isfinite (u) || !isfinite (v) || !df_surface_contains (surface, u, v))
+    return df_diag_fail_at (diag, DF_E_DOMAIN, -1, u, v, "the start point lies outside the "
+                            "surface");
+  for (size_t k = 0; k < n_outline; k++)
+    if (!isfinite (outline[k][0]) || !isfinite (outline[k][1]))
+      return df_diag_fail (diag, DF_E_NONFINITE, (long) k, "outline point is not finite");
+
+  d = calloc (1, sizeof *d);
+  if (d == NULL)
+    return DF_E_NOMEM;
+  d->opt = *options;
+  if (d->opt.max_nodes_per_side == 0)
+    d->opt.max_nodes_per_side = 4000;
+  d->surface = df_surface_copy (surface);
+  d->n_outline = n_outline;
+  d->outline = malloc (n_outline * sizeof *d->outline);
+  d->flat = calloc (n_outline, sizeof *d->flat);
+  d->mapped = calloc (n_outline, sizeof *d->mapped);
+  if (!d->surface || !d->outline || !d->flat || !d->mapped)
+    {
+      st = DF_E_NOMEM;
+      goto fail;
+    }
+  {
+    /* A surface of revolution: bring the polygon to the start's turn of phi. */
+    double shift = 0, mean = 0;
+
+    if (df_surface_v_periodic (surface))
+      {
+        for (size_t k = 0; k < n_outline; k++)
+          mean += outline[k][1] / n_outline;
+        shift = 2 * M_PI * round ((v - mean) / (2 * M_PI));
+      }
+    for (size_t k = 0; k < n_outline; k++)
+      {
+        d->outline[k][0] = outline[k][0];
+        d->outline[k][1] = outline[k][1] + shift;
+      }
+  }
+  if (!point_in_polygon ((const double (*)[2]) d->outline, n_outline, u, v))
+    {
+      st = df_diag_fail_at (diag, DF_E_INPUT, -1, u, v, "the start point lies outside the ply "
+                            "outline");
+      goto fail;
+    }
+
+  /* The start pin and its frame. */
+  d->ni = d->nj = 1;
+  if (!node_fill (d, &start, (double[2]) { u, v }))
+    {
+      st = df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the chart is singular at the start "
+                            "point (a pole): start beside it");
+      goto fail;
+    }
+
+  memcpy (d->x0, start.x, sizeof d->x0);
+  d->dcap = dcap;
+  sh.surface = d->surface;
+  sh.step = gsl_odeiv2_step_alloc (gsl_odeiv2_step_rk8pd, 4);
+  sh.sys = (gsl_odeiv2_system) { shot_rhs, NULL, 4, &sh };
+  lo = gsl_integration_glfixed_table_alloc (3);
+  hi = gsl_integration_glfixed_table_alloc (5);
+  cap = d->opt.max_nodes_per_side + 1;
+  for (int g = 0; g < 4; g++)
+    {
+      guv[g] = malloc (cap * sizeof *guv[g]);
+      gvel[g] = malloc (cap * sizeof *gvel[g]);
+    }
+  if (!sh.step || !lo || !hi || !guv[0] || !guv[1] || !guv[2] || !guv[3] || !gvel[0]
+      || !gvel[1] || !gvel[2] || !gvel[3])
+    {
+      st = DF_E_NOMEM;
+      goto fail;
+    }
+  sh.substeps = d->opt.substeps > 0 ? d->opt.substeps : choose_substeps (d, &sh, &start);
+  d->sum.substeps = sh.substeps;
+
+  /* Generators: +warp, -warp, +weft, -weft (dir order). */
+  {
+    const double heading[4] = { d->opt.warp_rad, d->opt.warp_rad + M_PI,
+                                d->opt.warp_rad + M_PI_2, d->opt.warp_rad - M_PI_2 };
+
+    for (int g = 0; g < 4; g++)
+      {
+        bool edge;
+        size_t gcap = cap;
+
+        if (env != NULL)
+          {
+            static const int qa[4][2] = { { 0, 2 }, { 1, 3 }, { 0, 1 }, { 2, 3 } };
+            size_t want = 0;
+
+            for (int e = 0; e < 2; e++)
+              {
+                int q = qa[g][e];
+                size_t w = g < 2 ? (env->rows[q] > 0 ? (size_t) env->ext[q][0] + 1 : 1)
+                                 : (size_t) env->rows[q];
+
+                want = w > want ? w : want;
+              }
+            gcap = want < cap ? (want > 1 ? want : 1) : cap;
+          }
+        glen[g] = generator (d, &sh, &start, heading[g], gcap, guv[g], gvel[g], &edge);
+        if (edge)
+          note_lost (d, dir_di[g] * (int) glen[g], dir_dj[g] * (int) glen[g],
+                     "the generator leaves the surface or meets a singular point");
+      }
+  }
+  d->i_min = -(int) (glen[DIR_MI] - 1);
+  d->j_min = -(int) (glen[DIR_MJ] - 1);
+  d->ni = (int) (glen[DIR_PI] + glen[DIR_MI] - 1);
+  d->nj = (int) (glen[DIR_PJ] + glen[DIR_MJ] - 1);
+  d->nodes = calloc ((size_t) d->ni * d->nj, sizeof *d->nodes);
+  d->cells = calloc ((size_t) (d->ni - 1 > 0 ? d->ni - 1 : 1) * (d->nj - 1 > 0 ? d->nj - 1 : 1),
+                     sizeof *d->cells);
+  d->cell_ok = calloc ((size_t) (d->ni - 1 > 0 ? d->ni - 1 : 1)
+                       * (d->nj - 1 > 0 ? d->nj - 1 : 1), sizeof *d->cell_ok);
+  if (!d->nodes || !d->cells || !d->cell_ok)
+    {
+      st = DF_E_NOMEM;
+      goto fail;
+    }
+  *node_at (d, 0, 0) = start;
+  for (int g = 0; g < 4; g++)
+    for (size_t k = 0; k < glen[g]; k++)
+      {
+        int i = dir_di[g] * (int) k, j = dir_dj[g] * (int) k;
+        net_node *n = node_at (d, i, j);
+
+        if (k > 0 && !node_fill (d, n, guv[g][k]))
+          {
+            note_lost (d, i, j, "the chart is singular here");
+            glen[g] = k;
+            break;
+          }
+        if (k + 1 < glen[g])
+          {
+            n->has[g] = true;
+            memcpy (n->out[g], gvel[g][k], sizeof n->out[g]);
+          }
+        if (k > 0)
+          {
+            n->has[dir_opp[g]] = true;
+            n->out[dir_opp[g]][0] = -gvel[g][k][0];
+            n->out[dir_opp[g]][1] = -gvel[g][k][1];
+          }
+      }
+
+  /* The four quadrants, row by row (|j| = b), each row outward in |i|, so both known
+   * neighbours of a pin are placed before it. */
+  for (int q = 0; q < 4; q++)
+    {
+      int si = (q & 1) ? -1 : 1, sj = (q & 2) ? -1 : 1;
+      int na = (int) glen[si > 0 ? DIR_PI : DIR_MI], nb = (int) glen[sj > 0 ? DIR_PJ : DIR_MJ];
+
+      for (int b = 1; b < nb; b++)
+        {
+          int amax = na - 1;
+
+          if (env != NULL)
+            amax = b < env->rows[q] ? (env->ext[q][b] < amax ? env->ext[q][b] : amax) : 0;
+          for (int a = 1; a <= amax; a++)
+            place_node (d, &sh, si * a, sj * b, si, sj);
+        }
+    }
+
+  for (int j = d->j_min; j < d->j_min + d->nj; j++)
+    for (int i = d->i_min; i < d->i_min + d->ni; i++)
+      {
+        net_node *n = valid_node (d, i, j);
+
+        if (n != NULL)
+          derive_node (d, n);
+      }
+  for (int j = d->j_min; j < d->j_min + d->nj - 1; j++)
+    for (int i = d->i_min; i < d->i_min + d->ni - 1; i++)
+      derive_cell (d, i, j, lo, hi);
+  map_outline (d);
+  summarise (d);
+  d->sum.i_min = d->i_min;
+  d->sum.i_max = d->i_min + d->ni - 1;
+  d->sum.j_min = d->j_min;
+  d->sum.j_max = d->j_min + d->nj - 1;
+
+  if (!isfinite (d->sum.max_shear_rad))
+    {
+      st = df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "the shear at the start is not "
+                            "finite");
+      goto fail;
+    }
+  *out = d;
+  d = NULL;
+
+fail:
+  for (int g = 0; g < 4; g++)
+    {
+      free (guv[g]);
+      free (gvel[g]);
+    }
+  if (lo) gsl_integration_glfixed_table_free (lo);
+  if (hi) gsl_integration_glfixed_table_free (hi);
+  if (sh.step) gsl_odeiv2_step_free (sh.step);
+  df_drape_free (d);
+  return st;
+}
+
+/* ---- accessors --------------------------------------------------------------------------- */
+
+const df_drape_summary *
+df_drape_get_summary (const df_drape *d)
+{
+  return &d->sum;
+}
+
+const df_drape_options *
+df_drape_get_options (const df_drape *d)
+{
+  return &d->opt;
+}
+
+bool
+df_drape_get_node (const df_drape *d, int i, int j, df_drape_node *out)
+{
+  const net_node *n = valid_node (d, i, j);
+
+  if (n == NULL)
+    return false;
+  out->i = i;
+  out->j = j;
+  out->u = n->uv[0];
+  out->v = n->uv[1];
+  memcpy (out->point, n->x, sizeof out->point);
+  memcpy (out->normal, n->n, sizeof out->normal);
+  out->inside = n->inside;
+  memcpy (out->warp, n->warp, sizeof out->warp);
+  memcpy (out->weft, n->weft, sizeof out->weft);
+  out->shear_rad = n->shear;
+  out->warp_deviation_rad = n->deviation;
+  out->flat[0] = i * d->opt.cell;
+  out->flat[1] = j * d->opt.cell;
+  return true;
+}
+
+bool
+df_drape_get_cell (const df_drape *d, int i, int j, df_drape_cell *out)
+{
+  size_t idx;
+
+  if (i < d->i_min || j < d->j_min || i >= d->i_min + d->ni - 1 || j >= d->j_min + d->nj - 1)
+    return false;
+  idx = (size_t) (j - d->j_min) * (d->ni - 1) + (i - d->i_min);
+  if (!d->cell_ok[idx])
+    return false;
+  *out = d->cells[idx];
+  return true;
+}
+
+const double (*df_drape_get_outline (const df_drape *d))[2]
+{
+  return (const double (*)[2]) d->outline;
+}
+
+const double (*df_drape_get_flat_outline (const df_drape *d))[2]
+{
+  return (const double (*)[2]) d->flat;
+}
+
+const bool *
+df_drape_get_outline_mapped (const df_drape *d)
+{
+  return d->mapped;
+}
+
+/* ---- blocks of cells --------------------------------------------------------------------- */
+
+struct df_drape_block
+{
+  size_t   n;
+  hermite *seg;      /* in order round the block, each oriented along the travel */
+};
+
+/* The boundary's segments anticlockwise: along +i at the bottom, +j on the right, -i at the
+ * top, -j on the left (the weft is 90 deg anticlockwise from the warp, so the block lies on
+ * the left). */
+static size_t
+block_walk (const df_drape *d, int i0, int i1, int j0, int j1, hermite *seg)
+{
+  size_t n = 0;
+
+  for (int i = i0; i < i1; i++, n++)
+    if (!segment_hermite (d, i, j0, DIR_PI, &seg[n]))
+      return 0;
+  for (int j = j0; j < j1; j++, n++)
+    if (!segment_hermite (d, i1, j, DIR_PJ, &seg[n]))
+      return 0;
+  for (int i = i1; i > i0; i--, n++)
+    if (!segment_hermite (d, i, j1, DIR_MI, &seg[n]))
+      return 0;
+  for (int j = j1; j > j0; j--, n++)
+    if (!segment_hermite (d, i0, j, DIR_MJ, &seg[n]))
+      return 0;
+  return n;
+}
+
+static void
+block_fn (double tau, void *user, double p[2], double dp[2], double ddp[2])
+{
+  const df_drape_block *b = user;
+  double k = floor (tau), f;
+  size_t idx;
+
+  if (k < 0)
+    k = 0;
+  if (k >= (double) b->n)
+    k = (double) b->n - 1;
+  idx = (size_t) k;
+  f = tau - k;
+  hermite_eval (&b->seg[idx], f, p, dp, ddp);
+}
+
+void
+df_drape_block_free (df_drape_block *b)
+{
+  if (b == NULL)
+    return;
+  free (b->seg);
+  free (b);
+}
+
+df_status
+df_drape_block_curve (const df_drape *d, int i0, int i1, int j0, int j1, df_curve **out,
+                      df_drape_block **block, df_diag *diag)
+{
+  df_drape_block *b;
+  double *breaks;
+  df_status st;
+
+  *out = NULL;
+  *block = NULL;
+  if (i1 <= i0 || j1 <= j0)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "an empty block of cells");
+  b = calloc (1, sizeof *b);
+  if (b == NULL)
+    return DF_E_NOMEM;
+  b->seg = calloc (2 * (size_t) (i1 - i0 + j1 - j0), sizeof *b->seg);
+  if (b->seg == NULL)
+    {
+      free (b);
+      return DF_E_NOMEM;
+    }
+  b->n = block_walk (d, i0, i1, j0, j1, b->seg);
+  if (b->n == 0)
+    {
+      df_drape_block_free (b);
+      return df_diag_fail (diag, DF_E_INPUT, -1, "the block [%d, %d) x [%d, %d) has a missing "
+                           "thread segment", i0, i1, j0, j1);
+    }
+  breaks = malloc (b->n * sizeof *breaks);
+  if (breaks == NULL)
+    {
+      df_drape_block_free (b);
+      return DF_E_NOMEM;
+    }
+  for (size_t k = 1; k < b->n; k++)
+    breaks[k - 1] = (double) k;
+  st = df_curve_new_function (d->surface, DF_COORDS_CHART, 0.0, (double) b->n, breaks,
+                              b->n - 1, true, block_fn, b, out, diag);
+  free (breaks);
+  if (st != DF_OK)
+    {
+      df_drape_block_free (b);
+      return st;
+    }
+  *block = b;
+  return DF_OK;
+}
+
+size_t
+df_drape_block_points (const df_drape *d, int i0, int i1, int j0, int j1, int per_segment,
+                       double (**out)[2])
+{
+  size_t n, total;
+  hermite *seg;
+
+  *out = NULL;
+  if (i1 <= i0 || j1 <= j0 || per_segment < 1)
+    return 0;
+  seg = calloc (2 * (size_t) (i1 - i0 + j1 - j0), sizeof *seg);
+  if (seg == NULL)
+    return 0;
+  n = block_walk (d, i0, i1, j0, j1, seg);
+  total = n * per_segment;
+  if (n == 0 || (*out = malloc (total * sizeof **out)) == NULL)
+    {
+      free (seg);
+      return 0;
+    }
+  for (size_t k = 0; k < n; k++)
+    for (int q = 0; q < per_segment; q++)
+      {
+        double dp[2];
+
+        hermite_eval (&seg[k], (double) q / per_segment, (*out)[k * per_segment + q], dp, NULL);
+      }
+  free (seg);
+  return total;
+}
+
+double
+df_drape_block_excess (const df_drape *d, int i0, int i1, int j0, int j1)
+{
+  double sum = 0;
+
+  for (int j = j0; j < j1; j++)
+    for (int i = i0; i < i1; i++)
+      {
+        df_drape_cell c;
+
+        if (!df_drape_get_cell (d, i, j, &c))
+          return NAN;
+        sum += c.excess_rad;
+      }
+  return sum;
+}
+
+/* ---- the two passes ---------------------------------------------------------------------- */
+
+static void
+envelope_clear (envelope *e)
+{
+  for (int q = 0; q < 4; q++)
+    free (e->ext[q]);
+  memset (e, 0, sizeof *e);
+}
+
+/* The pins a fine net of cell h needs, from a coarse net's flat outline: pin (a, b) of a
+ * quadrant is needed when some point of the ply has net coordinates beyond it in both (every
+ * pin depends on the whole index rectangle between it and the generators). A point's flat
+ * coordinates are its net coordinates times the cell, nearly the same on both nets; margin
+ * (in fine cells) covers the difference. Outline points suffice: over the ply, the largest
+ * |i| within rows >= b is reached on its boundary. */
+static bool
+envelope_from (const df_drape *coarse, double h, double margin, size_t cap, envelope *e)
+{
+  const double (*flat)[2] = df_drape_get_flat_outline (coarse);
+  const bool *mapped = df_drape_get_outline_mapped (coarse);
+  size_t n = coarse->n_outline;
+
+  memset (e, 0, sizeof *e);
+  for (int q = 0; q < 4; q++)
+    {
+      double si = (q & 1) ? -1 : 1, sj = (q & 2) ? -1 : 1, bmax = margin;
+      int rows;
+
+      for (size_t k = 0; k < n; k++)
+        if (mapped[k])
+          bmax = fmax (bmax, sj * flat[k][1] / h + margin);
+      rows = (int) fmin ((double) cap, ceil (bmax)) + 1;
+      e->rows[q] = rows;
+      e->ext[q] = calloc ((size_t) rows, sizeof *e->ext[q]);
+      if (e->ext[q] == NULL)
+        return false;
+      /* ext[b] = max (alpha + margin) over the points with beta + margin >= b: a suffix max. */
+      for (int b = 0; b < rows; b++)
+        e->ext[q][b] = (int) ceil (margin);
+      for (size_t k = 0; k < n; k++)
+        {
+          double alpha, beta;
+          int top, val;
+
+          if (!mapped[k])
+            continue;
+          alpha = si * flat[k][0] / h + margin;
+          beta = sj * flat[k][1] / h + margin;
+          if (alpha < 0 || beta < 0)
+            continue;
+          top = (int) fmin (rows - 1, floor (beta));
+          val = (int) fmin ((double) cap, ceil (alpha));
+          if (val > e->ext[q][top])
+            e->ext[q][top] = val;
+        }
+      for (int b = rows - 2; b >= 0; b--)
+        if (e->ext[q][b + 1] > e->ext[q][b])
+          e->ext[q][b] = e->ext[q][b + 1];
+    }
+  return true;
+}
+
+df_status
+df_drape_new (const df_surface *surface, const double (*outline)[2], size_t n_outline,
+              double u, double v, const df_drape_options *options, df_drape **out,
+              df_diag *diag)
+{
+  df_drape_options copt;
+  df_drape *coarse = NULL;
+  envelope env;
+  double max_chord = 0, dcap, coarse_h;
+  df_chart_jet j0;
+  df_status st;
+  size_t cap;
+
+  *out = NULL;
+  if (options == NULL || outline == NULL)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "no options or outline");
+  if (n_outline < 3 || !(options->cell > 0) || !isfinite (options->cell) || !isfinite (u)
+      || !isfinite (v) || df_surface_eval (surface, u, v, 0, &j0, NULL) != DF_OK)
+    /* drape_build names the problem. */
+    return drape_build (surface, outline, n_outline, u, v, options, NULL, 0, out, diag);
+  for (size_t k = 0; k < n_outline; k++)
+    {
+      df_chart_jet j;
+
+      if (isfinite (outline[k][0]) && isfinite (outline[k][1])
+          && df_surface_eval (surface, outline[k][0], outline[k][1], 0, &j, NULL) == DF_OK)
+        max_chord = fmax (max_chord, sqrt ((j.x[0] - j0.x[0]) * (j.x[0] - j0.x[0])
+                                           + (j.x[1] - j0.x[1]) * (j.x[1] - j0.x[1])
+                                           + (j.x[2] - j0.x[2]) * (j.x[2] - j0.x[2])));
+    }
+  /* Generators of a full net reach 1.5 times the farthest outline point (chord): an opened
+   * or sheared net needs pins somewhat beyond the ply's own extent. */
+  dcap = 1.5 * max_chord + 2 * options->cell;
+  coarse_h = 2 * max_chord / 32;
+  if (coarse_h <= 2 * options->cell)
+    return drape_build (surface, outline, n_outline, u, v, options, NULL, dcap, out, diag);
+
+  /* A large net: a coarse one first (about 32 cells across), every pin it can place, to find
+   * which of the fine pins the ply needs; then only those. */
+  copt = *options;
+  copt.cell = coarse_h;
+  copt.check_closure = false;
+  st = drape_build (surface, outline, n_outline, u, v, &copt, NULL, dcap, &coarse, diag);
+  if (st != DF_OK)
+    return st;
+  cap = options->max_nodes_per_side ? options->max_nodes_per_side : 4000;
+  if (!envelope_from (coarse, options->cell, coarse_h / options->cell + 2, cap, &env))
+    {
+      envelope_clear (&env);
+      df_drape_free (coarse);
+      return DF_E_NOMEM;
+    }
+  df_drape_free (coarse);
+  st = drape_build (surface, outline, n_outline, u, v, options, &env, HUGE_VAL, out, diag);
+  envelope_clear (&env);
+  return st;
+}
