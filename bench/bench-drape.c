@@ -70,10 +70,12 @@ run (const df_surface *surface, const double (*outline)[2], size_t n, double war
     const df_drape_summary *s = df_drape_get_summary (d);
 
     printf ("warp %4.0f deg, closure check %-3s: %8.1f ms wall, %8.1f ms CPU (median of %d); "
-            "%zu cells (%zu whole), %zu pins placed, max shear %.4f deg, closure residual "
+            "%zu cells (%zu whole), %zu pins placed, %s x %d a segment, %.2f shots and %.1f right-hand sides a pin, max shear %.4f deg, closure residual "
             "%.2g rad, %zu outline points unmapped\n",
             warp_deg, closure ? "on" : "off", 1e3 * median (wall, repeats),
             1e3 * median (cpu, repeats), repeats, s->n_cells, s->n_whole_cells, s->n_nodes,
+            s->stepper, s->substeps,
+            (double) s->n_shots / s->n_nodes, (double) s->n_rhs / s->n_nodes,
             s->max_shear_rad * 180 / G_PI, s->closure_max_residual_rad, s->n_outline_unmapped);
   }
   df_drape_free (d);

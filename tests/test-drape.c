@@ -45,10 +45,10 @@ drape_or_die (const df_surface *s, const double (*outline)[2], size_t n, double 
   if (st != DF_OK)
     g_error ("drape: %s: %s", df_status_describe (st), diag.detail);
   sm = df_drape_get_summary (d);
-  g_test_message ("warp %g deg, h %g: %zu pins, %zu cells (%zu whole), %zu lost (%s), %d steps "
+  g_test_message ("warp %g deg, h %g: %zu pins, %zu cells (%zu whole), %zu lost (%s), %s x %d "
                   "a segment, max shear %.6g rad, closure %.3g rad, flat area %.10g, %zu "
                   "outline points unmapped", warp_deg, h, sm->n_nodes, sm->n_cells,
-                  sm->n_whole_cells, sm->n_nodes_lost, sm->lost_note, sm->substeps,
+                  sm->n_whole_cells, sm->n_nodes_lost, sm->lost_note, sm->stepper, sm->substeps,
                   sm->max_shear_rad, sm->closure_max_residual_rad, sm->flat_area,
                   sm->n_outline_unmapped);
   return d;

@@ -275,6 +275,8 @@ df_json_add_drape (JsonBuilder *j, const df_drape *d)
     json_builder_add_null_value (j);
   df_json_add_double (j, "cell", o->cell);
   df_json_add_double (j, "warp_deg", o->warp_rad * deg);
+  json_builder_set_member_name (j, "stepper");
+  json_builder_add_string_value (j, s->stepper);
   json_builder_set_member_name (j, "steps_per_segment");
   json_builder_add_int_value (j, s->substeps);
   json_builder_set_member_name (j, "caution");

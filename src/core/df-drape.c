@@ -53,6 +53,7 @@ typedef struct
   df_diag            fail;
   int                substeps;
   long               shots;
+  long               rhs;
 } shooter;
 
 static int
@@ -62,6 +63,7 @@ shot_rhs (double s, const double y[], double dydt[], void *data)
   double gamma[2][2][2];
 
   (void) s;
+  sh->rhs++;
   if (df_surface_christoffel (sh->surface, y[0], y[1], gamma, &sh->fail) != DF_OK)
     return GSL_EBADFUNC;
   dydt[0] = y[2];
@@ -254,8 +256,8 @@ place_node (df_drape *d, shooter *sh, int i, int j, int si, int sj)
   net_node *a = valid_node (d, i - si, j), *b = valid_node (d, i, j - sj);
   net_node *c = valid_node (d, i - si, j - sj), *p = node_at (d, i, j);
   int da = si > 0 ? DIR_PI : DIR_MI, db = sj > 0 ? DIR_PJ : DIR_MJ;
-  double h = d->opt.cell, guess[2], ra[2], rb[2], qa[2], qb[2], ta = 0, tb = 0;
-  double va[2], vb[2], ea[2], eb[2], wa[2], wb[2], ga[2][2], gap = HUGE_VAL, len;
+  double h = d->opt.cell, ra[2], rb[2], qa[2], qb[2], ta = 0, tb = 0;
+  double va[2], vb[2], ea[2], eb[2], wa[2], wb[2], ga[2][2], gap = HUGE_VAL;
   bool ok = false;
 
   if (a == NULL || b == NULL || c == NULL || p == NULL)
@@ -263,24 +265,27 @@ place_node (df_drape *d, shooter *sh, int i, int j, int si, int sj)
   if (!a->has[dir_opp[db]] || !b->has[dir_opp[da]])
     return;
 
-  /* Predictor: the chart parallelogram, right to first order. */
-  for (int k = 0; k < 2; k++)
-    guess[k] = a->uv[k] + b->uv[k] - c->uv[k];
-  for (int k = 0; k < 2; k++)
-    {
-      ra[k] = guess[k] - a->uv[k];
-      rb[k] = guess[k] - b->uv[k];
-    }
-  len = g_norm (a->g, ra);
-  if (!(len > 0))
-    goto lost;
-  ra[0] /= len;
-  ra[1] /= len;
-  len = g_norm (b->g, rb);
-  if (!(len > 0))
-    goto lost;
-  rb[0] /= len;
-  rb[1] /= len;
+  /* Predictor: the geodesic parallelogram. A->P is C->B carried to A, so the angle from A->C
+   * to A->P is pi - sigma, sigma the signed angle at C from C->B to C->A; likewise at B.
+   * Its error is of order K h^2 (the cell's excess), against h |Gamma| for a chart
+   * parallelogram: one Newton step fewer. */
+  {
+    double cb[3], ca[3], sigma, r[2], q[2];
+
+    to_space (c, c->out[da], cb);
+    to_space (c, c->out[db], ca);
+    sigma = angle_about (cb, ca, c->n);
+    memcpy (r, a->out[dir_opp[db]], sizeof r);
+    g_rot (a->g, r, q);
+    for (int k = 0; k < 2; k++)
+      ra[k] = cos (M_PI - sigma) * r[k] + sin (M_PI - sigma) * q[k];
+    memcpy (r, b->out[dir_opp[da]], sizeof r);
+    g_rot (b->g, r, q);
+    for (int k = 0; k < 2; k++)
+      rb[k] = cos (sigma - M_PI) * r[k] + sin (sigma - M_PI) * q[k];
+    if (!c->has[da] || !c->has[db])
+      goto lost;
+  }
   g_rot (a->g, ra, qa);
   g_rot (b->g, rb, qb);
 
@@ -321,6 +326,30 @@ place_node (df_drape *d, shooter *sh, int i, int j, int si, int sj)
       tb += dtb;
       if (!isfinite (ta) || !isfinite (tb) || fabs (ta) > 1.0 || fabs (tb) > 1.0)
         goto fold;
+      if (gap <= 1e-10 * h)
+        {
+          /* The last step is so small that its linear model is exact to rounding (its error
+           * is the step times K h^2 / 2): move the ends and turn the tangents by it instead
+           * of shooting again. */
+          double ra_[2], rb_[2];
+
+          for (int k = 0; k < 2; k++)
+            {
+              ea[k] += h * ca[k] * dta;
+              eb[k] += h * cb[k] * dtb;
+              va[k] = cos (ta) * ra[k] + sin (ta) * qa[k];
+              vb[k] = cos (tb) * rb[k] + sin (tb) * qb[k];
+            }
+          g_rot (ga, wa, ra_);
+          g_rot (ga, wb, rb_);
+          for (int k = 0; k < 2; k++)
+            {
+              wa[k] = cos (dta) * wa[k] + sin (dta) * ra_[k];
+              wb[k] = cos (dtb) * wb[k] + sin (dtb) * rb_[k];
+            }
+          ok = true;
+          break;
+        }
     }
   if (!ok)
     {
@@ -439,30 +468,58 @@ generator (df_drape *d, shooter *sh, const net_node *start, double theta, size_t
   return n;
 }
 
-/* Steps per segment: the fewest (1, 2, 4...) for which halving the step moves the end of
- * the first warp segment by less than 1e-12 h. */
-static int
-choose_substeps (df_drape *d, shooter *sh, const net_node *start)
+/* Stepper and steps per segment: the cheapest of rkck with one step, then rk8pd with 1, 2, 4...
+ * steps for which halving the step moves the end of the first warp segment by less than
+ * 1e-12 h (and turns its tangent by less than 1e-12). Fine cells take rkck (6 stages), coarse
+ * ones rk8pd (13 stages, 8th order). Leaves sh->step allocated for the choice. */
+static bool
+choose_stepper (df_drape *d, shooter *sh, const net_node *start)
 {
-  double e1[2] = { 1.0 / sqrt (start->g[0][0]), 0.0 }, e2[2], v[2], a[2], av[2], b[2], bv[2];
-  double h = d->opt.cell;
+  double e1[2] = { 1.0 / sqrt (start->g[0][0]), 0.0 }, e2[2], h = d->opt.cell;
 
   g_rot (start->g, e1, e2);
-  for (int k = 0; k < 2; k++)
-    v[k] = cos (d->opt.warp_rad) * e1[k] + sin (d->opt.warp_rad) * e2[k];
-  for (int n = 1; n <= 64; n *= 2)
+  for (int c = 0; c < 8; c++)
     {
-      double diff[2];
+      const gsl_odeiv2_step_type *type = c == 0 ? gsl_odeiv2_step_rkck : gsl_odeiv2_step_rk8pd;
+      int n = c == 0 ? 1 : 1 << (c - 1);
+      bool good = true;
 
-      if (!shoot (sh, start->uv, v, h, n, a, av) || !shoot (sh, start->uv, v, h, 2 * n, b, bv))
-        return n;
-      diff[0] = a[0] - b[0];
-      diff[1] = a[1] - b[1];
-      if (g_norm (start->g, diff) < 1e-12 * h
-          && g_norm (start->g, (double[2]) { av[0] - bv[0], av[1] - bv[1] }) < 1e-12)
-        return n;
+      if (sh->step == NULL || sh->step->type != type)
+        {
+          if (sh->step)
+            gsl_odeiv2_step_free (sh->step);
+          if ((sh->step = gsl_odeiv2_step_alloc (type, 4)) == NULL)
+            return false;
+        }
+      sh->substeps = n;
+      if (d->opt.substeps > 0)
+        {
+          /* Asked for: rk8pd with that many steps. */
+          if (c == 0)
+            continue;
+          sh->substeps = d->opt.substeps;
+          return true;
+        }
+      /* Three headings, none along a chart line: a meridian or a straight chart line is
+       * integrated exactly by any Runge-Kutta method and would pass any stepper. */
+      for (int k = 0; k < 3 && good; k++)
+        {
+          double th = d->opt.warp_rad + 0.4 + 2.1 * k, v[2], a[2], av[2], b[2], bv[2], df[2];
+
+          for (int q = 0; q < 2; q++)
+            v[q] = cos (th) * e1[q] + sin (th) * e2[q];
+          if (!shoot (sh, start->uv, v, h, n, a, av)
+              || !shoot (sh, start->uv, v, h, 2 * n, b, bv))
+            continue;   /* off the edge that way: the others decide */
+          df[0] = a[0] - b[0];
+          df[1] = a[1] - b[1];
+          good = g_norm (start->g, df) < 1e-12 * h
+                 && g_norm (start->g, (double[2]) { av[0] - bv[0], av[1] - bv[1] }) < 1e-12;
+        }
+      if (good || c == 7)
+        return true;
     }
-  return 64;
+  return true;
 }
 
 static void
@@ -748,7 +805,7 @@ drape_build (const df_surface *surface, const double (*outline)[2], size_t n_out
   memcpy (d->x0, start.x, sizeof d->x0);
   d->dcap = dcap;
   sh.surface = d->surface;
-  sh.step = gsl_odeiv2_step_alloc (gsl_odeiv2_step_rk8pd, 4);
+  sh.step = NULL;
   sh.sys = (gsl_odeiv2_system) { shot_rhs, NULL, 4, &sh };
   lo = gsl_integration_glfixed_table_alloc (3);
   hi = gsl_integration_glfixed_table_alloc (5);
@@ -758,14 +815,19 @@ drape_build (const df_surface *surface, const double (*outline)[2], size_t n_out
       guv[g] = malloc (cap * sizeof *guv[g]);
       gvel[g] = malloc (cap * sizeof *gvel[g]);
     }
-  if (!sh.step || !lo || !hi || !guv[0] || !guv[1] || !guv[2] || !guv[3] || !gvel[0]
+  if (!lo || !hi || !guv[0] || !guv[1] || !guv[2] || !guv[3] || !gvel[0]
       || !gvel[1] || !gvel[2] || !gvel[3])
     {
       st = DF_E_NOMEM;
       goto fail;
     }
-  sh.substeps = d->opt.substeps > 0 ? d->opt.substeps : choose_substeps (d, &sh, &start);
+  if (!choose_stepper (d, &sh, &start))
+    {
+      st = DF_E_NOMEM;
+      goto fail;
+    }
   d->sum.substeps = sh.substeps;
+  d->sum.stepper = sh.step->type->name;
 
   /* Generators: +warp, -warp, +weft, -weft (dir order). */
   {
@@ -869,6 +931,8 @@ drape_build (const df_surface *surface, const double (*outline)[2], size_t n_out
       derive_cell (d, i, j, lo, hi);
   _df_drape_map_outline (d);
   summarise (d);
+  d->sum.n_shots = (size_t) sh.shots;
+  d->sum.n_rhs = (size_t) sh.rhs;
   d->sum.i_min = d->i_min;
   d->sum.i_max = d->i_min + d->ni - 1;
   d->sum.j_min = d->j_min;

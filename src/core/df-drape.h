@@ -23,8 +23,9 @@ typedef struct
   /* Locking angle and allowed fibre deviation, radians; NAN (the default) = no limit. */
   double max_shear_rad;
   double max_fibre_deviation_rad;
-  /* rk8pd steps per thread segment; 0 (default) picks it at the start so that halving the
-   * step changes a segment's end by less than 1e-12 h. */
+  /* rk8pd steps per thread segment; 0 (default) picks the stepper (rkck or rk8pd) and the
+   * steps at the start so that halving the step changes a segment's end by less than
+   * 1e-12 h. */
   int    substeps;
   /* Compute each cell's integral of K dA independently (the closure check): costs about as
    * much as the net itself; an interactive view may switch it off while dragging. */
@@ -79,7 +80,10 @@ typedef struct
   size_t n_cells_over_limit;
   size_t n_nodes_lost;                  /* wanted but not placed (surface edge, folding) */
   char   lost_note[240];                /* why the first one was lost, or "" */
-  int    substeps;
+  int    substeps;                      /* steps per segment of the stepper: */
+  const char *stepper;                  /* "rkck" or "rk8pd" (GSL's names) */
+  size_t n_shots;                       /* geodesic segments shot (Newton included) */
+  size_t n_rhs;                         /* geodesic right-hand sides evaluated */
   /* Over the nodes inside the outline (the start node when none is): */
   double max_shear_rad;                 /* largest |shear|, with its sign */
   double max_shear_u, max_shear_v;
