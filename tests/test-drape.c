@@ -490,6 +490,17 @@ test_cli (void)
     run_cli (args, &out, &err, &status);
     g_assert_cmpint (status, ==, 2);
     g_assert_nonnull (strstr (err, "outside the ply outline"));
+    g_clear_pointer (&out, g_free);
+    g_clear_pointer (&err, g_free);
+  }
+  {
+    /* A cell so small the net could not be stored is refused, not attempted. */
+    const char *args[] = { "drape", "--preset", "sphere", "--loop", loop, "--start",
+                           "1.57,0", "--warp-deg", "0", "--cell", "1e-4", NULL };
+
+    run_cli (args, &out, &err, &status);
+    g_assert_cmpint (status, ==, 2);
+    g_assert_nonnull (strstr (err, "cells across"));
   }
   g_remove (loop);
   g_remove (svg);

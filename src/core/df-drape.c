@@ -35,6 +35,8 @@
 
 #include "df-drape-private.h"
 
+#define DF_DRAPE_MAX_ACROSS 1000
+
 /* Which pins to place, per quadrant q (bit 0: i < 0, bit 1: j < 0): in row |j| = b, the pins
  * 1 <= |i| <= ext[q][b], for b < rows[q]. NULL: every pin the generators allow. */
 typedef struct
@@ -1120,6 +1122,12 @@ df_drape_new (const df_surface *surface, const double (*outline)[2], size_t n_ou
                                            + (j.x[1] - j0.x[1]) * (j.x[1] - j0.x[1])
                                            + (j.x[2] - j0.x[2]) * (j.x[2] - j0.x[2])));
     }
+  /* About a million pins at most: the net is stored whole (some 400 bytes a pin with its
+   * cell), and a finer net than this adds nothing a cutter could follow. */
+  if (2 * max_chord / options->cell > DF_DRAPE_MAX_ACROSS)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "a cell of %.6g gives about %.0f cells across "
+                         "the ply (%.6g across); at most %d: use a larger cell", options->cell,
+                         2 * max_chord / options->cell, 2 * max_chord, DF_DRAPE_MAX_ACROSS);
   /* Generators of a full net reach 1.5 times the farthest outline point (chord): an opened
    * or sheared net needs pins somewhat beyond the ply's own extent. */
   dcap = 1.5 * max_chord + 2 * options->cell;

@@ -106,7 +106,8 @@ typedef struct
 /* Drapes from chart point (u, v) over the ply outline, a closed chart polygon of n >= 3
  * points (dense enough to stand for the outline; the CLI samples the loop's spline). On a
  * surface of revolution the polygon is shifted by whole turns of phi to lie round the start.
- * Fails with DF_E_INPUT (bad options, start outside the outline), DF_E_DOMAIN (start off the
+ * Fails with DF_E_INPUT (bad options, start outside the outline, more than 1000 cells across
+ * the ply), DF_E_DOMAIN (start off the
  * surface), DF_E_SINGULAR (start on a pole). Nodes that cannot be placed (the surface's edge,
  * a pole, threads that fold onto each other) are counted in the summary, not an error. */
 df_status df_drape_new            (const df_surface       *surface,
