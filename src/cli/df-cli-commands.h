@@ -10,5 +10,6 @@ int df_cli_measure  (int argc, char **argv);
 int df_cli_probe    (int argc, char **argv);
 int df_cli_compare  (int argc, char **argv);
 int df_cli_geodesic (int argc, char **argv);
+int df_cli_drape    (int argc, char **argv);
 int df_cli_presets  (int argc, char **argv);
 int df_cli_report   (int argc, char **argv);

@@ -20,6 +20,7 @@ static const command commands[] = {
   { "probe", df_cli_probe, "metric, connection and curvature at a point" },
   { "compare", df_cli_compare, "angle between a direction carried along two paths" },
   { "geodesic", df_cli_geodesic, "trace a geodesic (a straight-laid path) from a point" },
+  { "drape", df_cli_drape, "drape a woven ply: shear, locking cells and the flat pattern" },
   { "report", df_cli_report, "measure every loop of a project file" },
   { "check", df_cli_check, "check every loop of a project against its limits (exit 3: exceeded)" },
   { "gores", df_cli_gores, "flat pattern of gores of a surface of revolution (SVG, CSV)" },
@@ -87,6 +88,6 @@ main (int argc, char **argv)
       }
 
   fprintf (stderr, "driftframe-cli: unknown command '%s' (commands: measure, probe, compare, "
-           "geodesic, report, check, gores, devmap, presets; see driftframe-cli --help)\n", name);
+           "geodesic, drape, report, check, gores, devmap, presets; see driftframe-cli --help)\n", name);
   return DF_CLI_EXIT_INPUT;
 }
