@@ -196,17 +196,63 @@ test_near_both_poles (void)
 static void
 test_pole_probe (void)
 {
-  /* At a pole the chart's metric is degenerate: the normal and curvatures are limits. */
+  /* At a pole the chart's metric is degenerate: the normal and curvatures are limits, exact
+   * to rounding. Sphere of radius 3: K = 1/9, k1 = k2 = -1/3 with N outward (from memory). */
   g_autoptr (df_surface) s = df_test_revolution ("3*sin(t)", "3*cos(t)", 0, G_PI);
+  /* Spheroid r = a sin t, z = c cos t: the meridian's radius of curvature at the pole is a^2/c
+   * (ellipse, from memory), so k = -c/a^2 and K = c^2/a^4. */
+  g_autoptr (df_surface) sph = df_test_revolution ("100*sin(t)", "60*cos(t)", 0, G_PI);
+  /* Paraboloid z = -r^2/(4f): radius of curvature 2f at the vertex (from memory). */
+  g_autoptr (df_surface) par = df_test_revolution ("t", "-t^2/(4*100)", 0, 120);
   df_point_geometry g;
   df_diag diag;
 
   g_assert_cmpint (df_surface_geometry (s, 0.0, 1.0, &g, &diag), ==, DF_OK);
   g_assert_false (g.chart_regular);
+  g_assert_true (g.curvature_defined);
   df_assert_close (g.normal[2], 1.0, 0.0, 1e-12);
-  df_assert_close (g.K, 1.0 / 9.0, 1e-6, 0.0);
+  df_assert_close (g.K, 1.0 / 9.0, 1e-12, 0.0);
+  df_assert_close (g.H, -1.0 / 3.0, 1e-12, 0.0);
+  df_assert_close (g.k1, -1.0 / 3.0, 1e-12, 0.0);
+  df_assert_close (g.k2, -1.0 / 3.0, 1e-12, 0.0);
+  /* The chart's own metric at the pole: g_tt = 9, g_phiphi = r^2 = 0. */
+  df_assert_close (g.g[0][0], 9.0, 1e-12, 0.0);
+  df_assert_close (g.g[1][1], 0.0, 0.0, 1e-20);
   g_assert_cmpint (df_surface_geometry (s, G_PI, 1.0, &g, &diag), ==, DF_OK);
   df_assert_close (g.normal[2], -1.0, 0.0, 1e-12);
+  df_assert_close (g.K, 1.0 / 9.0, 1e-12, 0.0);
+  for (int e = 0; e < 2; e++)
+    {
+      g_assert_cmpint (df_surface_geometry (sph, e ? G_PI : 0.0, 0.3, &g, &diag), ==, DF_OK);
+      df_assert_close (g.K, 60.0 * 60.0 / 1e8, 1e-12, 0.0);
+      df_assert_close (g.H, -60.0 / 1e4, 1e-12, 0.0);
+    }
+  g_assert_cmpint (df_surface_geometry (par, 0.0, 0.0, &g, &diag), ==, DF_OK);
+  df_assert_close (g.K, 1.0 / (200.0 * 200.0), 1e-12, 0.0);
+  df_assert_close (g.k1, -1.0 / 200.0, 1e-12, 0.0);
+  /* The limit agrees with the regular formula beside the pole (continuity of K). */
+  {
+    df_point_geometry near;
+
+    g_assert_cmpint (df_surface_geometry (sph, 1e-5, 0.3, &near, &diag), ==, DF_OK);
+    g_assert_true (near.chart_regular);
+    df_assert_close (near.K, 60.0 * 60.0 / 1e8, 1e-8, 0.0);
+  }
+}
+
+static void
+test_apex_probe (void)
+{
+  /* A cone apex of half-angle 30 deg: no K or H, concentrated curvature 2 pi (1 - sin 30 deg)
+   * = pi (GEOMETRY.md; the unrolled cone's angle deficit, from memory). */
+  g_autoptr (df_surface) s = df_test_revolution ("t*sin(pi/6)", "-t*cos(pi/6)", 0, 3);
+  df_point_geometry g;
+  df_diag diag;
+
+  g_assert_cmpint (df_surface_geometry (s, 0.0, 0.0, &g, &diag), ==, DF_OK);
+  g_assert_false (g.curvature_defined);
+  df_assert_close (g.concentrated_rad, G_PI, 1e-12, 0.0);
+  g_assert_nonnull (strstr (g.note, "apex"));
 }
 
 int
@@ -221,5 +267,6 @@ main (int argc, char **argv)
   g_test_add_func ("/core/poles/both-caps", test_both_caps);
   g_test_add_func ("/core/poles/near-both-poles", test_near_both_poles);
   g_test_add_func ("/core/poles/pole-probe", test_pole_probe);
+  g_test_add_func ("/core/poles/apex-probe", test_apex_probe);
   return g_test_run ();
 }
