@@ -322,3 +322,83 @@ df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, do
     *sqrt_g = len;
   return DF_OK;
 }
+
+df_status
+df_surface_polar_jet (const df_surface *s, int end, const double p[2], df_chart_jet *out,
+                      df_diag *diag)
+{
+  double u_min, u_max, t0, sg, range, rho, t, e[2] = { 0, 0 }, r[4], z[4], pr[4];
+  double q, q1, q1r, qq, zr, zz;
+  df_chart_jet j, jp;
+  df_status st;
+
+  if (df_surface_get_kind (s) != DF_SURFACE_REVOLUTION)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "pole coordinates need a surface of revolution");
+  df_surface_get_domain (s, &u_min, &u_max, NULL, NULL);
+  t0 = end ? u_max : u_min;
+  sg = end ? -1.0 : 1.0;
+  range = u_max - u_min;
+  rho = hypot (p[0], p[1]);
+  t = t0 + sg * rho;
+  if ((st = df_surface_eval (s, t, 0.0, 3, &j, diag)) != DF_OK
+      || (st = df_surface_eval (s, t0, 0.0, 3, &jp, diag)) != DF_OK)
+    return st;
+  /* Derivatives in rho = sg (t - t0): d/drho = sg d/dt. */
+  r[0] = j.x[0]; r[1] = sg * j.d1[0][0]; r[2] = j.d2[0][0]; r[3] = sg * j.d3[0][0];
+  z[0] = j.x[2]; z[1] = sg * j.d1[0][2]; z[2] = j.d2[0][2]; z[3] = sg * j.d3[0][2];
+  pr[1] = sg * jp.d1[0][0]; pr[2] = jp.d2[0][0]; pr[3] = sg * jp.d3[0][0];
+  /* X = (q p_1, q p_2, z(rho)) with q = r / rho, both even in rho at a smooth pole. The
+   * quotients r / rho and z' / rho keep their digits (r and z' come from the formulas); the
+   * rho-derivatives of q lose them near the pole and come from r's Taylor series there. */
+  if (rho > 1e-12 * range)
+    {
+      q = r[0] / rho;
+      zr = z[1] / rho;
+      e[0] = p[0] / rho;
+      e[1] = p[1] / rho;
+    }
+  else
+    {
+      q = pr[1];
+      zr = z[2];
+    }
+  if (rho < 1e-4 * range)
+    {
+      q1 = pr[2] / 2 + pr[3] * rho / 3;
+      q1r = pr[3] / 3 + (rho > 0 ? pr[2] / (2 * rho) : 0.0);
+      qq = pr[3] / 3 - q1r;
+    }
+  else
+    {
+      q1 = (r[1] * rho - r[0]) / (rho * rho);
+      q1r = q1 / rho;
+      qq = (r[2] * rho * rho - 2 * r[1] * rho + 2 * r[0]) / (rho * rho * rho) - q1r;
+    }
+  zz = z[2] - zr;
+  memset (out, 0, sizeof *out);
+  out->x[0] = q * p[0];
+  out->x[1] = q * p[1];
+  out->x[2] = z[0];
+  for (int i = 0; i < 2; i++)
+    {
+      for (int k = 0; k < 2; k++)
+        out->d1[i][k] = q1 * e[i] * p[k] + (i == k ? q : 0.0);
+      out->d1[i][2] = zr * p[i];
+    }
+  /* d2[a + b] = X_ab: X_11, X_12, X_22. */
+  for (int a = 0; a < 2; a++)
+    for (int b = a; b < 2; b++)
+      {
+        double *x = out->d2[a + b], dab = a == b ? 1.0 : 0.0;
+
+        for (int k = 0; k < 2; k++)
+          x[k] = (qq * e[a] * e[b] + q1r * dab) * p[k] + q1 * e[a] * (b == k) + q1 * e[b] * (a == k);
+        x[2] = zz * e[a] * e[b] + zr * dab;
+      }
+  for (int k = 0; k < 3; k++)
+    if (!isfinite (out->x[k]) || !isfinite (out->d1[0][k]) || !isfinite (out->d1[1][k])
+        || !isfinite (out->d2[0][k]) || !isfinite (out->d2[1][k]) || !isfinite (out->d2[2][k]))
+      return df_diag_fail_at (diag, DF_E_NONFINITE, -1, t, atan2 (p[1], p[0]),
+                              "the surface in pole coordinates is not finite here");
+  return DF_OK;
+}

@@ -65,3 +65,13 @@ df_status df_surface_k_area   (const df_surface *surface,
                                double           *k_sqrt_g,
                                double           *sqrt_g,
                                df_diag          *diag);
+
+/* X, X_i and X_ij (orders 0..2 of the jet; d3 is zero) in the pole-centred chart
+ * p = rho (cos phi, sin phi), rho = |t - t_pole|, about the pole at u_min (end = 0) or u_max
+ * (end = 1) of a surface of revolution: a chart regular at a smooth pole, where (t, phi) is
+ * not. Any |p| up to the t range is accepted. */
+df_status df_surface_polar_jet (const df_surface *surface,
+                                int               end,
+                                const double      p[2],
+                                df_chart_jet     *out,
+                                df_diag          *diag);
