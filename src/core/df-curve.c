@@ -673,6 +673,17 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
                 if (!closed && i + 1 == n)
                   step = 0.0;
               }
+            if (n > 1 && step > M_PI / 8)
+              {
+                /* A step that turns round the axis while the distance to the pole changes by
+                 * half or more passes the pole: phi(tau) then has a sharp knee that a chart
+                 * spline follows badly and the chart transport crawls through (Gamma^phi_tphi =
+                 * r'/r). A latitude-like step (distance kept) stays in the chart. */
+                double other = fabs (pts[(i + 1) % n][0] - poles[e].t);
+
+                if (fmax (dist, other) > 1.5 * fmin (dist, other))
+                  step = M_PI;
+              }
             if (poles[e].on_axis && dist < POLE_NEAR_FRACTION * (u_max - u_min)
                 && (dist <= 1e-6 * (u_max - u_min) || step > M_PI / 2))
               near[e] = true;
