@@ -193,6 +193,204 @@ test_near_both_poles (void)
   g_assert_null (c);
 }
 
+
+/* The octant-style loop in pole-centred coordinates about the pole at t-min: down the meridian
+ * phi = 0 from the pole to t = T, along the parallel t = T for a quarter turn, back up the
+ * meridian phi = pi/2 to the pole. The curve starts at tau = shift x (its length in tau, 3 T
+ * pieces of length T... each piece is parametrised on an interval of length 1). */
+typedef struct
+{
+  double T;
+  double shift;   /* where on the loop tau = 0 lies, in pieces (0: at the pole) */
+} octant_def;
+
+static void
+octant_fn (double tau, void *user, double p[2], double dp[2], double ddp[2])
+{
+  const octant_def *o = user;
+  double x = fmod (tau + o->shift, 3.0), a;
+
+  if (x < 0)
+    x += 3.0;
+  ddp[0] = ddp[1] = 0.0;
+  if (x < 1.0)
+    {
+      p[0] = o->T * x; p[1] = 0.0;
+      dp[0] = o->T; dp[1] = 0.0;
+    }
+  else if (x < 2.0)
+    {
+      a = G_PI / 2 * (x - 1.0);
+      p[0] = o->T * cos (a); p[1] = o->T * sin (a);
+      dp[0] = -o->T * G_PI / 2 * sin (a); dp[1] = o->T * G_PI / 2 * cos (a);
+      ddp[0] = -G_PI * G_PI / 4 * p[0]; ddp[1] = -G_PI * G_PI / 4 * p[1];
+    }
+  else
+    {
+      p[0] = 0.0; p[1] = o->T * (3.0 - x);
+      dp[0] = 0.0; dp[1] = -o->T;
+    }
+}
+
+static void
+measure_octant (const df_surface *s, df_curve_coords coords, double T, double shift,
+                df_loop_result *r)
+{
+  octant_def o = { T, shift };
+  double breaks[3];
+  size_t nb = 0;
+  df_curve *c = NULL;
+  df_diag diag;
+
+  /* Corners at the pieces' joins, as seen from this start. */
+  for (int k = 1; k <= 3; k++)
+    {
+      double b = fmod (k - shift + 3.0, 3.0);
+
+      if (b > 1e-12 && b < 3.0 - 1e-12)
+        breaks[nb++] = b;
+    }
+  if (nb > 1 && breaks[0] > breaks[1])
+    {
+      double t = breaks[0];
+
+      breaks[0] = breaks[1];
+      breaks[1] = t;
+    }
+  g_assert_cmpint (df_curve_new_function (s, coords, 0.0, 3.0, breaks, nb, true, octant_fn, &o,
+                                          &c, &diag), ==, DF_OK);
+  df_test_measure (c, r);
+  df_curve_free (c);
+}
+
+static void
+test_octant_loops (void)
+{
+  /* Girard's theorem: a spherical triangle's excess is its area / R^2 (from memory); the
+   * octant (three right angles) has excess pi/2, area pi R^2 / 2. On a spheroid the octant is
+   * an eighth of a closed surface carrying 4 pi in all (Gauss-Bonnet, from memory, the eight
+   * octants congruent by reflection): pi/2. On the paraboloid z = -r^2/(4f) a quarter of the
+   * disc r <= T carries a quarter of 2 pi (1 - 1/sqrt(1 + (T/2f)^2)) (the Gauss image's area,
+   * do Carmo sec. 3-3, from memory). Starting at the pole, passing through it (started
+   * mid-parallel) and at the other (south) pole. */
+  g_autoptr (df_surface) sphere = df_test_revolution ("2*sin(t)", "2*cos(t)", 0, G_PI);
+  g_autoptr (df_surface) south = df_test_revolution ("2*sin(pi - t)", "-2*cos(pi - t)", 0, G_PI);
+  g_autoptr (df_surface) spheroid = df_test_revolution ("100*sin(t)", "60*cos(t)", 0, G_PI);
+  g_autoptr (df_surface) par = df_test_revolution ("t", "-t^2/(4*100)", 0, 120);
+  const double par_want = 0.25 * 2 * G_PI * (1 - 1 / sqrt (1 + 0.5 * 0.5));
+  const double shifts[3] = { 0.0, 1.5, 2.5 };
+
+  for (int k = 0; k < 3; k++)
+    {
+      g_auto (df_loop_result) a = { 0 };
+      g_auto (df_loop_result) b = { 0 };
+      g_auto (df_loop_result) c = { 0 };
+      g_auto (df_loop_result) d = { 0 };
+
+      measure_octant (sphere, DF_COORDS_POLAR_MIN, G_PI / 2, shifts[k], &a);
+      g_assert_true (a.simple);
+      g_assert_true (a.bounds_disc);
+      df_assert_close (a.holonomy_rad, G_PI / 2, 0.0, 1e-9);
+      df_assert_close (a.enclosed_curvature_rad, G_PI / 2, 0.0, 1e-9);
+      df_assert_close (a.area, G_PI * 4 / 2, 1e-9, 0.0);
+      /* The other disc is the rest of the sphere: 4 pi - pi/2, on the right. */
+      g_assert_true (a.has_other_disc);
+      df_assert_close (a.other_enclosed_curvature_rad, G_PI / 2 - 4 * G_PI, 0.0, 1e-9);
+
+      /* The mirror image about the equator, round the pole at t-max: the profile runs the
+       * other way, so the same picture is traversed with N still outward. */
+      measure_octant (south, DF_COORDS_POLAR_MAX, G_PI / 2, shifts[k], &b);
+      g_assert_true (b.bounds_disc);
+      df_assert_close (fabs (b.enclosed_curvature_rad), G_PI / 2, 0.0, 1e-9);
+      df_assert_close (b.residual_rad, 0.0, 0.0, 1e-9);
+
+      measure_octant (spheroid, DF_COORDS_POLAR_MIN, G_PI / 2, shifts[k], &c);
+      df_assert_close (c.enclosed_curvature_rad, G_PI / 2, 0.0, 1e-9);
+      df_assert_close (c.holonomy_rad, G_PI / 2, 0.0, 1e-9);
+
+      measure_octant (par, DF_COORDS_POLAR_MIN, 100.0, shifts[k], &d);
+      g_test_message ("paraboloid: %s", d.disc_note);
+      df_assert_close (d.enclosed_curvature_rad, par_want, 0.0, 1e-9);
+      df_assert_close (d.holonomy_rad, par_want, 0.0, 1e-9);
+      g_assert_false (d.has_other_disc);
+    }
+}
+
+static void
+test_octant_points (void)
+{
+  /* The same octant as points (the issue's case: a CSV loop that starts at the pole, runs down
+   * a meridian, along the equator and back up): simple, bounds a disc, with the octant's
+   * pi/2 (Girard, from memory) to the spline's interpolation error, whether it starts at the
+   * pole, passes through it or uses the south pole. */
+  g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0, G_PI);
+  const size_t m = 100, n = 3 * m;
+  g_autofree double (*uv)[2] = g_malloc (n * sizeof *uv);
+
+  for (int variant = 0; variant < 3; variant++)
+    {
+      g_auto (df_loop_result) r = { 0 };
+
+      for (size_t i = 0; i < n; i++)
+        {
+          size_t j = (i + (variant == 1 ? m + m / 2 : 0)) % n;
+          double f = (double) (j % m) / m, t, ph;
+
+          if (j < m)
+            t = G_PI / 2 * f, ph = 0.0;
+          else if (j < 2 * m)
+            t = G_PI / 2, ph = G_PI / 2 * f;
+          else
+            t = G_PI / 2 * (1 - f), ph = G_PI / 2;
+          if (variant == 2)
+            t = G_PI - t;
+          uv[i][0] = t;
+          uv[i][1] = ph;
+        }
+      measure (s, (const double (*)[2]) uv, n, &r, NULL);
+      g_assert_true (r.simple);
+      g_assert_true (r.bounds_disc);
+      df_assert_close (fabs (r.enclosed_curvature_rad), G_PI / 2, 1e-3, 0.0);
+      df_assert_close (r.residual_rad, 0.0, 0.0, 1e-8);
+    }
+}
+
+static void
+test_vertex_near_pole (void)
+{
+  /* A small circle of angular radius 0.35 on the unit sphere passing the north pole at
+   * distances 1e-2 ... 1e-8, one of its 60 points the closest: its cap carries
+   * 2 pi (1 - cos 0.35) (Archimedes, from memory) wherever it lies. The spline through 60
+   * points is within 1e-6 of it, and nothing crawls (each of these ran 6 s and failed before
+   * the pole coordinates were chosen for steps that pass the pole). */
+  g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0, G_PI);
+  const double rho = 0.35, want = 2 * G_PI * (1 - cos (rho));
+  const size_t n = 60;
+
+  for (double d = 1e-2; d >= 0.99e-8; d *= 0.1)
+    {
+      g_autofree double (*uv)[2] = g_malloc (n * sizeof *uv);
+      g_auto (df_loop_result) r = { 0 };
+      double ct = rho + d, c[3] = { sin (ct), 0, cos (ct) }, e1[3] = { cos (ct), 0, -sin (ct) };
+
+      for (size_t i = 0; i < n; i++)
+        {
+          double a = G_PI + 2 * G_PI * i / n, p[3];
+
+          for (int k = 0; k < 3; k++)
+            p[k] = cos (rho) * c[k] + sin (rho) * (cos (a) * e1[k] + (k == 1 ? sin (a) : 0.0));
+          uv[i][0] = acos (CLAMP (p[2], -1.0, 1.0));
+          uv[i][1] = atan2 (p[1], p[0]);
+        }
+      measure (s, (const double (*)[2]) uv, n, &r, NULL);
+      g_test_message ("d = %g: %.12g, %zu evaluations", d, r.enclosed_curvature_rad, r.rhs_evals);
+      g_assert_true (r.bounds_disc);
+      df_assert_close (fabs (r.enclosed_curvature_rad), want, 0.0, 1e-6);
+      df_assert_close (r.residual_rad, 0.0, 0.0, 1e-9);
+      g_assert_cmpuint (r.rhs_evals, <, 100000);
+    }
+}
+
 static void
 test_pole_probe (void)
 {
@@ -266,6 +464,9 @@ main (int argc, char **argv)
   g_test_add_func ("/core/poles/cone-apex-outside", test_cone_apex_outside);
   g_test_add_func ("/core/poles/both-caps", test_both_caps);
   g_test_add_func ("/core/poles/near-both-poles", test_near_both_poles);
+  g_test_add_func ("/core/poles/octant-loops", test_octant_loops);
+  g_test_add_func ("/core/poles/octant-points", test_octant_points);
+  g_test_add_func ("/core/poles/vertex-near-pole", test_vertex_near_pole);
   g_test_add_func ("/core/poles/pole-probe", test_pole_probe);
   g_test_add_func ("/core/poles/apex-probe", test_apex_probe);
   return g_test_run ();

@@ -252,11 +252,18 @@ segments_cross (const double a[2], const double b[2], const double c[2], const d
   double d3 = (d[0] - c[0]) * (a[1] - c[1]) - (d[1] - c[1]) * (a[0] - c[0]);
   double d4 = (d[0] - c[0]) * (b[1] - c[1]) - (d[1] - c[1]) * (b[0] - c[0]);
 
-  /* Touching counts as crossing: the two segments are not neighbours, so a shared point
-   * means the loop meets itself. Collinear segments cross where their boxes overlap. */
+  /* Segments whose boxes do not overlap cannot meet; testing that first keeps nearly
+   * collinear segments (a meridian in a pole-centred picture, with rounding noise across it)
+   * from looking crossed by the sign tests below. Touching counts as crossing: the two
+   * segments are not neighbours, so a shared point means the loop meets itself. Collinear
+   * segments cross where their boxes overlap. */
+  bool boxes = fmax (fmin (a[0], b[0]), fmin (c[0], d[0])) <= fmin (fmax (a[0], b[0]), fmax (c[0], d[0]))
+               && fmax (fmin (a[1], b[1]), fmin (c[1], d[1])) <= fmin (fmax (a[1], b[1]), fmax (c[1], d[1]));
+
+  if (!boxes)
+    return false;
   if (d1 == 0 && d2 == 0 && d3 == 0 && d4 == 0)
-    return fmax (fmin (a[0], b[0]), fmin (c[0], d[0])) <= fmin (fmax (a[0], b[0]), fmax (c[0], d[0]))
-           && fmax (fmin (a[1], b[1]), fmin (c[1], d[1])) <= fmin (fmax (a[1], b[1]), fmax (c[1], d[1]));
+    return true;
   return d1 * d2 <= 0 && d3 * d4 <= 0;
 }
 
