@@ -181,18 +181,59 @@ test_both_caps (void)
 static void
 test_near_both_poles (void)
 {
-  /* A meridian great circle passes both poles: one chart cannot hold it; a clear error. */
+  /* A meridian great circle passes both poles and bounds two hemispheres, each carrying 2 pi
+   * (half of the closed surface's 4 pi: Gauss-Bonnet, from memory) and, on the unit sphere,
+   * area 2 pi; on the spheroid a = 100, c = 60 each half has half the area
+   * 2 pi a^2 (1 + (1 - e^2) / e atanh e), e^2 = 1 - c^2/a^2 (the oblate spheroid's area, from
+   * memory). A great circle tilted 1e-3 from a meridian passes beside both poles: 2 pi too.
+   * A lune between meridians alpha apart carries 2 alpha (area 2 alpha R^2, from memory), to
+   * the spline's interpolation error at its corners on the poles. */
   g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0, G_PI);
-  double uv[4][2] = { { 0, 0 }, { G_PI / 2, 0 }, { G_PI, 0 }, { G_PI / 2, G_PI } };
-  df_curve *c = NULL;
-  df_diag diag;
+  g_autoptr (df_surface) sph = df_test_revolution ("100*sin(t)", "60*cos(t)", 0, G_PI);
+  const double e = 0.8, sph_half = G_PI * 1e4 * (1 + (1 - e * e) / e * atanh (e));
+  const size_t n = 80;
+  double uv[80][2];
 
-  g_assert_cmpint (df_curve_new_through_points (s, (const double (*)[2]) uv, 4, true, &c, &diag),
-                   ==, DF_E_INPUT);
-  g_assert_true (strstr (diag.detail, "both poles") != NULL);
-  g_assert_null (c);
+  for (int variant = 0; variant < 4; variant++)
+    {
+      g_auto (df_loop_result) r = { 0 };
+      df_curve_coords coords;
+
+      for (size_t i = 0; i < n; i++)
+        {
+          if (variant == 2)
+            {
+              double a = 2 * G_PI * i / n, eps = 1e-3;
+              double p[3] = { cos (a) * sin (eps), sin (a), cos (a) * cos (eps) };
+
+              uv[i][0] = acos (CLAMP (p[2], -1.0, 1.0));
+              uv[i][1] = atan2 (p[1], p[0]);
+            }
+          else
+            {
+              uv[i][0] = i < n / 2 ? G_PI * i / (n / 2) : G_PI * (1.0 - (double) (i - n / 2) / (n / 2));
+              uv[i][1] = i < n / 2 ? 0.0 : (variant == 3 ? 1.0 : G_PI);
+            }
+        }
+      measure (variant == 1 ? sph : s, (const double (*)[2]) uv, n, &r, &coords);
+      g_assert_cmpint (coords, ==, DF_COORDS_SPHERE);
+      g_assert_true (r.simple);
+      g_assert_true (r.bounds_disc);
+      g_assert_true (r.has_other_disc);
+      df_assert_close (r.residual_rad, 0.0, 0.0, 1e-9);
+      if (variant == 3)
+        {
+          df_assert_close (fabs (r.enclosed_curvature_rad), 2.0, 1e-3, 0.0);
+          df_assert_close (r.area, 2.0, 1e-3, 0.0);
+          continue;
+        }
+      df_assert_close (fabs (r.enclosed_curvature_rad), 2 * G_PI, 1e-9, 0.0);
+      df_assert_close (fabs (r.other_enclosed_curvature_rad), 2 * G_PI, 1e-9, 0.0);
+      df_assert_close (r.area, variant == 1 ? sph_half : 2 * G_PI, 1e-9, 0.0);
+      if (variant != 1)
+        df_assert_close (r.length, 2 * G_PI, 1e-9, 0.0);
+    }
 }
-
 
 /* The octant-style loop in pole-centred coordinates about the pole at t-min: down the meridian
  * phi = 0 from the pole to t = T, along the parallel t = T for a quarter turn, back up the

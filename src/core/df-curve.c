@@ -23,6 +23,15 @@
  * coordinates. */
 #define POLE_NEAR_FRACTION 0.1
 
+/* A pole's data for pole-centred coordinates about it. */
+typedef struct
+{
+  double t;          /* the pole's t */
+  double sign;       /* dt/drho: +1 at u_min, -1 at u_max */
+  double r[4];       /* the profile's r and t-derivatives at the pole */
+  bool   smooth;     /* a smooth pole (not a cone apex) */
+} pole_frame;
+
 struct df_curve
 {
   df_surface     *surface;      /* own copy */
@@ -32,12 +41,12 @@ struct df_curve
   double          pole_t;       /* polar coordinates: the pole's t */
   double          pole_sign;    /* dt/drho: +1 at u_min, -1 at u_max */
   double          t_range;
-  double          pole_r[4];    /* the profile's r and t-derivatives at the pole */
-  bool            pole_smooth;  /* the pole is smooth (not a cone apex) */
+  pole_frame      frame[2];     /* both ends' pole data (revolution surfaces) */
   /* spline */
   size_t          n_nodes;      /* distinct nodes; closed: the period adds one more */
   double         *taus;         /* n_nodes + 1 when closed */
-  double         *coef[2];      /* per segment 4 coefficients a, b, c, d of each coordinate */
+  double         *coef[3];      /* per segment 4 coefficients a, b, c, d of each coordinate
+                                 * (3 in sphere coordinates) */
   double          drift[2];     /* chart coords, closed: u, v grow by drift * tau per lap */
   /* exact function */
   df_curve_fn     fn;
@@ -73,6 +82,7 @@ df_curve_free (df_curve *c)
   free (c->taus);
   free (c->coef[0]);
   free (c->coef[1]);
+  free (c->coef[2]);
   free (c->breaks);
   free (c);
 }
@@ -89,20 +99,27 @@ setup_coords (df_curve *c, df_curve_coords coords)
   c->t_range = u_max - u_min;
   c->pole_t = coords == DF_COORDS_POLAR_MAX ? u_max : u_min;
   c->pole_sign = coords == DF_COORDS_POLAR_MAX ? -1.0 : 1.0;
-  if (coords != DF_COORDS_CHART)
+  if (df_surface_get_kind (c->surface) == DF_SURFACE_REVOLUTION)
     {
-      df_chart_jet j;
       df_pole poles[2];
 
-      if (df_surface_eval (c->surface, c->pole_t, 0.0, 3, &j, NULL) == DF_OK)
-        {
-          c->pole_r[0] = j.x[0];
-          c->pole_r[1] = j.d1[0][0];
-          c->pole_r[2] = j.d2[0][0];
-          c->pole_r[3] = j.d3[0][0];
-        }
       df_surface_get_poles (c->surface, poles);
-      c->pole_smooth = poles[coords == DF_COORDS_POLAR_MAX].sin_alpha > 1.0 - 1e-9;
+      for (int e = 0; e < 2; e++)
+        {
+          pole_frame *f = &c->frame[e];
+          df_chart_jet j;
+
+          f->t = e ? u_max : u_min;
+          f->sign = e ? -1.0 : 1.0;
+          if (df_surface_eval (c->surface, f->t, 0.0, 3, &j, NULL) == DF_OK)
+            {
+              f->r[0] = j.x[0];
+              f->r[1] = j.d1[0][0];
+              f->r[2] = j.d2[0][0];
+              f->r[3] = j.d3[0][0];
+            }
+          f->smooth = poles[e].sin_alpha > 1.0 - 1e-9;
+        }
     }
 }
 
@@ -293,11 +310,25 @@ segment_eval (const df_curve *c, size_t i, double tau, int laps, double p[2], do
     }
 }
 
+static int sphere_plane (const df_curve *c, double tau, int force, double p[2], double dp[2],
+                         double ddp[2]);
+
+/* The plane point in segment i; in sphere coordinates, where there is no one plane, the chart
+ * point (t, phi) instead. */
 static void
 segment_plane (const df_curve *c, size_t i, double tau, double p[2])
 {
   double dp[2], ddp[2];
 
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      int e = sphere_plane (c, tau, -1, p, dp, ddp);
+      double rho = hypot (p[0], p[1]), ph = atan2 (p[1], p[0]);
+
+      p[0] = c->frame[e].t + c->frame[e].sign * rho;
+      p[1] = ph;
+      return;
+    }
   segment_eval (c, i, tau, 0, p, dp, ddp);
 }
 
@@ -341,11 +372,115 @@ df_curve_sample_plane (const df_curve *c, size_t n_min, double (**out)[2])
   return n;
 }
 
+/* Sphere coordinates, for a loop that comes near both poles, where no one plane chart will
+ * do: the points go to the unit sphere by theta = pi (t - t_min) / range (a picture of the
+ * surface regular at both poles, since r is odd and z even in the distance to a smooth pole),
+ * a cubic spline w(tau) in R^3 runs through them and is projected back radially. At each tau
+ * the result is handed on in the pole-centred picture of the nearer pole (end 0 or 1, or the
+ * one forced): p = k (theta_e / sin theta_e) (w_x, w_y) / |w| with k = range / pi and theta_e
+ * the angle from that pole. Returns the end used. */
+static int
+sphere_plane (const df_curve *c, double tau, int force, double p[2], double dp[2], double ddp[2])
+{
+  int laps, e;
+  size_t i;
+  double w[3], w1[3], w2[3], u[3], u1[3], u2[3], dt, L, L1, L2, sg, cz, cz1, cz2, x, F, F1, F2;
+  double k = c->t_range / M_PI;
+
+  tau = wrap_tau (c, tau, &laps);
+  i = segment_of (c, tau);
+  dt = tau - c->taus[i];
+  for (int m = 0; m < 3; m++)
+    {
+      const double *q = &c->coef[m][4 * i];
+
+      w[m] = q[0] + dt * (q[1] + dt * (q[2] + dt * q[3]));
+      w1[m] = q[1] + dt * (2 * q[2] + dt * 3 * q[3]);
+      w2[m] = 2 * q[2] + 6 * dt * q[3];
+    }
+  /* u = w / |w| and its first two derivatives. */
+  L = sqrt (df_dot3 (w, w));
+  for (int m = 0; m < 3; m++)
+    u[m] = w[m] / L;
+  L1 = df_dot3 (u, w1);
+  L2 = (df_dot3 (w1, w1) + df_dot3 (w, w2) - L1 * L1) / L;
+  for (int m = 0; m < 3; m++)
+    {
+      u1[m] = (w1[m] - u[m] * L1) / L;
+      u2[m] = w2[m] / L - 2 * w1[m] * L1 / (L * L) - w[m] * L2 / (L * L)
+              + 2 * w[m] * L1 * L1 / (L * L * L);
+    }
+  e = force >= 0 ? force : (u[2] + 1e-9 >= 0 ? 0 : 1);
+  sg = e ? -1.0 : 1.0;
+  cz = sg * u[2];
+  cz1 = sg * u1[2];
+  cz2 = sg * u2[2];
+  /* F(c) = theta / sin theta with c = cos theta, and dF/dc, d2F/dc2; near the pole from the
+   * series in x = 1 - c (sympy), where the closed forms lose their digits. */
+  x = 1.0 - cz;
+  if (x < 1e-2)
+    {
+      static const double a[8] = { 1.0, 1.0 / 3, 2.0 / 15, 2.0 / 35, 8.0 / 315, 8.0 / 693,
+                                   16.0 / 3003, 16.0 / 6435 };
+      double dF = 0.0, ddF = 0.0;
+
+      F = 0.0;
+      for (int m = 7; m >= 0; m--)
+        F = F * x + a[m];
+      for (int m = 7; m >= 1; m--)
+        dF = dF * x + m * a[m];
+      for (int m = 7; m >= 2; m--)
+        ddF = ddF * x + m * (m - 1) * a[m];
+      F1 = -dF;
+      F2 = ddF;
+    }
+  else
+    {
+      double s2 = 1.0 - cz * cz, sn = sqrt (fmax (s2, 0.0));
+
+      F = atan2 (sn, cz) / sn;
+      F1 = (cz * F - 1.0) / s2;
+      F2 = ((F + cz * F1) * s2 + 2 * cz * (cz * F - 1.0)) / (s2 * s2);
+    }
+  for (int m = 0; m < 2; m++)
+    {
+      p[m] = k * F * u[m];
+      dp[m] = k * (F1 * cz1 * u[m] + F * u1[m]);
+      ddp[m] = k * (F2 * cz1 * cz1 * u[m] + F1 * cz2 * u[m] + 2 * F1 * cz1 * u1[m] + F * u2[m]);
+    }
+  return e;
+}
+
+int
+df_curve_plane_pole (const df_curve *c, double tau)
+{
+  double p[2], dp[2], ddp[2];
+
+  if (c->coords == DF_COORDS_SPHERE)
+    return sphere_plane (c, tau, -1, p, dp, ddp);
+  return c->coords == DF_COORDS_CHART ? -1 : c->coords == DF_COORDS_POLAR_MAX ? 1 : 0;
+}
+
+void
+df_curve_eval_plane_about (const df_curve *c, double tau, int end, double p[2], double dp[2],
+                           double ddp[2])
+{
+  if (c->coords == DF_COORDS_SPHERE)
+    sphere_plane (c, tau, end, p, dp, ddp);
+  else
+    df_curve_eval_plane (c, tau, p, dp, ddp);
+}
+
 void
 df_curve_eval_plane (const df_curve *c, double tau, double p[2], double dp[2], double ddp[2])
 {
   int laps;
 
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      sphere_plane (c, tau, -1, p, dp, ddp);
+      return;
+    }
   tau = wrap_tau (c, tau, &laps);
   if (c->fn != NULL)
     {
@@ -423,17 +558,17 @@ profile (const df_curve *c, double t, double r[4], double z[4], df_diag *diag)
 }
 
 static df_status
-eval_polar (const df_curve *c, df_curve_point *o, df_diag *diag)
+eval_polar (const df_curve *c, const pole_frame *f, df_curve_point *o, df_diag *diag)
 {
-  const double sg = c->pole_sign;
+  const double sg = f->sign;
   const double tiny = 1e-12 * c->t_range;
   double rho = hypot (o->p[0], o->p[1]);
   double r[4], z[4], q, q1, q2, rho_d, rho_dd, er[2] = { 0, 0 }, er_d[2] = { 0, 0 };
   double sp, sp_t, nr, nz, nr_t, nz_t, nr_over_rho, t;
-  const double p1 = sg * c->pole_r[1], p2 = c->pole_r[2], p3 = sg * c->pole_r[3];
+  const double p1 = sg * f->r[1], p2 = f->r[2], p3 = sg * f->r[3];
   df_status st;
 
-  t = c->pole_t + sg * rho;
+  t = f->t + sg * rho;
   o->u = t;
   o->v = atan2 (o->p[1], o->p[0]);
   o->at_pole = rho <= tiny;
@@ -499,7 +634,7 @@ eval_polar (const df_curve *c, df_curve_point *o, df_diag *diag)
   nz_t = (r[2] * sp - r[1] * sp_t) / (sp * sp);
   /* n_r vanishes at a smooth pole, so n_r / rho has the limit sg n_r'; at a cone apex it has
    * none (the normal jumps there). */
-  nr_over_rho = rho > tiny ? nr / rho : (c->pole_smooth ? sg * nr_t : 0.0);
+  nr_over_rho = rho > tiny ? nr / rho : (f->smooth ? sg * nr_t : 0.0);
   if (rho > tiny)
     {
       o->normal[0] = nr * er[0];
@@ -527,7 +662,16 @@ df_curve_eval (const df_curve *c, double tau, df_curve_point *o, df_diag *diag)
   memset (o, 0, sizeof *o);
   o->tau = tau;
   df_curve_eval_plane (c, tau, o->p, o->dp, o->ddp);
-  st = c->coords == DF_COORDS_CHART ? eval_chart (c, o, diag) : eval_polar (c, o, diag);
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      int e = sphere_plane (c, tau, -1, o->p, o->dp, o->ddp);
+
+      st = eval_polar (c, &c->frame[e], o, diag);
+    }
+  else
+    st = c->coords == DF_COORDS_CHART ? eval_chart (c, o, diag)
+                                      : eval_polar (c, &c->frame[c->coords == DF_COORDS_POLAR_MAX],
+                                                    o, diag);
   if (st == DF_OK)
     {
       const double *all = o->x;
@@ -542,6 +686,61 @@ df_curve_eval (const df_curve *c, double tau, df_curve_point *o, df_diag *diag)
 
 /* --- construction ----------------------------------------------------------------------- */
 
+/* Sphere coordinates hand on one pole's picture in the northern half and the other's in the
+ * southern: where the curve crosses the equator the pictures change, so the crossings become
+ * breaks, and no integrator step straddles one. Found on each segment by sign changes of
+ * w_z / |w| + 1e-9 (the same rule as sphere_plane's) on 16 samples, refined by bisection. */
+static df_status
+sphere_breaks (df_curve *c)
+{
+  size_t nseg = c->closed ? c->n_nodes : c->n_nodes - 1, cap = 16, n = 0;
+  double *b = malloc (cap * sizeof *b);
+
+  if (b == NULL)
+    return DF_E_NOMEM;
+  for (size_t i = 0; i < nseg; i++)
+    {
+      double a0 = c->taus[i], h = (c->taus[i + 1] - a0) / 16;
+      int prev = df_curve_plane_pole (c, a0 + 1e-12 * h);
+
+      for (int j = 1; j <= 16; j++)
+        {
+          double lo = a0 + (j - 1) * h, hi = j == 16 ? c->taus[i + 1] - 1e-12 * h : a0 + j * h;
+          int e = df_curve_plane_pole (c, hi);
+
+          if (e == prev)
+            continue;
+          for (int it = 0; it < 80 && hi - lo > 1e-15 * (c->tau1 - c->tau0); it++)
+            {
+              double mid = 0.5 * (lo + hi);
+
+              if (df_curve_plane_pole (c, mid) == prev)
+                lo = mid;
+              else
+                hi = mid;
+            }
+          if (n == cap)
+            {
+              double *g = realloc (b, 2 * cap * sizeof *b);
+
+              if (g == NULL)
+                {
+                  free (b);
+                  return DF_E_NOMEM;
+                }
+              b = g;
+              cap *= 2;
+            }
+          if (hi > c->tau0 && hi < c->tau1)
+            b[n++] = hi;
+          prev = e;
+        }
+    }
+  c->breaks = b;
+  c->n_breaks = n;
+  return DF_OK;
+}
+
 static int
 compute_winding (const df_curve *c)
 {
@@ -551,6 +750,25 @@ compute_winding (const df_curve *c)
 
   if (!c->closed || df_surface_get_kind (c->surface) != DF_SURFACE_REVOLUTION)
     return 0;
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      /* phi followed along the curve (segment_plane gives (t, phi) in these coordinates). */
+      double q[2];
+
+      segment_plane (c, 0, tau0, q);
+      prev = q[1];
+      for (int i = 1; i <= n; i++)
+        {
+          double tau = tau0 + (tau1 - tau0) * i / n, d;
+
+          segment_plane (c, 0, tau, q);
+          d = q[1] - prev;
+          d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+          total += d;
+          prev = q[1];
+        }
+      return (int) lround (total / (2 * M_PI));
+    }
   if (c->coords == DF_COORDS_CHART)
     {
       double p1[2];
@@ -688,10 +906,13 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
                 && (dist <= 1e-6 * (u_max - u_min) || step > M_PI / 2))
               near[e] = true;
           }
-      if (near[0] && near[1])
+      if (near[0] && near[1] && (!poles[0].on_axis || !poles[1].on_axis
+                                 || poles[0].sin_alpha < 1.0 - 1e-9
+                                 || poles[1].sin_alpha < 1.0 - 1e-9))
         {
-          st = df_diag_fail (diag, DF_E_INPUT, -1, "the path comes near both poles; split it "
-                             "into pieces that each stay near one pole");
+          st = df_diag_fail (diag, DF_E_INPUT, -1, "the path comes near both ends of the "
+                             "profile and one is a cone apex; split it into pieces that each "
+                             "stay near one end");
           goto fail;
         }
       for (size_t i = 1; i < n; i++)
@@ -711,8 +932,9 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
             }
         }
     }
-  setup_coords (c, near[0] ? DF_COORDS_POLAR_MIN : near[1] ? DF_COORDS_POLAR_MAX
-                                                           : DF_COORDS_CHART);
+  setup_coords (c, near[0] && near[1] ? DF_COORDS_SPHERE
+                  : near[0] ? DF_COORDS_POLAR_MIN : near[1] ? DF_COORDS_POLAR_MAX
+                            : DF_COORDS_CHART);
 
   /* Cumulative chord length in space. */
   nseg = closed ? n : n - 1;
@@ -720,9 +942,12 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   c->taus = malloc ((n + 1) * sizeof *c->taus);
   c->coef[0] = malloc (4 * nseg * sizeof (double));
   c->coef[1] = malloc (4 * nseg * sizeof (double));
+  if (c->coords == DF_COORDS_SPHERE)
+    c->coef[2] = malloc (4 * nseg * sizeof (double));
   y = malloc ((n + 1) * sizeof *y);
   slope = malloc ((n + 1) * sizeof *slope);
-  if (!c->taus || !c->coef[0] || !c->coef[1] || !y || !slope)
+  if (!c->taus || !c->coef[0] || !c->coef[1] || !y || !slope
+      || (c->coords == DF_COORDS_SPHERE && !c->coef[2]))
     {
       st = DF_E_NOMEM;
       goto fail;
@@ -754,13 +979,22 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
         total = pts[n - 1][k] + d - pts[0][k];
         c->drift[k] = total / c->tau1;
       }
-  for (int k = 0; k < 2; k++)
+  for (int k = 0; k < (c->coords == DF_COORDS_SPHERE ? 3 : 2); k++)
     {
       for (size_t i = 0; i < n; i++)
         {
-          double p[2];
+          double p[3];
 
-          chart_to_plane (c, pts[i][0], pts[i][1], p);
+          if (c->coords == DF_COORDS_SPHERE)
+            {
+              double th = M_PI * (pts[i][0] - u_min) / (u_max - u_min);
+
+              p[0] = sin (th) * cos (pts[i][1]);
+              p[1] = sin (th) * sin (pts[i][1]);
+              p[2] = cos (th);
+            }
+          else
+            chart_to_plane (c, pts[i][0], pts[i][1], p);
           y[i] = p[k];
           if (c->coords == DF_COORDS_CHART && closed)
             y[i] -= c->drift[k] * c->taus[i];
@@ -776,9 +1010,11 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   if (c->coords == DF_COORDS_CHART && closed && df_surface_u_periodic (surface))
     c->tube_winding = (int) lround (c->drift[0] * c->tau1 / (u_max - u_min));
 
+  if (c->coords == DF_COORDS_SPHERE && (st = sphere_breaks (c)) != DF_OK)
+    goto fail;
   /* Check the interpolant stays in the domain between the points (plane coordinates only:
-   * cheap enough for ten thousand points). */
-  for (size_t i = 0; i < nseg; i++)
+   * cheap enough for ten thousand points). Sphere coordinates always do. */
+  for (size_t i = 0; i < nseg && c->coords != DF_COORDS_SPHERE; i++)
     for (int h = 1; h < 4; h++)
       {
         double tau = c->taus[i] + (c->taus[i + 1] - c->taus[i]) * h / 4.0, p[2];
@@ -830,6 +1066,8 @@ df_curve_new_function (const df_surface *surface, df_curve_coords coords, double
   df_diag_clear (diag);
   if (fn == NULL || !(tau0 < tau1))
     return df_diag_fail (diag, DF_E_INPUT, -1, "an exact curve needs a function and tau0 < tau1");
+  if (coords == DF_COORDS_SPHERE)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "an exact curve cannot use sphere coordinates");
   if (coords != DF_COORDS_CHART && df_surface_get_kind (surface) != DF_SURFACE_REVOLUTION)
     return df_diag_fail (diag, DF_E_INPUT, -1, "polar coordinates need a surface of revolution");
   c = curve_alloc (surface);

@@ -187,7 +187,21 @@ green_integrand (double tau, const double p[2], const double dp[2], double *valu
   df_status st;
 
   (void) tau;
-  if (coords == DF_COORDS_CHART)
+  if (coords == DF_COORDS_SPHERE)
+    {
+      /* Near both poles the plane coordinates are polar about the nearer pole; the reference
+       * follows (each half's form H dphi is smooth at its own pole), and df_loop_measure adds
+       * the constant difference of the two forms over the southern pieces. */
+      double u_min, u_max;
+      int e = df_curve_plane_pole (ctx->curve, tau);
+
+      df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+      ctx->u_ref = e ? u_max : u_min;
+      ctx->h_ref = e ? -1.0 : 1.0;
+      u = e ? u_max - hypot (p[0], p[1]) : u_min + hypot (p[0], p[1]);
+      v = atan2 (p[1], p[0]);
+    }
+  else if (coords == DF_COORDS_CHART)
     {
       u = p[0];
       v = p[1];
@@ -310,7 +324,7 @@ revolution_picture (const df_curve *c, double (*q)[2], size_t n)
     {
       double t = q[i][0], ph = q[i][1];
 
-      if (coords != DF_COORDS_CHART)
+      if (coords == DF_COORDS_POLAR_MIN || coords == DF_COORDS_POLAR_MAX)
         {
           double rho = hypot (q[i][0], q[i][1]);
 
@@ -522,6 +536,15 @@ choose_disc (const df_curve *c, df_loop_result *out, line_ctx *ctx)
                 "in the (x, y) plane");
       return;
     }
+  if (df_curve_get_coords (c) == DF_COORDS_SPHERE)
+    {
+      /* Near both poles (a meridian great circle, a loop from pole to pole): the Green
+       * integrand switches reference pole with the picture (green_integrand) and the
+       * measurement adds the difference of the two forms (south_correction). */
+      snprintf (out->disc_note, sizeof out->disc_note, "the loop comes near both poles; it bounds "
+                "a disc on each side, and both are given");
+      return;
+    }
   if (df_curve_get_coords (c) != DF_COORDS_CHART)
     {
       /* In pole-centred coordinates H dphi = (H / rho^2)(p x p') dtau with the reference at
@@ -682,6 +705,88 @@ other_cap (line_ctx *ctx, df_loop_result *out)
   return DF_OK;
 }
 
+static int
+compare_tau (const void *a, const void *b)
+{
+  double x = *(const double *) a, y = *(const double *) b;
+
+  return (x > y) - (x < y);
+}
+
+/* Sphere coordinates: the northern pieces integrate H_N dphi (reference at t-min), the
+ * southern H_S dphi (reference at t-max). H_N - H_S = 2 and A_N - A_S = C, the whole profile's
+ * integral of r ds, are constants, so the form H_N dphi of the disc away from the pole at
+ * t-max is recovered by adding 2 dphi and C dphi over the southern pieces: (2, C) times their
+ * change of phi, followed continuously in the southern pole-centred picture. Where the loop
+ * runs through that pole phi jumps by pi, and taking +pi or -pi is choosing one disc or the
+ * other: both are discs of the loop, and the other one is reported beside it. */
+static df_status
+south_correction (line_ctx *ctx, double *dk, double *da)
+{
+  const df_curve *c = ctx->curve;
+  const double *breaks, *nodes;
+  size_t nb = df_curve_get_breaks (c, &breaks), nn = df_curve_get_nodes (c, &nodes);
+  size_t m = 8192, n = 0;
+  double tau0, tau1, u_min, u_max, dphi = 0.0, cap_area, *taus;
+  df_status st;
+
+  df_curve_get_range (c, &tau0, &tau1);
+  df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+  taus = malloc ((m + nb + nn + 1) * sizeof *taus);
+  if (taus == NULL)
+    return DF_E_NOMEM;
+  for (size_t i = 0; i < m; i++)
+    taus[n++] = tau0 + (tau1 - tau0) * i / m;
+  for (size_t i = 0; i < nb; i++)
+    taus[n++] = breaks[i];
+  for (size_t i = 0; i < nn; i++)
+    if (nodes[i] > tau0 && nodes[i] < tau1)
+      taus[n++] = nodes[i];
+  qsort (taus, n, sizeof *taus, compare_tau);
+  taus[n++] = tau1;
+  {
+    double prev_angle = 0.0;
+    bool have = false;
+
+    for (size_t i = 0; i + 1 < n; i++)
+      {
+        double a = taus[i], b = taus[i + 1], p[2], dp[2], ddp[2];
+
+        if (!(b > a) || df_curve_plane_pole (c, 0.5 * (a + b)) != 1)
+          {
+            have = false;
+            continue;
+          }
+        for (int end = 0; end < 2; end++)
+          {
+            double ang;
+
+            df_curve_eval_plane_about (c, end ? b : a, 1, p, dp, ddp);
+            /* On the pole itself phi has no value: the step across it is taken whole. */
+            if (hypot (p[0], p[1]) <= 1e-12 * (u_max - u_min))
+              continue;
+            ang = atan2 (p[1], p[0]);
+            if (have)
+              {
+                double d = ang - prev_angle;
+
+                d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+                dphi += d;
+              }
+            prev_angle = ang;
+            have = true;
+          }
+      }
+  }
+  free (taus);
+  ctx->u_ref = u_min;
+  if ((st = inner_integral (ctx, u_max, 0.0, true, &cap_area)) != DF_OK)
+    return st;
+  *dk = 2.0 * dphi;
+  *da = cap_area * dphi;
+  return DF_OK;
+}
+
 df_status
 df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_result *out,
                  df_diag *diag)
@@ -745,6 +850,15 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
   out->total_geodesic_curvature_rad = tr.total_kg;
   out->corner_turning_rad = tr.corner_turning;
   max_abs_kg = tr.max_abs_kg;
+  if (out->bounds_disc && df_curve_get_coords (curve) == DF_COORDS_SPHERE)
+    {
+      double dk, da;
+
+      if ((st = south_correction (&ctx, &dk, &da)) != DF_OK)
+        goto done;
+      tr.extra[0] += dk;
+      tr.extra[1] += da;
+    }
   if (out->bounds_disc)
     {
       out->disc_on_left = tr.extra[1] > 0;
