@@ -433,6 +433,46 @@ test_vertex_near_pole (void)
 }
 
 static void
+test_vertex_near_paraboloid_vertex (void)
+{
+  /* On the paraboloid r = t, z = -t^2/400 the pole-centred picture p = t (cos phi, sin phi) is
+   * the graph chart (x, y) of z = -(x^2 + y^2)/400 itself, so a loop with a vertex 1e-2 ... 1e-8
+   * from the pole, measured on the surface of revolution, must agree with the same loop on the
+   * graph, which has no singular point (the graph's own route, an independent chart). */
+  g_autoptr (df_surface) rev = df_test_revolution ("t", "-t^2/400", 0, 120);
+  g_autoptr (df_surface) graph = df_test_graph ("-(x^2 + y^2)/400", -120, 120, -120, 120);
+  const size_t n = 40;
+
+  for (double d = 1e-2; d >= 0.99e-8; d *= 0.1)
+    {
+      double polar[40][2], cart[40][2];
+      g_auto (df_loop_result) a = { 0 };
+      g_auto (df_loop_result) b = { 0 };
+
+      for (size_t i = 0; i < n; i++)
+        {
+          /* A wobbly loop through a point d from the vertex (i = 0), around (30, 10). */
+          double th = G_PI + 2 * G_PI * i / n, rr = 31.6227766 * (1 + 0.1 * sin (3 * th) * (i != 0));
+          double x = 30 + rr * cos (th + 0.32175055), y = 10 + rr * sin (th + 0.32175055);
+
+          if (i == 0)
+            x = d * 0.8, y = d * 0.6;
+          cart[i][0] = x;
+          cart[i][1] = y;
+          polar[i][0] = hypot (x, y);
+          polar[i][1] = atan2 (y, x);
+        }
+      measure (rev, (const double (*)[2]) polar, n, &a, NULL);
+      measure (graph, (const double (*)[2]) cart, n, &b, NULL);
+      g_test_message ("d = %g: %.12g %.12g", d, a.enclosed_curvature_rad, b.enclosed_curvature_rad);
+      g_assert_true (a.bounds_disc);
+      df_assert_close (a.enclosed_curvature_rad, b.enclosed_curvature_rad, 0.0, 1e-8);
+      df_assert_close (a.holonomy_rad, b.holonomy_rad, 0.0, 1e-8);
+      df_assert_close (a.area, b.area, 1e-8, 0.0);
+    }
+}
+
+static void
 test_pole_probe (void)
 {
   /* At a pole the chart's metric is degenerate: the normal and curvatures are limits, exact
@@ -508,6 +548,7 @@ main (int argc, char **argv)
   g_test_add_func ("/core/poles/octant-loops", test_octant_loops);
   g_test_add_func ("/core/poles/octant-points", test_octant_points);
   g_test_add_func ("/core/poles/vertex-near-pole", test_vertex_near_pole);
+  g_test_add_func ("/core/poles/vertex-near-paraboloid-vertex", test_vertex_near_paraboloid_vertex);
   g_test_add_func ("/core/poles/pole-probe", test_pole_probe);
   g_test_add_func ("/core/poles/apex-probe", test_apex_probe);
   return g_test_run ();
