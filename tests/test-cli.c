@@ -357,7 +357,8 @@ test_probe_sphere (void)
   }
 }
 
-/* At the pole the chart is singular: metric and connection are null, K still 1/R^2. */
+/* At the pole the chart is singular: the metric is the chart's own, degenerate (g_phiphi =
+ * r^2 = 0), the connection is null with a note, K is 1/R^2 (sphere, from memory) to 1e-12. */
 static void
 test_probe_pole (void)
 {
@@ -368,10 +369,43 @@ test_probe_pole (void)
   run_cli (&r, "probe", "--preset", "sphere", "--at", "0,0", "--json", NULL);
   g_assert_cmpint (r.status, ==, 0);
   o = parse_object (parser, r.out);
-  g_assert_true (json_object_get_null_member (o, "metric"));
+  g_assert_false (json_object_get_null_member (o, "metric"));
   g_assert_true (json_object_get_null_member (o, "christoffel"));
   g_assert_true (json_object_get_null_member (o, "riemann"));
-  df_assert_close (get_number (o, "gaussian_curvature"), 1e-4, 1e-8, 0.0);
+  g_assert_nonnull (strstr (json_object_get_string_member (o, "note"), "pole"));
+  df_assert_close (get_number (o, "gaussian_curvature"), 1e-4, 1e-12, 0.0);
+  df_assert_close (get_number (o, "mean_curvature"), -1e-2, 1e-12, 0.0);
+}
+
+/* A cone apex: no K, H or principal curvatures, but the concentrated curvature
+ * 2 pi (1 - sin 30 deg) = pi (GEOMETRY.md; cone unrolled, from memory). A huge sphere and cylinder
+ * whose numbers overflow give a clear error, not a stack overflow. */
+static void
+test_probe_apex_and_overflow (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) big = { 0 };
+  g_auto (cli_run) cyl = { 0 };
+  JsonObject *o;
+
+  run_cli (&r, "probe", "--preset", "cone", "--at", "0,0", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_true (json_object_get_null_member (o, "gaussian_curvature"));
+  g_assert_true (json_object_get_null_member (o, "mean_curvature"));
+  g_assert_true (json_object_get_null_member (o, "principal_curvatures"));
+  df_assert_close (get_number (o, "concentrated_curvature_rad"), G_PI, 1e-12, 0.0);
+  run_cli (&big, "probe", "--preset", "sphere", "--param", "R=1e300", "--at", "1,0", NULL);
+  g_assert_cmpint (big.status, ==, 2);
+  g_assert_null (strstr (big.err, "inf"));
+  g_assert_nonnull (strstr (big.err, "overflows"));
+  /* Refused before any geometry by the surface's size check (it overflowed the stack once). */
+  run_cli (&cyl, "geodesic", "--preset", "cylinder", "--param", "R=1e13", "--from", "75,0",
+           "--heading", "0", "--length", "10", NULL);
+  g_assert_cmpint (cyl.status, ==, 2);
+  g_assert_null (strstr (cyl.err, "inf"));
+  g_assert_nonnull (strstr (cyl.err, "across"));
 }
 
 /* Saddle z = (x^2 - y^2)/(2R) at the origin: K = -1/R^2, H = 0, k1 = 1/R, k2 = -1/R
@@ -734,6 +768,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/measure/data", test_measure_data);
   g_test_add_func ("/cli/probe/sphere", test_probe_sphere);
   g_test_add_func ("/cli/probe/pole", test_probe_pole);
+  g_test_add_func ("/cli/probe/apex-and-overflow", test_probe_apex_and_overflow);
   g_test_add_func ("/cli/probe/saddle", test_probe_saddle);
   g_test_add_func ("/cli/compare/sphere", test_compare_sphere);
   g_test_add_func ("/cli/compare/plane", test_compare_plane);

@@ -382,9 +382,19 @@ test_geodesic_disc (void)
     g_assert_cmpfloat (p.enclosed_rad, <, 0.0);
   }
 
-  /* A disc that would leave the surface is no disc (and no error). */
+  /* A disc whose geodesics cross the pole: on the whole sphere it is the same cap as anywhere
+   * (the geodesics run on through the pole). */
   g_assert_cmpint (df_devmap_at (s, 0.05, 0.0, 30.0, NULL, &p, NULL), ==, DF_OK);
-  g_assert_false (p.ok);
+  g_assert_true (p.ok);
+  df_assert_close (p.enclosed_rad, 2 * G_PI * (1 - cos (x)), 1e-5, 0.0);
+
+  /* A disc that would leave the surface is no disc (and no error): the plane's edge. */
+  {
+    g_autoptr (df_surface) plane = df_test_graph ("0", -10, 10, -10, 10);
+
+    g_assert_cmpint (df_devmap_at (plane, 9.0, 0.0, 5.0, NULL, &p, NULL), ==, DF_OK);
+    g_assert_false (p.ok);
+  }
 }
 
 static void

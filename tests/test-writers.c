@@ -446,7 +446,17 @@ test_json_pole (void)
   text = df_json_to_string (root, FALSE);
   o = parse_json_object (text, parser);
   g_assert_false (json_object_get_boolean_member (o, "chart_regular"));
-  g_assert_true (json_object_get_null_member (o, "metric"));
+  /* The chart's metric exists at the pole, degenerate: [[R^2, 0], [0, 0]] for the sphere
+   * r = R sin t (g_tt = R^2, g_phiphi = r^2 = 0; from the definition g_ij = X_i . X_j). */
+  {
+    JsonArray *m = json_object_get_array_member (o, "metric");
+    JsonArray *row = json_array_get_array_element (m, 1);
+
+    df_assert_close (json_array_get_double_element (json_array_get_array_element (m, 0), 0),
+                     1e4, 1e-12, 0.0);
+    df_assert_close (json_array_get_double_element (row, 1), 0.0, 0.0, 1e-20);
+  }
+  g_assert_true (json_object_has_member (o, "note"));
   g_assert_true (json_object_get_null_member (o, "christoffel"));
   g_assert_true (json_object_get_null_member (o, "riemann"));
   /* K = 1/R^2 on the sphere, poles included (textbook, from memory). */

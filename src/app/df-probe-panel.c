@@ -208,6 +208,14 @@ df_probe_panel_show (DfProbePanel            *self,
     g_autofree char *per_area = g_strdup_printf ("1/%s²", units);
     g_autofree char *per_length = g_strdup_printf ("1/%s", units);
 
+    if (!g->curvature_defined)
+      {
+        /* A cone apex: no K or H, only the concentrated curvature (core: df-geometry.h). */
+        table_add_number (table, row++, "Concentrated", g->concentrated_rad, "rad");
+        gtk_box_append (self->content_box, table);
+        gtk_box_append (self->content_box, note (g->note));
+        return;
+      }
     table_add_number (table, row++, "Gaussian K", g->K, per_area);
     table_add_number (table, row++, "Mean H", g->H, per_length);
     table_add_number (table, row++, "Principal k<sub>1</sub>", g->k1, per_length);
@@ -226,9 +234,9 @@ df_probe_panel_show (DfProbePanel            *self,
   if (!g->chart_regular)
     {
       gtk_box_append (self->content_box,
-                      note ("This point is a pole of the chart (r = 0): the metric, Christoffel "
-                            "symbols and Riemann components are not defined there in (t, φ). "
-                            "Probe a point next to it."));
+                      note ("This point is a pole of the chart (r = 0): the inverse metric, "
+                            "Christoffel symbols and Riemann components are not defined there in "
+                            "(t, φ); the curvatures above are their exact limits."));
       return;
     }
 

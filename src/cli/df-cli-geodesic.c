@@ -166,7 +166,8 @@ df_cli_geodesic (int argc, char **argv)
   context = df_cli_context_new (NAME, "trace a geodesic from a point",
                                 "Traces the surface's straightest path (a geodesic: what a tape "
                                 "laid without in-plane steering follows). It stops early at the "
-                                "edge of the surface or at a pole, and says so.\n\nExit "
+                                "edge of the surface or at a cone apex, and says where and "
+                                "why; it runs through poles.\n\nExit "
                                 "status: 0 done, 2 bad input, 1 the samples file could not be "
                                 "written.");
   g_option_context_add_main_entries (context, entries, NULL);

@@ -68,10 +68,22 @@ print_text (const probe_options *o, const df_surface_spec *spec, const df_surfac
               df_cli_num (a, sizeof a, g->riemann[0][1][0][1], 10));
     }
   else
-    printf ("\nThe chart is singular here (a pole on the axis): metric, Christoffel symbols and "
-            "Riemann tensor have no value in these coordinates; the curvatures below are "
-            "limits.\n");
+    {
+      printf ("\nMetric g_ij:          [[%s, %s], [%s, %s]] (degenerate)\n",
+              df_cli_num (a, sizeof a, g->g[0][0], 10), df_cli_num (b, sizeof b, g->g[0][1], 10),
+              df_cli_num (c, sizeof c, g->g[1][0], 10), df_cli_num (d, sizeof d, g->g[1][1], 10));
+      printf ("Note:                 %s\n", g->note);
+    }
 
+  if (!g->curvature_defined)
+    {
+      printf ("\nGaussian curvature K:  none here (concentrated: %s rad = %s deg)\n",
+              df_cli_num (a, sizeof a, g->concentrated_rad, 10),
+              df_cli_num (b, sizeof b, g->concentrated_rad * 180 / G_PI, 10));
+      printf ("Mean curvature H:      none here\n");
+      printf ("Principal curvatures:  none here\n");
+      return;
+    }
   printf ("\nGaussian curvature K:  %s 1/%s^2\n", df_cli_num (a, sizeof a, g->K, 10), un);
   printf ("Mean curvature H:      %s 1/%s\n", df_cli_num (a, sizeof a, g->H, 10), un);
   printf ("Principal curvatures:  k1 = %s, k2 = %s 1/%s\n", df_cli_num (a, sizeof a, g->k1, 10),

@@ -8,6 +8,7 @@
  * a curve may be evaluated from several threads.
  * Plain C + libm + GSL; no GLib. */
 #include "df-curve.h"
+#include "df-curve-private.h"
 #include "df-vec3.h"
 
 #include <gsl/gsl_linalg.h>
@@ -22,31 +23,6 @@
 /* A point this close to a pole (fraction of the t range) switches the curve to polar
  * coordinates. */
 #define POLE_NEAR_FRACTION 0.1
-
-struct df_curve
-{
-  df_surface     *surface;      /* own copy */
-  df_curve_coords coords;
-  bool            closed;
-  double          tau0, tau1;
-  double          pole_t;       /* polar coordinates: the pole's t */
-  double          pole_sign;    /* dt/drho: +1 at u_min, -1 at u_max */
-  double          t_range;
-  double          pole_r[4];    /* the profile's r and t-derivatives at the pole */
-  bool            pole_smooth;  /* the pole is smooth (not a cone apex) */
-  /* spline */
-  size_t          n_nodes;      /* distinct nodes; closed: the period adds one more */
-  double         *taus;         /* n_nodes + 1 when closed */
-  double         *coef[2];      /* per segment 4 coefficients a, b, c, d of each coordinate */
-  double          drift[2];     /* chart coords, closed: u, v grow by drift * tau per lap */
-  /* exact function */
-  df_curve_fn     fn;
-  void           *user;
-  double         *breaks;
-  size_t          n_breaks;
-  int             winding;
-  int             tube_winding; /* turns round a closed profile (t) */
-};
 
 static df_curve *
 curve_alloc (const df_surface *surface)
@@ -73,6 +49,7 @@ df_curve_free (df_curve *c)
   free (c->taus);
   free (c->coef[0]);
   free (c->coef[1]);
+  free (c->coef[2]);
   free (c->breaks);
   free (c);
 }
@@ -89,20 +66,27 @@ setup_coords (df_curve *c, df_curve_coords coords)
   c->t_range = u_max - u_min;
   c->pole_t = coords == DF_COORDS_POLAR_MAX ? u_max : u_min;
   c->pole_sign = coords == DF_COORDS_POLAR_MAX ? -1.0 : 1.0;
-  if (coords != DF_COORDS_CHART)
+  if (df_surface_get_kind (c->surface) == DF_SURFACE_REVOLUTION)
     {
-      df_chart_jet j;
       df_pole poles[2];
 
-      if (df_surface_eval (c->surface, c->pole_t, 0.0, 3, &j, NULL) == DF_OK)
-        {
-          c->pole_r[0] = j.x[0];
-          c->pole_r[1] = j.d1[0][0];
-          c->pole_r[2] = j.d2[0][0];
-          c->pole_r[3] = j.d3[0][0];
-        }
       df_surface_get_poles (c->surface, poles);
-      c->pole_smooth = poles[coords == DF_COORDS_POLAR_MAX].sin_alpha > 1.0 - 1e-9;
+      for (int e = 0; e < 2; e++)
+        {
+          pole_frame *f = &c->frame[e];
+          df_chart_jet j;
+
+          f->t = e ? u_max : u_min;
+          f->sign = e ? -1.0 : 1.0;
+          if (df_surface_eval (c->surface, f->t, 0.0, 3, &j, NULL) == DF_OK)
+            {
+              f->r[0] = j.x[0];
+              f->r[1] = j.d1[0][0];
+              f->r[2] = j.d2[0][0];
+              f->r[3] = j.d3[0][0];
+            }
+          f->smooth = poles[e].sin_alpha > 1.0 - 1e-9;
+        }
     }
 }
 
@@ -231,8 +215,8 @@ spline_coefficients (const double *x, const double *y, const double *s, size_t n
     }
 }
 
-static size_t
-segment_of (const df_curve *c, double tau)
+size_t
+_df_curve_segment_of (const df_curve *c, double tau)
 {
   size_t nseg = c->closed ? c->n_nodes : c->n_nodes - 1;
   size_t lo = 0, hi = nseg;
@@ -250,8 +234,8 @@ segment_of (const df_curve *c, double tau)
   return lo;
 }
 
-static double
-wrap_tau (const df_curve *c, double tau, int *laps)
+double
+_df_curve_wrap_tau (const df_curve *c, double tau, int *laps)
 {
   double period = c->tau1 - c->tau0;
 
@@ -293,11 +277,22 @@ segment_eval (const df_curve *c, size_t i, double tau, int laps, double p[2], do
     }
 }
 
+/* The plane point in segment i; in sphere coordinates, where there is no one plane, the chart
+ * point (t, phi) instead. */
 static void
 segment_plane (const df_curve *c, size_t i, double tau, double p[2])
 {
   double dp[2], ddp[2];
 
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      int e = _df_curve_sphere_plane (c, tau, -1, p, dp, ddp);
+      double rho = hypot (p[0], p[1]), ph = atan2 (p[1], p[0]);
+
+      p[0] = c->frame[e].t + c->frame[e].sign * rho;
+      p[1] = ph;
+      return;
+    }
   segment_eval (c, i, tau, 0, p, dp, ddp);
 }
 
@@ -346,13 +341,18 @@ df_curve_eval_plane (const df_curve *c, double tau, double p[2], double dp[2], d
 {
   int laps;
 
-  tau = wrap_tau (c, tau, &laps);
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      _df_curve_sphere_plane (c, tau, -1, p, dp, ddp);
+      return;
+    }
+  tau = _df_curve_wrap_tau (c, tau, &laps);
   if (c->fn != NULL)
     {
       c->fn (tau, c->user, p, dp, ddp);
       return;
     }
-  segment_eval (c, segment_of (c, tau), tau, laps, p, dp, ddp);
+  segment_eval (c, _df_curve_segment_of (c, tau), tau, laps, p, dp, ddp);
 }
 
 /* --- evaluation to space ----------------------------------------------------------------- */
@@ -423,17 +423,17 @@ profile (const df_curve *c, double t, double r[4], double z[4], df_diag *diag)
 }
 
 static df_status
-eval_polar (const df_curve *c, df_curve_point *o, df_diag *diag)
+eval_polar (const df_curve *c, const pole_frame *f, df_curve_point *o, df_diag *diag)
 {
-  const double sg = c->pole_sign;
+  const double sg = f->sign;
   const double tiny = 1e-12 * c->t_range;
   double rho = hypot (o->p[0], o->p[1]);
   double r[4], z[4], q, q1, q2, rho_d, rho_dd, er[2] = { 0, 0 }, er_d[2] = { 0, 0 };
   double sp, sp_t, nr, nz, nr_t, nz_t, nr_over_rho, t;
-  const double p1 = sg * c->pole_r[1], p2 = c->pole_r[2], p3 = sg * c->pole_r[3];
+  const double p1 = sg * f->r[1], p2 = f->r[2], p3 = sg * f->r[3];
   df_status st;
 
-  t = c->pole_t + sg * rho;
+  t = f->t + sg * rho;
   o->u = t;
   o->v = atan2 (o->p[1], o->p[0]);
   o->at_pole = rho <= tiny;
@@ -499,7 +499,7 @@ eval_polar (const df_curve *c, df_curve_point *o, df_diag *diag)
   nz_t = (r[2] * sp - r[1] * sp_t) / (sp * sp);
   /* n_r vanishes at a smooth pole, so n_r / rho has the limit sg n_r'; at a cone apex it has
    * none (the normal jumps there). */
-  nr_over_rho = rho > tiny ? nr / rho : (c->pole_smooth ? sg * nr_t : 0.0);
+  nr_over_rho = rho > tiny ? nr / rho : (f->smooth ? sg * nr_t : 0.0);
   if (rho > tiny)
     {
       o->normal[0] = nr * er[0];
@@ -527,7 +527,16 @@ df_curve_eval (const df_curve *c, double tau, df_curve_point *o, df_diag *diag)
   memset (o, 0, sizeof *o);
   o->tau = tau;
   df_curve_eval_plane (c, tau, o->p, o->dp, o->ddp);
-  st = c->coords == DF_COORDS_CHART ? eval_chart (c, o, diag) : eval_polar (c, o, diag);
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      int e = _df_curve_sphere_plane (c, tau, -1, o->p, o->dp, o->ddp);
+
+      st = eval_polar (c, &c->frame[e], o, diag);
+    }
+  else
+    st = c->coords == DF_COORDS_CHART ? eval_chart (c, o, diag)
+                                      : eval_polar (c, &c->frame[c->coords == DF_COORDS_POLAR_MAX],
+                                                    o, diag);
   if (st == DF_OK)
     {
       const double *all = o->x;
@@ -551,6 +560,25 @@ compute_winding (const df_curve *c)
 
   if (!c->closed || df_surface_get_kind (c->surface) != DF_SURFACE_REVOLUTION)
     return 0;
+  if (c->coords == DF_COORDS_SPHERE)
+    {
+      /* phi followed along the curve (segment_plane gives (t, phi) in these coordinates). */
+      double q[2];
+
+      segment_plane (c, 0, tau0, q);
+      prev = q[1];
+      for (int i = 1; i <= n; i++)
+        {
+          double tau = tau0 + (tau1 - tau0) * i / n, d;
+
+          segment_plane (c, 0, tau, q);
+          d = q[1] - prev;
+          d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+          total += d;
+          prev = q[1];
+        }
+      return (int) lround (total / (2 * M_PI));
+    }
   if (c->coords == DF_COORDS_CHART)
     {
       double p1[2];
@@ -673,14 +701,28 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
                 if (!closed && i + 1 == n)
                   step = 0.0;
               }
+            if (n > 1 && step > M_PI / 8)
+              {
+                /* A step that turns round the axis while the distance to the pole changes by
+                 * half or more passes the pole: phi(tau) then has a sharp knee that a chart
+                 * spline follows badly and the chart transport crawls through (Gamma^phi_tphi =
+                 * r'/r). A latitude-like step (distance kept) stays in the chart. */
+                double other = fabs (pts[(i + 1) % n][0] - poles[e].t);
+
+                if (fmax (dist, other) > 1.5 * fmin (dist, other))
+                  step = M_PI;
+              }
             if (poles[e].on_axis && dist < POLE_NEAR_FRACTION * (u_max - u_min)
                 && (dist <= 1e-6 * (u_max - u_min) || step > M_PI / 2))
               near[e] = true;
           }
-      if (near[0] && near[1])
+      if (near[0] && near[1] && (!poles[0].on_axis || !poles[1].on_axis
+                                 || poles[0].sin_alpha < 1.0 - 1e-9
+                                 || poles[1].sin_alpha < 1.0 - 1e-9))
         {
-          st = df_diag_fail (diag, DF_E_INPUT, -1, "the path comes near both poles; split it "
-                             "into pieces that each stay near one pole");
+          st = df_diag_fail (diag, DF_E_INPUT, -1, "the path comes near both ends of the "
+                             "profile and one is a cone apex; split it into pieces that each "
+                             "stay near one end");
           goto fail;
         }
       for (size_t i = 1; i < n; i++)
@@ -700,8 +742,9 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
             }
         }
     }
-  setup_coords (c, near[0] ? DF_COORDS_POLAR_MIN : near[1] ? DF_COORDS_POLAR_MAX
-                                                           : DF_COORDS_CHART);
+  setup_coords (c, near[0] && near[1] ? DF_COORDS_SPHERE
+                  : near[0] ? DF_COORDS_POLAR_MIN : near[1] ? DF_COORDS_POLAR_MAX
+                            : DF_COORDS_CHART);
 
   /* Cumulative chord length in space. */
   nseg = closed ? n : n - 1;
@@ -709,9 +752,12 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   c->taus = malloc ((n + 1) * sizeof *c->taus);
   c->coef[0] = malloc (4 * nseg * sizeof (double));
   c->coef[1] = malloc (4 * nseg * sizeof (double));
+  if (c->coords == DF_COORDS_SPHERE)
+    c->coef[2] = malloc (4 * nseg * sizeof (double));
   y = malloc ((n + 1) * sizeof *y);
   slope = malloc ((n + 1) * sizeof *slope);
-  if (!c->taus || !c->coef[0] || !c->coef[1] || !y || !slope)
+  if (!c->taus || !c->coef[0] || !c->coef[1] || !y || !slope
+      || (c->coords == DF_COORDS_SPHERE && !c->coef[2]))
     {
       st = DF_E_NOMEM;
       goto fail;
@@ -743,13 +789,22 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
         total = pts[n - 1][k] + d - pts[0][k];
         c->drift[k] = total / c->tau1;
       }
-  for (int k = 0; k < 2; k++)
+  for (int k = 0; k < (c->coords == DF_COORDS_SPHERE ? 3 : 2); k++)
     {
       for (size_t i = 0; i < n; i++)
         {
-          double p[2];
+          double p[3];
 
-          chart_to_plane (c, pts[i][0], pts[i][1], p);
+          if (c->coords == DF_COORDS_SPHERE)
+            {
+              double th = M_PI * (pts[i][0] - u_min) / (u_max - u_min);
+
+              p[0] = sin (th) * cos (pts[i][1]);
+              p[1] = sin (th) * sin (pts[i][1]);
+              p[2] = cos (th);
+            }
+          else
+            chart_to_plane (c, pts[i][0], pts[i][1], p);
           y[i] = p[k];
           if (c->coords == DF_COORDS_CHART && closed)
             y[i] -= c->drift[k] * c->taus[i];
@@ -765,9 +820,11 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
   if (c->coords == DF_COORDS_CHART && closed && df_surface_u_periodic (surface))
     c->tube_winding = (int) lround (c->drift[0] * c->tau1 / (u_max - u_min));
 
+  if (c->coords == DF_COORDS_SPHERE && (st = _df_curve_sphere_breaks (c)) != DF_OK)
+    goto fail;
   /* Check the interpolant stays in the domain between the points (plane coordinates only:
-   * cheap enough for ten thousand points). */
-  for (size_t i = 0; i < nseg; i++)
+   * cheap enough for ten thousand points). Sphere coordinates always do. */
+  for (size_t i = 0; i < nseg && c->coords != DF_COORDS_SPHERE; i++)
     for (int h = 1; h < 4; h++)
       {
         double tau = c->taus[i] + (c->taus[i + 1] - c->taus[i]) * h / 4.0, p[2];
@@ -819,6 +876,8 @@ df_curve_new_function (const df_surface *surface, df_curve_coords coords, double
   df_diag_clear (diag);
   if (fn == NULL || !(tau0 < tau1))
     return df_diag_fail (diag, DF_E_INPUT, -1, "an exact curve needs a function and tau0 < tau1");
+  if (coords == DF_COORDS_SPHERE)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "an exact curve cannot use sphere coordinates");
   if (coords != DF_COORDS_CHART && df_surface_get_kind (surface) != DF_SURFACE_REVOLUTION)
     return df_diag_fail (diag, DF_E_INPUT, -1, "polar coordinates need a surface of revolution");
   c = curve_alloc (surface);

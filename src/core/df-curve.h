@@ -18,7 +18,10 @@ typedef enum
 {
   DF_COORDS_CHART,      /* (u, v) themselves; phi unwrapped continuously */
   DF_COORDS_POLAR_MIN,  /* polar about the pole at u_min: (u - u_min)(cos v, sin v) */
-  DF_COORDS_POLAR_MAX   /* polar about the pole at u_max: (u_max - u)(cos v, sin v) */
+  DF_COORDS_POLAR_MAX,  /* polar about the pole at u_max: (u_max - u)(cos v, sin v) */
+  DF_COORDS_SPHERE      /* near both poles: a spline on the unit sphere theta = pi (t - t_min) /
+                         * range; the plane coordinates handed on are the polar ones about the
+                         * nearer pole (df_curve_plane_pole), and sample_plane gives (t, phi) */
 } df_curve_coords;
 
 /* A point of the curve at parameter tau. */
@@ -41,7 +44,8 @@ typedef void (*df_curve_fn) (double tau, void *user, double p[2], double dp[2], 
  * a point on the axis has no meaningful v. A closed curve whose last point lies within
  * 1e-9 x surface size of the first drops the last. Needs >= 3 distinct points closed, >= 2
  * open; consecutive duplicates are an error naming the index. Picks polar coordinates when
- * a point lies within a tenth of the profile range of a pole. */
+ * a point lies on a pole or a step passes one within a tenth of the profile range, sphere
+ * coordinates when that happens at both poles. */
 df_status df_curve_new_through_points (const df_surface *surface,
                                        const double    (*uv)[2],
                                        size_t            n,
@@ -80,6 +84,14 @@ size_t    df_curve_get_nodes   (const df_curve *curve, const double **taus);
 /* Only the plane coordinates and their derivatives: cheap, no surface evaluation. */
 void      df_curve_eval_plane  (const df_curve *curve, double tau, double p[2], double dp[2],
                                 double ddp[2]);
+
+/* Which pole's polar picture df_curve_eval_plane gives at tau: 0 (u_min), 1 (u_max), -1 for
+ * the chart. Changes only at the curve's breaks in sphere coordinates. */
+int       df_curve_plane_pole  (const df_curve *curve, double tau);
+/* df_curve_eval_plane in the polar picture about the given end (sphere coordinates; otherwise
+ * the same as df_curve_eval_plane). */
+void      df_curve_eval_plane_about (const df_curve *curve, double tau, int end, double p[2],
+                                     double dp[2], double ddp[2]);
 
 /* At least n_min plane points along the curve in order (every interpolation node among them,
  * the segments subdivided evenly; an exact curve evenly in tau; a closed curve without its

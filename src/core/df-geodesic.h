@@ -1,6 +1,7 @@
 /* df-geodesic.h: geodesics shot from a point with a heading, by adaptive integration of
- * x''^k + Gamma^k_ij x'^i x'^j = 0 in arc length. Stops cleanly at the domain's edge or near a
- * pole of the chart and says so.
+ * x''^k + Gamma^k_ij x'^i x'^j = 0 in arc length, in pole-centred coordinates near a smooth pole
+ * (so it runs through poles). Stops only where it cannot go on (the domain's edge, a cone apex)
+ * and says where and why.
  * Plain C + libm + GSL; no GLib. */
 #pragma once
 

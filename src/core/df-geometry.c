@@ -5,19 +5,22 @@
 #include "df-vec3.h"
 
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
 /* X_ij and X_ijm by index: the number of v's among the indices picks the stored derivative. */
 #define X2(j, a, b)    ((j)->d2[(a) + (b)])
 #define X3(j, a, b, c) ((j)->d3[(a) + (b) + (c)])
 
-/* Whether the metric is too degenerate to invert: det g against the scale of its diagonal. */
+/* Whether the metric is too degenerate to invert: det g / (g11 g22) is the squared sine of the
+ * angle between X_u and X_v, so the test does not depend on how differently the two chart
+ * directions are scaled (a cylinder of radius 1e13 has g_phiphi / g_tt = 1e26 and is regular).
+ * A vanishing or non-finite diagonal is singular too. */
 static bool
 metric_singular (double det, double g11, double g22)
 {
-  double scale = (g11 + g22) * (g11 + g22);
-
-  return !(det > 1e-24 * scale) || !(scale > 0);
+  return !(isfinite (det) && isfinite (g11) && isfinite (g22) && g11 > 0 && g22 > 0
+           && det > 1e-24 * g11 * g22);
 }
 
 /* Unit normal of a revolution surface from its profile: finite on the axis, where X_u x X_v
@@ -35,45 +38,83 @@ revolution_normal (const df_chart_jet *j, double v, double n[3])
   n[2] = dr / sp;
 }
 
-static void
-shape_curvatures (double K, double H, double *k1, double *k2)
-{
-  double disc = H * H - K;
-
-  /* Rounding can make H^2 - K slightly negative at an umbilic; the true value is >= 0. */
-  disc = disc > 0 ? sqrt (disc) : 0.0;
-  *k1 = H + disc;
-  *k2 = H - disc;
-}
-
+/* At a pole of a surface of revolution (r = 0) the chart (t, phi) is degenerate, but the
+ * surface need not be: the curvatures there are limits, taken in closed form from the
+ * profile's jet at the pole, never from nearby points (so no call back into
+ * df_surface_geometry, and no loss of digits). With II_tt / g_tt = (r' z'' - r'' z') / |P'|^3
+ * (meridian) and II_phiphi / g_phiphi = z' / (r |P'|) (parallel), and z' -> 0 with r at a
+ * smooth pole, L'Hopital gives the parallel's limit z'' / (r' |P'|); both equal
+ * z'' / (r' |r'|) there (an umbilic). At a cone apex (z' != 0 at r = 0) the parallel's
+ * curvature grows without bound: K, H and the principal curvatures have no value, and the apex
+ * carries the concentrated curvature 2 pi (1 - sin alpha) (GEOMETRY.md). */
 static df_status
 pole_geometry (const df_surface *s, double u, double v, const df_chart_jet *j,
                df_point_geometry *out, df_diag *diag)
 {
-  double u_min, u_max, h, sign;
-  df_point_geometry a, b;
+  df_pole poles[2];
+  double u_min, u_max, r1, r2, z1, z2, sp, sin_alpha, km, kp;
+  df_chart_jet p;
+  int e;
   df_status st;
+
+  df_surface_get_domain (s, &u_min, &u_max, NULL, NULL);
+  df_surface_get_poles (s, poles);
+  e = fabs (u - u_min) <= fabs (u - u_max) ? 0 : 1;
+  if (!poles[e].on_axis || fabs (u - poles[e].t) > 1e-6 * (u_max - u_min))
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the chart is singular here "
+                            "(r = 0 at t = %.9g) but the profile has no pole there", u);
+  if ((st = df_surface_eval (s, u, 0.0, 2, &p, diag)) != DF_OK)
+    return st;
+  r1 = p.d1[0][0];
+  z1 = p.d1[0][2];
+  r2 = p.d2[0][0];
+  z2 = p.d2[0][2];
+  sp = hypot (r1, z1);
+  if (!(sp > 0) || !isfinite (sp))
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the profile has no direction at "
+                            "the pole (zero or non-finite speed)");
 
   memset (out, 0, sizeof *out);
   out->u = u;
   out->v = v;
   memcpy (out->point, j->x, sizeof out->point);
+  memcpy (out->xu, j->d1[0], sizeof out->xu);
+  memcpy (out->xv, j->d1[1], sizeof out->xv);
   revolution_normal (j, v, out->normal);
+  for (int a = 0; a < 2; a++)
+    for (int b = 0; b < 2; b++)
+      {
+        out->g[a][b] = df_dot3 (j->d1[a], j->d1[b]);
+        out->second_form[a][b] = df_dot3 (X2 (j, a, b), out->normal);
+      }
+  out->det_g = out->g[0][0] * out->g[1][1] - out->g[0][1] * out->g[1][0];
   out->chart_regular = false;
-  /* Curvatures at a pole are limits: Richardson extrapolation from two nearby rings, exact
-   * for curvature varying linearly in t near the pole. */
-  df_surface_get_domain (s, &u_min, &u_max, NULL, NULL);
-  sign = (u - u_min < u_max - u) ? 1.0 : -1.0;
-  h = 1e-4 * (u_max - u_min);
-  if ((st = df_surface_geometry (s, u + sign * h, v, &a, diag)) != DF_OK)
-    return st;
-  if ((st = df_surface_geometry (s, u + sign * 2 * h, v, &b, diag)) != DF_OK)
-    return st;
-  if (!a.chart_regular || !b.chart_regular)
-    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "no regular point near the pole");
-  out->K = 2 * a.K - b.K;
-  out->H = 2 * a.H - b.H;
-  shape_curvatures (out->K, out->H, &out->k1, &out->k2);
+  sin_alpha = fmin (1.0, fabs (r1) / sp);
+  if (sin_alpha < 1.0 - 1e-9)
+    {
+      out->curvature_defined = false;
+      out->concentrated_rad = 2 * M_PI * (1.0 - sin_alpha);
+      snprintf (out->note, sizeof out->note,
+                "a cone apex (half-angle %.6g deg): K, H and the principal curvatures have no "
+                "value here; the apex carries the concentrated curvature 2 pi (1 - sin alpha); "
+                "the chart (t, phi) is singular, so Gamma and R have none either",
+                asin (sin_alpha) * 180 / M_PI);
+      return DF_OK;
+    }
+  km = (r1 * z2 - r2 * z1) / (sp * sp * sp);
+  kp = z2 / (r1 * sp);
+  out->curvature_defined = true;
+  out->K = km * kp;
+  out->H = 0.5 * (km + kp);
+  out->k1 = fmax (km, kp);
+  out->k2 = fmin (km, kp);
+  snprintf (out->note, sizeof out->note,
+            "a pole of the chart (t, phi): g_phiphi = r^2 = 0, so g has no inverse and the "
+            "Christoffel symbols and the Riemann tensor have no value in these coordinates; K, H "
+            "and the principal curvatures are their limits at the pole");
+  if (!isfinite (out->K) || !isfinite (out->H))
+    return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "the curvature at the pole is not "
+                            "finite");
   return DF_OK;
 }
 
@@ -97,13 +138,23 @@ df_surface_geometry (const df_surface *s, double u, double v, df_point_geometry 
     for (int b = 0; b < 2; b++)
       out->g[a][b] = df_dot3 (j.d1[a], j.d1[b]);
   out->det_g = out->g[0][0] * out->g[1][1] - out->g[0][1] * out->g[1][0];
-  if (metric_singular (out->det_g, out->g[0][0], out->g[1][1]))
+  if (!isfinite (out->det_g))
+    return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "the metric overflows double precision "
+                            "here (the surface's numbers are too large): scale the surface down");
+  if (df_surface_get_kind (s) == DF_SURFACE_REVOLUTION)
     {
-      if (df_surface_get_kind (s) == DF_SURFACE_REVOLUTION)
+      /* A pole by the surface's own rule (r <= 1e-12 max r), not by the metric's look. */
+      double lo[3], hi[3], r = hypot (j.x[0], j.x[1]);
+
+      df_surface_get_bbox (s, lo, hi);
+      if (!(r > 1e-12 * hi[0]))
         return pole_geometry (s, u, v, &j, out, diag);
-      return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the metric is degenerate");
     }
+  if (metric_singular (out->det_g, out->g[0][0], out->g[1][1]))
+    return df_diag_fail_at (diag, DF_E_SINGULAR, -1, u, v, "the metric is degenerate here "
+                            "(X_u and X_v parallel or zero)");
   out->chart_regular = true;
+  out->curvature_defined = true;
   out->ginv[0][0] = out->g[1][1] / out->det_g;
   out->ginv[1][1] = out->g[0][0] / out->det_g;
   out->ginv[0][1] = out->ginv[1][0] = -out->g[0][1] / out->det_g;
@@ -269,5 +320,85 @@ df_surface_k_area (const df_surface *s, double u, double v, double *k_sqrt_g, do
   *k_sqrt_g = (ii[0] * ii[2] - ii[1] * ii[1]) / len;
   if (sqrt_g)
     *sqrt_g = len;
+  return DF_OK;
+}
+
+df_status
+df_surface_polar_jet (const df_surface *s, int end, const double p[2], df_chart_jet *out,
+                      df_diag *diag)
+{
+  double u_min, u_max, t0, sg, range, rho, t, e[2] = { 0, 0 }, r[4], z[4], pr[4];
+  double q, q1, q1r, qq, zr, zz;
+  df_chart_jet j, jp;
+  df_status st;
+
+  if (df_surface_get_kind (s) != DF_SURFACE_REVOLUTION)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "pole coordinates need a surface of revolution");
+  df_surface_get_domain (s, &u_min, &u_max, NULL, NULL);
+  t0 = end ? u_max : u_min;
+  sg = end ? -1.0 : 1.0;
+  range = u_max - u_min;
+  rho = hypot (p[0], p[1]);
+  t = t0 + sg * rho;
+  if ((st = df_surface_eval (s, t, 0.0, 3, &j, diag)) != DF_OK
+      || (st = df_surface_eval (s, t0, 0.0, 3, &jp, diag)) != DF_OK)
+    return st;
+  /* Derivatives in rho = sg (t - t0): d/drho = sg d/dt. */
+  r[0] = j.x[0]; r[1] = sg * j.d1[0][0]; r[2] = j.d2[0][0]; r[3] = sg * j.d3[0][0];
+  z[0] = j.x[2]; z[1] = sg * j.d1[0][2]; z[2] = j.d2[0][2]; z[3] = sg * j.d3[0][2];
+  pr[1] = sg * jp.d1[0][0]; pr[2] = jp.d2[0][0]; pr[3] = sg * jp.d3[0][0];
+  /* X = (q p_1, q p_2, z(rho)) with q = r / rho, both even in rho at a smooth pole. The
+   * quotients r / rho and z' / rho keep their digits (r and z' come from the formulas); the
+   * rho-derivatives of q lose them near the pole and come from r's Taylor series there. */
+  if (rho > 1e-12 * range)
+    {
+      q = r[0] / rho;
+      zr = z[1] / rho;
+      e[0] = p[0] / rho;
+      e[1] = p[1] / rho;
+    }
+  else
+    {
+      q = pr[1];
+      zr = z[2];
+    }
+  if (rho < 1e-4 * range)
+    {
+      q1 = pr[2] / 2 + pr[3] * rho / 3;
+      q1r = pr[3] / 3 + (rho > 0 ? pr[2] / (2 * rho) : 0.0);
+      qq = pr[3] / 3 - q1r;
+    }
+  else
+    {
+      q1 = (r[1] * rho - r[0]) / (rho * rho);
+      q1r = q1 / rho;
+      qq = (r[2] * rho * rho - 2 * r[1] * rho + 2 * r[0]) / (rho * rho * rho) - q1r;
+    }
+  zz = z[2] - zr;
+  memset (out, 0, sizeof *out);
+  out->x[0] = q * p[0];
+  out->x[1] = q * p[1];
+  out->x[2] = z[0];
+  for (int i = 0; i < 2; i++)
+    {
+      for (int k = 0; k < 2; k++)
+        out->d1[i][k] = q1 * e[i] * p[k] + (i == k ? q : 0.0);
+      out->d1[i][2] = zr * p[i];
+    }
+  /* d2[a + b] = X_ab: X_11, X_12, X_22. */
+  for (int a = 0; a < 2; a++)
+    for (int b = a; b < 2; b++)
+      {
+        double *x = out->d2[a + b], dab = a == b ? 1.0 : 0.0;
+
+        for (int k = 0; k < 2; k++)
+          x[k] = (qq * e[a] * e[b] + q1r * dab) * p[k] + q1 * e[a] * (b == k) + q1 * e[b] * (a == k);
+        x[2] = zz * e[a] * e[b] + zr * dab;
+      }
+  for (int k = 0; k < 3; k++)
+    if (!isfinite (out->x[k]) || !isfinite (out->d1[0][k]) || !isfinite (out->d1[1][k])
+        || !isfinite (out->d2[0][k]) || !isfinite (out->d2[1][k]) || !isfinite (out->d2[2][k]))
+      return df_diag_fail_at (diag, DF_E_NONFINITE, -1, t, atan2 (p[1], p[0]),
+                              "the surface in pole coordinates is not finite here");
   return DF_OK;
 }

@@ -131,7 +131,8 @@ df_json_add_point_geometry (JsonBuilder *builder, const df_point_geometry *g)
   json_builder_add_boolean_value (builder, reg);
   df_json_add_vector (builder, "point", g->point, 3);
   df_json_add_vector (builder, "normal", g->normal, 3);
-  add_matrix (builder, "metric", reg, g->g);
+  /* The chart's metric exists at a pole too (degenerate there); its inverse does not. */
+  add_matrix (builder, "metric", TRUE, g->g);
 
   /* christoffel[k][i][j] = Gamma^k_ij, riemann[r][s][m][n] = R^r_smn: the nesting follows the
    * index order of df_point_geometry so a reader indexes the same way. */
@@ -182,10 +183,22 @@ df_json_add_point_geometry (JsonBuilder *builder, const df_point_geometry *g)
   else
     json_builder_add_null_value (builder);
 
-  add_matrix (builder, "second_fundamental_form", reg, g->second_form);
-  df_json_add_double (builder, "gaussian_curvature", g->K);
-  df_json_add_double (builder, "mean_curvature", g->H);
-  df_json_add_vector (builder, "principal_curvatures", k, 2);
+  add_matrix (builder, "second_fundamental_form", TRUE, g->second_form);
+  df_json_add_double_or_null (builder, "gaussian_curvature", g->curvature_defined, g->K);
+  df_json_add_double_or_null (builder, "mean_curvature", g->curvature_defined, g->H);
+  json_builder_set_member_name (builder, "principal_curvatures");
+  if (g->curvature_defined)
+    {
+      json_builder_begin_array (builder);
+      df_json_add_double_value (builder, k[0]);
+      df_json_add_double_value (builder, k[1]);
+      json_builder_end_array (builder);
+    }
+  else
+    json_builder_add_null_value (builder);
+  df_json_add_double_or_null (builder, "concentrated_curvature_rad", !g->curvature_defined,
+                              g->concentrated_rad);
+  add_string_or_null (builder, "note", g->note[0] ? g->note : NULL);
 }
 
 void

@@ -33,8 +33,10 @@ void     df_json_add_fit            (JsonBuilder *builder, const df_surface *sur
 void     df_json_add_loop_result    (JsonBuilder *builder, const df_loop_result *result);
 /* Members of a point's geometry: u, v, chart_regular, point, normal, metric [[g11, g12],
  * [g21, g22]], christoffel [k][i][j] = Gamma^k_ij, riemann [r][s][m][n] = R^r_smn,
- * second_fundamental_form, gaussian_curvature, mean_curvature, principal_curvatures [k1, k2].
- * Metric-dependent members are null where the chart is singular (a pole). */
+ * second_fundamental_form, gaussian_curvature, mean_curvature, principal_curvatures [k1, k2],
+ * concentrated_curvature_rad (a cone apex only, else null), note. At a pole the metric and II
+ * are the chart's own (degenerate), christoffel and riemann are null and note says why; the
+ * curvatures are limits, or null at a cone apex. */
 void     df_json_add_point_geometry (JsonBuilder *builder, const df_point_geometry *geometry);
 /* Members of a shot geodesic: length, stopped_early, stop_reason (null when it ran its full
  * length), end {u, v, point, tangent}, samples (count). */

@@ -36,6 +36,7 @@ typedef struct
   df_diag           fail;
   gsl_integration_workspace *ws;  /* inner integrals done directly */
   df_cheb2         *fit;          /* graph: x-integrated fit of (K sqrt g, sqrt g), or NULL */
+  bool              prefer_other; /* report the other cap first (the one on the left) */
 } line_ctx;
 
 double
@@ -186,7 +187,21 @@ green_integrand (double tau, const double p[2], const double dp[2], double *valu
   df_status st;
 
   (void) tau;
-  if (coords == DF_COORDS_CHART)
+  if (coords == DF_COORDS_SPHERE)
+    {
+      /* Near both poles the plane coordinates are polar about the nearer pole; the reference
+       * follows (each half's form H dphi is smooth at its own pole), and df_loop_measure adds
+       * the constant difference of the two forms over the southern pieces. */
+      double u_min, u_max;
+      int e = df_curve_plane_pole (ctx->curve, tau);
+
+      df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+      ctx->u_ref = e ? u_max : u_min;
+      ctx->h_ref = e ? -1.0 : 1.0;
+      u = e ? u_max - hypot (p[0], p[1]) : u_min + hypot (p[0], p[1]);
+      v = atan2 (p[1], p[0]);
+    }
+  else if (coords == DF_COORDS_CHART)
     {
       u = p[0];
       v = p[1];
@@ -251,11 +266,18 @@ segments_cross (const double a[2], const double b[2], const double c[2], const d
   double d3 = (d[0] - c[0]) * (a[1] - c[1]) - (d[1] - c[1]) * (a[0] - c[0]);
   double d4 = (d[0] - c[0]) * (b[1] - c[1]) - (d[1] - c[1]) * (b[0] - c[0]);
 
-  /* Touching counts as crossing: the two segments are not neighbours, so a shared point
-   * means the loop meets itself. Collinear segments cross where their boxes overlap. */
+  /* Segments whose boxes do not overlap cannot meet; testing that first keeps nearly
+   * collinear segments (a meridian in a pole-centred picture, with rounding noise across it)
+   * from looking crossed by the sign tests below. Touching counts as crossing: the two
+   * segments are not neighbours, so a shared point means the loop meets itself. Collinear
+   * segments cross where their boxes overlap. */
+  bool boxes = fmax (fmin (a[0], b[0]), fmin (c[0], d[0])) <= fmin (fmax (a[0], b[0]), fmax (c[0], d[0]))
+               && fmax (fmin (a[1], b[1]), fmin (c[1], d[1])) <= fmin (fmax (a[1], b[1]), fmax (c[1], d[1]));
+
+  if (!boxes)
+    return false;
   if (d1 == 0 && d2 == 0 && d3 == 0 && d4 == 0)
-    return fmax (fmin (a[0], b[0]), fmin (c[0], d[0])) <= fmin (fmax (a[0], b[0]), fmax (c[0], d[0]))
-           && fmax (fmin (a[1], b[1]), fmin (c[1], d[1])) <= fmin (fmax (a[1], b[1]), fmax (c[1], d[1]));
+    return true;
   return d1 * d2 <= 0 && d3 * d4 <= 0;
 }
 
@@ -278,6 +300,107 @@ cell_hash (long cx, long cy, size_t mask)
   return (size_t) (h ^ (h >> 29)) & mask;
 }
 
+/* A planar picture of a revolution loop that is regular wherever the surface is: the points
+ * (t, phi) are placed as
+ * - no pole: on the annulus (1 + (t - t_min) / range) e^(i phi), where going round the axis is
+ *   going round the hole;
+ * - one pole: on the disc ((t - t_pole) / range) e^(i phi) centred on it (a pole-centred chart,
+ *   regular at a smooth pole, where (t, phi) is not);
+ * - two poles: on the unit sphere by theta = pi (t - t_min) / range, then projected
+ *   stereographically from the one of 14 directions farthest from every point of the loop, so
+ *   both poles are regular points of the picture. */
+static void
+revolution_picture (const df_curve *c, double (*q)[2], size_t n)
+{
+  const df_surface *s = df_curve_get_surface (c);
+  df_curve_coords coords = df_curve_get_coords (c);
+  df_pole poles[2];
+  double u_min, u_max, range, best = -1.0, centre[3] = { 0, 0, 1 }, e1[3], e2[3];
+
+  df_surface_get_domain (s, &u_min, &u_max, NULL, NULL);
+  df_surface_get_poles (s, poles);
+  range = u_max - u_min;
+  for (size_t i = 0; i < n; i++)
+    {
+      double t = q[i][0], ph = q[i][1];
+
+      if (coords == DF_COORDS_POLAR_MIN || coords == DF_COORDS_POLAR_MAX)
+        {
+          double rho = hypot (q[i][0], q[i][1]);
+
+          t = coords == DF_COORDS_POLAR_MAX ? u_max - rho : u_min + rho;
+          ph = atan2 (q[i][1], q[i][0]);
+        }
+      q[i][0] = t;
+      q[i][1] = ph;
+    }
+  if (!poles[0].on_axis || !poles[1].on_axis)
+    {
+      for (size_t i = 0; i < n; i++)
+        {
+          double rad = poles[0].on_axis ? (q[i][0] - u_min) / range
+                       : poles[1].on_axis ? (u_max - q[i][0]) / range
+                                          : 1.0 + (q[i][0] - u_min) / range;
+          double ph = q[i][1];
+
+          q[i][0] = rad * cos (ph);
+          q[i][1] = rad * sin (ph);
+        }
+      return;
+    }
+  {
+    /* Candidate centres: the 6 axis directions and the 8 cube diagonals. */
+    static const double dirs[14][3] = {
+      { 1, 0, 0 }, { -1, 0, 0 }, { 0, 1, 0 }, { 0, -1, 0 }, { 0, 0, 1 }, { 0, 0, -1 },
+      { 1, 1, 1 }, { 1, 1, -1 }, { 1, -1, 1 }, { 1, -1, -1 },
+      { -1, 1, 1 }, { -1, 1, -1 }, { -1, -1, 1 }, { -1, -1, -1 } };
+
+    for (int d = 0; d < 14; d++)
+      {
+        double len = sqrt (df_dot3 (dirs[d], dirs[d])), closest = 2.0;
+
+        for (size_t i = 0; i < n; i++)
+          {
+            double th = M_PI * (q[i][0] - u_min) / range, w[3];
+
+            w[0] = sin (th) * cos (q[i][1]);
+            w[1] = sin (th) * sin (q[i][1]);
+            w[2] = cos (th);
+            closest = fmin (closest, 1.0 - df_dot3 (w, dirs[d]) / len);
+          }
+        if (closest > best)
+          {
+            best = closest;
+            for (int k = 0; k < 3; k++)
+              centre[k] = dirs[d][k] / len;
+          }
+      }
+  }
+  /* An orthonormal basis of the plane normal to the centre. */
+  {
+    double a[3] = { fabs (centre[0]) < 0.9 ? 1.0 : 0.0, fabs (centre[0]) < 0.9 ? 0.0 : 1.0, 0.0 };
+    double ac = df_dot3 (a, centre), len;
+
+    for (int k = 0; k < 3; k++)
+      e1[k] = a[k] - ac * centre[k];
+    len = sqrt (df_dot3 (e1, e1));
+    for (int k = 0; k < 3; k++)
+      e1[k] /= len;
+    df_cross3 (centre, e1, e2);
+  }
+  for (size_t i = 0; i < n; i++)
+    {
+      double th = M_PI * (q[i][0] - u_min) / range, w[3], den;
+
+      w[0] = sin (th) * cos (q[i][1]);
+      w[1] = sin (th) * sin (q[i][1]);
+      w[2] = cos (th);
+      den = 1.0 - df_dot3 (w, centre);
+      q[i][0] = df_dot3 (w, e1) / den;
+      q[i][1] = df_dot3 (w, e2) / den;
+    }
+}
+
 static df_status
 loop_is_simple (const df_curve *c, bool *simple)
 {
@@ -286,9 +409,6 @@ loop_is_simple (const df_curve *c, bool *simple)
   size_t *bucket = NULL;
   cell_entry *entries = NULL;
   df_status st = DF_OK;
-  bool annulus = df_curve_get_coords (c) == DF_COORDS_CHART
-                 && df_surface_get_kind (df_curve_get_surface (c)) == DF_SURFACE_REVOLUTION;
-  double u_min, u_max;
 
   *simple = true;
   /* The nodes themselves when there are many (the spline between two close nodes cannot cross
@@ -296,16 +416,8 @@ loop_is_simple (const df_curve *c, bool *simple)
   n = df_curve_sample_plane (c, 2048, &q);
   if (n == 0)
     return DF_E_NOMEM;
-  df_surface_get_domain (df_curve_get_surface (c), &u_min, &u_max, NULL, NULL);
-  for (size_t i = 0; annulus && i < n; i++)
-    {
-      /* A revolution chart loop is drawn on the annulus (1 + (t - t_min) / range) e^(i phi),
-       * where going round the axis is going round the hole. */
-      double rad = 1.0 + (q[i][0] - u_min) / (u_max - u_min), ph = q[i][1];
-
-      q[i][0] = rad * cos (ph);
-      q[i][1] = rad * sin (ph);
-    }
+  if (df_surface_get_kind (df_curve_get_surface (c)) == DF_SURFACE_REVOLUTION)
+    revolution_picture (c, q, n);
   for (size_t i = 0; i < n; i++)
     total += hypot (q[(i + 1) % n][0] - q[i][0], q[(i + 1) % n][1] - q[i][1]);
   cell = 4.0 * total / n + 1e-300;
@@ -424,6 +536,86 @@ choose_disc (const df_curve *c, df_loop_result *out, line_ctx *ctx)
                 "in the (x, y) plane");
       return;
     }
+  if (df_curve_get_coords (c) == DF_COORDS_SPHERE)
+    {
+      /* Near both poles (a meridian great circle, a loop from pole to pole): the Green
+       * integrand switches reference pole with the picture (green_integrand) and the
+       * measurement adds the difference of the two forms (south_correction). */
+      snprintf (out->disc_note, sizeof out->disc_note, "the loop comes near both poles; it bounds "
+                "a disc on each side, and both are given");
+      return;
+    }
+  if (df_curve_get_coords (c) != DF_COORDS_CHART)
+    {
+      /* In pole-centred coordinates H dphi = (H / rho^2)(p x p') dtau with the reference at
+       * that pole is a smooth form on the whole pole-centred picture (H vanishes like rho^2 at
+       * a smooth pole), so Green's theorem gives the region the loop encloses in that picture
+       * whether it goes round the pole, passes through it or not (its winding about the pole
+       * only decides whether a cone apex's concentrated curvature belongs to it). */
+      int e = df_curve_get_coords (c) == DF_COORDS_POLAR_MAX ? 1 : 0;
+      double tau0, tau1, rho_min = INFINITY;
+
+      ctx->u_ref = poles[e].t;
+      ctx->h_ref = e ? -1.0 : 1.0;
+      df_curve_get_range (c, &tau0, &tau1);
+      for (int i = 0; i < 4096; i++)
+        {
+          double p[2], dp[2], ddp[2];
+
+          df_curve_eval_plane (c, tau0 + (tau1 - tau0) * i / 4096, p, dp, ddp);
+          rho_min = fmin (rho_min, hypot (p[0], p[1]));
+        }
+      {
+        /* A loop through the pole usually has it as a node. */
+        const double *taus;
+        size_t n_nodes = df_curve_get_nodes (c, &taus);
+
+        for (size_t i = 0; i < n_nodes; i++)
+          {
+            double p[2], dp[2], ddp[2];
+
+            df_curve_eval_plane (c, taus[i], p, dp, ddp);
+            rho_min = fmin (rho_min, hypot (p[0], p[1]));
+          }
+      }
+      if (rho_min <= 1e-9 * (u_max - u_min))
+        {
+          if (poles[e].concentrated > 1e-12)
+            {
+              out->bounds_disc = false;
+              snprintf (out->disc_note, sizeof out->disc_note,
+                        "the loop runs through the cone apex (t = %.6g), whose concentrated "
+                        "curvature belongs to neither side; its holonomy is still defined",
+                        poles[e].t);
+              return;
+            }
+          /* Its winding round the axis is not defined (the pole lies on it): reported as 0. */
+          out->axis_winding = 0;
+          snprintf (out->disc_note, sizeof out->disc_note, "the loop runs through the pole at "
+                    "t = %.6g; the disc meant is the region it encloses", poles[e].t);
+          return;
+        }
+      if (w == 0)
+        {
+          snprintf (out->disc_note, sizeof out->disc_note, "the loop bounds the region it "
+                    "encloses without going around the axis");
+          return;
+        }
+      out->concentrated_rad = poles[e].concentrated;
+      {
+        /* As in the chart: the cap on the left is meant when there is one. */
+        int left = w > 0 ? 0 : 1, use = (left != e && poles[left].on_axis) ? left : e;
+
+        ctx->prefer_other = use != e;
+        if (ctx->prefer_other)
+          out->concentrated_rad = poles[left].concentrated;
+        snprintf (out->disc_note, sizeof out->disc_note,
+                  "the loop goes around the axis; the disc meant is the cap toward the %s end of "
+                  "the profile (t = %.6g)%s", use == 0 ? "t-min" : "t-max", poles[use].t,
+                  poles[use].concentrated > 1e-12 ? ", including the cone apex" : "");
+      }
+      return;
+    }
   if (w == 0)
     {
       /* Any reference works for a loop that does not go around the axis; a loop near a pole
@@ -483,8 +675,10 @@ other_cap (line_ctx *ctx, df_loop_result *out)
   gsl_function f = { inner_integrand, &ic };
   double err;
 
+  /* On a closed surface (a pole at each end) every simple loop bounds a disc on each side,
+   * whether or not it goes round the axis. */
   df_surface_get_poles (ctx->surface, poles);
-  if (!ctx->revolution || out->axis_winding == 0 || !poles[0].on_axis || !poles[1].on_axis)
+  if (!ctx->revolution || !poles[0].on_axis || !poles[1].on_axis)
     return DF_OK;
   df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
   if (gsl_integration_qag (&f, u_min, u_max, 0.0, 1e-12, 200, GSL_INTEG_GAUSS21, ctx->ws,
@@ -495,6 +689,101 @@ other_cap (line_ctx *ctx, df_loop_result *out)
   out->other_enclosed_curvature_rad = out->enclosed_curvature_rad
                                       + (out->disc_on_left ? -4 * M_PI : 4 * M_PI);
   out->other_area = fmax (0.0, total_area - out->area);
+  if (ctx->prefer_other)
+    {
+      /* The Green integral gave the cap round the pole of the curve's picture; the one meant is
+       * the other (on the left). Its concentrated curvature was counted in the total 4 pi. */
+      double k = out->enclosed_curvature_rad, a = out->area;
+
+      out->enclosed_curvature_rad = out->other_enclosed_curvature_rad;
+      out->area = out->other_area;
+      out->other_enclosed_curvature_rad = k;
+      out->other_area = a;
+      out->disc_on_left = !out->disc_on_left;
+      out->residual_rad = df_wrap_angle (out->holonomy_rad - out->enclosed_curvature_rad);
+    }
+  return DF_OK;
+}
+
+static int
+compare_tau (const void *a, const void *b)
+{
+  double x = *(const double *) a, y = *(const double *) b;
+
+  return (x > y) - (x < y);
+}
+
+/* Sphere coordinates: the northern pieces integrate H_N dphi (reference at t-min), the
+ * southern H_S dphi (reference at t-max). H_N - H_S = 2 and A_N - A_S = C, the whole profile's
+ * integral of r ds, are constants, so the form H_N dphi of the disc away from the pole at
+ * t-max is recovered by adding 2 dphi and C dphi over the southern pieces: (2, C) times their
+ * change of phi, followed continuously in the southern pole-centred picture. Where the loop
+ * runs through that pole phi jumps by pi, and taking +pi or -pi is choosing one disc or the
+ * other: both are discs of the loop, and the other one is reported beside it. */
+static df_status
+south_correction (line_ctx *ctx, double *dk, double *da)
+{
+  const df_curve *c = ctx->curve;
+  const double *breaks, *nodes;
+  size_t nb = df_curve_get_breaks (c, &breaks), nn = df_curve_get_nodes (c, &nodes);
+  size_t m = 8192, n = 0;
+  double tau0, tau1, u_min, u_max, dphi = 0.0, cap_area, *taus;
+  df_status st;
+
+  df_curve_get_range (c, &tau0, &tau1);
+  df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+  taus = malloc ((m + nb + nn + 1) * sizeof *taus);
+  if (taus == NULL)
+    return DF_E_NOMEM;
+  for (size_t i = 0; i < m; i++)
+    taus[n++] = tau0 + (tau1 - tau0) * i / m;
+  for (size_t i = 0; i < nb; i++)
+    taus[n++] = breaks[i];
+  for (size_t i = 0; i < nn; i++)
+    if (nodes[i] > tau0 && nodes[i] < tau1)
+      taus[n++] = nodes[i];
+  qsort (taus, n, sizeof *taus, compare_tau);
+  taus[n++] = tau1;
+  {
+    double prev_angle = 0.0;
+    bool have = false;
+
+    for (size_t i = 0; i + 1 < n; i++)
+      {
+        double a = taus[i], b = taus[i + 1], p[2], dp[2], ddp[2];
+
+        if (!(b > a) || df_curve_plane_pole (c, 0.5 * (a + b)) != 1)
+          {
+            have = false;
+            continue;
+          }
+        for (int end = 0; end < 2; end++)
+          {
+            double ang;
+
+            df_curve_eval_plane_about (c, end ? b : a, 1, p, dp, ddp);
+            /* On the pole itself phi has no value: the step across it is taken whole. */
+            if (hypot (p[0], p[1]) <= 1e-12 * (u_max - u_min))
+              continue;
+            ang = atan2 (p[1], p[0]);
+            if (have)
+              {
+                double d = ang - prev_angle;
+
+                d -= 2 * M_PI * floor ((d + M_PI) / (2 * M_PI));
+                dphi += d;
+              }
+            prev_angle = ang;
+            have = true;
+          }
+      }
+  }
+  free (taus);
+  ctx->u_ref = u_min;
+  if ((st = inner_integral (ctx, u_max, 0.0, true, &cap_area)) != DF_OK)
+    return st;
+  *dk = 2.0 * dphi;
+  *da = cap_area * dphi;
   return DF_OK;
 }
 
@@ -561,6 +850,15 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
   out->total_geodesic_curvature_rad = tr.total_kg;
   out->corner_turning_rad = tr.corner_turning;
   max_abs_kg = tr.max_abs_kg;
+  if (out->bounds_disc && df_curve_get_coords (curve) == DF_COORDS_SPHERE)
+    {
+      double dk, da;
+
+      if ((st = south_correction (&ctx, &dk, &da)) != DF_OK)
+        goto done;
+      tr.extra[0] += dk;
+      tr.extra[1] += da;
+    }
   if (out->bounds_disc)
     {
       out->disc_on_left = tr.extra[1] > 0;

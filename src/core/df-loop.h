@@ -47,7 +47,7 @@ typedef struct
   double area;                    /* of the disc, positive */
   double residual_rad;            /* holonomy - enclosed, wrapped to (-pi, pi] */
   bool   disc_on_left;            /* the disc lies left of the direction of travel */
-  /* A loop round the axis of a closed surface of revolution (a pole at each end) bounds a cap
+  /* A simple loop on a closed surface of revolution (a pole at each end) bounds a disc
    * on each side. The second one, signed by the same rule (negative on the right): its value
    * is enclosed -/+ 4 pi, since a closed surface of this kind carries 4 pi in all
    * (Gauss-Bonnet, Euler characteristic 2). */
