@@ -644,6 +644,18 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
           st = df_diag_fail (diag, DF_E_INPUT, (long) i, "the point is not a finite number");
           goto fail;
         }
+      /* A cone apex has no tangent plane: nothing can be carried through it. */
+      for (int e = 0; e < 2; e++)
+        if (poles[e].on_axis && poles[e].sin_alpha < 1.0 - 1e-9
+            && fabs (uv[i][0] - poles[e].t) <= 1e-9 * (u_max - u_min))
+          {
+            st = df_diag_fail_at (diag, DF_E_SINGULAR, (long) i, uv[i][0], uv[i][1],
+                                  "the point lies on the cone apex, where the surface has no "
+                                  "tangent plane and no direction can be carried; keep the "
+                                  "path off the apex (a loop round it takes its concentrated "
+                                  "curvature)");
+            goto fail;
+          }
       if ((st = df_surface_eval (surface, uv[i][0], uv[i][1], 0, &j, diag)) != DF_OK)
         {
           if (diag)

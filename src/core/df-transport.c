@@ -404,9 +404,22 @@ df_transport_run (const df_curve *curve, const double *v0_space,
                     *diag = ctx.fail;
                 }
               else
-                st = df_diag_fail (diag, df_status_from_gsl (rc), -1,
-                                   "the transport integrator stopped at tau = %.6g: %s", tau,
-                                   gsl_strerror (rc));
+                {
+                  df_curve_point cp;
+                  double u = NAN, v = NAN;
+
+                  /* Not an internal error for the user: the step could not get past a point
+                   * where the surface or the path is singular; name where it is. */
+                  if (df_curve_eval (curve, tau, &cp, NULL) == DF_OK)
+                    {
+                      u = cp.u;
+                      v = cp.v;
+                    }
+                  st = df_diag_fail_at (diag, DF_E_NOCONVERGE, -1, u, v,
+                                        "the transport could not step past tau = %.6g: "
+                                        "the surface or the path is singular there (a cone "
+                                        "apex, a cusp or a sharp fold)", tau);
+                }
               goto done;
             }
           if (options->n_extra

@@ -66,24 +66,6 @@ LLVMFuzzerTestOneInput (const unsigned char *data, size_t size)
     FUZZ_REQUIRE (isfinite (uv[i][0]) && isfinite (uv[i][1]) && df_surface_contains (s, uv[i][0], uv[i][1]));
   if (n > MAX_MEASURED_POINTS)
     return 0;
-#ifndef FUZZ_LOOP_POLES
-  /* Loops with a point near a pole or a cone apex are still slow or fail there (issue 6 §2,
-   * the pole work in df-curve/df-transport): such an input runs 15 s and ends in "internal
-   * error" (pending/loop/ has one). They are left out of the campaign, which would otherwise
-   * stop at the first one, until that work lands; build with -DFUZZ_LOOP_POLES to include
-   * them. The reader above still sees every input. */
-  {
-    df_pole poles[2];
-    double u0, u1;
-
-    df_surface_get_poles (s, poles);
-    df_surface_get_domain (s, &u0, &u1, NULL, NULL);
-    for (gsize i = 0; i < n; i++)
-      for (int e = 0; e < 2; e++)
-        if (poles[e].on_axis && fabs (uv[i][0] - poles[e].t) < 0.1 * (u1 - u0))
-          return 0;
-  }
-#endif
 
   df_diag_clear (&diag);
   if (df_curve_new_through_points (s, (const double (*)[2]) uv, n, true, &curve, &diag) != DF_OK)
