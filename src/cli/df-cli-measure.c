@@ -67,9 +67,13 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
   printf ("%s\n\n", r->simple ? "" : ", CROSSES ITSELF");
 
   print_angle_line ("Holonomy (about N, + anticlockwise):", r->holonomy_rad);
-  if (r->bounds_disc)
+  if (r->bounds_disc && !r->enclosed_available)
+    printf ("%-38s not computed (see the note)\n", "Enclosed curvature:");
+  else if (r->bounds_disc)
     {
       print_angle_line ("Enclosed curvature (integral K dA):", r->enclosed_curvature_rad);
+      printf ("%-38s %s rad (achieved estimate)\n", "  its error:",
+              df_cli_num (a, sizeof a, r->enclosed_error_rad, 2));
       if (r->concentrated_rad != 0.0)
         print_angle_line ("  of which at the cone apex:", r->concentrated_rad);
       printf ("%-38s %s rad\n", "Gauss-Bonnet residual:",
@@ -87,6 +91,8 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
     printf ("%-38s not defined: the loop bounds no disc\n", "Enclosed curvature:");
   if (r->disc_note[0] != '\0')
     printf ("%-38s %s\n", "Note:", r->disc_note);
+  if (r->enclosed_note[0] != '\0')
+    printf ("%-38s %s\n", r->disc_note[0] ? "" : "Note:", r->enclosed_note);
   print_angle_line ("Total geodesic curvature:", r->total_geodesic_curvature_rad);
   printf ("%-38s %s %s\n", "Length:", df_cli_num (a, sizeof a, r->length, 9), un);
   if (r->has_steering_radius)

@@ -58,10 +58,12 @@ print_text (const report_options *o, const df_project *project, const df_surface
 
       printf ("%-24.24s %14s %14s %12s %12s %14s\n", loop->name,
               df_cli_num (h, sizeof h, r->holonomy_rad * 180.0 / G_PI, 8),
-              r->bounds_disc ? df_cli_num (e, sizeof e, r->enclosed_curvature_rad * 180.0 / G_PI,
-                                           8)
-                             : "no disc",
-              r->bounds_disc ? df_cli_num (res, sizeof res, r->residual_rad, 2) : "-",
+              !r->bounds_disc         ? "no disc"
+              : !r->enclosed_available ? "n/a"
+                                       : df_cli_num (e, sizeof e,
+                                                     r->enclosed_curvature_rad * 180.0 / G_PI, 8),
+              r->bounds_disc && r->enclosed_available
+                ? df_cli_num (res, sizeof res, r->residual_rad, 2) : "-",
               df_cli_num (len, sizeof len, r->length, 7),
               r->has_steering_radius ? df_cli_num (rad, sizeof rad, r->min_steering_radius, 6)
                                      : "none");

@@ -419,7 +419,8 @@ df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *r
   for (gsize i = 0; i < n; i++)
     {
       const df_loop_result *r = results[i];
-      double disc = r->bounds_disc ? 1.0 : NAN;
+      /* Empty where there is no disc or its curvature could not be computed. */
+      double disc = r->bounds_disc && r->enclosed_available ? 1.0 : NAN;
       double row[8] = { r->holonomy_rad * 180.0 / G_PI, r->holonomy_rad,
                         r->enclosed_curvature_rad * disc, r->residual_rad * disc,
                         r->total_geodesic_curvature_rad, r->area * disc, r->length,
