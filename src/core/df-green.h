@@ -16,9 +16,11 @@
 #include "df-curve.h"
 
 /* The integrands of a line integral along the curve: values[0] (curvature) and values[1]
- * (area) at the curve's plane point p and its derivative dp at tau. */
+ * (area) at the curve's plane point p and its derivative dp at tau, and in errors[] (zeros on
+ * entry) a bound on their own error where they come from a quadrature that fell short. */
 typedef df_status (*df_green_line_fn) (double tau, const double p[2], const double dp[2],
-                                       double *values, void *user, df_diag *diag);
+                                       double *values, double *errors, void *user,
+                                       df_diag *diag);
 
 typedef struct
 {
@@ -28,9 +30,13 @@ typedef struct
   size_t evals;       /* integrand evaluations */
 } df_green_line_result;
 
+/* A bound on the line quadrature's points for cheap integrands (a few milliseconds' worth). */
+#define DF_GREEN_MAX_EVALS 400000
+
 /* Integrates both components of fn once round the closed curve, each to
  * max(epsabs[c], epsrel |value|), by adaptive bisection of Gauss-Legendre panels that start
- * at the corners and at groups of spline knots. Returns DF_OK with the values and their error
+ * at the corners and at groups of spline knots, stopping the refinement after max_evals
+ * integrand points. Returns DF_OK with the values and their error
  * estimates whether or not the tolerance was met; a failure only when the integrand failed
  * (its status and diag) or out of memory. */
 df_status df_green_line_integral (const df_curve          *curve,
@@ -38,6 +44,7 @@ df_status df_green_line_integral (const df_curve          *curve,
                                   void                    *user,
                                   const double            *epsabs,
                                   const double            *epsrel,
+                                  size_t                   max_evals,
                                   df_green_line_result    *out,
                                   df_diag                 *diag);
 

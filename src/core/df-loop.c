@@ -134,8 +134,8 @@ inner_integral (line_ctx *ctx, double u, double *out, df_diag *diag)
  * curve point, integrated along the curve by df-green's adaptive quadrature, independently of
  * the transport. */
 static df_status
-green_integrand (double tau, const double p[2], const double dp[2], double *values, void *user,
-                 df_diag *diag)
+green_integrand (double tau, const double p[2], const double dp[2], double *values,
+                 double *errors, void *user, df_diag *diag)
 {
   line_ctx *ctx = user;
   df_curve_coords coords = df_curve_get_coords (ctx->curve);
@@ -143,6 +143,7 @@ green_integrand (double tau, const double p[2], const double dp[2], double *valu
   df_status st;
 
   (void) tau;
+  (void) errors;   /* closed-form H; the area's profile integral is smooth and converges */
   if (coords == DF_COORDS_CHART)
     u = p[0];
   else
@@ -451,7 +452,8 @@ enclosed_by_green (line_ctx *ctx, double rel_tol, df_loop_result *out)
       double epsrel[2] = { tol, DF_GREEN_AREA_REL };
       df_green_line_result lr;
 
-      st = df_green_line_integral (ctx->curve, green_integrand, ctx, epsabs, epsrel, &lr, &d);
+      st = df_green_line_integral (ctx->curve, green_integrand, ctx, epsabs, epsrel,
+                                   DF_GREEN_MAX_EVALS, &lr, &d);
       curvature = lr.value[0];
       area = lr.value[1];
       error = lr.error[0];
