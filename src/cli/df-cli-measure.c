@@ -132,9 +132,13 @@ run (measure_options *o)
     }
   if (o->count != 0)
     {
-      if (o->count < 8 || o->count > 1000000)
+      if (o->count > DF_CLI_MAX_COUNT)
         return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
-                                "--count: %d is outside [8, 1000000]", o->count);
+                                "--count: %d is above the cap of %d samples", o->count,
+                                DF_CLI_MAX_COUNT);
+      if (o->count < 8)
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
+                                "--count: %d is outside [8, %d]", o->count, DF_CLI_MAX_COUNT);
       lopt.n_samples = (size_t) o->count;
     }
   if (!df_cli_require ("--loop", o->loop_path, &error)
@@ -179,7 +183,8 @@ df_cli_measure (int argc, char **argv)
     { "samples", 'o', 0, G_OPTION_ARG_FILENAME, &o.samples_path,
       "Write the carried frame along the loop as CSV (s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K)",
       "OUT.csv" },
-    { "count", 'n', 0, G_OPTION_ARG_INT, &o.count, "Number of samples (default 200)", "N" },
+    { "count", 'n', 0, G_OPTION_ARG_INT, &o.count,
+      "Number of samples, 8 to 100000 (default 200)", "N" },
     { "tolerance", 0, 0, G_OPTION_ARG_STRING, &o.tolerance_text,
       "Relative tolerance of the transport integration (default 1e-11)", "REL" },
     { NULL },

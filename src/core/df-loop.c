@@ -9,6 +9,7 @@
 #include "df-loop.h"
 #include "df-vec3.h"
 
+#include <gsl/gsl_chebyshev.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
 #include <gsl/gsl_odeiv2.h>
@@ -32,6 +33,8 @@ typedef struct
   double            pole_t;       /* polar curve coordinates: the pole's t */
   double            pole_sign;    /* and dt / drho */
   gsl_integration_workspace *ws;  /* revolution: the area's inner integrals */
+  gsl_cheb_series *area_fit;      /* revolution: int r ds over the loop's t range, or NULL */
+  double            area_fit_base; /* int r ds from u_ref to the fit's lower end */
 } line_ctx;
 
 /* Angles this close above -pi are +pi: a half-turn computed from atan2 of values exact up to
@@ -117,6 +120,11 @@ inner_integral (line_ctx *ctx, double u, double *out, df_diag *diag)
   if (u == ctx->u_ref)
     {
       *out = 0.0;
+      return DF_OK;
+    }
+  if (ctx->area_fit != NULL && u >= ctx->area_fit->a && u <= ctx->area_fit->b)
+    {
+      *out = ctx->area_fit_base + gsl_cheb_eval (ctx->area_fit, u);
       return DF_OK;
     }
   /* Gauss-Kronrod 15 with tight tolerances: the profile is smooth, so one or two panels
@@ -431,6 +439,74 @@ other_cap (line_ctx *ctx, df_loop_result *out)
   return DF_OK;
 }
 
+/* Revolution: A(t) = int r ds depends on t alone, so one Chebyshev series of it over the
+ * loop's t range (GSL's gsl_cheb, integrated term by term) replaces a quadrature per point of
+ * the line integral. Kept only where it agrees with direct quadrature at points of the range;
+ * otherwise area_fit stays NULL and each point integrates directly. */
+static void
+prepare_area_fit (line_ctx *ctx)
+{
+  double (*q)[2] = NULL, lo = INFINITY, hi = -INFINITY, u_min, u_max, pad, worst = 0.0;
+  size_t m = df_curve_sample_plane (ctx->curve, 512, &q);
+  bool chart = df_curve_get_coords (ctx->curve) == DF_COORDS_CHART;
+  inner_ctx ic = { ctx, 0.0, true };
+  gsl_function f = { inner_integrand, &ic };
+  gsl_cheb_series *cs, *integ;
+  df_diag d;
+
+  for (size_t i = 0; i < m; i++)
+    {
+      double u = chart ? q[i][0] : ctx->pole_t + ctx->pole_sign * hypot (q[i][0], q[i][1]);
+
+      lo = fmin (lo, u);
+      hi = fmax (hi, u);
+    }
+  free (q);
+  if (m == 0 || !(hi > lo))
+    return;
+  df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+  pad = 0.01 * (hi - lo);
+  lo -= pad;
+  hi += pad;
+  if (!df_surface_u_periodic (ctx->surface))
+    {
+      lo = fmax (lo, u_min);
+      hi = fmin (hi, u_max);
+    }
+  cs = gsl_cheb_alloc (40);
+  integ = gsl_cheb_alloc (40);
+  if (cs == NULL || integ == NULL || gsl_cheb_init (cs, &f, lo, hi) != GSL_SUCCESS
+      || gsl_cheb_calc_integ (integ, cs) != GSL_SUCCESS)
+    goto fail;
+  ctx->area_fit = NULL;
+  if (inner_integral (ctx, lo, &ctx->area_fit_base, &d) != DF_OK)
+    goto fail;
+  for (int k = 0; k <= 8; k++)
+    {
+      double u = lo + (hi - lo) * (k + 0.37) / 9.37, direct, fitted;
+
+      if (inner_integral (ctx, u, &direct, &d) != DF_OK)
+        goto fail;
+      fitted = ctx->area_fit_base + gsl_cheb_eval (integ, u);
+      if (!isfinite (fitted))
+        goto fail;
+      worst = fmax (worst, fabs (fitted - direct) / (fabs (direct) + fabs (ctx->area_fit_base)
+                                                     + 1e-300));
+    }
+  /* The area is aimed at DF_GREEN_AREA_REL; the fit must do ten times better. */
+  if (worst > 0.1 * DF_GREEN_AREA_REL)
+    goto fail;
+  gsl_cheb_free (cs);
+  ctx->area_fit = integ;
+  return;
+fail:
+  if (cs)
+    gsl_cheb_free (cs);
+  if (integ)
+    gsl_cheb_free (integ);
+  ctx->area_fit = NULL;
+}
+
 /* The enclosed curvature and area by Green's theorem (df-green), aiming at ten times the
  * transport's relative tolerance in radians (1e-10 rad at the default): about what the
  * holonomy itself achieves over a loop, and a 10 000-point spline loop's knots cost an honest
@@ -452,6 +528,7 @@ enclosed_by_green (line_ctx *ctx, double rel_tol, df_loop_result *out)
       double epsrel[2] = { tol, DF_GREEN_AREA_REL };
       df_green_line_result lr;
 
+      prepare_area_fit (ctx);
       st = df_green_line_integral (ctx->curve, green_integrand, ctx, epsabs, epsrel,
                                    DF_GREEN_MAX_EVALS, &lr, &d);
       curvature = lr.value[0];
@@ -603,6 +680,8 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
 
 done:
   gsl_integration_workspace_free (ctx.ws);
+  if (ctx.area_fit)
+    gsl_cheb_free (ctx.area_fit);
   df_transport_result_clear (&tr);
   if (st != DF_OK)
     df_loop_result_clear (out);
