@@ -727,7 +727,8 @@ df_compare_paths (const df_curve *a, const df_curve *b, const double *v0,
       df_transport_result_clear (&ra);
       return st;
     }
-  *angle_rad = df_signed_angle (ra.end_vector, rb.end_vector, ra.end_normal);
+  /* The same (-pi, pi] as the holonomy, a rounded half-turn included. */
+  *angle_rad = df_wrap_angle (df_signed_angle (ra.end_vector, rb.end_vector, ra.end_normal));
   if (result_a)
     *result_a = ra;
   else
