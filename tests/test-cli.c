@@ -615,6 +615,40 @@ typedef struct
 
 /* Bad input: exit status 2, nothing on stdout, exactly one line on stderr naming the place. */
 static void
+test_measure_steep_bump (void)
+{
+  /* Issue 6: on a bump of height 5 and width 0.5 a 200-point loop of radius 3 made `measure`
+   * exit 2 ("an integrand along the path failed"). Now it exits 0 with the enclosed curvature,
+   * its error estimate and the holonomy. Closed form for the radial graph: 2 pi (1 - 1 /
+   * sqrt(1 + f'(3)^2)) with f'(3) = 60 exp(-18) (Gauss image area; do Carmo, from memory). */
+  g_autofree char *surface = write_tmp ("bump.surface",
+                                        "[surface]\nkind=graph\nz=5*exp(-(x^2+y^2)/(2*0.5^2))\n"
+                                        "x-min=-10\nx-max=10\ny-min=-10\ny-max=10\n");
+  g_autoptr (GString) text = g_string_new ("u,v\n");
+  g_autofree char *loop = NULL;
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+  double slope = 60 * exp (-18.0), want = 2 * G_PI * (1 - 1 / sqrt (1 + slope * slope));
+
+  for (int i = 0; i < 200; i++)
+    {
+      char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE];
+
+      g_string_append_printf (text, "%s,%s\n",
+                              g_ascii_dtostr (a, sizeof a, 3 * cos (2 * G_PI * i / 200)),
+                              g_ascii_dtostr (b, sizeof b, 3 * sin (2 * G_PI * i / 200)));
+    }
+  loop = write_tmp ("bump-loop.csv", text->str);
+  run_cli (&r, "measure", "--surface", surface, "--loop", loop, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  df_assert_close (get_number (o, "enclosed_curvature_rad"), want, 0.0, 1e-9);
+  g_assert_cmpfloat (get_number (o, "enclosed_curvature_error_rad"), <, 1e-8);
+  df_assert_close (get_number (o, "holonomy_rad"), want, 0.0, 1e-9);
+}
+
+static void
 test_bad_input (void)
 {
   g_autofree char *loop = write_latitude ("ok.csv", 1.0);
@@ -646,6 +680,11 @@ test_bad_input (void)
     { { "probe", "--preset", "sphere", "--at", "1,nan", NULL }, "--at: 'nan' is not a finite" },
     { { "probe", "--preset", "sphere", "--bogus", NULL }, "--bogus" },
     { { "bend", NULL }, "unknown command 'bend'" },
+    /* Issue 6: --count has a stated cap (DF_CLI_MAX_COUNT, in --help and the README). */
+    { { "measure", "--preset", "sphere", "--loop", loop, "--count", "100001", NULL },
+      "--count: 100001 is above the cap of 100000 samples" },
+    { { "geodesic", "--preset", "sphere", "--from", "1,0", "--heading", "0", "--length", "10",
+        "--count", "200000", NULL }, "--count: 200000 is above the cap of 100000 samples" },
     { { "geodesic", "--preset", "sphere", "--from", "1,0", "--heading", "0", "--length", "-5",
         NULL }, "--length: must be positive" },
     { { "geodesic", "--preset", "sphere", "--from", "1,0", "--heading", "north", "--length",
@@ -766,6 +805,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);
   g_test_add_func ("/cli/measure/data", test_measure_data);
+  g_test_add_func ("/cli/measure/steep-bump", test_measure_steep_bump);
   g_test_add_func ("/cli/probe/sphere", test_probe_sphere);
   g_test_add_func ("/cli/probe/pole", test_probe_pole);
   g_test_add_func ("/cli/probe/apex-and-overflow", test_probe_apex_and_overflow);

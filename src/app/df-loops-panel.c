@@ -117,7 +117,13 @@ update_details (DfLoopsPanel *self)
                         : r->holonomy_rad < 0 ? ", clockwise about N" : "";
     set_value (self->holonomy_value, g_strdup_printf ("%s%s", angle, sense));
   }
-  if (r->bounds_disc)
+  if (r->bounds_disc && !r->enclosed_available)
+    {
+      gtk_label_set_text (self->enclosed_value, "not computed (see the note)");
+      gtk_label_set_text (self->residual_value, "\u2014");
+      gtk_label_set_text (self->area_value, "\u2014");
+    }
+  else if (r->bounds_disc)
     {
       set_value (self->enclosed_value, df_format_angle (r->enclosed_curvature_rad));
       set_value (self->residual_value, df_format_angle (r->residual_rad));
@@ -159,6 +165,12 @@ update_details (DfLoopsPanel *self)
       g_string_append_c (notes, g_ascii_toupper (r->disc_note[0]));
       g_string_append (notes, r->disc_note + 1);
       g_string_append (notes, r->disc_note[len - 1] == '.' ? " " : ". ");
+    }
+  if (r->enclosed_note[0] != '\0')
+    {
+      g_string_append_c (notes, g_ascii_toupper (r->enclosed_note[0]));
+      g_string_append (notes, r->enclosed_note + 1);
+      g_string_append (notes, ". ");
     }
   if (!r->simple)
     g_string_append (notes, "The loop crosses itself: the enclosed curvature counts regions "

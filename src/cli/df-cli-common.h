@@ -52,6 +52,11 @@ gboolean  df_cli_parse               (GOptionContext *context, const char *name,
 
 /* Prints "driftframe-cli NAME: MESSAGE" as one line on stderr and returns code. */
 int       df_cli_fail                (const char *name, const GError *error, int code);
+/* The most samples --count accepts in `measure` and `geodesic`: each sample is a line of
+ * output and a chart evaluation, and beyond this a file grows past what anyone reads while the
+ * curve's shape is long resolved. */
+#define DF_CLI_MAX_COUNT 100000
+
 int       df_cli_fail_msg            (const char *name, int code, const char *format, ...)
                                       G_GNUC_PRINTF (3, 4);
 

@@ -50,9 +50,13 @@ run (geodesic_options *o)
                             o->length_text);
   if (o->count != 0)
     {
-      if (o->count < 2 || o->count > 1000000)
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--count: %d is outside [2, 1000000]",
-                                o->count);
+      if (o->count > DF_CLI_MAX_COUNT)
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
+                                "--count: %d is above the cap of %d samples", o->count,
+                                DF_CLI_MAX_COUNT);
+      if (o->count < 2)
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--count: %d is outside [2, %d]",
+                                o->count, DF_CLI_MAX_COUNT);
       count = (size_t) o->count;
     }
   if (!df_cli_surface_load (&o->surface, &spec, &surface, &error))
@@ -159,7 +163,8 @@ df_cli_geodesic (int argc, char **argv)
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the result as JSON", NULL },
     { "samples", 'o', 0, G_OPTION_ARG_FILENAME, &o.samples_path,
       "Write the path as CSV (s,u,v,x,y,z,tx,ty,tz)", "OUT.csv" },
-    { "count", 'n', 0, G_OPTION_ARG_INT, &o.count, "Number of samples (default 101)", "N" },
+    { "count", 'n', 0, G_OPTION_ARG_INT, &o.count,
+      "Number of samples, 2 to 100000 (default 101)", "N" },
     { NULL },
   };
 

@@ -142,9 +142,13 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
   else if (spec->data_key != NULL)
     printf ("%-38s not available (a refit failed or the fit interpolates)\n",
             "  moves with the fit:");
-  if (r->bounds_disc)
+  if (r->bounds_disc && !r->enclosed_available)
+    printf ("%-38s not computed (see the note)\n", "Enclosed curvature:");
+  else if (r->bounds_disc)
     {
       print_angle_line ("Enclosed curvature (integral K dA):", r->enclosed_curvature_rad);
+      printf ("%-38s %s rad (achieved estimate)\n", "  its error:",
+              df_cli_num (a, sizeof a, r->enclosed_error_rad, 2));
       if (r->concentrated_rad != 0.0)
         print_angle_line ("  of which at the cone apex:", r->concentrated_rad);
       printf ("%-38s %s rad\n", "Gauss-Bonnet residual:",
@@ -162,6 +166,8 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
     printf ("%-38s not defined: the loop bounds no disc\n", "Enclosed curvature:");
   if (r->disc_note[0] != '\0')
     printf ("%-38s %s\n", "Note:", r->disc_note);
+  if (r->enclosed_note[0] != '\0')
+    printf ("%-38s %s\n", r->disc_note[0] ? "" : "Note:", r->enclosed_note);
   print_angle_line ("Total geodesic curvature:", r->total_geodesic_curvature_rad);
   printf ("%-38s %s %s\n", "Length:", df_cli_num (a, sizeof a, r->length, 9), un);
   if (r->has_steering_radius)
@@ -203,9 +209,13 @@ run (measure_options *o)
     }
   if (o->count != 0)
     {
-      if (o->count < 8 || o->count > 1000000)
+      if (o->count > DF_CLI_MAX_COUNT)
         return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
-                                "--count: %d is outside [8, 1000000]", o->count);
+                                "--count: %d is above the cap of %d samples", o->count,
+                                DF_CLI_MAX_COUNT);
+      if (o->count < 8)
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT,
+                                "--count: %d is outside [8, %d]", o->count, DF_CLI_MAX_COUNT);
       lopt.n_samples = (size_t) o->count;
     }
   if (o->fair_text != NULL)
@@ -289,7 +299,8 @@ df_cli_measure (int argc, char **argv)
     { "samples", 'o', 0, G_OPTION_ARG_FILENAME, &o.samples_path,
       "Write the carried frame along the loop as CSV (s,u,v,x,y,z,vx,vy,vz,angle_deg,k_g,K)",
       "OUT.csv" },
-    { "count", 'n', 0, G_OPTION_ARG_INT, &o.count, "Number of samples (default 200)", "N" },
+    { "count", 'n', 0, G_OPTION_ARG_INT, &o.count,
+      "Number of samples, 8 to 100000 (default 200)", "N" },
     { "fair", 0, 0, G_OPTION_ARG_STRING, &o.fair_text,
       "Fair noisy points first: a smoothing spline within TOL (a length, in the surface's "
       "units) of them, so the steering radius shows the design, not the noise", "TOL" },

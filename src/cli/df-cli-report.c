@@ -1,6 +1,9 @@
 /* df-cli-report.c: `driftframe-cli report`: measures every loop of a project (.dfproj) on its
  * surface and prints one line per loop, or JSON, optionally writing the summary CSV
- * (df_loop_summary_write): the check a workshop runs over all plies before cutting. */
+ * (df_loop_summary_write): the check a workshop runs over all plies before cutting.
+ * The loops are measured on a GThreadPool of up to REPORT_THREADS threads (the core keeps no
+ * globals and a surface is read-only once built); each result goes to its loop's slot, so the
+ * output keeps the project's order whatever order the threads finish in. */
 #include <stdio.h>
 
 #include "df-cli-commands.h"
@@ -9,6 +12,8 @@
 #include "df-json-out.h"
 
 #define NAME "report"
+/* The development machine's two cores; more threads would only queue. */
+#define REPORT_THREADS 2
 
 typedef struct
 {
@@ -43,6 +48,55 @@ measure_loop (const df_surface *surface, const df_project_loop *loop, df_loop_re
   return TRUE;
 }
 
+/* The work shared by the pool's threads: each task is one loop index, writing only its own
+ * result and error slots. */
+typedef struct
+{
+  const df_surface *surface;
+  const df_project *project;
+  df_loop_result   *results;
+  GError          **errors;
+} report_job;
+
+static void
+measure_task (gpointer data, gpointer user_data)
+{
+  report_job *job = user_data;
+  guint i = GPOINTER_TO_UINT (data) - 1;
+  const df_project_loop *loop = g_ptr_array_index (job->project->loops, i);
+
+  measure_loop (job->surface, loop, &job->results[i], &job->errors[i]);
+}
+
+/* Measures every loop on the pool's threads; failures[i] gets the reason loop i could not be
+ * measured (NULL when it was). Returns how many failed. */
+static guint
+measure_all (const df_project *project, const df_surface *surface, df_loop_result *results,
+             char **failures)
+{
+  guint n = project->loops->len, n_failed = 0;
+  g_autofree GError **errors = g_new0 (GError *, n);
+  report_job job = { surface, project, results, errors };
+  gint threads = MIN (REPORT_THREADS, MAX (1, (gint) g_get_num_processors ()));
+  GThreadPool *pool = NULL;
+
+  if (n > 1 && threads > 1)
+    pool = g_thread_pool_new (measure_task, &job, MIN (threads, (gint) n), TRUE, NULL);
+  for (guint i = 0; i < n; i++)
+    if (pool == NULL || !g_thread_pool_push (pool, GUINT_TO_POINTER (i + 1), NULL))
+      measure_task (GUINT_TO_POINTER (i + 1), &job);
+  if (pool != NULL)
+    g_thread_pool_free (pool, FALSE, TRUE);
+  for (guint i = 0; i < n; i++)
+    if (errors[i] != NULL)
+      {
+        failures[i] = g_strdup (errors[i]->message);
+        g_clear_error (&errors[i]);
+        n_failed++;
+      }
+  return n_failed;
+}
+
 static void
 print_text (const report_options *o, const df_project *project, const df_surface *surface,
             const df_loop_result *results, const char *const *failures)
@@ -66,10 +120,12 @@ print_text (const report_options *o, const df_project *project, const df_surface
         }
       printf ("%-24.24s %14s %14s %12s %12s %14s\n", loop->name,
               df_cli_num (h, sizeof h, r->holonomy_rad * 180.0 / G_PI, 8),
-              r->bounds_disc ? df_cli_num (e, sizeof e, r->enclosed_curvature_rad * 180.0 / G_PI,
-                                           8)
-                             : "no disc",
-              r->bounds_disc ? df_cli_num (res, sizeof res, r->residual_rad, 2) : "-",
+              !r->bounds_disc         ? "no disc"
+              : !r->enclosed_available ? "n/a"
+                                       : df_cli_num (e, sizeof e,
+                                                     r->enclosed_curvature_rad * 180.0 / G_PI, 8),
+              r->bounds_disc && r->enclosed_available
+                ? df_cli_num (res, sizeof res, r->residual_rad, 2) : "-",
               df_cli_num (len, sizeof len, r->length, 7),
               r->has_steering_radius ? df_cli_num (rad, sizeof rad, r->min_steering_radius, 6)
                                      : "none");
@@ -159,7 +215,8 @@ run (report_options *o)
   names = g_new0 (const char *, n);
   ptrs = g_new0 (const df_loop_result *, n);
   /* A loop that cannot be measured stays in every output with its reason (a record that
-   * silently drops a ply is worse than none); the run still ends with exit status 2. */
+   * silently drops a ply is worse than none); the run still ends with exit status 2. Freed
+   * slot by slot below: g_auto (GStrv) would stop at the first empty one. */
   failures = g_new0 (char *, n + 1);
   for (guint i = 0; i < n; i++)
     {
@@ -167,14 +224,8 @@ run (report_options *o)
 
       names[i] = loop->name;
       ptrs[i] = &results[i];
-      if (!measure_loop (surface, loop, &results[i], &error))
-        {
-          failures[i] = g_strdup (error->message);
-          g_clear_error (&error);
-          n_failed++;
-        }
     }
-  /* g_auto (GStrv) stops at the first NULL: keep the array dense for freeing by hand. */
+  n_failed = measure_all (project, surface, results, failures);
 
   if (code == DF_CLI_EXIT_OK && o->pdf_path != NULL
       && !df_cli_report_write_pdf (o->project_path, project, surface, results,
@@ -199,7 +250,7 @@ run (report_options *o)
       else
         print_text (o, project, surface, results, (const char *const *) failures);
     }
-  for (guint i = 0; i < n; i++)
+  for (guint i = 0; n_failed > 0 && i < n; i++)
     if (failures[i] != NULL)
       {
         if (code == DF_CLI_EXIT_OK)

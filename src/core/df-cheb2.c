@@ -131,7 +131,7 @@ converged (const double *a, int n_f, int n, double rel_tol)
 
 df_status
 df_cheb2_fit (df_cheb2_fn fn, void *user, int n_f, double xa, double xb, double ya, double yb,
-              double rel_tol, df_cheb2 **out, df_diag *diag)
+              double rel_tol, int max_degree, df_cheb2 **out, df_diag *diag)
 {
   df_cheb2 *c;
   double *a = NULL;
@@ -141,9 +141,11 @@ df_cheb2_fit (df_cheb2_fn fn, void *user, int n_f, double xa, double xb, double 
   *out = NULL;
   if (!(xa < xb) || !(ya < yb) || n_f < 1)
     return df_diag_fail (diag, DF_E_INPUT, -1, "empty fitting rectangle");
+  if (max_degree > MAX_DEGREE || max_degree < MIN_DEGREE)
+    max_degree = MAX_DEGREE;
   /* Degrees grow by half each time (16, 24, 32, 48, ...): the cost is n^2 per evaluation
    * later, so the smallest degree that converges is worth finding. */
-  for (n = MIN_DEGREE; n <= MAX_DEGREE; n = n * 3 / 2 + (n * 3 / 2) % 2)
+  for (n = MIN_DEGREE; n <= max_degree; n = n * 3 / 2 + (n * 3 / 2) % 2)
     {
       free (a);
       a = malloc ((size_t) n_f * n * n * sizeof *a);
@@ -157,11 +159,11 @@ df_cheb2_fit (df_cheb2_fn fn, void *user, int n_f, double xa, double xb, double 
       if (converged (a, n_f, n, rel_tol))
         break;
     }
-  if (n > MAX_DEGREE)
+  if (n > max_degree)
     {
       free (a);
       return df_diag_fail (diag, DF_E_NOCONVERGE, -1, "no Chebyshev fit up to degree %d",
-                           MAX_DEGREE);
+                           max_degree);
     }
   c = calloc (1, sizeof *c);
   if (c == NULL || (c->b = calloc ((size_t) n_f * n * (n + 1), sizeof (double))) == NULL)
@@ -199,10 +201,10 @@ df_cheb2_fit (df_cheb2_fn fn, void *user, int n_f, double xa, double xb, double 
   return DF_OK;
 }
 
-void
-df_cheb2_eval_xint (const df_cheb2 *c, double x, double y, double *values)
+/* The T_i at the clamped, rescaled x and y. */
+static void
+basis (const df_cheb2 *c, double x, double y, double *tx, double *ty)
 {
-  double tx[MAX_DEGREE + 2], ty[MAX_DEGREE + 1];
   double xh = (2 * x - c->xa - c->xb) / (c->xb - c->xa);
   double yh = (2 * y - c->ya - c->yb) / (c->yb - c->ya);
   int n = c->n;
@@ -217,28 +219,50 @@ df_cheb2_eval_xint (const df_cheb2 *c, double x, double y, double *values)
   ty[1] = yh;
   for (int j = 2; j < n; j++)
     ty[j] = 2 * yh * ty[j - 1] - ty[j - 2];
-  for (int f = 0; f < c->n_f; f++)
+}
+
+static double
+sum_one (const df_cheb2 *c, int f, const double *tx, const double *ty)
+{
+  int n = c->n;
+  double acc = 0.0;
+
+  for (int j = 0; j < n; j++)
     {
-      double acc = 0.0;
+      const double *b = &c->b[((size_t) f * n + j) * (n + 1)];
+      double r0 = 0.0, r1 = 0.0, r2 = 0.0, r3 = 0.0;
+      int i = 0;
 
-      for (int j = 0; j < n; j++)
+      /* Four partial sums: independent chains the processor can overlap. */
+      for (; i + 3 <= n; i += 4)
         {
-          const double *b = &c->b[((size_t) f * n + j) * (n + 1)];
-          double r0 = 0.0, r1 = 0.0, r2 = 0.0, r3 = 0.0;
-          int i = 0;
-
-          /* Four partial sums: independent chains the processor can overlap. */
-          for (; i + 3 <= n; i += 4)
-            {
-              r0 += b[i] * tx[i];
-              r1 += b[i + 1] * tx[i + 1];
-              r2 += b[i + 2] * tx[i + 2];
-              r3 += b[i + 3] * tx[i + 3];
-            }
-          for (; i <= n; i++)
-            r0 += b[i] * tx[i];
-          acc += ((r0 + r1) + (r2 + r3)) * ty[j];
+          r0 += b[i] * tx[i];
+          r1 += b[i + 1] * tx[i + 1];
+          r2 += b[i + 2] * tx[i + 2];
+          r3 += b[i + 3] * tx[i + 3];
         }
-      values[f] = acc;
+      for (; i <= n; i++)
+        r0 += b[i] * tx[i];
+      acc += ((r0 + r1) + (r2 + r3)) * ty[j];
     }
+  return acc;
+}
+
+void
+df_cheb2_eval_xint (const df_cheb2 *c, double x, double y, double *values)
+{
+  double tx[MAX_DEGREE + 2], ty[MAX_DEGREE + 1];
+
+  basis (c, x, y, tx, ty);
+  for (int f = 0; f < c->n_f; f++)
+    values[f] = sum_one (c, f, tx, ty);
+}
+
+double
+df_cheb2_eval_xint_one (const df_cheb2 *c, int f, double x, double y)
+{
+  double tx[MAX_DEGREE + 2], ty[MAX_DEGREE + 1];
+
+  basis (c, x, y, tx, ty);
+  return sum_one (c, f, tx, ty);
 }

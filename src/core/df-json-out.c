@@ -61,15 +61,21 @@ void
 df_json_add_loop_result (JsonBuilder *builder, const df_loop_result *r)
 {
   gboolean disc = r->bounds_disc;
+  /* A disc whose curvature integral could not be evaluated: null with the reason in note. */
+  gboolean enclosed = disc && r->enclosed_available;
+  g_autofree char *note = NULL;
 
   df_json_add_double (builder, "holonomy_deg", r->holonomy_rad * 180.0 / G_PI);
   df_json_add_double (builder, "holonomy_rad", r->holonomy_rad);
   /* Without a disc the enclosed curvature, its area and the Gauss-Bonnet comparison do not
    * exist (a loop around a torus tube): null rather than a misleading number. */
-  df_json_add_double_or_null (builder, "enclosed_curvature_rad", disc, r->enclosed_curvature_rad);
+  df_json_add_double_or_null (builder, "enclosed_curvature_rad", enclosed,
+                              r->enclosed_curvature_rad);
+  df_json_add_double_or_null (builder, "enclosed_curvature_error_rad", enclosed,
+                              r->enclosed_error_rad);
   df_json_add_double_or_null (builder, "concentrated_curvature_rad", disc, r->concentrated_rad);
-  df_json_add_double_or_null (builder, "area", disc, r->area);
-  df_json_add_double_or_null (builder, "gauss_bonnet_residual_rad", disc, r->residual_rad);
+  df_json_add_double_or_null (builder, "area", enclosed, r->area);
+  df_json_add_double_or_null (builder, "gauss_bonnet_residual_rad", enclosed, r->residual_rad);
   /* The cap on the other side of a loop round a closed surface's axis (same sign rule). */
   df_json_add_double_or_null (builder, "other_cap_curvature_rad", r->has_other_disc,
                               r->other_enclosed_curvature_rad);
@@ -84,7 +90,7 @@ df_json_add_loop_result (JsonBuilder *builder, const df_loop_result *r)
   json_builder_set_member_name (builder, "bounds_disc");
   json_builder_add_boolean_value (builder, r->bounds_disc);
   json_builder_set_member_name (builder, "disc_on_left");
-  if (disc)
+  if (enclosed)
     json_builder_add_boolean_value (builder, r->disc_on_left);
   else
     json_builder_add_null_value (builder);
@@ -92,7 +98,10 @@ df_json_add_loop_result (JsonBuilder *builder, const df_loop_result *r)
   json_builder_add_boolean_value (builder, r->simple);
   json_builder_set_member_name (builder, "axis_winding");
   json_builder_add_int_value (builder, r->axis_winding);
-  add_string_or_null (builder, "note", r->disc_note);
+  if (r->enclosed_note[0] != '\0')
+    note = g_strdup_printf ("%s%s%s", r->disc_note, r->disc_note[0] ? "; " : "",
+                            r->enclosed_note);
+  add_string_or_null (builder, "note", note ? note : r->disc_note);
   json_builder_set_member_name (builder, "rhs_evaluations");
   json_builder_add_int_value (builder, (gint64) r->rhs_evals);
   df_json_add_double (builder, "norm_drift", r->norm_drift);

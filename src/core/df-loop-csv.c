@@ -526,7 +526,8 @@ df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *r
       append_text_field (out, context != NULL ? context->normal_side : NULL);
       if (r != NULL)
         {
-          double disc = r->bounds_disc ? 1.0 : NAN;
+          /* Empty where there is no disc or its curvature could not be computed. */
+          double disc = r->bounds_disc && r->enclosed_available ? 1.0 : NAN;
           double row[8] = { r->holonomy_rad * 180.0 / G_PI, r->holonomy_rad,
                             r->enclosed_curvature_rad * disc, r->residual_rad * disc,
                             r->total_geodesic_curvature_rad, r->area * disc, r->length,

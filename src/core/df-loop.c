@@ -1,13 +1,15 @@
 /* df-loop.c: loop measurement (holonomy, enclosed curvature by Green's theorem, Gauss-Bonnet
  * residual, geodesic curvature, area, length, steering radius, frame samples) and the
  * comparison of two paths with common ends.
- * Line integrals along the curve are integrated as a small ODE system y' = f(tau) with GSL's
- * adaptive rk8pd: an adaptive quadrature of several integrands at once that also yields the
- * running values at the sample points.
+ * The transport gives the holonomy and the quantities along the path; the enclosed curvature
+ * and area come from df-green's own adaptive quadrature, independent of the transport's steps:
+ * on a surface of revolution from the closed-form H below, on a graph from df-green's inner
+ * integrals.
  * Plain C + libm + GSL; no GLib. */
 #include "df-loop.h"
 #include "df-vec3.h"
 
+#include <gsl/gsl_chebyshev.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
 #include <gsl/gsl_odeiv2.h>
@@ -17,10 +19,8 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "df-cheb2.h"
 #include "df-geometry.h"
-
-#define N_LINE 2   /* Green curvature, Green area */
+#include "df-green.h"
 
 typedef struct
 {
@@ -32,21 +32,30 @@ typedef struct
   double            h_ref;        /* revolution: dr/ds taken at u_ref (1 or -1 at a pole) */
   double            pole_t;       /* polar curve coordinates: the pole's t */
   double            pole_sign;    /* and dt / drho */
-  df_status         fail_status;
-  df_diag           fail;
-  gsl_integration_workspace *ws;  /* inner integrals done directly */
-  df_cheb2         *fit;          /* graph: x-integrated fit of (K sqrt g, sqrt g), or NULL */
+  gsl_integration_workspace *ws;  /* revolution: the area's inner integrals */
+  gsl_cheb_series *area_fit;      /* revolution: int r ds over the loop's t range, or NULL */
+  double            area_fit_base; /* int r ds from u_ref to the fit's lower end */
   bool              prefer_other; /* report the other cap first (the one on the left) */
 } line_ctx;
+
+/* Angles this close above -pi are +pi: a half-turn computed from atan2 of values exact up to
+ * rounding (a 30 degree cone's apex holds exactly pi) must not flip to -180 degrees. The band
+ * is far below the transport's accuracy, so no real distinction is lost. */
+#define WRAP_SNAP 1e-12
 
 double
 df_wrap_angle (double a)
 {
+  if (!isfinite (a))
+    return a;
   a = fmod (a, 2 * M_PI);
   if (a > M_PI)
     a -= 2 * M_PI;
   else if (a <= -M_PI)
     a += 2 * M_PI;
+  /* fmod and the subtraction leave a within an ulp or two of +-pi; the interval is (-pi, pi]. */
+  if (a <= -M_PI + WRAP_SNAP || a > M_PI)
+    a = M_PI;
   return a;
 }
 
@@ -89,109 +98,67 @@ typedef struct
   bool      area;
 } inner_ctx;
 
+/* Surface of revolution: r ds, the area element per dphi (graphs are df-green's). */
 static double
 inner_integrand (double x, void *data)
 {
   inner_ctx *ic = data;
-  double ksg, sg;
+  df_status st;
+  double rs = 0.0;
 
-  if (ic->ctx->revolution)
-    {
-      df_status st;
-      double rs = 0.0;
-
-      profile_drds (ic->ctx->surface, x, &rs, NULL, &st);
-      return st == DF_OK ? rs : NAN;
-    }
-  if (df_surface_k_area (ic->ctx->surface, x, ic->fixed, &ksg, &sg, NULL) != DF_OK)
-    return NAN;
-  return ic->area ? sg : ksg;
+  profile_drds (ic->ctx->surface, x, &rs, NULL, &st);
+  return st == DF_OK ? rs : NAN;
 }
 
-/* Inner integral from u_ref to u at fixed v of K sqrt(g) (area = false) or sqrt(g). */
+/* Revolution: the area's inner integral from u_ref to u, int r ds. */
 static df_status
-inner_integral (line_ctx *ctx, double u, double v, bool area, double *out)
+inner_integral (line_ctx *ctx, double u, double *out, df_diag *diag)
 {
-  inner_ctx ic = { ctx, v, area };
+  inner_ctx ic = { ctx, 0.0, true };
   gsl_function f = { inner_integrand, &ic };
   double err;
-  int rc;
 
   if (u == ctx->u_ref)
     {
       *out = 0.0;
       return DF_OK;
     }
-  /* Gauss-Kronrod 15 with tight tolerances: the integrands are smooth along chart lines, so
-   * one or two panels usually suffice. */
-  rc = gsl_integration_qag (&f, ctx->u_ref, u, 1e-15 * fabs (u - ctx->u_ref), 1e-13, 200,
-                            GSL_INTEG_GAUSS15, ctx->ws, out, &err);
-  if (rc != GSL_SUCCESS || !isfinite (*out))
-    return DF_E_NOCONVERGE;
+  if (ctx->area_fit != NULL && u >= ctx->area_fit->a && u <= ctx->area_fit->b)
+    {
+      *out = ctx->area_fit_base + gsl_cheb_eval (ctx->area_fit, u);
+      return DF_OK;
+    }
+  /* Gauss-Kronrod 15 with tight tolerances: the profile is smooth, so one or two panels
+   * usually suffice; where rounding stops GSL short, its result is still good to about that
+   * rounding, so only a non-finite one fails. */
+  gsl_integration_qag (&f, ctx->u_ref, u, 1e-15 * fabs (u - ctx->u_ref), 1e-13, 200,
+                       GSL_INTEG_GAUSS15, ctx->ws, out, &err);
+  if (!isfinite (*out))
+    return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, 0.0,
+                            "the area integral along the profile is not finite");
   return DF_OK;
 }
 
+/* Surface of revolution: the Green integrands H dv (component 0) and A dv (component 1) at a
+ * curve point, integrated along the curve by df-green's adaptive quadrature, independently of
+ * the transport. */
 static df_status
-green_fit_fn (double x, double y, double *values, void *user)
-{
-  line_ctx *ctx = user;
-
-  return df_surface_k_area (ctx->surface, x, y, &values[0], &values[1], NULL);
-}
-
-/* Graph: fits K sqrt(g) and sqrt(g) over the loop's chart box by Chebyshev polynomials and
- * integrates them in x once, so each point of the loop costs a polynomial evaluation instead
- * of a quadrature. The lower limit becomes the box's left edge. Falls back to direct inner
- * quadrature (ctx->fit stays NULL) when the fit does not converge. */
-static void
-prepare_graph_fit (line_ctx *ctx)
-{
-  double lo[2] = { INFINITY, INFINITY }, hi[2] = { -INFINITY, -INFINITY };
-  double u_min, u_max, v_min, v_max, pad[2], (*q)[2] = NULL;
-  size_t m = df_curve_sample_plane (ctx->curve, 4096, &q);
-
-  for (size_t i = 0; i < m; i++)
-    for (int k = 0; k < 2; k++)
-      {
-        lo[k] = fmin (lo[k], q[i][k]);
-        hi[k] = fmax (hi[k], q[i][k]);
-      }
-  free (q);
-  if (m == 0)
-    return;
-  /* A margin for the curve between the scan points, kept inside the domain. */
-  df_surface_get_domain (ctx->surface, &u_min, &u_max, &v_min, &v_max);
-  for (int k = 0; k < 2; k++)
-    pad[k] = 0.01 * (hi[k] - lo[k]) + 1e-9;
-  lo[0] = fmax (u_min, lo[0] - pad[0]);
-  hi[0] = fmin (u_max, hi[0] + pad[0]);
-  lo[1] = fmax (v_min, lo[1] - pad[1]);
-  hi[1] = fmin (v_max, hi[1] + pad[1]);
-  if (df_cheb2_fit (green_fit_fn, ctx, 2, lo[0], hi[0], lo[1], hi[1], 1e-12, &ctx->fit, NULL)
-      != DF_OK)
-    ctx->fit = NULL;
-  else
-    ctx->u_ref = lo[0];
-}
-
-/* The Green integrands H dv and A dv at a curve point, for Green's theorem: the enclosed
- * curvature and area. Integrated by the transport's own adaptive steps (an extra integrand),
- * so they cost no second pass along the curve; the formula is independent of the transport.
- * Along a cubic spline they are C1, so the steps need not stop at its knots. */
-static df_status
-green_integrand (double tau, const double p[2], const double dp[2], double *values, void *user)
+green_integrand (double tau, const double p[2], const double dp[2], double *values,
+                 double *errors, void *user, df_diag *diag)
 {
   line_ctx *ctx = user;
   df_curve_coords coords = df_curve_get_coords (ctx->curve);
-  double u, v, h_val, a_val;
+  double u, h_val, a_val, drds;
   df_status st;
 
-  (void) tau;
+  (void) errors;   /* closed-form H; the area's profile integral is smooth and converges */
   if (coords == DF_COORDS_SPHERE)
     {
       /* Near both poles the plane coordinates are polar about the nearer pole; the reference
        * follows (each half's form H dphi is smooth at its own pole), and df_loop_measure adds
-       * the constant difference of the two forms over the southern pieces. */
+       * the constant difference of the two forms over the southern pieces. The area's fit is
+       * made about one reference, so these curves integrate the area directly (area_fit is
+       * left NULL for them). */
       double u_min, u_max;
       int e = df_curve_plane_pole (ctx->curve, tau);
 
@@ -199,60 +166,34 @@ green_integrand (double tau, const double p[2], const double dp[2], double *valu
       ctx->u_ref = e ? u_max : u_min;
       ctx->h_ref = e ? -1.0 : 1.0;
       u = e ? u_max - hypot (p[0], p[1]) : u_min + hypot (p[0], p[1]);
-      v = atan2 (p[1], p[0]);
     }
   else if (coords == DF_COORDS_CHART)
+    u = p[0];
+  else
+    u = ctx->pole_t + ctx->pole_sign * hypot (p[0], p[1]);
+  /* K dA = -r_ss ds dphi: H(t) = dr/ds(u_ref) - dr/ds(t) (GEOMETRY.md). */
+  drds = profile_drds (ctx->surface, u, NULL, diag, &st);
+  if (st != DF_OK)
+    return st;
+  h_val = ctx->h_ref - drds;
+  if ((st = inner_integral (ctx, u, &a_val, diag)) != DF_OK)
+    return st;
+  if (coords == DF_COORDS_CHART)
     {
-      u = p[0];
-      v = p[1];
+      values[0] = h_val * dp[1];
+      values[1] = a_val * dp[1];
     }
   else
     {
-      u = ctx->pole_t + ctx->pole_sign * hypot (p[0], p[1]);
-      v = atan2 (p[1], p[0]);
-    }
-  if (ctx->revolution)
-    {
-      /* K dA = -r_ss ds dphi: H(t) = dr/ds(u_ref) - dr/ds(t) (GEOMETRY.md). */
-      double drds = profile_drds (ctx->surface, u, NULL, &ctx->fail, &st);
+      /* dphi = (p x p') / |p|^2 dtau. Near the pole p x p' loses its digits to rounding
+       * while H and A vanish like |p|^2, so the quotients H / |p|^2 and A / |p|^2 are
+       * formed first: the product then stays bounded instead of amplifying the noise. */
+      double rho2 = p[0] * p[0] + p[1] * p[1];
+      double pxdp = p[0] * dp[1] - p[1] * dp[0];
 
-      if (st != DF_OK)
-        return st;
-      h_val = ctx->h_ref - drds;
-      if ((st = inner_integral (ctx, u, 0.0, true, &a_val)) != DF_OK)
-        return st;
-      if (coords == DF_COORDS_CHART)
-        {
-          values[0] = h_val * dp[1];
-          values[1] = a_val * dp[1];
-        }
-      else
-        {
-          /* dphi = (p x p') / |p|^2 dtau. Near the pole p x p' loses its digits to rounding
-           * while H and A vanish like |p|^2, so the quotients H / |p|^2 and A / |p|^2 are
-           * formed first: the product then stays bounded instead of amplifying the noise. */
-          double rho2 = p[0] * p[0] + p[1] * p[1];
-          double pxdp = p[0] * dp[1] - p[1] * dp[0];
-
-          values[0] = rho2 > 0 ? (h_val / rho2) * pxdp : 0.0;
-          values[1] = rho2 > 0 ? (a_val / rho2) * pxdp : 0.0;
-        }
-      return DF_OK;
+      values[0] = rho2 > 0 ? (h_val / rho2) * pxdp : 0.0;
+      values[1] = rho2 > 0 ? (a_val / rho2) * pxdp : 0.0;
     }
-  if (ctx->fit != NULL)
-    {
-      double ha[2];
-
-      df_cheb2_eval_xint (ctx->fit, u, v, ha);
-      values[0] = ha[0] * dp[1];
-      values[1] = ha[1] * dp[1];
-      return DF_OK;
-    }
-  if ((st = inner_integral (ctx, u, v, false, &h_val)) != DF_OK
-      || (st = inner_integral (ctx, u, v, true, &a_val)) != DF_OK)
-    return st;
-  values[0] = h_val * dp[1];
-  values[1] = a_val * dp[1];
   return DF_OK;
 }
 
@@ -780,10 +721,156 @@ south_correction (line_ctx *ctx, double *dk, double *da)
   }
   free (taus);
   ctx->u_ref = u_min;
-  if ((st = inner_integral (ctx, u_max, 0.0, true, &cap_area)) != DF_OK)
+  if ((st = inner_integral (ctx, u_max, &cap_area, NULL)) != DF_OK)
     return st;
   *dk = 2.0 * dphi;
   *da = cap_area * dphi;
+  return DF_OK;
+}
+
+/* Revolution: A(t) = int r ds depends on t alone, so one Chebyshev series of it over the
+ * loop's t range (GSL's gsl_cheb, integrated term by term) replaces a quadrature per point of
+ * the line integral. Kept only where it agrees with direct quadrature at points of the range;
+ * otherwise area_fit stays NULL and each point integrates directly. */
+static void
+prepare_area_fit (line_ctx *ctx)
+{
+  double (*q)[2] = NULL, lo = INFINITY, hi = -INFINITY, u_min, u_max, pad, worst = 0.0;
+  size_t m = df_curve_sample_plane (ctx->curve, 512, &q);
+  bool chart = df_curve_get_coords (ctx->curve) == DF_COORDS_CHART;
+  inner_ctx ic = { ctx, 0.0, true };
+  gsl_function f = { inner_integrand, &ic };
+  gsl_cheb_series *cs, *integ;
+  df_diag d;
+
+  for (size_t i = 0; i < m; i++)
+    {
+      double u = chart ? q[i][0] : ctx->pole_t + ctx->pole_sign * hypot (q[i][0], q[i][1]);
+
+      lo = fmin (lo, u);
+      hi = fmax (hi, u);
+    }
+  free (q);
+  if (m == 0 || !(hi > lo))
+    return;
+  df_surface_get_domain (ctx->surface, &u_min, &u_max, NULL, NULL);
+  pad = 0.01 * (hi - lo);
+  lo -= pad;
+  hi += pad;
+  if (!df_surface_u_periodic (ctx->surface))
+    {
+      lo = fmax (lo, u_min);
+      hi = fmin (hi, u_max);
+    }
+  cs = gsl_cheb_alloc (40);
+  integ = gsl_cheb_alloc (40);
+  if (cs == NULL || integ == NULL || gsl_cheb_init (cs, &f, lo, hi) != GSL_SUCCESS
+      || gsl_cheb_calc_integ (integ, cs) != GSL_SUCCESS)
+    goto fail;
+  ctx->area_fit = NULL;
+  if (inner_integral (ctx, lo, &ctx->area_fit_base, &d) != DF_OK)
+    goto fail;
+  for (int k = 0; k <= 8; k++)
+    {
+      double u = lo + (hi - lo) * (k + 0.37) / 9.37, direct, fitted;
+
+      if (inner_integral (ctx, u, &direct, &d) != DF_OK)
+        goto fail;
+      fitted = ctx->area_fit_base + gsl_cheb_eval (integ, u);
+      if (!isfinite (fitted))
+        goto fail;
+      worst = fmax (worst, fabs (fitted - direct) / (fabs (direct) + fabs (ctx->area_fit_base)
+                                                     + 1e-300));
+    }
+  /* The area is aimed at DF_GREEN_AREA_REL; the fit must do ten times better. */
+  if (worst > 0.1 * DF_GREEN_AREA_REL)
+    goto fail;
+  gsl_cheb_free (cs);
+  ctx->area_fit = integ;
+  return;
+fail:
+  if (cs)
+    gsl_cheb_free (cs);
+  if (integ)
+    gsl_cheb_free (integ);
+  ctx->area_fit = NULL;
+}
+
+/* The enclosed curvature and area by Green's theorem (df-green), aiming at ten times the
+ * transport's relative tolerance in radians (1e-10 rad at the default): about what the
+ * holonomy itself achieves over a loop, and a 10 000-point spline loop's knots cost an honest
+ * error estimate many more panels below it. Never fails for accuracy: the achieved error
+ * estimate goes with the value, and a note says when it is well above the aim or why there is
+ * no value. */
+static df_status
+enclosed_by_green (line_ctx *ctx, double rel_tol, df_loop_result *out)
+{
+  double tol = 10 * rel_tol, size = df_surface_size (ctx->surface);
+  double curvature = 0.0, area = 0.0, error = 0.0;
+  df_diag d;
+  df_status st;
+
+  df_diag_clear (&d);
+  if (ctx->revolution)
+    {
+      double epsabs[2] = { tol, 1e-3 * DF_GREEN_AREA_REL * size * size };
+      double epsrel[2] = { tol, DF_GREEN_AREA_REL };
+      df_green_line_result lr;
+
+      bool sphere = df_curve_get_coords (ctx->curve) == DF_COORDS_SPHERE;
+
+      if (!sphere)
+        prepare_area_fit (ctx);
+      st = df_green_line_integral (ctx->curve, green_integrand, ctx, epsabs, epsrel,
+                                   DF_GREEN_MAX_EVALS, &lr, &d);
+      curvature = lr.value[0];
+      area = lr.value[1];
+      error = lr.error[0];
+      if (st == DF_OK && sphere)
+        {
+          double dk, da;
+
+          if ((st = south_correction (ctx, &dk, &da)) == DF_OK)
+            {
+              curvature += dk;
+              area += da;
+            }
+        }
+    }
+  else
+    {
+      df_green_result gr;
+
+      st = df_green_graph (ctx->curve, tol, &gr, &d);
+      curvature = gr.curvature;
+      area = gr.area;
+      error = gr.curvature_error;
+    }
+  if (st == DF_E_NOMEM)
+    return st;
+  if (st != DF_OK || !isfinite (curvature) || !isfinite (area) || !isfinite (error))
+    {
+      out->enclosed_available = false;
+      if (d.has_point)
+        snprintf (out->enclosed_note, sizeof out->enclosed_note,
+                  "the enclosed curvature could not be computed: %.150s at (%.6g, %.6g)",
+                  d.detail[0] ? d.detail : df_status_describe (st), d.u, d.v);
+      else
+        snprintf (out->enclosed_note, sizeof out->enclosed_note,
+                  "the enclosed curvature could not be computed: %.150s",
+                  d.detail[0] ? d.detail : df_status_describe (st));
+      return DF_OK;
+    }
+  out->enclosed_available = true;
+  out->disc_on_left = area > 0;
+  out->enclosed_curvature_rad = curvature;
+  out->enclosed_error_rad = error;
+  out->area = fabs (area);
+  /* A hundredfold the aim is where the figure starts to mean less than asked for. */
+  if (error > 100 * tol)
+    snprintf (out->enclosed_note, sizeof out->enclosed_note,
+              "the enclosed curvature reached an error estimate of %.2g rad, above the %.2g rad "
+              "aimed at", error, tol);
   return DF_OK;
 }
 
@@ -828,45 +915,31 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
     return DF_E_NOMEM;
   choose_disc (curve, out, &ctx);
   ctx.green = out->bounds_disc;
-  if (ctx.green && !ctx.revolution)
-    prepare_graph_fit (&ctx);
 
   df_transport_options_init (&topt);
   topt.rel_tol = options->rel_tol;
   topt.abs_tol = options->rel_tol * 0.1;
   topt.n_out = n_s;
-  if (ctx.green)
-    {
-      topt.n_extra = 2;
-      topt.extra = green_integrand;
-      topt.extra_user = &ctx;
-    }
   if ((st = df_transport_run (curve, NULL, &topt, &tr, diag)) != DF_OK)
     goto done;
-  out->holonomy_rad = df_signed_angle (tr.start_vector, tr.end_vector, tr.start_normal);
+  out->holonomy_rad = df_wrap_angle (df_signed_angle (tr.start_vector, tr.end_vector,
+                                                      tr.start_normal));
   out->rhs_evals = tr.rhs_evals;
   out->norm_drift = tr.norm_drift;
   out->length = tr.length;
   out->total_geodesic_curvature_rad = tr.total_kg;
   out->corner_turning_rad = tr.corner_turning;
   max_abs_kg = tr.max_abs_kg;
-  if (out->bounds_disc && df_curve_get_coords (curve) == DF_COORDS_SPHERE)
-    {
-      double dk, da;
-
-      if ((st = south_correction (&ctx, &dk, &da)) != DF_OK)
-        goto done;
-      tr.extra[0] += dk;
-      tr.extra[1] += da;
-    }
   if (out->bounds_disc)
     {
-      out->disc_on_left = tr.extra[1] > 0;
-      out->enclosed_curvature_rad = tr.extra[0];
-      out->area = fabs (tr.extra[1]);
-      out->residual_rad = df_wrap_angle (out->holonomy_rad - out->enclosed_curvature_rad);
-      if ((st = other_cap (&ctx, out)) != DF_OK)
+      if ((st = enclosed_by_green (&ctx, options->rel_tol, out)) != DF_OK)
         goto done;
+      if (out->enclosed_available)
+        {
+          out->residual_rad = df_wrap_angle (out->holonomy_rad - out->enclosed_curvature_rad);
+          if ((st = other_cap (&ctx, out)) != DF_OK)
+            goto done;
+        }
     }
 
   out->samples = calloc (tr.n_samples, sizeof *out->samples);
@@ -910,7 +983,8 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
 
 done:
   gsl_integration_workspace_free (ctx.ws);
-  df_cheb2_free (ctx.fit);
+  if (ctx.area_fit)
+    gsl_cheb_free (ctx.area_fit);
   df_transport_result_clear (&tr);
   if (st != DF_OK)
     df_loop_result_clear (out);
@@ -956,7 +1030,8 @@ df_compare_paths (const df_curve *a, const df_curve *b, const double *v0,
       df_transport_result_clear (&ra);
       return st;
     }
-  *angle_rad = df_signed_angle (ra.end_vector, rb.end_vector, ra.end_normal);
+  /* The same (-pi, pi] as the holonomy, a rounded half-turn included. */
+  *angle_rad = df_wrap_angle (df_signed_angle (ra.end_vector, rb.end_vector, ra.end_normal));
   if (result_a)
     *result_a = ra;
   else

@@ -43,6 +43,11 @@ typedef struct
   bool   bounds_disc;             /* the loop bounds a disc on the surface (see disc_note) */
   bool   simple;                  /* no self-intersection found */
   double enclosed_curvature_rad;  /* +/- double integral of K over the disc (see contract) */
+  bool   enclosed_available;      /* where bounds_disc: the enclosed curvature and the area were
+                                   * computed (false: enclosed_note says why, and they, the
+                                   * residual and the other cap are 0) */
+  double enclosed_error_rad;      /* the achieved error estimate of enclosed_curvature_rad */
+  char   enclosed_note[240];      /* why it is missing, or less accurate than aimed at; or "" */
   double concentrated_rad;        /* cone-apex curvature included in it */
   double area;                    /* of the disc, positive */
   double residual_rad;            /* holonomy - enclosed, wrapped to (-pi, pi] */
