@@ -542,8 +542,11 @@ summary_table (flow *f)
           else
             {
               cell[1] = deg (f, res->holonomy_rad);
-              cell[2] = res->bounds_disc ? deg (f, res->enclosed_curvature_rad) : "no disc";
-              cell[3] = res->bounds_disc ? num (f, res->residual_rad, 2) : "\xe2\x80\x94";
+              cell[2] = !res->bounds_disc            ? "no disc"
+                        : !res->enclosed_available ? "not computed"
+                                                   : deg (f, res->enclosed_curvature_rad);
+              cell[3] = res->bounds_disc && res->enclosed_available ? num (f, res->residual_rad, 2)
+                                                                    : "\xe2\x80\x94";
               cell[4] = num (f, res->length, 7);
               cell[5] = res->has_steering_radius ? num (f, res->min_steering_radius, 6)
                                                  : "none (geodesic)";
@@ -615,11 +618,15 @@ loop_section (flow *f, gsize i)
     {
       ADD ("Holonomy", FMT ("%s\xc2\xb0 (%s rad), anticlockwise about N",
                             deg (f, res->holonomy_rad), num (f, res->holonomy_rad, 10)));
-      if (res->bounds_disc)
+      if (res->bounds_disc && !res->enclosed_available)
+        ADD ("Enclosed curvature", FMT ("not computed: %s", res->enclosed_note));
+      else if (res->bounds_disc)
         {
-          ADD ("Enclosed curvature", FMT ("%s\xc2\xb0 (%s rad), disc on the %s",
+          ADD ("Enclosed curvature", FMT ("%s\xc2\xb0 (%s rad \xc2\xb1 %s, the achieved error "
+                                          "estimate), disc on the %s",
                                           deg (f, res->enclosed_curvature_rad),
                                           num (f, res->enclosed_curvature_rad, 10),
+                                          num (f, res->enclosed_error_rad, 2),
                                           res->disc_on_left ? "left" : "right"));
           ADD ("Gauss\xe2\x80\x93" "Bonnet residual", FMT ("%s rad", num (f, res->residual_rad, 3)));
           ADD ("Disc area", FMT ("%s %s\xc2\xb2", num (f, res->area, 7), u));
@@ -642,6 +649,8 @@ loop_section (flow *f, gsize i)
                                  : "no: the loop crosses itself");
       if (res->bounds_disc && res->disc_note[0] != '\0')
         ADD ("Note", res->disc_note);
+      if (res->bounds_disc && res->enclosed_available && res->enclosed_note[0] != '\0')
+        ADD ("Note on the enclosed curvature", res->enclosed_note);
       key_value_table (f, (const df_report_field *) fields->data, fields->len);
 
       ensure (f, PLOT_H + 10);
