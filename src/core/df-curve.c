@@ -665,6 +665,14 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
       memcpy (xs[i], j.x, sizeof xs[i]);
       pts[i][0] = uv[i][0];
       pts[i][1] = uv[i][1];
+      /* A periodic coordinate first comes back to its principal range: the unwrapping below
+       * adds steps of less than half a turn, which a value of 1e20 (whose last digit is worth
+       * more than a turn) would swallow, making a few points wind thousands of times. */
+      if (revolution)
+        pts[i][1] = remainder (pts[i][1], 2 * M_PI);
+      if (df_surface_u_periodic (surface))
+        pts[i][0] = u_min + (pts[i][0] - u_min) - (u_max - u_min)
+                              * floor ((pts[i][0] - u_min) / (u_max - u_min));
     }
   /* A closing point that repeats the first is dropped: the curve joins them anyway. */
   if (closed && n > 1)
