@@ -33,6 +33,9 @@ static const GOptionEntry option_entries[] = {
     "Orbit the view once, print the median and 95th-percentile frame times and quit", NULL },
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print where the 3D view lies in the window (for test drivers)", NULL },
+  { "report-events", 0, 0, G_OPTION_ARG_NONE, NULL,
+    "Print loop measurements, autosaves and restores as they happen (for test drivers)",
+    NULL },
   { "version", 0, 0, G_OPTION_ARG_NONE, NULL, "Print the version and quit", NULL },
   { G_OPTION_REMAINING, 0, 0, G_OPTION_ARG_FILENAME_ARRAY, NULL, NULL, NULL },
   { NULL }
@@ -181,6 +184,7 @@ df_application_command_line (GApplication            *application,
   g_variant_dict_lookup (options, "export-png", "^ay", &startup.export_png);
   startup.bench_orbit = g_variant_dict_contains (options, "bench-orbit");
   startup.report_view = g_variant_dict_contains (options, "report-view-geometry");
+  startup.report_events = g_variant_dict_contains (options, "report-events");
 
   if (startup.preset != NULL)
     {

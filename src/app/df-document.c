@@ -39,6 +39,7 @@ enum
   SURFACE_CHANGED,
   LOOP_CHANGED,
   HISTORY_CHANGED,
+  CHANGED,
   N_SIGNALS
 };
 
@@ -132,6 +133,11 @@ df_document_class_init (DfDocumentClass *klass)
   signals[HISTORY_CHANGED] =
     g_signal_new ("history-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 0);
+  /* Anything that is saved with the project changed (every edit, undo, load, save): the
+   * autosave listens to this. */
+  signals[CHANGED] =
+    g_signal_new ("changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 0);
 }
 
 static void
@@ -195,6 +201,7 @@ update_modified (DfDocument *self)
       self->modified = modified;
       g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_MODIFIED]);
     }
+  g_signal_emit (self, signals[CHANGED], 0);
 }
 
 static void
@@ -333,6 +340,25 @@ df_document_set_project (DfDocument  *self,
 }
 
 gboolean
+df_document_restore (DfDocument  *self,
+                     df_project  *project,
+                     const char  *path,
+                     const char  *display_name,
+                     GError     **error)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+
+  if (!df_document_set_project (self, project, path, error))
+    return FALSE;
+  if (display_name != NULL && display_name[0] != '\0')
+    df_document_set_display_name (self, display_name);
+  /* Not what is on disk: unsaved until the user saves it. */
+  g_clear_pointer (&self->saved_snapshot, g_free);
+  update_modified (self);
+  return TRUE;
+}
+
+gboolean
 df_document_load (DfDocument  *self,
                   const char  *path,
                   GError     **error)
@@ -410,6 +436,13 @@ df_document_set_display_name (DfDocument *self,
   self->display_name = g_strdup (name);
   /* Observers refresh titles on "path". */
   g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_PATH]);
+}
+
+const char *
+df_document_get_display_name (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->display_name;
 }
 
 gboolean

@@ -22,6 +22,13 @@ gboolean              df_document_set_project      (DfDocument  *self,
                                                     df_project  *project,
                                                     const char  *path,
                                                     GError     **error);
+/* Like set_project, for work recovered after a crash: the document counts as modified (it is
+ * not what path holds), and display_name (may be NULL) names it while it has no path. */
+gboolean              df_document_restore          (DfDocument  *self,
+                                                    df_project  *project,
+                                                    const char  *path,
+                                                    const char  *display_name,
+                                                    GError     **error);
 /* Opens a .dfproj, or a .surface as a new project without loops. */
 gboolean              df_document_load             (DfDocument  *self,
                                                     const char  *path,
@@ -40,6 +47,7 @@ gboolean              df_document_get_modified     (DfDocument *self);
 /* A name for an unsaved project ("demo.dfproj (copy)"), shown until it is saved; cleared by
  * set_project. */
 void                  df_document_set_display_name (DfDocument *self, const char *name);
+const char           *df_document_get_display_name (DfDocument *self);
 
 const df_surface_spec *df_document_get_spec        (DfDocument *self);
 const df_surface     *df_document_get_surface      (DfDocument *self);

@@ -4,6 +4,7 @@
  * input, picking and the mesh hand-over; drawing is in df-surface-view-gl.c and the overlay
  * vertex arrays in df-surface-view-overlay.c. Geometry comes from the core. */
 #include "df-surface-view-private.h"
+#include "df-work-guard.h"
 
 #include <epoxy/gl.h>
 #include <math.h>
@@ -176,6 +177,20 @@ build_job_free (BuildJob *job)
   g_free (job);
 }
 
+typedef struct
+{
+  const df_surface *surface;
+  MeshData         *data;
+} GuardedBuild;
+
+static void
+mesh_build_guarded (gpointer user_data)
+{
+  GuardedBuild *build = user_data;
+
+  build->data = mesh_data_build (build->surface);
+}
+
 static void
 mesh_build_thread (GTask        *task,
                    gpointer      source,
@@ -183,8 +198,17 @@ mesh_build_thread (GTask        *task,
                    GCancellable *cancellable)
 {
   BuildJob *job = task_data;
+  GuardedBuild build = { job->surface, NULL };
+  g_autoptr (GError) error = NULL;
 
-  g_task_return_pointer (task, mesh_data_build (job->surface), (GDestroyNotify) mesh_data_free);
+  /* A crash while meshing (a degenerate surface the core mishandles) leaves an empty mesh
+   * with the reason, shown like any other "cannot be drawn". */
+  if (!df_guard_call (mesh_build_guarded, &build, "drawing the surface", &error))
+    {
+      build.data = g_new0 (MeshData, 1);
+      build.data->problem = g_strdup_printf ("The surface cannot be drawn: %s", error->message);
+    }
+  g_task_return_pointer (task, build.data, (GDestroyNotify) mesh_data_free);
 }
 
 static void start_mesh_build (DfSurfaceView *self);

@@ -288,6 +288,7 @@ _df_window_confirm_discard (DfWindow   *self,
                                    GTK_DIALOG_MODAL | GTK_DIALOG_DESTROY_WITH_PARENT,
                                    GTK_MESSAGE_QUESTION, GTK_BUTTONS_NONE,
                                    "Save changes to “%s” before %s?", title, verb);
+  gtk_window_set_title (GTK_WINDOW (dialog), "Unsaved changes");
   gtk_message_dialog_format_secondary_text (GTK_MESSAGE_DIALOG (dialog),
                                             "Loops and surface edits made since the last save "
                                             "are lost if you don't save them.");

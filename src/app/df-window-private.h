@@ -83,6 +83,8 @@ struct _DfWindow
   guint         export_idle_id;
   gboolean      bench_started;
   gboolean      view_reported;
+  guint         autosave_id;        /* pending autosave timeout */
+  char         *autosave_path;      /* this window's autosave file; NULL when not autosaving */
 
   GArray       *loop_curve_ids;     /* of guint: loop curves now in the view */
   char         *shown_shape;        /* "kind/preset" of the surface in the view, to spot a new shape */
@@ -114,6 +116,12 @@ struct _DfWindow
 /* df-window-actions.c */
 void     _df_window_actions_class_init (GtkWidgetClass *widget_class);
 void     _df_window_actions_update     (DfWindow *self);
+
+/* df-window-autosave.c */
+/* Starts autosaving this window's document and offers work left by a crashed run. */
+void     _df_window_autosave_init      (DfWindow *self);
+/* A clean close: stop, and remove this window's autosave. */
+void     _df_window_autosave_finish    (DfWindow *self);
 
 /* df-window-files.c */
 gboolean _df_window_open_path          (DfWindow *self, const char *path, GError **error);

@@ -349,7 +349,8 @@ mesh_ready_cb (DfSurfaceView *view,
   const char *problem = df_surface_view_get_mesh_problem (view);
 
   if (problem != NULL)
-    _df_window_status (self, TRUE, "Part of the surface is not drawn: %s", problem);
+    /* The problem text says already whether part or all of the surface is missing. */
+    _df_window_status (self, TRUE, "%s", problem);
   _df_window_actions_update (self);
 }
 
