@@ -23,6 +23,10 @@
 /* Generous: the software rasterizer and a cold start are slow on a loaded machine. */
 #define STEP_TIMEOUT_S 90
 
+/* XDG_DATA_DIRS before g_test_init isolated it: the app's file dialogs need the system's
+ * GSettings schemas and MIME database from there. */
+static char *system_data_dirs;
+
 typedef struct
 {
   GSubprocess *server;
@@ -124,6 +128,7 @@ app_launcher (Xserver *x)
   g_subprocess_launcher_setenv (launcher, "XDG_DATA_HOME", g_get_user_data_dir (), TRUE);
   g_subprocess_launcher_setenv (launcher, "XDG_CACHE_HOME", g_get_user_cache_dir (), TRUE);
   g_subprocess_launcher_setenv (launcher, "XDG_STATE_HOME", g_get_user_state_dir (), TRUE);
+  g_subprocess_launcher_setenv (launcher, "XDG_DATA_DIRS", system_data_dirs, TRUE);
   g_subprocess_launcher_setenv (launcher, "DISPLAY", x->display, TRUE);
   g_subprocess_launcher_setenv (launcher, "GDK_BACKEND", "x11", TRUE);
   g_subprocess_launcher_setenv (launcher, "LIBGL_ALWAYS_SOFTWARE", "1", TRUE);
@@ -283,8 +288,16 @@ answer_dialog (Xserver    *x,
                const char *title,
                const char *key)
 {
-  xdotool_va (x, "search", "--sync", "--name", title, "windowfocus", "sleep", "0.5", "key",
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", title, "windowfocus", "sleep", "0.5", "key",
               key, NULL);
+}
+
+/* Gives the main window (title "... — driftframe") the keyboard focus, as clicking it would. */
+static void
+focus_main (Xserver *x)
+{
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", "driftframe$", "windowfocus", "sleep", "0.5",
+              NULL);
 }
 
 /* The view's geometry line, split: "view-geometry XID X Y WIDTH HEIGHT". */
@@ -570,7 +583,7 @@ test_sketch_pole_loop (void)
   g_rmdir (dir);
 }
 
-/* Writes a project: the sphere preset and one latitude loop at polar angle 0.6 rad in a colour
+/* Writes a project: the sphere preset with R = 120 and one latitude loop at polar angle 0.6 rad in a colour
  * found nowhere else on screen. */
 static void
 write_sphere_project (const char *path,
@@ -581,6 +594,8 @@ write_sphere_project (const char *path,
   g_autoptr(df_project) project = NULL;
   double uv[48][2];
 
+  g_assert_no_error (error);
+  g_assert_true (df_surface_spec_set_param (spec, "R", "120", &error));
   g_assert_no_error (error);
   project = df_project_new (spec);
   for (int i = 0; i < 48; i++)
@@ -714,15 +729,151 @@ test_screenshot (void)
   g_rmdir (dir);
 }
 
+/* Writes a horizontal plane z = height over a square of half-width 200 as a .surface file. */
+static void
+write_plane_surface (const char *path,
+                     double      height)
+{
+  char z[G_ASCII_DTOSTR_BUF_SIZE];
+  g_autofree char *text = NULL;
+  g_autoptr(GError) error = NULL;
+
+  g_ascii_dtostr (z, sizeof z, height);
+  text = g_strdup_printf ("[surface]\nkind=graph\nz=%s\nx-min=-200\nx-max=200\n"
+                          "y-min=-200\ny-max=200\n", z);
+  g_file_set_contents (path, text, -1, &error);
+  g_assert_no_error (error);
+}
+
+/* Gives the open project another surface through the Replace Surface dialog, typing the path
+ * as a user would (a leading "/" opens the location entry). */
+static void
+replace_surface (Xserver    *x,
+                 const char *path)
+{
+  focus_main (x);
+  xdotool_va (x, "key", "ctrl+r", NULL);
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", "Replace Surface", "windowfocus", "sleep", "1",
+              "type", "--delay", "20", path, NULL);
+  xdotool_va (x, "sleep", "0.5", "key", "Return", NULL);
+}
+
+/* Replacing the surface carries loops by their places in space: a latitude loop of the
+ * sphere lies in the plane at its height, so it is placed there (and measured as a plane loop,
+ * not its (t, phi) read as (x, y)); a plane far away leaves it marked as off the surface, and
+ * the project still saves in a form the CLI's reader accepts. Undo brings the sphere and the
+ * loop's own numbers back. */
+static void
+test_replace_surface (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *project_path = g_build_filename (dir, "sphere.dfproj", NULL);
+  g_autofree char *near_path = g_build_filename (dir, "near-plane.surface", NULL);
+  g_autofree char *far_path = g_build_filename (dir, "far-plane.surface", NULL);
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(df_project) saved = NULL;
+  double hol0, enc0, hol, enc, rho = 120 * sin (0.6);
+  char *line;
+
+  if (!xserver_start (&x))
+    return;
+  write_sphere_project (project_path, FALSE);
+  /* The project's sphere has R = 120: the loop at polar angle 0.6 is the circle of radius
+   * 120 sin 0.6 at height 120 cos 0.6. */
+  write_plane_surface (near_path, 120 * cos (0.6));
+  write_plane_surface (far_path, 0.0);
+
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project_path,
+                                     "--report-view-geometry", "--report-events", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol0, &enc0);
+  g_free (line);
+  /* Latitude circle at polar angle 0.6: 2 pi (1 - cos 0.6) (Gauss-Bonnet, do Carmo sec. 4-5,
+   * from memory). */
+  df_assert_close (hol0, 2 * G_PI * (1 - cos (0.6)), 1e-6, 1e-9);
+
+  replace_surface (&x, near_path);
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol, &enc);
+  g_free (line);
+  /* A closed loop in a plane carries a direction back unturned (K = 0); read as chart numbers
+   * the old (0.6, phi) would have been a degenerate sliver near the origin instead. */
+  g_assert_cmpfloat (fabs (hol), <, 1e-6);
+  g_assert_cmpfloat (fabs (enc), <, 1e-9);
+
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol, &enc);
+  g_free (line);
+  df_assert_close (hol, hol0, 1e-12, 1e-15);
+
+  replace_surface (&x, far_path);
+  line = read_until (out, "loop-failed Marker_loop off the new surface");
+  g_assert_nonnull (line);
+  g_free (line);
+
+  /* Saved with the loop off the surface: the file still reads (the CLI's reader), and the
+   * points kept are the closest ones on the plane, the loop's circle seen from above. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+s", NULL);
+  line = read_until (out, "saved ");
+  g_assert_nonnull (line);
+  g_free (line);
+  saved = df_project_load (project_path, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (saved->loops->len, ==, 1);
+  g_assert_cmpint (saved->spec->kind, ==, DF_SURFACE_GRAPH);
+  {
+    df_project_loop *loop = g_ptr_array_index (saved->loops, 0);
+
+    for (gsize i = 0; i < loop->n; i++)
+      df_assert_close (hypot (loop->uv[i][0], loop->uv[i][1]), rho, 1e-6, 1e-6);
+  }
+
+  /* Undo restores the sphere, and the loop measures as it did at first. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol, &enc);
+  g_free (line);
+  df_assert_close (hol, hol0, 1e-12, 1e-15);
+
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+q", NULL);
+  answer_dialog (&x, "Unsaved changes", "alt+d");
+  g_assert_true (app_wait (app));
+  xserver_stop (&x);
+  g_remove (project_path);
+  g_remove (near_path);
+  g_remove (far_path);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
 {
   df_core_init ();
+  /* The XDG Base Directory default when unset. */
+  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
+                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
   g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
 
   g_test_add_func ("/app/e2e/sketch-pole-loop", test_sketch_pole_loop);
   g_test_add_func ("/app/e2e/screenshot", test_screenshot);
   g_test_add_func ("/app/e2e/kill-restore", test_kill_restore);
+  g_test_add_func ("/app/e2e/replace-surface", test_replace_surface);
   return g_test_run ();
 }

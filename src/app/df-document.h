@@ -22,10 +22,12 @@ gboolean              df_document_set_project      (DfDocument  *self,
                                                     df_project  *project,
                                                     const char  *path,
                                                     GError     **error);
-/* Like set_project, for work recovered after a crash: the document counts as modified (it is
+/* Like set_project from project text (an autosave; source names it in messages), for work
+ * recovered after a crash: the document counts as modified (it is
  * not what path holds), and display_name (may be NULL) names it while it has no path. */
 gboolean              df_document_restore          (DfDocument  *self,
-                                                    df_project  *project,
+                                                    const char  *data,
+                                                    const char  *source,
                                                     const char  *path,
                                                     const char  *display_name,
                                                     GError     **error);
@@ -58,6 +60,11 @@ const char           *df_document_get_units        (DfDocument *self);
 gboolean              df_document_set_spec         (DfDocument            *self,
                                                     const df_surface_spec *spec,
                                                     GError               **error);
+
+/* After set_spec: how many loops were placed on the new surface, and how many were left off
+ * it (marked, see df_loop_item_set_off_surface). */
+void                  df_document_get_last_carry   (DfDocument *self, guint *carried,
+                                                    guint *off);
 
 /* The loops, a GListModel of DfLoopItem. */
 GListModel           *df_document_get_loops        (DfDocument *self);

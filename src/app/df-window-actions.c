@@ -95,6 +95,14 @@ open_action (GtkWidget  *widget,
 }
 
 static void
+replace_surface_action (GtkWidget  *widget,
+                        const char *name,
+                        GVariant   *parameter)
+{
+  _df_window_replace_surface_dialog (DF_WINDOW (widget));
+}
+
+static void
 open_surface_action (GtkWidget  *widget,
                      const char *name,
                      GVariant   *parameter)
@@ -310,6 +318,8 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.open", NULL, open_action);
   gtk_widget_class_install_action (widget_class, "win.open-surface", NULL, open_surface_action);
   gtk_widget_class_install_action (widget_class, "win.open-recent", "s", open_recent_action);
+  gtk_widget_class_install_action (widget_class, "win.replace-surface", NULL,
+                                   replace_surface_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.save", NULL, save_action);
   gtk_widget_class_install_action (widget_class, "win.save-as", NULL, save_as_action);
@@ -347,6 +357,8 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_s,
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.save-as", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_r, GDK_CONTROL_MASK,
+                                       "win.replace-surface", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK,
                                        "win.import-loop", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_e, GDK_CONTROL_MASK,
@@ -380,6 +392,7 @@ _df_window_actions_update (DfWindow *self)
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.save", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.save-as", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.import-loop", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.replace-surface", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-samples", measured);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-samples-dialog", measured);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-summary", n_loops > 0);

@@ -198,11 +198,11 @@ restore (RestoreJob *job)
 {
   DfWindow *self = job->self;
   g_autoptr(GError) error = NULL;
-  df_project *project = df_project_load (job->project_path, &error);
+  g_autofree char *data = NULL;
 
-  if (project == NULL
-      || !df_document_restore (self->document, project, job->saved_path, job->display_name,
-                               &error))
+  if (!g_file_get_contents (job->project_path, &data, NULL, &error)
+      || !df_document_restore (self->document, data, job->project_path, job->saved_path,
+                               job->display_name, &error))
     {
       g_autofree char *aside = g_strconcat (job->project_path, ".unreadable", NULL);
 

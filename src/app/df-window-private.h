@@ -128,6 +128,9 @@ gboolean _df_window_open_path          (DfWindow *self, const char *path, GError
 void     _df_window_open_dialog        (DfWindow *self, gboolean surface_only);
 void     _df_window_save               (DfWindow *self, gboolean ask_path);
 void     _df_window_import_loop_dialog (DfWindow *self);
+/* Gives the project the surface of a .surface file; loops are carried over (undoable). */
+void     _df_window_replace_surface_dialog (DfWindow *self);
+gboolean _df_window_replace_surface_path (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_samples     (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_summary     (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_png         (DfWindow *self, const char *path, GError **error);

@@ -254,7 +254,8 @@ loop_changed_cb (DfDocument *document,
   _df_window_sync_loop (self, item);
   if (item == df_loops_panel_get_selected (self->loops_panel))
     _df_window_sync_frames (self);
-  if (df_loop_item_get_state (item) == DF_LOOP_FAILED)
+  if (df_loop_item_get_state (item) == DF_LOOP_FAILED
+      && df_loop_item_get_off_surface (item) == NULL)
     _df_window_status (self, TRUE, "“%s” was not measured: %s", df_loop_item_get_name (item),
                        df_loop_item_get_error (item));
   else if (df_loop_item_get_state (item) == DF_LOOP_MEASURED
@@ -328,6 +329,7 @@ spec_changed_cb (DfSurfacePanel *panel,
                  DfWindow       *self)
 {
   g_autoptr(GError) error = NULL;
+  guint carried = 0, off = 0;
 
   if (!df_document_set_spec (self->document, df_surface_panel_get_spec (panel), &error))
     {
@@ -336,8 +338,14 @@ spec_changed_cb (DfSurfacePanel *panel,
       return;
     }
   df_surface_panel_show_error (panel, NULL);
-  if (g_list_model_get_n_items (df_document_get_loops (self->document)) > 0)
-    _df_window_status (self, FALSE, "Surface changed: measuring the loops again…");
+  df_document_get_last_carry (self->document, &carried, &off);
+  if (off > 0)
+    _df_window_status (self, TRUE, "Surface changed: %u loop%s carried over by their places in "
+                       "space, %u off the new surface (kept, not measured; Ctrl+Z undoes the "
+                       "change).", carried, carried == 1 ? "" : "s", off);
+  else if (carried > 0)
+    _df_window_status (self, FALSE, "Surface changed: %u loop%s carried over by their places "
+                       "in space, measuring…", carried, carried == 1 ? "" : "s");
   else
     _df_window_status (self, FALSE, "Surface changed.");
 }
