@@ -861,6 +861,117 @@ test_replace_surface (void)
   g_rmdir (dir);
 }
 
+/* Types a value into the focused field, replacing what is there. */
+static void
+type_field (Xserver    *x,
+            const char *text)
+{
+  xdotool_va (x, "key", "ctrl+a", "type", "--delay", "20", text, NULL);
+}
+
+static void
+parse_three (const char *line,
+             double      out[3])
+{
+  g_auto(GStrv) parts = g_strsplit (line, " ", -1);
+
+  g_assert_cmpuint (g_strv_length (parts), ==, 4);
+  for (int i = 0; i < 3; i++)
+    out[i] = g_ascii_strtod (parts[i + 1], NULL);
+}
+
+/* Typed values instead of the mouse: a geodesic from a typed start, heading and length, and a
+ * probe at a typed chart point and at a typed point in space, on the sphere preset (R = 100,
+ * src/core/df-presets.c; chart t = polar angle, phi = longitude). */
+static void
+test_typed_probe_geodesic (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+  g_autofree char *space = NULL;
+  double end[3], probed[3], R = 100;
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--preset", "sphere",
+                                     "--tool", "geodesic", "--report-view-geometry",
+                                     "--report-events", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  g_strfreev (read_view_geometry (out));
+
+  /* Heading 0 is along +t: down the meridian, a great circle, so after a length L the polar
+   * angle grew by L / R and the longitude is unchanged (geodesics of a sphere are its great
+   * circles: do Carmo sec. 4-4, from memory). */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "50");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, end);
+  df_assert_close (end[2], 50, 1e-9, 1e-9);
+  df_assert_close (end[0], 0.6 + 50 / R, 1e-6, 1e-8);
+  g_assert_cmpfloat (fabs (end[1]), <, 1e-8);
+  g_clear_pointer (&line, g_free);
+
+  /* Heading 90 degrees: along the parallel, leaving along the great circle through the start
+   * perpendicular to the meridian, P(s) = cos(s/R) P0 + sin(s/R) E with E horizontal, so
+   * cos t(s) = cos t0 cos(s/R) (spherical trigonometry, from memory). With N outward (the
+   * preset's orientation), anticlockwise from +t is towards +phi. */
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "90");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "50");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, end);
+  df_assert_close (cos (end[0]), cos (0.6) * cos (50 / R), 1e-6, 1e-8);
+  g_assert_cmpfloat (end[1], >, 0.1);
+  g_clear_pointer (&line, g_free);
+
+  /* Probe at a typed chart point (phi in degrees) and at a point in space 2 % outside the
+   * sphere, placed at its closest surface point; K = 1/R^2 on a sphere (Gauss, do Carmo
+   * sec. 3-3, from memory). */
+  xdotool_va (&x, "key", "ctrl+3", "sleep", "0.5", "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 45");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "probed ");
+  g_assert_nonnull (line);
+  parse_three (line, probed);
+  df_assert_close (probed[0], 0.6, 1e-12, 1e-12);
+  df_assert_close (probed[1], G_PI / 4, 1e-12, 1e-12);
+  df_assert_close (probed[2], 1 / (R * R), 1e-8, 0);
+  g_clear_pointer (&line, g_free);
+
+  space = g_strdup_printf ("%.9f, 0, %.9f", 1.02 * R * sin (0.6), 1.02 * R * cos (0.6));
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, space);
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "probed ");
+  g_assert_nonnull (line);
+  parse_three (line, probed);
+  df_assert_close (probed[0], 0.6, 1e-6, 1e-8);
+  g_assert_cmpfloat (fabs (remainder (probed[1], 2 * G_PI)), <, 1e-6);
+  df_assert_close (probed[2], 1 / (R * R), 1e-8, 0);
+
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -875,5 +986,6 @@ main (int   argc,
   g_test_add_func ("/app/e2e/screenshot", test_screenshot);
   g_test_add_func ("/app/e2e/kill-restore", test_kill_restore);
   g_test_add_func ("/app/e2e/replace-surface", test_replace_surface);
+  g_test_add_func ("/app/e2e/typed-probe-geodesic", test_typed_probe_geodesic);
   return g_test_run ();
 }

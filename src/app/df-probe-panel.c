@@ -14,7 +14,25 @@ struct _DfProbePanel
   GtkLabel *hint_label;
   GtkLabel *error_label;
   GtkBox   *content_box;
+  GtkEntry *at_entry;
 };
+
+enum
+{
+  PROBE_REQUESTED,
+  N_SIGNALS
+};
+
+static guint signals[N_SIGNALS];
+
+static void
+at_activate_cb (DfProbePanel *self)
+{
+  const char *text = gtk_editable_get_text (GTK_EDITABLE (self->at_entry));
+
+  if (text[0] != '\0')
+    g_signal_emit (self, signals[PROBE_REQUESTED], 0, text);
+}
 
 G_DEFINE_FINAL_TYPE (DfProbePanel, df_probe_panel, GTK_TYPE_WIDGET)
 
@@ -131,6 +149,13 @@ df_probe_panel_class_init (DfProbePanelClass *klass)
   gtk_widget_class_bind_template_child (widget_class, DfProbePanel, hint_label);
   gtk_widget_class_bind_template_child (widget_class, DfProbePanel, error_label);
   gtk_widget_class_bind_template_child (widget_class, DfProbePanel, content_box);
+  gtk_widget_class_bind_template_child (widget_class, DfProbePanel, at_entry);
+  gtk_widget_class_bind_template_callback (widget_class, at_activate_cb);
+
+  /* The typed point (the entry's text) was confirmed; the window parses and probes it. */
+  signals[PROBE_REQUESTED] =
+    g_signal_new ("probe-requested", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL,
+                  NULL, NULL, G_TYPE_NONE, 1, G_TYPE_STRING);
   gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
   gtk_widget_class_set_css_name (widget_class, "dfprobepanel");
 }
@@ -330,4 +355,19 @@ df_probe_panel_clear (DfProbePanel *self)
   gtk_label_set_text (self->hint_label,
                       "Choose “Probe” in the header bar (Ctrl+3) and click the surface to read "
                       "its local geometry there.");
+}
+
+void
+df_probe_panel_set_placeholder (DfProbePanel *self,
+                                const char   *text)
+{
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+  gtk_entry_set_placeholder_text (self->at_entry, text);
+}
+
+void
+df_probe_panel_focus_entry (DfProbePanel *self)
+{
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+  gtk_widget_grab_focus (GTK_WIDGET (self->at_entry));
 }

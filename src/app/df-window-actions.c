@@ -95,6 +95,14 @@ open_action (GtkWidget  *widget,
 }
 
 static void
+type_values_action (GtkWidget  *widget,
+                    const char *name,
+                    GVariant   *parameter)
+{
+  _df_window_focus_typed (DF_WINDOW (widget));
+}
+
+static void
 replace_surface_action (GtkWidget  *widget,
                         const char *name,
                         GVariant   *parameter)
@@ -320,6 +328,7 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.open-recent", "s", open_recent_action);
   gtk_widget_class_install_action (widget_class, "win.replace-surface", NULL,
                                    replace_surface_action);
+  gtk_widget_class_install_action (widget_class, "win.type-values", NULL, type_values_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.save", NULL, save_action);
   gtk_widget_class_install_action (widget_class, "win.save-as", NULL, save_as_action);
@@ -359,6 +368,8 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.save-as", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_r, GDK_CONTROL_MASK,
                                        "win.replace-surface", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_t, GDK_CONTROL_MASK,
+                                       "win.type-values", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK,
                                        "win.import-loop", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_e, GDK_CONTROL_MASK,

@@ -160,6 +160,8 @@ void     _df_window_tools_finalize     (DfWindow *self);
 void     _df_window_set_tool           (DfWindow *self, DfTool tool);
 void     _df_window_clear_geodesic     (DfWindow *self);
 void     _df_window_clear_paths        (DfWindow *self);
+/* Ctrl+T: the typed-value entry of the current tool (Probe unless Geodesic) gets the focus. */
+void     _df_window_focus_typed        (DfWindow *self);
 /* The surface changed: drop tool drawings that refer to the old one. */
 void     _df_window_tools_surface_changed (DfWindow *self);
 
