@@ -2,6 +2,7 @@
  * view, one-shot exports, --bench-orbit), the application actions (quit, about, shortcuts)
  * with their accelerators, and the style sheet. Windows do the rest. */
 #include "df-application.h"
+#include "df-gl-renderer.h"
 #include "df-glib.h"
 #include "df-window.h"
 
@@ -106,6 +107,14 @@ df_application_startup (GApplication *application)
   g_autoptr(GtkCssProvider) css = gtk_css_provider_new ();
 
   G_APPLICATION_CLASS (df_application_parent_class)->startup (application);
+
+  /* Before any window is realized: GTK reads GSK_RENDERER once. */
+  {
+    g_autofree char *gl = df_gl_renderer_choose (gdk_display_get_default ());
+
+    g_debug ("OpenGL renderer: %s; GTK scene renderer: %s", gl != NULL ? gl : "none",
+             g_getenv ("GSK_RENDERER") != NULL ? g_getenv ("GSK_RENDERER") : "GTK's default");
+  }
 
   g_action_map_add_action_entries (G_ACTION_MAP (application), app_entries,
                                    G_N_ELEMENTS (app_entries), application);

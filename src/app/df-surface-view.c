@@ -141,11 +141,9 @@ mesh_data_build (const df_surface *surface)
   /* Meridians of a surface of revolution every 15 degrees, a division the trade reads. */
   data->iso_step[1] = df_surface_v_periodic (surface) ? G_PI / 12 : nice_step (v_max - v_min);
 
-  /* Software rasterizers spend most of a frame on triangle setup: a quarter of the triangles
-   * keeps orbiting fluid, and the full mesh returns as soon as the view stops. */
-  data->coarse = df_mesh_coarse_indices (data->mesh, 2, &data->n_coarse);
-  if (data->coarse == NULL)
-    data->n_coarse = 0;
+  /* No coarse mesh while moving any more (see df_surface_view_render). */
+  data->coarse = NULL;
+  data->n_coarse = 0;
 
   count = df_mesh_n_vertices (data->mesh);
   x = df_mesh_positions (data->mesh);
@@ -452,7 +450,10 @@ df_surface_view_render (GtkGLArea    *area,
     return FALSE;
   start = g_get_monotonic_time ();
   _df_surface_view_gl_upload (self);
-  _df_surface_view_gl_draw (self, self->fb_width, self->fb_height, self->moving || self->bench != NULL);
+  /* The full mesh always: with GTK's cairo renderer on a software driver (df-gl-renderer.c)
+   * it orbits at the display's rate, and a coarser mesh while moving let loops drawn on the
+   * full surface dip behind it. */
+  _df_surface_view_gl_draw (self, self->fb_width, self->fb_height, FALSE);
   if (self->bench != NULL)
     {
       gint64 now, spent;
