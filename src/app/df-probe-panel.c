@@ -83,6 +83,9 @@ table_add (GtkWidget  *grid,
   gtk_label_set_xalign (GTK_LABEL (n), 0.0);
   gtk_label_set_xalign (GTK_LABEL (v), 0.0);
   gtk_label_set_selectable (GTK_LABEL (v), TRUE);
+  /* Selectable for copying with the mouse, but not a Tab stop: a table of numbers would
+   * otherwise take dozens of presses to get through. */
+  gtk_widget_set_focusable (v, FALSE);
   gtk_widget_set_hexpand (v, TRUE);
   gtk_widget_add_css_class (v, "numeric");
   gtk_accessible_update_property (GTK_ACCESSIBLE (v), GTK_ACCESSIBLE_PROPERTY_LABEL, name, -1);

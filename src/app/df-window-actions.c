@@ -179,7 +179,8 @@ open_demo_confirmed (DfWindow *self)
       _df_window_show_error (self, "Cannot open the demo project", error);
       return;
     }
-  df_document_set_display_name (self->document, "Lamp-shade demo (unsaved)");
+  /* The name only: the title bar's subtitle and the dialogs say that it has no file yet. */
+  df_document_set_display_name (self->document, "Lamp-shade demo");
   gtk_stack_set_visible_child_name (self->panel_stack, "loops");
   _df_window_status (self, FALSE, "Demo: a lamp-shade mould with three plies (from %s).", path);
 }

@@ -87,7 +87,8 @@ struct _DfWindow
   char         *autosave_path;      /* this window's autosave file; NULL when not autosaving */
 
   GArray       *loop_curve_ids;     /* of guint: loop curves now in the view */
-  char         *shown_shape;        /* "kind/preset" of the surface in the view, to spot a new shape */
+  char         *shown_shape;
+  char         *selected_name;      /* the loop last selected, found again after undo */        /* "kind/preset" of the surface in the view, to spot a new shape */
 
   /* pointer position over the view, widget coordinates (for sketch size checks) */
   double        pointer_x, pointer_y;

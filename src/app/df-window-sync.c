@@ -57,8 +57,10 @@ sync_title (DfWindow *self)
       for (guint i = 0; spec->preset != NULL && presets[i].name != NULL; i++)
         if (g_str_equal (presets[i].name, spec->preset))
           what = presets[i].title;
-      subtitle = g_strdup_printf ("%s, lengths in %s", what,
-                                  df_document_get_units (self->document));
+      subtitle = g_strdup_printf ("%s, lengths in %s%s", what,
+                                  df_document_get_units (self->document),
+                                  df_document_get_path (self->document) == NULL
+                                    ? ", not saved to a file yet" : "");
     }
   gtk_label_set_text (self->subtitle_label, subtitle != NULL ? subtitle : "");
 }
@@ -285,7 +287,22 @@ loops_items_changed_cb (GListModel *model,
   else if (df_loops_panel_get_selected (self->loops_panel) == NULL
            && g_list_model_get_n_items (model) > 0)
     {
-      g_autoptr(DfLoopItem) item = g_list_model_get_item (model, 0);
+      /* Undo and redo replace every item: select the loop of the same name again; after a
+       * delete, its neighbour, not the first loop. */
+      guint n = g_list_model_get_n_items (model), pick = MIN (position, n - 1);
+      g_autoptr(DfLoopItem) item = NULL;
+
+      for (guint i = 0; i < n && self->selected_name != NULL; i++)
+        {
+          g_autoptr(DfLoopItem) candidate = g_list_model_get_item (model, i);
+
+          if (g_strcmp0 (df_loop_item_get_name (candidate), self->selected_name) == 0)
+            {
+              pick = i;
+              break;
+            }
+        }
+      item = g_list_model_get_item (model, pick);
       df_loops_panel_select (self->loops_panel, item);
     }
   _df_window_sync_frames (self);
@@ -313,6 +330,11 @@ selection_changed_cb (DfLoopsPanel *panel,
 {
   DfLoopItem *item = df_loops_panel_get_selected (panel);
 
+  if (item != NULL)
+    {
+      g_free (self->selected_name);
+      self->selected_name = g_strdup (df_loop_item_get_name (item));
+    }
   /* Redraw all so that the selected loop is the thick one. */
   sync_all_loops (self);
   if (item != NULL && df_loop_item_get_result (item) != NULL)

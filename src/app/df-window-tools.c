@@ -71,19 +71,36 @@ show_coords (DfWindow *self,
              double    v)
 {
   const df_surface *surface = df_document_get_surface (self->document);
+  const char *units = df_document_get_units (self->document);
   g_autofree char *a = df_format_number (u);
   g_autofree char *text = NULL;
+  g_autofree char *where = NULL;
+  double xyz[3];
 
+  /* The point in space too: t is the profile's own parameter (an angle, a length...), so the
+   * position is what carries the units. */
+  if (surface_point (self, u, v, xyz))
+    {
+      g_autofree char *x = df_format_number (xyz[0]);
+      g_autofree char *y = df_format_number (xyz[1]);
+      g_autofree char *z = df_format_number (xyz[2]);
+      where = g_strdup_printf ("  (%s, %s, %s) %s", x, y, z, units);
+    }
   if (surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
     {
       double phi = remainder (v, 2 * G_PI);
       g_autofree char *b = df_format_number (phi * 180.0 / G_PI);
-      text = g_strdup_printf ("t = %s, φ = %s°", a, b);
+      text = g_strdup_printf ("t = %s, φ = %s°%s", a, b, where != NULL ? where : "");
     }
   else
     {
       g_autofree char *b = df_format_number (v);
-      text = g_strdup_printf ("x = %s, y = %s %s", a, b, df_document_get_units (self->document));
+      g_autofree char *zn = where != NULL ? df_format_number (xyz[2]) : NULL;
+
+      if (zn != NULL)
+        text = g_strdup_printf ("x = %s, y = %s, z = %s %s", a, b, zn, units);
+      else
+        text = g_strdup_printf ("x = %s, y = %s %s", a, b, units);
     }
   gtk_label_set_text (self->coords_label, text);
 }
@@ -748,6 +765,14 @@ pointer_motion_cb (GtkEventControllerMotion *controller,
   if (self->stroking && !self->stroke_left
       && !df_surface_view_pick (self->view, x, y, &u, &v))
     self->stroke_left = TRUE;
+  /* Hover readout of where the pointer is on the surface (the stroke updates it itself). */
+  if (!self->stroking)
+    {
+      if (df_surface_view_pick (self->view, x, y, &u, &v))
+        show_coords (self, u, v);
+      else
+        gtk_label_set_text (self->coords_label, "");
+    }
 }
 
 /* ---- typed values ------------------------------------------------------------------------- */
@@ -980,6 +1005,8 @@ _df_window_tools_surface_changed (DfWindow *self)
   _df_window_clear_paths (self);
   df_surface_view_set_marker (self->view, NULL, NULL);
   df_probe_panel_clear (self->probe_panel);
+  /* The pointer's coordinates were of the old surface. */
+  gtk_label_set_text (self->coords_label, "");
   update_typed_hints (self);
 }
 

@@ -204,6 +204,7 @@ df_window_finalize (GObject *object)
   df_startup_clear (&self->startup);
   g_strfreev (self->recent);
   g_free (self->shown_shape);
+  g_free (self->selected_name);
   G_OBJECT_CLASS (df_window_parent_class)->finalize (object);
 }
 
