@@ -60,7 +60,7 @@ sync_title (DfWindow *self)
       subtitle = g_strdup_printf ("%s, lengths in %s%s", what,
                                   df_document_get_units (self->document),
                                   df_document_get_path (self->document) == NULL
-                                    ? ", not saved to a file yet" : "");
+                                    ? ", no file yet" : "");
     }
   gtk_label_set_text (self->subtitle_label, subtitle != NULL ? subtitle : "");
 }
