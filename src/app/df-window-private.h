@@ -108,6 +108,7 @@ struct _DfWindow
   GArray       *path_a;             /* of double[2] */
   GArray       *path_b;
   GCancellable *paths_cancellable;
+  gboolean      paths_long_legs;    /* B's ends were far from A's and were joined to them */
 
   /* Geodesic */
   gboolean      geodesic_pressed;

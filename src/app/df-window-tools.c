@@ -574,10 +574,15 @@ compare_done_cb (GObject      *source,
   draw_transport (self, DF_CURVE_PATH_A, DF_ARROW_PATH_A, &comparison->a, colour_path_a);
   draw_transport (self, DF_CURVE_PATH_B, DF_ARROW_PATH_B, &comparison->b, colour_path_b);
   df_compare_panel_set_angle (self->compare_panel, comparison->angle_rad);
+  df_compare_panel_set_lengths (self->compare_panel, comparison->a.length, comparison->b.length,
+                                df_document_get_units (self->document));
   {
     g_autofree char *angle = df_format_angle (comparison->angle_rad);
-    _df_window_status (self, FALSE, "Carried along B, the direction ends %s from the one "
-                       "carried along A.", angle);
+    _df_window_status (self, self->paths_long_legs, "Carried along B, the direction ends %s "
+                       "from the one carried along A.%s", angle,
+                       self->paths_long_legs ? " Path B was drawn away from A's ends and was "
+                                               "joined to them by straight legs in the chart: "
+                                               "draw it from A's start to A's end." : "");
   }
   paths_set_stage (self, DF_PATHS_DONE);
   g_object_unref (self);
@@ -614,18 +619,23 @@ paths_finish_stroke (DfWindow *self)
     g_autofree double (*uv_a)[2] = NULL;
     g_autofree double (*uv_b)[2] = NULL;
     StrokePoint *b0, *b1;
+    double gap_start, gap_end;
 
     g_array_set_size (self->path_b, 0);
     g_array_append_vals (self->path_b, self->stroke_uv->data, self->stroke_uv->len);
     /* Common ends: B starts and ends exactly where A does. */
     b0 = &g_array_index (self->path_b, StrokePoint, 0);
     b1 = &g_array_index (self->path_b, StrokePoint, self->path_b->len - 1);
+    gap_start = hypot (b0->px - a0->px, b0->py - a0->py);
+    gap_end = hypot (b1->px - a1->px, b1->py - a1->py);
     *b0 = *a0;
     *b1 = *a1;
     draw_stroke (self, DF_CURVE_PATH_B, self->path_b, colour_path_b, 3.5f);
     df_compare_panel_set_paths (self->compare_panel, self->path_a->len, self->path_b->len);
     paths_set_stage (self, DF_PATHS_DONE);
     df_compare_panel_set_hint (self->compare_panel, "Comparing…");
+    /* The snap is silent when B was drawn onto A's ends; say so when it adds long legs. */
+    self->paths_long_legs = MAX (gap_start, gap_end) > 5 * DF_STROKE_STEP_PX;
 
     uv_a = stroke_uv (self->path_a);
     uv_b = stroke_uv (self->path_b);
