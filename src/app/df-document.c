@@ -60,10 +60,12 @@ enum
 static GParamSpec *properties[N_PROPS];
 static guint signals[N_SIGNALS];
 
-/* Loop colours: distinct on the surface shading and for the common colour deficiencies
- * (common practice, no source). */
+/* Loop colours: kept away from the blue-white-orange curvature scale, from the frames' ink,
+ * green partner and magenta returned-vector arrows, and from each other in lightness as well
+ * as hue, so that they still differ for the common colour deficiencies (common practice, no
+ * source). pick_colour() takes the one farthest from the colours in use. */
 static const char *const loop_palette[] = {
-  "#d0563b", "#2f7fd1", "#e0a41c", "#8c4fc4", "#2a9d6f", "#c63d8f", "#4a5a6a",
+  "#7b3fc4", "#00a0b8", "#e8c300", "#6b8e23", "#5d4037", "#9e9e9e", "#ff8fb1", "#00695c",
 };
 
 typedef struct
