@@ -259,6 +259,18 @@ df_probe_panel_show (DfProbePanel            *self,
                             "Probe a point next to it."));
       return;
     }
+  /* Near a pole the chart's Christoffel symbols grow like 1/r while the geometry is smooth:
+   * say so before someone reads Γ of several hundred as a property of the part. "Near": within
+   * 2 % of the surface's size of the axis (common practice, no source). */
+  if (rev && hypot (g->point[0], g->point[1]) < 0.02 * df_surface_size (surface))
+    {
+      GtkWidget *warning = note ("Near a singular point of the chart (a pole, r → 0): the "
+                                 "Christoffel symbols and metric below are large because the "
+                                 "(t, φ) chart degenerates there, not because the surface "
+                                 "does; the curvatures above are unaffected.");
+      gtk_widget_add_css_class (warning, "df-error");
+      gtk_box_append (self->content_box, warning);
+    }
 
   /* Metric */
   gtk_box_append (self->content_box, heading ("Metric g<sub>ij</sub>"));
