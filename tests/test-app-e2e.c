@@ -175,6 +175,25 @@ read_until (GDataInputStream *out,
     }
 }
 
+/* Like read_until, for the first line starting with either prefix. */
+static char *
+read_until_either (GDataInputStream *out,
+                   const char       *a,
+                   const char       *b)
+{
+  for (;;)
+    {
+      LineWait wait = { FALSE, NULL };
+
+      g_data_input_stream_read_line_async (out, G_PRIORITY_DEFAULT, NULL, line_ready_cb, &wait);
+      if (!wait_for (&wait.done, STEP_TIMEOUT_S) || wait.line == NULL)
+        return NULL;
+      if (g_str_has_prefix (wait.line, a) || g_str_has_prefix (wait.line, b))
+        return wait.line;
+      g_free (wait.line);
+    }
+}
+
 static void
 exited_cb (GObject      *source,
            GAsyncResult *result,
@@ -972,6 +991,51 @@ test_typed_probe_geodesic (void)
   xserver_stop (&x);
 }
 
+/* A job that fails must not take the window down: a cone of half-angle 90 degrees (a flat
+ * disc whose slant range t-max = h / cos(alpha) is about 1.6e18) made the meshing thread crash
+ * the whole app. The window reports the problem and then quits cleanly on Ctrl+Q. */
+static void
+test_failed_job_keeps_window (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *path = g_build_filename (dir, "flat-cone.surface", NULL);
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+
+  if (!xserver_start (&x))
+    return;
+  /* The cone preset's formulas (src/core/df-presets.c) at alpha_deg = 90. */
+  g_file_set_contents (path, "[surface]\nkind=revolution\npreset=cone\n"
+                             "r=t*sin(alpha_deg*pi/180)\nz=h - t*cos(alpha_deg*pi/180)\n"
+                             "t-min=0\nt-max=h/cos(alpha_deg*pi/180)\n"
+                             "[parameters]\nalpha_deg=90\nh=100\n", -1, &error);
+  g_assert_no_error (error);
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, path, "--report-events",
+                                     NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  /* Either the drawing fails and says so, or (once the surface checks refuse such a profile)
+   * the file is refused with a message; never a crash. */
+  line = read_until_either (out, "mesh-problem ", "open-failed ");
+  g_assert_nonnull (line);
+  if (g_str_has_prefix (line, "open-failed "))
+    xdotool_va (&x, "sleep", "1", "key", "Return", NULL);
+  /* Still there: it answers the keyboard and quits by itself, with status 0. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+q", NULL);
+  g_assert_true (app_wait (app));
+  g_assert_true (g_subprocess_get_if_exited (app));
+  g_assert_cmpint (g_subprocess_get_exit_status (app), ==, 0);
+  xserver_stop (&x);
+  g_remove (path);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -987,5 +1051,6 @@ main (int   argc,
   g_test_add_func ("/app/e2e/kill-restore", test_kill_restore);
   g_test_add_func ("/app/e2e/replace-surface", test_replace_surface);
   g_test_add_func ("/app/e2e/typed-probe-geodesic", test_typed_probe_geodesic);
+  g_test_add_func ("/app/e2e/failed-job-keeps-window", test_failed_job_keeps_window);
   return g_test_run ();
 }

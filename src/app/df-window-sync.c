@@ -2,6 +2,7 @@
  * view and the surface panel, one curve per loop, the selected loop's frames, the legend, the
  * title and the status line. Only copies and draws; the numbers come from the core. */
 #include <math.h>
+#include <stdio.h>
 
 #include "df-format.h"
 #include "df-window-private.h"
@@ -379,8 +380,15 @@ mesh_ready_cb (DfSurfaceView *view,
   const char *problem = df_surface_view_get_mesh_problem (view);
 
   if (problem != NULL)
-    /* The problem text says already whether part or all of the surface is missing. */
-    _df_window_status (self, TRUE, "%s", problem);
+    {
+      /* The problem text says already whether part or all of the surface is missing. */
+      _df_window_status (self, TRUE, "%s", problem);
+      if (self->startup.report_events)
+        {
+          printf ("mesh-problem %s\n", problem);
+          fflush (stdout);
+        }
+    }
   _df_window_actions_update (self);
 }
 

@@ -434,6 +434,11 @@ df_window_start (DfWindow        *self,
       opened = _df_window_open_path (self, startup->file, &error);
       if (!opened)
         {
+          if (startup->report_events)
+            {
+              printf ("open-failed %s\n", error->message);
+              fflush (stdout);
+            }
           _df_window_show_error (self, "Cannot open the file", error);
           if (is_one_shot (self))
             return FALSE;
