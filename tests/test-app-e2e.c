@@ -885,7 +885,10 @@ static void
 type_field (Xserver    *x,
             const char *text)
 {
-  xdotool_va (x, "key", "ctrl+a", "type", "--delay", "20", text, NULL);
+  /* Pauses let a loaded app take each key in turn: xdotool may remap a spare key code for a
+   * character, and a change of key map that lands mid-stream can be read with the old one. */
+  xdotool_va (x, "sleep", "0.3", "key", "ctrl+a", "sleep", "0.3", "type", "--delay", "60", text,
+              "sleep", "0.3", NULL);
 }
 
 static void
