@@ -888,7 +888,9 @@ type_field (Xserver    *x,
   /* Pauses let a loaded app take each key in turn: xdotool may remap a spare key code for a
    * character, and a change of key map that lands mid-stream can be read with the old one. */
   xdotool_va (x, "sleep", "0.3", "key", "ctrl+a", "sleep", "0.3", "type", "--delay", "60", text,
-              "sleep", "0.3", NULL);
+              NULL);
+  /* "type" takes every argument after it as text: the pause is a call of its own. */
+  xdotool_va (x, "sleep", "0.3", NULL);
 }
 
 static void
