@@ -7,6 +7,8 @@
 #include <gio/gio.h>
 #include <glib/gstdio.h>
 #include <math.h>
+#include <signal.h>
+#include <stdarg.h>
 #include <stdlib.h>
 #include <string.h>
 #include <unistd.h>
@@ -20,6 +22,10 @@
 
 /* Generous: the software rasterizer and a cold start are slow on a loaded machine. */
 #define STEP_TIMEOUT_S 90
+
+/* XDG_DATA_DIRS before g_test_init isolated it: the app's file dialogs need the system's
+ * GSettings schemas and MIME database from there. */
+static char *system_data_dirs;
 
 typedef struct
 {
@@ -121,6 +127,8 @@ app_launcher (Xserver *x)
   g_subprocess_launcher_setenv (launcher, "XDG_CONFIG_HOME", g_get_user_config_dir (), TRUE);
   g_subprocess_launcher_setenv (launcher, "XDG_DATA_HOME", g_get_user_data_dir (), TRUE);
   g_subprocess_launcher_setenv (launcher, "XDG_CACHE_HOME", g_get_user_cache_dir (), TRUE);
+  g_subprocess_launcher_setenv (launcher, "XDG_STATE_HOME", g_get_user_state_dir (), TRUE);
+  g_subprocess_launcher_setenv (launcher, "XDG_DATA_DIRS", system_data_dirs, TRUE);
   g_subprocess_launcher_setenv (launcher, "DISPLAY", x->display, TRUE);
   g_subprocess_launcher_setenv (launcher, "GDK_BACKEND", "x11", TRUE);
   g_subprocess_launcher_setenv (launcher, "LIBGL_ALWAYS_SOFTWARE", "1", TRUE);
@@ -162,6 +170,25 @@ read_until (GDataInputStream *out,
       if (wait.line == NULL)
         return NULL;
       if (g_str_has_prefix (wait.line, prefix))
+        return wait.line;
+      g_free (wait.line);
+    }
+}
+
+/* Like read_until, for the first line starting with either prefix. */
+static char *
+read_until_either (GDataInputStream *out,
+                   const char       *a,
+                   const char       *b)
+{
+  for (;;)
+    {
+      LineWait wait = { FALSE, NULL };
+
+      g_data_input_stream_read_line_async (out, G_PRIORITY_DEFAULT, NULL, line_ready_cb, &wait);
+      if (!wait_for (&wait.done, STEP_TIMEOUT_S) || wait.line == NULL)
+        return NULL;
+      if (g_str_has_prefix (wait.line, a) || g_str_has_prefix (wait.line, b))
         return wait.line;
       g_free (wait.line);
     }
@@ -267,6 +294,204 @@ field (GPtrArray *rows,
   value = g_ascii_strtod (fields[column], &end);
   g_assert_true (end != fields[column]);
   return value;
+}
+
+/* Runs xdotool with args (NULL-terminated) on the test's display and waits for it. */
+static void
+xdotool_run (Xserver    *x,
+             GPtrArray  *args)
+{
+  g_autoptr(GSubprocessLauncher) xl = g_subprocess_launcher_new (G_SUBPROCESS_FLAGS_NONE);
+  g_autoptr(GSubprocess) driver = NULL;
+  g_autoptr(GError) error = NULL;
+
+  g_ptr_array_insert (args, 0, g_strdup ("xdotool"));
+  g_ptr_array_add (args, NULL);
+  g_subprocess_launcher_setenv (xl, "DISPLAY", x->display, TRUE);
+  driver = g_subprocess_launcher_spawnv (xl, (const char *const *) args->pdata, &error);
+  g_assert_no_error (error);
+  g_assert_true (g_subprocess_wait_check (driver, NULL, &error));
+  g_assert_no_error (error);
+}
+
+static void
+xdotool_va (Xserver    *x,
+            const char *first,
+            ...)
+{
+  g_autoptr(GPtrArray) args = g_ptr_array_new_with_free_func (g_free);
+  va_list ap;
+
+  va_start (ap, first);
+  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
+    g_ptr_array_add (args, g_strdup (a));
+  va_end (ap);
+  xdotool_run (x, args);
+}
+
+/* Answers a dialog of the app (found by its title) with a key, as a user at the keyboard
+ * would. Without a window manager the dialog has to be given the focus first. */
+static void
+answer_dialog (Xserver    *x,
+               const char *title,
+               const char *key)
+{
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", title, "windowfocus", "sleep", "0.5", "key",
+              key, NULL);
+}
+
+/* Gives the main window (title "... — driftframe") the keyboard focus, as clicking it would. */
+static void
+focus_main (Xserver *x)
+{
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", "driftframe$", "windowfocus", "sleep", "0.5",
+              NULL);
+}
+
+/* The view's geometry line, split: "view-geometry XID X Y WIDTH HEIGHT". */
+static char **
+read_view_geometry (GDataInputStream *out)
+{
+  g_autofree char *geometry = read_until (out, "view-geometry ");
+  char **parts;
+
+  g_assert_nonnull (geometry);
+  parts = g_strsplit (geometry, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 6);
+  return parts;
+}
+
+/* Drags a counter-clockwise circle (screen y points down) of radius px round the view's
+ * centre, with the left button held, in n_steps moves. */
+static void
+drag_circle (Xserver     *x,
+             char       **geometry,
+             int          radius,
+             int          n_steps)
+{
+  g_autoptr(GPtrArray) xdo = g_ptr_array_new_with_free_func (g_free);
+  int cx = atoi (geometry[2]) + atoi (geometry[4]) / 2;
+  int cy = atoi (geometry[3]) + atoi (geometry[5]) / 2;
+
+  g_ptr_array_add (xdo, g_strdup ("sleep"));
+  g_ptr_array_add (xdo, g_strdup ("1"));
+  for (int k = 0; k <= n_steps; k++)
+    {
+      double a = 2 * G_PI * k / n_steps;
+
+      g_ptr_array_add (xdo, g_strdup ("mousemove"));
+      g_ptr_array_add (xdo, g_strdup ("--window"));
+      g_ptr_array_add (xdo, g_strdup (geometry[1]));
+      g_ptr_array_add (xdo, g_strdup_printf ("%d", cx + (int) lround (radius * cos (a))));
+      g_ptr_array_add (xdo, g_strdup_printf ("%d", cy - (int) lround (radius * sin (a))));
+      if (k == 0)
+        {
+          g_ptr_array_add (xdo, g_strdup ("mousedown"));
+          g_ptr_array_add (xdo, g_strdup ("1"));
+        }
+      g_ptr_array_add (xdo, g_strdup ("sleep"));
+      g_ptr_array_add (xdo, g_strdup ("0.03"));
+    }
+  g_ptr_array_add (xdo, g_strdup ("mouseup"));
+  g_ptr_array_add (xdo, g_strdup ("1"));
+  xdotool_run (x, xdo);
+}
+
+/* Parses "loop-measured NAME HOLONOMY ENCLOSED". */
+static void
+parse_measured (const char *line,
+                double     *holonomy,
+                double     *enclosed)
+{
+  g_auto(GStrv) parts = g_strsplit (line, " ", -1);
+
+  g_assert_cmpuint (g_strv_length (parts), ==, 4);
+  *holonomy = g_ascii_strtod (parts[2], NULL);
+  *enclosed = g_ascii_strtod (parts[3], NULL);
+}
+
+/* Autosave files left in the app's state folder. */
+static guint
+count_autosaves (void)
+{
+  g_autofree char *path = g_build_filename (g_get_user_state_dir (), "driftframe", NULL);
+  g_autoptr(GDir) dir = g_dir_open (path, 0, NULL);
+  const char *name;
+  guint n = 0;
+
+  while (dir != NULL && (name = g_dir_read_name (dir)) != NULL)
+    n += g_str_has_prefix (name, "autosave-") && g_str_has_suffix (name, ".dfproj");
+  return n;
+}
+
+/* Never lose work: a sketched loop is autosaved within seconds; after kill -9 the next start
+ * offers it back, and the restored loop measures exactly as before (same points, same core).
+ * A clean exit (discarding the changes) removes the autosave. */
+static void
+test_kill_restore (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GSubprocess) again = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(GDataInputStream) out2 = NULL;
+  g_auto(GStrv) geometry = NULL;
+  g_autofree char *measured = NULL;
+  g_autofree char *autosaved = NULL;
+  g_autofree char *offered = NULL;
+  g_autofree char *restored = NULL;
+  g_autofree char *measured2 = NULL;
+  double hol1, enc1, hol2, enc2;
+
+  if (!xserver_start (&x))
+    return;
+  g_assert_cmpuint (count_autosaves (), ==, 0);
+
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--preset", "sphere",
+                                     "--tool", "sketch", "--view", "top",
+                                     "--report-view-geometry", "--report-events", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  geometry = read_view_geometry (out);
+  drag_circle (&x, geometry, atoi (geometry[5]) / 5, 60);
+  measured = read_until (out, "loop-measured Loop_1 ");
+  g_assert_nonnull (measured);
+  parse_measured (measured, &hol1, &enc1);
+  autosaved = read_until (out, "autosaved ");
+  g_assert_nonnull (autosaved);
+  g_assert_true (g_file_test (autosaved + strlen ("autosaved "), G_FILE_TEST_IS_REGULAR));
+  g_subprocess_send_signal (app, SIGKILL);
+  g_subprocess_wait (app, NULL, NULL);
+  g_assert_cmpuint (count_autosaves (), ==, 1);
+
+  again = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--report-events", NULL);
+  g_assert_no_error (error);
+  out2 = g_data_input_stream_new (g_subprocess_get_stdout_pipe (again));
+  offered = read_until (out2, "restore-offered ");
+  g_assert_nonnull (offered);
+  answer_dialog (&x, "Restore unsaved work", "Return");
+  restored = read_until (out2, "restored ");
+  g_assert_nonnull (restored);
+  measured2 = read_until (out2, "loop-measured Loop_1 ");
+  g_assert_nonnull (measured2);
+  parse_measured (measured2, &hol2, &enc2);
+  /* The project file stores the points bit for bit and the measurement is deterministic, so
+   * the numbers agree to rounding (common practice, no source). */
+  df_assert_close (hol2, hol1, 1e-12, 1e-15);
+  df_assert_close (enc2, enc1, 1e-12, 1e-15);
+  /* A loop round the north pole encloses positive curvature (Gauss-Bonnet on the sphere, do
+   * Carmo sec. 4-5, from memory): the restored loop is the sketched one, not an empty one. */
+  g_assert_cmpfloat (hol2, >, 0.05);
+
+  /* Quit, discarding the changes: a clean exit leaves no autosave behind. */
+  xdotool_va (&x, "key", "ctrl+q", NULL);
+  answer_dialog (&x, "Unsaved changes", "alt+d");
+  g_assert_true (app_wait (again));
+  xserver_stop (&x);
+  g_assert_cmpuint (count_autosaves (), ==, 0);
 }
 
 /* Sketch a loop around the north pole of the sphere preset, seen from above, through the
@@ -406,7 +631,7 @@ test_sketch_pole_loop (void)
   g_rmdir (dir);
 }
 
-/* Writes a project: the sphere preset and one latitude loop at polar angle 0.6 rad in a colour
+/* Writes a project: the sphere preset with R = 120 and one latitude loop at polar angle 0.6 rad in a colour
  * found nowhere else on screen. */
 static void
 write_sphere_project (const char *path,
@@ -417,6 +642,8 @@ write_sphere_project (const char *path,
   g_autoptr(df_project) project = NULL;
   double uv[48][2];
 
+  g_assert_no_error (error);
+  g_assert_true (df_surface_spec_set_param (spec, "R", "120", &error));
   g_assert_no_error (error);
   project = df_project_new (spec);
   for (int i = 0; i < 48; i++)
@@ -625,15 +852,315 @@ test_record_exports (void)
   g_rmdir (dir);
 }
 
+/* Writes a horizontal plane z = height over a square of half-width 200 as a .surface file. */
+static void
+write_plane_surface (const char *path,
+                     double      height)
+{
+  char z[G_ASCII_DTOSTR_BUF_SIZE];
+  g_autofree char *text = NULL;
+  g_autoptr(GError) error = NULL;
+
+  g_ascii_dtostr (z, sizeof z, height);
+  text = g_strdup_printf ("[surface]\nkind=graph\nz=%s\nx-min=-200\nx-max=200\n"
+                          "y-min=-200\ny-max=200\n", z);
+  g_file_set_contents (path, text, -1, &error);
+  g_assert_no_error (error);
+}
+
+/* Gives the open project another surface through the Replace Surface dialog, typing the path
+ * as a user would (a leading "/" opens the location entry). */
+static void
+replace_surface (Xserver    *x,
+                 const char *path)
+{
+  focus_main (x);
+  xdotool_va (x, "key", "ctrl+r", NULL);
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", "Replace Surface", "windowfocus", "sleep", "1",
+              "type", "--delay", "20", path, NULL);
+  xdotool_va (x, "sleep", "0.5", "key", "Return", NULL);
+}
+
+/* Replacing the surface carries loops by their places in space: a latitude loop of the
+ * sphere lies in the plane at its height, so it is placed there (and measured as a plane loop,
+ * not its (t, phi) read as (x, y)); a plane far away leaves it marked as off the surface, and
+ * the project still saves in a form the CLI's reader accepts. Undo brings the sphere and the
+ * loop's own numbers back. */
+static void
+test_replace_surface (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *project_path = g_build_filename (dir, "sphere.dfproj", NULL);
+  g_autofree char *near_path = g_build_filename (dir, "near-plane.surface", NULL);
+  g_autofree char *far_path = g_build_filename (dir, "far-plane.surface", NULL);
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(df_project) saved = NULL;
+  double hol0, enc0, hol, enc, rho = 120 * sin (0.6);
+  char *line;
+
+  if (!xserver_start (&x))
+    return;
+  write_sphere_project (project_path, FALSE);
+  /* The project's sphere has R = 120: the loop at polar angle 0.6 is the circle of radius
+   * 120 sin 0.6 at height 120 cos 0.6. */
+  write_plane_surface (near_path, 120 * cos (0.6));
+  write_plane_surface (far_path, 0.0);
+
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project_path,
+                                     "--report-view-geometry", "--report-events", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol0, &enc0);
+  g_free (line);
+  /* Latitude circle at polar angle 0.6: 2 pi (1 - cos 0.6) (Gauss-Bonnet, do Carmo sec. 4-5,
+   * from memory). */
+  df_assert_close (hol0, 2 * G_PI * (1 - cos (0.6)), 1e-6, 1e-9);
+
+  replace_surface (&x, near_path);
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol, &enc);
+  g_free (line);
+  /* A closed loop in a plane carries a direction back unturned (K = 0); read as chart numbers
+   * the old (0.6, phi) would have been a degenerate sliver near the origin instead. */
+  g_assert_cmpfloat (fabs (hol), <, 1e-6);
+  g_assert_cmpfloat (fabs (enc), <, 1e-9);
+
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol, &enc);
+  g_free (line);
+  df_assert_close (hol, hol0, 1e-12, 1e-15);
+
+  replace_surface (&x, far_path);
+  line = read_until (out, "loop-failed Marker_loop off the new surface");
+  g_assert_nonnull (line);
+  g_free (line);
+
+  /* Saved with the loop off the surface: the file still reads (the CLI's reader), and the
+   * points kept are the closest ones on the plane, the loop's circle seen from above. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+s", NULL);
+  line = read_until (out, "saved ");
+  g_assert_nonnull (line);
+  g_free (line);
+  saved = df_project_load (project_path, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (saved->loops->len, ==, 1);
+  g_assert_cmpint (saved->spec->kind, ==, DF_SURFACE_GRAPH);
+  {
+    df_project_loop *loop = g_ptr_array_index (saved->loops, 0);
+
+    for (gsize i = 0; i < loop->n; i++)
+      df_assert_close (hypot (loop->uv[i][0], loop->uv[i][1]), rho, 1e-6, 1e-6);
+  }
+
+  /* Undo restores the sphere, and the loop measures as it did at first. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  line = read_until (out, "loop-measured Marker_loop ");
+  g_assert_nonnull (line);
+  parse_measured (line, &hol, &enc);
+  g_free (line);
+  df_assert_close (hol, hol0, 1e-12, 1e-15);
+
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+q", NULL);
+  answer_dialog (&x, "Unsaved changes", "alt+d");
+  g_assert_true (app_wait (app));
+  xserver_stop (&x);
+  g_remove (project_path);
+  g_remove (near_path);
+  g_remove (far_path);
+  g_rmdir (dir);
+}
+
+/* Types a value into the focused field, replacing what is there. */
+static void
+type_field (Xserver    *x,
+            const char *text)
+{
+  /* Pauses let a loaded app take each key in turn: xdotool may remap a spare key code for a
+   * character, and a change of key map that lands mid-stream can be read with the old one. */
+  xdotool_va (x, "sleep", "0.3", "key", "ctrl+a", "sleep", "0.3", "type", "--delay", "60", text,
+              NULL);
+  /* "type" takes every argument after it as text: the pause is a call of its own. */
+  xdotool_va (x, "sleep", "0.3", NULL);
+}
+
+static void
+parse_three (const char *line,
+             double      out[3])
+{
+  g_auto(GStrv) parts = g_strsplit (line, " ", -1);
+
+  g_assert_cmpuint (g_strv_length (parts), ==, 4);
+  for (int i = 0; i < 3; i++)
+    out[i] = g_ascii_strtod (parts[i + 1], NULL);
+}
+
+/* Typed values instead of the mouse: a geodesic from a typed start, heading and length, and a
+ * probe at a typed chart point and at a typed point in space, on the sphere preset (R = 100,
+ * src/core/df-presets.c; chart t = polar angle, phi = longitude). */
+static void
+test_typed_probe_geodesic (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+  g_autofree char *space = NULL;
+  double end[3], probed[3], R = 100;
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--preset", "sphere",
+                                     "--tool", "geodesic", "--report-view-geometry",
+                                     "--report-events", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  g_strfreev (read_view_geometry (out));
+
+  /* Heading 0 is along +t: down the meridian, a great circle, so after a length L the polar
+   * angle grew by L / R and the longitude is unchanged (geodesics of a sphere are its great
+   * circles: do Carmo sec. 4-4, from memory). */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "50");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, end);
+  df_assert_close (end[2], 50, 1e-9, 1e-9);
+  df_assert_close (end[0], 0.6 + 50 / R, 1e-6, 1e-8);
+  g_assert_cmpfloat (fabs (end[1]), <, 1e-8);
+  g_clear_pointer (&line, g_free);
+
+  /* Heading 90 degrees: along the parallel, leaving along the great circle through the start
+   * perpendicular to the meridian, P(s) = cos(s/R) P0 + sin(s/R) E with E horizontal, so
+   * cos t(s) = cos t0 cos(s/R) (spherical trigonometry, from memory). With N outward (the
+   * preset's orientation), anticlockwise from +t is towards +phi. */
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "90");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "50");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, end);
+  df_assert_close (cos (end[0]), cos (0.6) * cos (50 / R), 1e-6, 1e-8);
+  g_assert_cmpfloat (end[1], >, 0.1);
+  g_clear_pointer (&line, g_free);
+
+  /* Probe at a typed chart point (phi in degrees) and at a point in space 2 % outside the
+   * sphere, placed at its closest surface point; K = 1/R^2 on a sphere (Gauss, do Carmo
+   * sec. 3-3, from memory). */
+  xdotool_va (&x, "key", "ctrl+3", "sleep", "0.5", "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 45");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "probed ");
+  g_assert_nonnull (line);
+  parse_three (line, probed);
+  df_assert_close (probed[0], 0.6, 1e-12, 1e-12);
+  df_assert_close (probed[1], G_PI / 4, 1e-12, 1e-12);
+  df_assert_close (probed[2], 1 / (R * R), 1e-8, 0);
+  g_clear_pointer (&line, g_free);
+
+  space = g_strdup_printf ("%.9f, 0, %.9f", 1.02 * R * sin (0.6), 1.02 * R * cos (0.6));
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, space);
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "probed ");
+  g_assert_nonnull (line);
+  parse_three (line, probed);
+  df_assert_close (probed[0], 0.6, 1e-6, 1e-8);
+  g_assert_cmpfloat (fabs (remainder (probed[1], 2 * G_PI)), <, 1e-6);
+  df_assert_close (probed[2], 1 / (R * R), 1e-8, 0);
+
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+}
+
+/* A job that fails must not take the window down: a cone of half-angle 90 degrees (a flat
+ * disc whose slant range t-max = h / cos(alpha) is about 1.6e18) made the meshing thread crash
+ * the whole app. The window reports the problem and then quits cleanly on Ctrl+Q. */
+static void
+test_failed_job_keeps_window (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *path = g_build_filename (dir, "flat-cone.surface", NULL);
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+
+  if (!xserver_start (&x))
+    return;
+  /* The cone preset's formulas (src/core/df-presets.c) at alpha_deg = 90. */
+  g_file_set_contents (path, "[surface]\nkind=revolution\npreset=cone\n"
+                             "r=t*sin(alpha_deg*pi/180)\nz=h - t*cos(alpha_deg*pi/180)\n"
+                             "t-min=0\nt-max=h/cos(alpha_deg*pi/180)\n"
+                             "[parameters]\nalpha_deg=90\nh=100\n", -1, &error);
+  g_assert_no_error (error);
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, path, "--report-events",
+                                     NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  /* Either the drawing fails and says so, or (once the surface checks refuse such a profile)
+   * the file is refused with a message; never a crash. */
+  line = read_until_either (out, "mesh-problem ", "open-failed ");
+  g_assert_nonnull (line);
+  if (g_str_has_prefix (line, "open-failed "))
+    xdotool_va (&x, "sleep", "1", "key", "Return", NULL);
+  /* Still there: it answers the keyboard and quits by itself, with status 0. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+q", NULL);
+  g_assert_true (app_wait (app));
+  g_assert_true (g_subprocess_get_if_exited (app));
+  g_assert_cmpint (g_subprocess_get_exit_status (app), ==, 0);
+  xserver_stop (&x);
+  g_remove (path);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
 {
   df_core_init ();
+  /* The XDG Base Directory default when unset. */
+  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
+                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
   g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
 
   g_test_add_func ("/app/e2e/sketch-pole-loop", test_sketch_pole_loop);
   g_test_add_func ("/app/e2e/screenshot", test_screenshot);
   g_test_add_func ("/app/e2e/record-exports", test_record_exports);
+  g_test_add_func ("/app/e2e/kill-restore", test_kill_restore);
+  g_test_add_func ("/app/e2e/replace-surface", test_replace_surface);
+  g_test_add_func ("/app/e2e/typed-probe-geodesic", test_typed_probe_geodesic);
+  g_test_add_func ("/app/e2e/failed-job-keeps-window", test_failed_job_keeps_window);
   return g_test_run ();
 }

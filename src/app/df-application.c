@@ -2,6 +2,7 @@
  * view, one-shot exports, --bench-orbit), the application actions (quit, about, shortcuts)
  * with their accelerators, and the style sheet. Windows do the rest. */
 #include "df-application.h"
+#include "df-gl-renderer.h"
 #include "df-glib.h"
 #include "df-window.h"
 
@@ -36,6 +37,9 @@ static const GOptionEntry option_entries[] = {
     "Orbit the view once, print the median and 95th-percentile frame times and quit", NULL },
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print where the 3D view lies in the window (for test drivers)", NULL },
+  { "report-events", 0, 0, G_OPTION_ARG_NONE, NULL,
+    "Print loop measurements, autosaves and restores as they happen (for test drivers)",
+    NULL },
   { "version", 0, 0, G_OPTION_ARG_NONE, NULL, "Print the version and quit", NULL },
   { G_OPTION_REMAINING, 0, 0, G_OPTION_ARG_FILENAME_ARRAY, NULL, NULL, NULL },
   { NULL }
@@ -106,6 +110,14 @@ df_application_startup (GApplication *application)
   g_autoptr(GtkCssProvider) css = gtk_css_provider_new ();
 
   G_APPLICATION_CLASS (df_application_parent_class)->startup (application);
+
+  /* Before any window is realized: GTK reads GSK_RENDERER once. */
+  {
+    g_autofree char *gl = df_gl_renderer_choose (gdk_display_get_default ());
+
+    g_debug ("OpenGL renderer: %s; GTK scene renderer: %s", gl != NULL ? gl : "none",
+             g_getenv ("GSK_RENDERER") != NULL ? g_getenv ("GSK_RENDERER") : "GTK's default");
+  }
 
   g_action_map_add_action_entries (G_ACTION_MAP (application), app_entries,
                                    G_N_ELEMENTS (app_entries), application);
@@ -185,6 +197,7 @@ df_application_command_line (GApplication            *application,
   g_variant_dict_lookup (options, "export-report", "^ay", &startup.export_report);
   startup.bench_orbit = g_variant_dict_contains (options, "bench-orbit");
   startup.report_view = g_variant_dict_contains (options, "report-view-geometry");
+  startup.report_events = g_variant_dict_contains (options, "report-events");
 
   if (startup.preset != NULL)
     {

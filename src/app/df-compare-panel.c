@@ -113,7 +113,11 @@ df_compare_panel_set_angle (DfComparePanel *self,
       return;
     }
   {
-    g_autofree char *text = df_format_angle (angle_rad);
+    g_autofree char *angle = df_format_angle (angle_rad);
+    /* The sign alone does not say which way: name the sense, as the loops panel does. */
+    const char *sense = angle_rad > 0 ? ", counter-clockwise about N (from A's to B's)"
+                        : angle_rad < 0 ? ", clockwise about N (from A's to B's)" : "";
+    g_autofree char *text = g_strdup_printf ("%s%s", angle, sense);
     gtk_label_set_text (self->angle_value, text);
   }
   show_text (self->note_label,
@@ -127,4 +131,18 @@ df_compare_panel_show_error (DfComparePanel *self,
 {
   g_return_if_fail (DF_IS_COMPARE_PANEL (self));
   show_text (self->error_label, message);
+}
+
+void
+df_compare_panel_set_lengths (DfComparePanel *self,
+                              double          length_a,
+                              double          length_b,
+                              const char     *units)
+{
+  g_autofree char *a = df_format_length (length_a, units);
+  g_autofree char *b = df_format_length (length_b, units);
+
+  g_return_if_fail (DF_IS_COMPARE_PANEL (self));
+  gtk_label_set_text (self->a_value, a);
+  gtk_label_set_text (self->b_value, b);
 }

@@ -19,4 +19,8 @@ void       df_compare_panel_set_paths  (DfComparePanel *self, gsize n_a, gsize n
 void       df_compare_panel_set_angle  (DfComparePanel *self, double angle_rad);
 void       df_compare_panel_show_error (DfComparePanel *self, const char *message);
 
+/* Once compared: the paths described by their lengths in space. */
+void       df_compare_panel_set_lengths (DfComparePanel *self, double length_a,
+                                         double length_b, const char *units);
+
 G_END_DECLS

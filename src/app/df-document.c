@@ -2,9 +2,21 @@
  * df-document.h). Geometry comes from the core; measuring runs in df-work.c threads. */
 #include <string.h>
 
+#include <math.h>
+
 #include "df-document.h"
 #include "df-history.h"
+#include "df-project.h"
+#include "df-work-guard.h"
 #include "df-work.h"
+
+/* A loop point carried to a new surface "fits" when the new surface passes within this
+ * fraction of its size (its bounding box diagonal) of the point's old place in space: about
+ * a pencil line on a part a metre across (common practice, no source). */
+#define DF_CARRY_TOLERANCE 0.01
+/* Comment on a loop's group in undo snapshots and autosaves (and saved files, where the CLI
+ * ignores it): the loop was left off the surface and must not be measured on its points. */
+#define DF_OFF_SURFACE_COMMENT "off-surface:"
 
 #define DF_HISTORY_LIMIT 100
 
@@ -26,6 +38,8 @@ struct _DfDocument
   /* The title block, geodesics, path pairs, probes and view of the project as loaded: kept so
    * that saving from the app writes them back (the app does not edit them yet). */
   df_project      *carried;
+  guint            last_carried;     /* loops placed on the surface by the last spec change */
+  guint            last_off;         /* loops left off it */
 };
 
 G_DEFINE_FINAL_TYPE (DfDocument, df_document, G_TYPE_OBJECT)
@@ -43,16 +57,19 @@ enum
   SURFACE_CHANGED,
   LOOP_CHANGED,
   HISTORY_CHANGED,
+  CHANGED,
   N_SIGNALS
 };
 
 static GParamSpec *properties[N_PROPS];
 static guint signals[N_SIGNALS];
 
-/* Loop colours: distinct on the surface shading and for the common colour deficiencies
- * (common practice, no source). */
+/* Loop colours: kept away from the blue-white-orange curvature scale, from the frames' ink,
+ * green partner and magenta returned-vector arrows, and from each other in lightness as well
+ * as hue, so that they still differ for the common colour deficiencies (common practice, no
+ * source). pick_colour() takes the one farthest from the colours in use. */
 static const char *const loop_palette[] = {
-  "#d0563b", "#2f7fd1", "#e0a41c", "#8c4fc4", "#2a9d6f", "#c63d8f", "#4a5a6a",
+  "#7b3fc4", "#00a0b8", "#e8c300", "#6b8e23", "#5d4037", "#9e9e9e", "#ff8fb1", "#00695c",
 };
 
 typedef struct
@@ -138,6 +155,11 @@ df_document_class_init (DfDocumentClass *klass)
   signals[HISTORY_CHANGED] =
     g_signal_new ("history-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 0);
+  /* Anything that is saved with the project changed (every edit, undo, load, save): the
+   * autosave listens to this. */
+  signals[CHANGED] =
+    g_signal_new ("changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 0);
 }
 
 static void
@@ -188,11 +210,67 @@ static char *
 snapshot (DfDocument *self)
 {
   g_autoptr(df_project) project = NULL;
+  g_autoptr(GKeyFile) key_file = NULL;
+  g_autofree char *data = NULL;
+  gboolean any_off = FALSE;
+  guint n;
 
   if (self->spec == NULL)
     return NULL;
   project = df_document_to_project (self);
-  return df_project_to_data (project);
+  data = df_project_to_data (project);
+  n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+  for (guint i = 0; i < n && !any_off; i++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+      any_off = df_loop_item_get_off_surface (item) != NULL;
+    }
+  if (!any_off)
+    return g_steal_pointer (&data);
+
+  /* The off-surface marks ride along as comments, so undo, redo and the autosave keep them. */
+  key_file = g_key_file_new ();
+  if (!g_key_file_load_from_data (key_file, data, -1, G_KEY_FILE_KEEP_COMMENTS, NULL))
+    return g_steal_pointer (&data);
+  for (guint i = 0; i < n; i++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+      g_autofree char *group = g_strdup_printf ("loop %u", i + 1);
+      g_autofree char *comment = NULL;
+
+      if (df_loop_item_get_off_surface (item) == NULL)
+        continue;
+      comment = g_strdup_printf (" " DF_OFF_SURFACE_COMMENT " %s",
+                                 df_loop_item_get_off_surface (item));
+      g_key_file_set_comment (key_file, group, NULL, comment, NULL);
+    }
+  return g_key_file_to_data (key_file, NULL, NULL);
+}
+
+/* Sets the off-surface marks that snapshot() wrote into data (NULL: none). */
+static void
+apply_marks (DfDocument *self,
+             const char *data)
+{
+  g_autoptr(GKeyFile) key_file = g_key_file_new ();
+  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+
+  if (data == NULL || strstr (data, DF_OFF_SURFACE_COMMENT) == NULL
+      || !g_key_file_load_from_data (key_file, data, -1, G_KEY_FILE_KEEP_COMMENTS, NULL))
+    return;
+  for (guint i = 0; i < n; i++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
+      g_autofree char *group = g_strdup_printf ("loop %u", i + 1);
+      g_autofree char *comment = g_key_file_get_comment (key_file, group, NULL, NULL);
+      char *text = comment;
+
+      while (text != NULL && (*text == '#' || *text == ' '))
+        text++;
+      if (text != NULL && g_str_has_prefix (text, DF_OFF_SURFACE_COMMENT))
+        df_loop_item_set_off_surface (item,
+                                      g_strstrip (text + strlen (DF_OFF_SURFACE_COMMENT)));
+    }
 }
 
 /* The modified flag compares the project text with the one last loaded or saved, so an edit
@@ -208,6 +286,7 @@ update_modified (DfDocument *self)
       self->modified = modified;
       g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_MODIFIED]);
     }
+  g_signal_emit (self, signals[CHANGED], 0);
 }
 
 static void
@@ -273,7 +352,11 @@ measure_all (DfDocument *self)
   for (guint i = 0; i < n; i++)
     {
       g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
-      measure_item (self, item);
+
+      if (df_loop_item_get_off_surface (item) == NULL)
+        measure_item (self, item);
+      else
+        g_signal_emit (self, signals[LOOP_CHANGED], 0, item);
     }
 }
 
@@ -282,6 +365,7 @@ measure_all (DfDocument *self)
 static gboolean
 replace_state (DfDocument  *self,
                df_project  *project,
+               const char  *data,
                GError     **error)
 {
   g_autoptr(df_surface) surface = NULL;
@@ -309,6 +393,7 @@ replace_state (DfDocument  *self,
     }
   g_list_store_splice (self->loops, 0, g_list_model_get_n_items (G_LIST_MODEL (self->loops)),
                        items->pdata, items->len);
+  apply_marks (self, data);
   g_signal_emit (self, signals[SURFACE_CHANGED], 0);
   measure_all (self);
   return TRUE;
@@ -337,7 +422,7 @@ df_document_set_project (DfDocument  *self,
   g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
   g_return_val_if_fail (project != NULL, FALSE);
 
-  if (!replace_state (self, owned, error))
+  if (!replace_state (self, owned, NULL, error))
     return FALSE;
   df_history_clear (self->history);
   g_clear_pointer (&self->display_name, g_free);
@@ -347,6 +432,30 @@ df_document_set_project (DfDocument  *self,
   self->saved_snapshot = snapshot (self);
   update_modified (self);
   g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+  return TRUE;
+}
+
+gboolean
+df_document_restore (DfDocument  *self,
+                     const char  *data,
+                     const char  *source,
+                     const char  *path,
+                     const char  *display_name,
+                     GError     **error)
+{
+  df_project *project;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+
+  project = df_project_from_data (data, source, error);
+  if (project == NULL || !df_document_set_project (self, project, path, error))
+    return FALSE;
+  apply_marks (self, data);
+  if (display_name != NULL && display_name[0] != '\0')
+    df_document_set_display_name (self, display_name);
+  /* Not what is on disk: unsaved until the user saves it. */
+  g_clear_pointer (&self->saved_snapshot, g_free);
+  update_modified (self);
   return TRUE;
 }
 
@@ -430,6 +539,13 @@ df_document_set_display_name (DfDocument *self,
   g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_PATH]);
 }
 
+const char *
+df_document_get_display_name (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->display_name;
+}
+
 gboolean
 df_document_get_modified (DfDocument *self)
 {
@@ -461,12 +577,94 @@ df_document_get_units (DfDocument *self)
   return self->spec->units;
 }
 
+/* One loop carried from the old surface to the new one by its points in space. */
+typedef struct
+{
+  double (*uv)[2];
+  gsize    n;
+  char    *off;       /* why it does not fit, or NULL */
+} Carried;
+
+typedef struct
+{
+  const df_surface *from;
+  const df_surface *to;
+  const char       *units;
+  GPtrArray        *items;    /* of DfLoopItem (borrowed) */
+  Carried          *out;      /* one per item */
+} CarryJob;
+
+/* Projects each point's old place onto the new surface (the core's closest point). A point
+ * that cannot be evaluated on the old surface or projected counts as not fitting. On a
+ * periodic v the projected angles are unwrapped along the loop, as a sketch is. */
+static void
+carry_guarded (gpointer user_data)
+{
+  CarryJob *job = user_data;
+  double tolerance = DF_CARRY_TOLERANCE * df_surface_size (job->to);
+  gboolean periodic = df_surface_v_periodic (job->to);
+
+  for (guint i = 0; i < job->items->len; i++)
+    {
+      DfLoopItem *item = g_ptr_array_index (job->items, i);
+      const double (*uv)[2];
+      Carried *c = &job->out[i];
+      double worst = 0;
+      gsize worst_at = 0, n;
+      gboolean failed = FALSE;
+
+      uv = df_loop_item_get_points (item, &n);
+      c->uv = g_malloc_n (MAX (n, 1), sizeof (double[2]));
+      c->n = n;
+      for (gsize k = 0; k < n; k++)
+        {
+          df_chart_jet jet;
+          double u = uv[k][0], v = uv[k][1], dist = 0;
+
+          if (df_surface_eval (job->from, uv[k][0], uv[k][1], 0, &jet, NULL) != DF_OK
+              || df_surface_project (job->to, jet.x, 0, &u, &v, &dist, NULL) != DF_OK
+              || !isfinite (dist))
+            {
+              failed = TRUE;
+              worst_at = k;
+              break;
+            }
+          if (periodic && k > 0)
+            v += 2 * G_PI * round ((c->uv[k - 1][1] - v) / (2 * G_PI));
+          c->uv[k][0] = u;
+          c->uv[k][1] = v;
+          if (dist > worst)
+            {
+              worst = dist;
+              worst_at = k;
+            }
+        }
+      if (failed)
+        {
+          /* Keep the old chart values: they are only a placeholder, never measured. */
+          memcpy (c->uv, uv, n * sizeof *uv);
+          c->off = g_strdup_printf ("point %zu has no closest point on it", worst_at + 1);
+        }
+      else if (worst > tolerance)
+        {
+          g_autofree char *far = g_strdup_printf ("%.3g %s", worst, job->units);
+          g_autofree char *tol = g_strdup_printf ("%.3g %s", tolerance, job->units);
+          c->off = g_strdup_printf ("point %zu lies %s from it (tolerance %s); kept at the "
+                                    "closest points, not measured; Undo brings the old "
+                                    "surface back", worst_at + 1, far, tol);
+        }
+    }
+}
+
 gboolean
 df_document_set_spec (DfDocument            *self,
                       const df_surface_spec *spec,
                       GError               **error)
 {
   g_autoptr(df_surface) surface = NULL;
+  g_autoptr(GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
+  CarryJob job = { 0 };
+  guint n;
 
   g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
   g_return_val_if_fail (spec != NULL, FALSE);
@@ -475,15 +673,60 @@ df_document_set_spec (DfDocument            *self,
   if (surface == NULL)
     return FALSE;
 
+  /* Loops keep their places in space, not their chart numbers: (t, φ) of a lamp shade read as
+   * (x, y) on a plane would be another loop altogether. */
+  n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
+  for (guint i = 0; i < n; i++)
+    g_ptr_array_add (items, g_list_model_get_item (G_LIST_MODEL (self->loops), i));
+  job.from = self->surface;
+  job.to = surface;
+  job.units = spec->units != NULL && spec->units[0] != '\0' ? spec->units : "mm";
+  job.items = items;
+  job.out = g_new0 (Carried, MAX (n, 1));
+  if (self->surface != NULL && n > 0
+      && !df_guard_call (carry_guarded, &job, "carrying the loops to the new surface", error))
+    {
+      g_free (job.out);
+      return FALSE;
+    }
+
   push_history (self, "surface change");
   df_surface_spec_free (self->spec);
   self->spec = df_surface_spec_copy (spec);
   df_surface_free (self->surface);
   self->surface = g_steal_pointer (&surface);
+  self->last_carried = self->last_off = 0;
+  for (guint i = 0; i < n && job.from != NULL; i++)
+    {
+      DfLoopItem *item = g_ptr_array_index (items, i);
+      Carried *c = &job.out[i];
+
+      df_loop_item_set_points (item, (const double (*)[2]) c->uv, c->n);
+      /* A loop already off the surface stays off: its true place was left behind. */
+      if (c->off != NULL && df_loop_item_get_off_surface (item) == NULL)
+        df_loop_item_set_off_surface (item, c->off);
+      if (df_loop_item_get_off_surface (item) != NULL)
+        self->last_off++;
+      else
+        self->last_carried++;
+      g_free (c->uv);
+      g_free (c->off);
+    }
+  g_free (job.out);
   g_signal_emit (self, signals[SURFACE_CHANGED], 0);
   measure_all (self);
   update_modified (self);
   return TRUE;
+}
+
+void
+df_document_get_last_carry (DfDocument *self,
+                            guint      *carried,
+                            guint      *off)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  *carried = self->last_carried;
+  *off = self->last_off;
 }
 
 GListModel *
@@ -699,7 +942,7 @@ step (DfDocument *self,
   target = undo ? df_history_undo (self->history, snapshot (self))
                 : df_history_redo (self->history, snapshot (self));
   project = df_project_from_data (target, "undo history", &error);
-  if (project == NULL || !replace_state (self, project, &error))
+  if (project == NULL || !replace_state (self, project, target, &error))
     /* Snapshots were written by this program from a state that built: a failure here is a
      * bug, not bad input. */
     g_warning ("Cannot restore the project from the undo history: %s", error->message);

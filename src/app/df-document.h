@@ -22,6 +22,15 @@ gboolean              df_document_set_project      (DfDocument  *self,
                                                     df_project  *project,
                                                     const char  *path,
                                                     GError     **error);
+/* Like set_project from project text (an autosave; source names it in messages), for work
+ * recovered after a crash: the document counts as modified (it is
+ * not what path holds), and display_name (may be NULL) names it while it has no path. */
+gboolean              df_document_restore          (DfDocument  *self,
+                                                    const char  *data,
+                                                    const char  *source,
+                                                    const char  *path,
+                                                    const char  *display_name,
+                                                    GError     **error);
 /* Opens a .dfproj, or a .surface as a new project without loops. */
 gboolean              df_document_load             (DfDocument  *self,
                                                     const char  *path,
@@ -40,6 +49,7 @@ gboolean              df_document_get_modified     (DfDocument *self);
 /* A name for an unsaved project ("demo.dfproj (copy)"), shown until it is saved; cleared by
  * set_project. */
 void                  df_document_set_display_name (DfDocument *self, const char *name);
+const char           *df_document_get_display_name (DfDocument *self);
 
 const df_surface_spec *df_document_get_spec        (DfDocument *self);
 const df_surface     *df_document_get_surface      (DfDocument *self);
@@ -61,6 +71,10 @@ const df_limits      *df_document_get_limits       (DfDocument *self);
 void                  df_document_set_record       (DfDocument *self,
                                                     const char *key,
                                                     const char *value);
+/* After set_spec: how many loops were placed on the new surface, and how many were left off
+ * it (marked, see df_loop_item_set_off_surface). */
+void                  df_document_get_last_carry   (DfDocument *self, guint *carried,
+                                                    guint *off);
 
 /* The loops, a GListModel of DfLoopItem. */
 GListModel           *df_document_get_loops        (DfDocument *self);

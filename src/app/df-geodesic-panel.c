@@ -15,7 +15,28 @@ struct _DfGeodesicPanel
   GtkLabel *end_value;
   GtkLabel *note_label;
   GtkLabel *error_label;
+  GtkEntry *start_entry;
+  GtkEntry *heading_entry;
+  GtkEntry *length_entry;
+  GtkLabel *reference_label;
 };
+
+enum
+{
+  SHOOT_REQUESTED,
+  N_SIGNALS
+};
+
+static guint signals[N_SIGNALS];
+
+static void
+shoot_activate_cb (DfGeodesicPanel *self)
+{
+  g_signal_emit (self, signals[SHOOT_REQUESTED], 0,
+                 gtk_editable_get_text (GTK_EDITABLE (self->start_entry)),
+                 gtk_editable_get_text (GTK_EDITABLE (self->heading_entry)),
+                 gtk_editable_get_text (GTK_EDITABLE (self->length_entry)));
+}
 
 G_DEFINE_FINAL_TYPE (DfGeodesicPanel, df_geodesic_panel, GTK_TYPE_WIDGET)
 
@@ -78,6 +99,16 @@ df_geodesic_panel_class_init (DfGeodesicPanelClass *klass)
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, end_value);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, note_label);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, error_label);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, start_entry);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, heading_entry);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, length_entry);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, reference_label);
+  gtk_widget_class_bind_template_callback (widget_class, shoot_activate_cb);
+
+  /* The typed start, heading and length (the entries' texts) were confirmed. */
+  signals[SHOOT_REQUESTED] =
+    g_signal_new ("shoot-requested", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL,
+                  NULL, NULL, G_TYPE_NONE, 3, G_TYPE_STRING, G_TYPE_STRING, G_TYPE_STRING);
   gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
   gtk_widget_class_set_css_name (widget_class, "dfgeodesicpanel");
 }
@@ -151,4 +182,24 @@ df_geodesic_panel_clear (DfGeodesicPanel *self)
     gtk_label_set_text (values[i], "\u2014");
   show_text (self->note_label, NULL);
   show_text (self->error_label, NULL);
+}
+
+void
+df_geodesic_panel_set_chart (DfGeodesicPanel *self,
+                             const char      *start_hint,
+                             const char      *reference,
+                             const char      *units)
+{
+  g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
+
+  gtk_entry_set_placeholder_text (self->start_entry, start_hint);
+  gtk_label_set_text (self->reference_label, reference);
+  gtk_entry_set_placeholder_text (self->length_entry, units);
+}
+
+void
+df_geodesic_panel_focus_entry (DfGeodesicPanel *self)
+{
+  g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
+  gtk_widget_grab_focus (GTK_WIDGET (self->start_entry));
 }

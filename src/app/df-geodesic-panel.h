@@ -20,5 +20,11 @@ void       df_geodesic_panel_show       (DfGeodesicPanel          *self,
                                          const char               *units);
 void       df_geodesic_panel_show_error (DfGeodesicPanel *self, const char *message);
 void       df_geodesic_panel_clear      (DfGeodesicPanel *self);
+/* The typed-shot entries: what the start asks for, the heading's reference ("0° = along +t,
+ * anticlockwise about N") and the length unit. Texts come back in "shoot-requested" (start,
+ * heading, length strings). */
+void       df_geodesic_panel_set_chart  (DfGeodesicPanel *self, const char *start_hint,
+                                         const char *reference, const char *units);
+void       df_geodesic_panel_focus_entry (DfGeodesicPanel *self);
 
 G_END_DECLS

@@ -1,6 +1,7 @@
 /* df-legend-bar.c: DfLegendBar draws, with GtkSnapshot, the quantity and unit on one line, the
  * colour ramp (df_shading_ramp_colour, the same stops the surface shader uses) as a gradient bar,
  * and the end values and zero under it. */
+#include "df-format.h"
 #include "df-legend-bar.h"
 
 #include <math.h>
@@ -34,40 +35,13 @@ struct _DfLegendBar
 
 G_DEFINE_FINAL_TYPE (DfLegendBar, df_legend_bar, GTK_TYPE_WIDGET)
 
-/* "-6.94e-05" as "−6.94×10⁻⁵": a true minus sign and a superscript exponent. */
+/* The app's one number format (df-format.c): "−3.960×10⁻⁵" and "0.01234" alike. */
 static char *
 format_value (double value)
 {
-  static const char *const superscript[10] = { "\u2070", "\u00b9", "\u00b2", "\u00b3",
-                                                "\u2074", "\u2075", "\u2076", "\u2077",
-                                                "\u2078", "\u2079" };
-  g_autofree char *text = NULL;
-  g_autofree char *digits = NULL;
-  GString *out;
-  char *e;
-
   if (value == 0 || !isfinite (value))
     return g_strdup ("0");
-  text = g_strdup_printf ("%.3g", fabs (value));
-  out = g_string_new (value < 0 ? "\u2212" : NULL);
-  e = strchr (text, 'e');
-  if (e == NULL)
-    {
-      g_string_append (out, text);
-      return g_string_free (out, FALSE);
-    }
-  *e = '\0';
-  g_string_append (out, text);
-  g_string_append (out, "\u00d710");
-  {
-    int exponent = atoi (e + 1);
-    if (exponent < 0)
-      g_string_append (out, "\u207b");
-    digits = g_strdup_printf ("%d", ABS (exponent));
-    for (const char *p = digits; *p != '\0'; p++)
-      g_string_append (out, superscript[*p - '0']);
-  }
-  return g_string_free (out, FALSE);
+  return df_format_number (value);
 }
 
 static char *

@@ -21,6 +21,7 @@ struct _DfLoopItem
   df_loop_result *result;
   char           *error;
   char           *summary;
+  char           *off_surface;   /* why the loop does not lie on the surface, or NULL */
   GCancellable   *cancellable;
 };
 
@@ -63,6 +64,7 @@ df_loop_item_finalize (GObject *object)
   g_clear_pointer (&self->result, df_work_loop_result_free);
   g_free (self->error);
   g_free (self->summary);
+  g_free (self->off_surface);
   G_OBJECT_CLASS (df_loop_item_parent_class)->finalize (object);
 }
 
@@ -132,7 +134,7 @@ df_loop_item_class_init (DfLoopItemClass *klass)
                          G_PARAM_READWRITE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
   properties[PROP_COLOUR] =
     g_param_spec_string ("colour", NULL, NULL, NULL,
-                         G_PARAM_READABLE | G_PARAM_STATIC_STRINGS);
+                         G_PARAM_READABLE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
   properties[PROP_SHOW_FRAMES] =
     g_param_spec_boolean ("show-frames", NULL, NULL, FALSE,
                           G_PARAM_READWRITE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
@@ -332,6 +334,58 @@ df_loop_item_set_failed (DfLoopItem *self,
   g_free (self->error);
   self->error = g_strdup (message != NULL ? message : "unknown failure");
   set_state (self, DF_LOOP_FAILED);
+}
+
+void
+df_loop_item_set_points (DfLoopItem    *self,
+                         const double (*uv)[2],
+                         gsize          n)
+{
+  g_return_if_fail (DF_IS_LOOP_ITEM (self));
+
+  g_free (self->uv);
+  self->uv = g_memdup2 (uv, n * sizeof *uv);
+  self->n = n;
+}
+
+void
+df_loop_item_set_colour (DfLoopItem *self,
+                         const char *colour)
+{
+  g_return_if_fail (DF_IS_LOOP_ITEM (self));
+
+  if (colour == NULL || g_strcmp0 (self->colour, colour) == 0)
+    return;
+  g_free (self->colour);
+  self->colour = g_strdup (colour);
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_COLOUR]);
+}
+
+void
+df_loop_item_set_off_surface (DfLoopItem *self,
+                              const char *why)
+{
+  g_return_if_fail (DF_IS_LOOP_ITEM (self));
+
+  g_free (self->off_surface);
+  self->off_surface = g_strdup (why);
+  if (why != NULL)
+    {
+      g_autofree char *message = NULL;
+
+      /* A measurement on the way is of the loop's points, not of the loop. */
+      if (self->cancellable != NULL)
+        g_cancellable_cancel (self->cancellable);
+      message = g_strdup_printf ("off the new surface: %s", why);
+      df_loop_item_set_failed (self, message);
+    }
+}
+
+const char *
+df_loop_item_get_off_surface (DfLoopItem *self)
+{
+  g_return_val_if_fail (DF_IS_LOOP_ITEM (self), NULL);
+  return self->off_surface;
 }
 
 GCancellable *

@@ -50,6 +50,18 @@ void                  df_loop_item_set_pending  (DfLoopItem *self);
 void                  df_loop_item_set_result   (DfLoopItem *self, df_loop_result *result);
 void                  df_loop_item_set_failed   (DfLoopItem *self, const char *message);
 
+/* Replaces the chart points (copied); the caller re-measures. */
+void                  df_loop_item_set_points   (DfLoopItem *self, const double (*uv)[2],
+                                                 gsize n);
+/* "#rrggbb"; notifies "colour". */
+void                  df_loop_item_set_colour   (DfLoopItem *self, const char *colour);
+/* Marks the loop as lying off the surface (why: "point 12 is 35 mm from it"), or clears the
+ * mark (NULL). A marked loop is failed with that message and is not measured: its points
+ * are the closest ones on the surface, kept so the project stays valid, not a loop to read
+ * numbers from. */
+void                  df_loop_item_set_off_surface (DfLoopItem *self, const char *why);
+const char           *df_loop_item_get_off_surface (DfLoopItem *self);
+
 /* Cancels a running measurement and returns a fresh cancellable for the next one
  * (owned by the item). */
 GCancellable         *df_loop_item_restart_cancellable (DfLoopItem *self);

@@ -14,7 +14,25 @@ struct _DfProbePanel
   GtkLabel *hint_label;
   GtkLabel *error_label;
   GtkBox   *content_box;
+  GtkEntry *at_entry;
 };
+
+enum
+{
+  PROBE_REQUESTED,
+  N_SIGNALS
+};
+
+static guint signals[N_SIGNALS];
+
+static void
+at_activate_cb (DfProbePanel *self)
+{
+  const char *text = gtk_editable_get_text (GTK_EDITABLE (self->at_entry));
+
+  if (text[0] != '\0')
+    g_signal_emit (self, signals[PROBE_REQUESTED], 0, text);
+}
 
 G_DEFINE_FINAL_TYPE (DfProbePanel, df_probe_panel, GTK_TYPE_WIDGET)
 
@@ -65,6 +83,9 @@ table_add (GtkWidget  *grid,
   gtk_label_set_xalign (GTK_LABEL (n), 0.0);
   gtk_label_set_xalign (GTK_LABEL (v), 0.0);
   gtk_label_set_selectable (GTK_LABEL (v), TRUE);
+  /* Selectable for copying with the mouse, but not a Tab stop: a table of numbers would
+   * otherwise take dozens of presses to get through. */
+  gtk_widget_set_focusable (v, FALSE);
   gtk_widget_set_hexpand (v, TRUE);
   gtk_widget_add_css_class (v, "numeric");
   gtk_accessible_update_property (GTK_ACCESSIBLE (v), GTK_ACCESSIBLE_PROPERTY_LABEL, name, -1);
@@ -131,6 +152,13 @@ df_probe_panel_class_init (DfProbePanelClass *klass)
   gtk_widget_class_bind_template_child (widget_class, DfProbePanel, hint_label);
   gtk_widget_class_bind_template_child (widget_class, DfProbePanel, error_label);
   gtk_widget_class_bind_template_child (widget_class, DfProbePanel, content_box);
+  gtk_widget_class_bind_template_child (widget_class, DfProbePanel, at_entry);
+  gtk_widget_class_bind_template_callback (widget_class, at_activate_cb);
+
+  /* The typed point (the entry's text) was confirmed; the window parses and probes it. */
+  signals[PROBE_REQUESTED] =
+    g_signal_new ("probe-requested", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL,
+                  NULL, NULL, G_TYPE_NONE, 1, G_TYPE_STRING);
   gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
   gtk_widget_class_set_css_name (widget_class, "dfprobepanel");
 }
@@ -239,6 +267,18 @@ df_probe_panel_show (DfProbePanel            *self,
                             "(t, φ); the curvatures above are their exact limits."));
       return;
     }
+  /* Near a pole the chart's Christoffel symbols grow like 1/r while the geometry is smooth:
+   * say so before someone reads Γ of several hundred as a property of the part. "Near": within
+   * 2 % of the surface's size of the axis (common practice, no source). */
+  if (rev && hypot (g->point[0], g->point[1]) < 0.02 * df_surface_size (surface))
+    {
+      GtkWidget *warning = note ("Near a singular point of the chart (a pole, r → 0): the "
+                                 "Christoffel symbols and metric below are large because the "
+                                 "(t, φ) chart degenerates there, not because the surface "
+                                 "does; the curvatures above are unaffected.");
+      gtk_widget_add_css_class (warning, "df-error");
+      gtk_box_append (self->content_box, warning);
+    }
 
   /* Metric */
   gtk_box_append (self->content_box, heading ("Metric g<sub>ij</sub>"));
@@ -338,4 +378,19 @@ df_probe_panel_clear (DfProbePanel *self)
   gtk_label_set_text (self->hint_label,
                       "Choose “Probe” in the header bar (Ctrl+3) and click the surface to read "
                       "its local geometry there.");
+}
+
+void
+df_probe_panel_set_placeholder (DfProbePanel *self,
+                                const char   *text)
+{
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+  gtk_entry_set_placeholder_text (self->at_entry, text);
+}
+
+void
+df_probe_panel_focus_entry (DfProbePanel *self)
+{
+  g_return_if_fail (DF_IS_PROBE_PANEL (self));
+  gtk_widget_grab_focus (GTK_WIDGET (self->at_entry));
 }

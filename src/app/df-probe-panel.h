@@ -21,5 +21,9 @@ void       df_probe_panel_show       (DfProbePanel            *self,
 /* Shows a failure (e.g. the point is outside the domain) instead of the tables. */
 void       df_probe_panel_show_error (DfProbePanel *self, const char *message);
 void       df_probe_panel_clear      (DfProbePanel *self);
+/* The typed-point entry: what it asks for (chart names of the surface), and the focus. Its
+ * text comes back in "probe-requested" (string). */
+void       df_probe_panel_set_placeholder (DfProbePanel *self, const char *text);
+void       df_probe_panel_focus_entry     (DfProbePanel *self);
 
 G_END_DECLS

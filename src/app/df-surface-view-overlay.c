@@ -180,8 +180,30 @@ _df_surface_view_rebuild_overlay (DfSurfaceView *self)
   static const GdkRGBA start = { 0.05f, 0.05f, 0.07f, 1.0f };
   static const GdkRGBA returned = { 0.85f, 0.05f, 0.55f, 1.0f };
   double size = scene_size (self);
+  double frame_size = size;
   GHashTableIter iter;
   gpointer value;
+
+  /* Frame arrows scale with the loop as well as the surface: on a small loop arrows sized for
+   * the whole part make a cage larger than the loop. A quarter of the extent of the frame
+   * origins keeps them inside it (common practice, no source). */
+  if (self->n_frames > 1)
+    {
+      double lo[3] = { G_MAXDOUBLE, G_MAXDOUBLE, G_MAXDOUBLE };
+      double hi[3] = { -G_MAXDOUBLE, -G_MAXDOUBLE, -G_MAXDOUBLE };
+      double extent;
+
+      for (gsize i = 0; i < self->n_frames; i++)
+        for (int k = 0; k < 3; k++)
+          {
+            lo[k] = MIN (lo[k], self->frames[9 * i + k]);
+            hi[k] = MAX (hi[k], self->frames[9 * i + k]);
+          }
+      extent = sqrt ((hi[0] - lo[0]) * (hi[0] - lo[0]) + (hi[1] - lo[1]) * (hi[1] - lo[1])
+                     + (hi[2] - lo[2]) * (hi[2] - lo[2]));
+      if (extent > 0 && 0.25 * extent < HIGHLIGHT_LENGTH * size)
+        frame_size = 0.25 * extent / HIGHLIGHT_LENGTH;
+    }
 
   g_array_set_size (self->line_data, 0);
   g_array_set_size (self->solid_data, 0);
@@ -200,7 +222,7 @@ _df_surface_view_rebuild_overlay (DfSurfaceView *self)
     {
       const double *f = &self->frames[9 * i];
       gboolean first = i == 0, last = i + 1 == self->n_frames && i > 0;
-      double length = (first || last ? HIGHLIGHT_LENGTH : FRAME_LENGTH) * size;
+      double length = (first || last ? HIGHLIGHT_LENGTH : FRAME_LENGTH) * frame_size;
 
       if (first || last)
         continue;   /* drawn after the others, so they stay on top */
@@ -213,7 +235,7 @@ _df_surface_view_rebuild_overlay (DfSurfaceView *self)
       for (int e = 0; e < (self->n_frames > 1 ? 2 : 1); e++)
         {
           const double *f = &self->frames[9 * ends[e]];
-          double length = HIGHLIGHT_LENGTH * size;
+          double length = HIGHLIGHT_LENGTH * frame_size;
           push_arrow (self, f, f + 6, 0.7 * length, &partner, 2.5f);
           push_arrow (self, f, f + 3, length, e == 0 ? &start : &returned, 3.5f);
         }

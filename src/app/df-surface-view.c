@@ -4,6 +4,7 @@
  * input, picking and the mesh hand-over; drawing is in df-surface-view-gl.c and the overlay
  * vertex arrays in df-surface-view-overlay.c. Geometry comes from the core. */
 #include "df-surface-view-private.h"
+#include "df-work-guard.h"
 
 #include <epoxy/gl.h>
 #include <math.h>
@@ -140,11 +141,9 @@ mesh_data_build (const df_surface *surface)
   /* Meridians of a surface of revolution every 15 degrees, a division the trade reads. */
   data->iso_step[1] = df_surface_v_periodic (surface) ? G_PI / 12 : nice_step (v_max - v_min);
 
-  /* Software rasterizers spend most of a frame on triangle setup: a quarter of the triangles
-   * keeps orbiting fluid, and the full mesh returns as soon as the view stops. */
-  data->coarse = df_mesh_coarse_indices (data->mesh, 2, &data->n_coarse);
-  if (data->coarse == NULL)
-    data->n_coarse = 0;
+  /* No coarse mesh while moving any more (see df_surface_view_render). */
+  data->coarse = NULL;
+  data->n_coarse = 0;
 
   count = df_mesh_n_vertices (data->mesh);
   x = df_mesh_positions (data->mesh);
@@ -176,6 +175,20 @@ build_job_free (BuildJob *job)
   g_free (job);
 }
 
+typedef struct
+{
+  const df_surface *surface;
+  MeshData         *data;
+} GuardedBuild;
+
+static void
+mesh_build_guarded (gpointer user_data)
+{
+  GuardedBuild *build = user_data;
+
+  build->data = mesh_data_build (build->surface);
+}
+
 static void
 mesh_build_thread (GTask        *task,
                    gpointer      source,
@@ -183,8 +196,17 @@ mesh_build_thread (GTask        *task,
                    GCancellable *cancellable)
 {
   BuildJob *job = task_data;
+  GuardedBuild build = { job->surface, NULL };
+  g_autoptr (GError) error = NULL;
 
-  g_task_return_pointer (task, mesh_data_build (job->surface), (GDestroyNotify) mesh_data_free);
+  /* A crash while meshing (a degenerate surface the core mishandles) leaves an empty mesh
+   * with the reason, shown like any other "cannot be drawn". */
+  if (!df_guard_call (mesh_build_guarded, &build, "drawing the surface", &error))
+    {
+      build.data = g_new0 (MeshData, 1);
+      build.data->problem = g_strdup_printf ("The surface cannot be drawn: %s", error->message);
+    }
+  g_task_return_pointer (task, build.data, (GDestroyNotify) mesh_data_free);
 }
 
 static void start_mesh_build (DfSurfaceView *self);
@@ -428,7 +450,10 @@ df_surface_view_render (GtkGLArea    *area,
     return FALSE;
   start = g_get_monotonic_time ();
   _df_surface_view_gl_upload (self);
-  _df_surface_view_gl_draw (self, self->fb_width, self->fb_height, self->moving || self->bench != NULL);
+  /* The full mesh always: with GTK's cairo renderer on a software driver (df-gl-renderer.c)
+   * it orbits at the display's rate, and a coarser mesh while moving let loops drawn on the
+   * full surface dip behind it. */
+  _df_surface_view_gl_draw (self, self->fb_width, self->fb_height, FALSE);
   if (self->bench != NULL)
     {
       gint64 now, spent;

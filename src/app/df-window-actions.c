@@ -95,6 +95,22 @@ open_action (GtkWidget  *widget,
 }
 
 static void
+type_values_action (GtkWidget  *widget,
+                    const char *name,
+                    GVariant   *parameter)
+{
+  _df_window_focus_typed (DF_WINDOW (widget));
+}
+
+static void
+replace_surface_action (GtkWidget  *widget,
+                        const char *name,
+                        GVariant   *parameter)
+{
+  _df_window_replace_surface_dialog (DF_WINDOW (widget));
+}
+
+static void
 open_surface_action (GtkWidget  *widget,
                      const char *name,
                      GVariant   *parameter)
@@ -163,7 +179,8 @@ open_demo_confirmed (DfWindow *self)
       _df_window_show_error (self, "Cannot open the demo project", error);
       return;
     }
-  df_document_set_display_name (self->document, "Lamp-shade demo (unsaved)");
+  /* The name only: the title bar's subtitle and the dialogs say that it has no file yet. */
+  df_document_set_display_name (self->document, "Lamp-shade demo");
   gtk_stack_set_visible_child_name (self->panel_stack, "loops");
   _df_window_status (self, FALSE, "Demo: a lamp-shade mould with three plies (from %s).", path);
 }
@@ -320,6 +337,9 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.open", NULL, open_action);
   gtk_widget_class_install_action (widget_class, "win.open-surface", NULL, open_surface_action);
   gtk_widget_class_install_action (widget_class, "win.open-recent", "s", open_recent_action);
+  gtk_widget_class_install_action (widget_class, "win.replace-surface", NULL,
+                                   replace_surface_action);
+  gtk_widget_class_install_action (widget_class, "win.type-values", NULL, type_values_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.save", NULL, save_action);
   gtk_widget_class_install_action (widget_class, "win.save-as", NULL, save_as_action);
@@ -362,6 +382,10 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_s,
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.save-as", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_r, GDK_CONTROL_MASK,
+                                       "win.replace-surface", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_t, GDK_CONTROL_MASK,
+                                       "win.type-values", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK,
                                        "win.import-loop", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_e, GDK_CONTROL_MASK,
@@ -395,6 +419,7 @@ _df_window_actions_update (DfWindow *self)
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.save", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.save-as", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.import-loop", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.replace-surface", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-samples", measured);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-samples-dialog", measured);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-summary", n_loops > 0);

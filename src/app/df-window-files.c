@@ -97,6 +97,25 @@ add_filter (GtkFileChooser *chooser,
   gtk_file_chooser_add_filter (chooser, filter);
 }
 
+/* File dialogs start in the project's folder (else the most recent file's), not in the
+ * working folder of the process or GTK's "Recent" list. */
+static void
+start_in_project_folder (DfWindow       *self,
+                         GtkFileChooser *chooser)
+{
+  const char *path = df_document_get_path (self->document);
+  g_autofree char *dir = NULL;
+
+  if (path == NULL && self->recent != NULL && self->recent[0] != NULL)
+    path = self->recent[0];
+  dir = path != NULL ? g_path_get_dirname (path) : g_get_current_dir ();
+  if (g_file_test (dir, G_FILE_TEST_IS_DIR))
+    {
+      g_autoptr(GFile) folder = g_file_new_for_path (dir);
+      gtk_file_chooser_set_current_folder (chooser, folder, NULL);
+    }
+}
+
 static char *
 chooser_path (GtkNativeDialog *dialog)
 {
@@ -138,6 +157,7 @@ open_dialog_now (DfWindow *self,
       add_filter (GTK_FILE_CHOOSER (chooser), "driftframe projects (*.dfproj)", "*.dfproj");
     }
   add_filter (GTK_FILE_CHOOSER (chooser), "Surfaces (*.surface)", "*.surface");
+  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   g_signal_connect (chooser, "response", G_CALLBACK (open_response_cb), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
@@ -164,6 +184,55 @@ _df_window_open_dialog (DfWindow *self,
                               "opening another file");
 }
 
+/* ---- replace the surface ----------------------------------------------------------------- */
+
+gboolean
+_df_window_replace_surface_path (DfWindow    *self,
+                                 const char  *path,
+                                 GError     **error)
+{
+  g_autoptr(df_surface_spec) spec = df_surface_spec_load (path, error);
+  guint carried = 0, off = 0;
+
+  if (spec == NULL || !df_document_set_spec (self->document, spec, error))
+    return FALSE;
+  df_document_get_last_carry (self->document, &carried, &off);
+  if (carried + off == 0)
+    _df_window_status (self, FALSE, "Surface replaced.");
+  else
+    _df_window_status (self, off > 0, "Surface replaced: %u loop%s carried over by their places "
+                     "in space%s%u off the new surface (kept, not measured; Ctrl+Z undoes it).",
+                     carried, carried == 1 ? "" : "s", off > 0 ? ", " : "; ", off);
+  return TRUE;
+}
+
+static void
+replace_response_cb (GtkNativeDialog *dialog,
+                     int              response,
+                     DfWindow        *self)
+{
+  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? chooser_path (dialog) : NULL;
+  g_autoptr(GError) error = NULL;
+
+  if (path != NULL && !_df_window_replace_surface_path (self, path, &error))
+    _df_window_show_error (self, "The surface was not replaced", error);
+  g_object_unref (dialog);
+}
+
+void
+_df_window_replace_surface_dialog (DfWindow *self)
+{
+  GtkFileChooserNative *chooser;
+
+  chooser = gtk_file_chooser_native_new ("Replace Surface", GTK_WINDOW (self),
+                                         GTK_FILE_CHOOSER_ACTION_OPEN, "_Replace", "_Cancel");
+  add_filter (GTK_FILE_CHOOSER (chooser), "Surfaces (*.surface)", "*.surface");
+  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+  gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
+  g_signal_connect (chooser, "response", G_CALLBACK (replace_response_cb), self);
+  gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
+}
+
 /* ---- save ------------------------------------------------------------------------------ */
 
 typedef struct
@@ -186,6 +255,11 @@ save_to (DfWindow   *self,
     }
   _df_window_add_recent (self, path);
   _df_window_status (self, FALSE, "Saved %s.", base);
+  if (self->startup.report_events)
+    {
+      printf ("saved %s\n", path);
+      fflush (stdout);
+    }
   return TRUE;
 }
 
@@ -237,7 +311,14 @@ save_then (DfWindow *self,
       gtk_file_chooser_set_file (GTK_FILE_CHOOSER (chooser), file, NULL);
     }
   else
-    gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), "project.dfproj");
+    {
+      g_autofree char *title = df_document_get_title (self->document);
+      g_autofree char *name = g_strconcat (title, ".dfproj", NULL);
+
+      start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+      g_strdelimit (name, "/\\", '-');
+      gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), name);
+    }
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   job = g_new0 (SaveJob, 1);
   job->self = g_object_ref (self);
@@ -289,6 +370,7 @@ _df_window_confirm_discard (DfWindow   *self,
                                    GTK_DIALOG_MODAL | GTK_DIALOG_DESTROY_WITH_PARENT,
                                    GTK_MESSAGE_QUESTION, GTK_BUTTONS_NONE,
                                    "Save changes to “%s” before %s?", title, verb);
+  gtk_window_set_title (GTK_WINDOW (dialog), "Unsaved changes");
   gtk_message_dialog_format_secondary_text (GTK_MESSAGE_DIALOG (dialog),
                                             "Loops and surface edits made since the last save "
                                             "are lost if you don't save them.");
@@ -339,6 +421,7 @@ _df_window_import_loop_dialog (DfWindow *self)
   chooser = gtk_file_chooser_native_new ("Import Loop", GTK_WINDOW (self),
                                          GTK_FILE_CHOOSER_ACTION_OPEN, "_Import", "_Cancel");
   add_filter (GTK_FILE_CHOOSER (chooser), "Loop CSV (u,v or x,y,z columns)", "*.csv");
+  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   g_signal_connect (chooser, "response", G_CALLBACK (import_response_cb), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
@@ -556,6 +639,7 @@ _df_window_export_dialog (DfWindow   *self,
       gtk_file_chooser_add_choice (GTK_FILE_CHOOSER (chooser), "size", "Size", ids, labels);
       gtk_file_chooser_set_choice (GTK_FILE_CHOOSER (chooser), "size", "view");
     }
+  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), name);
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   job = g_new0 (ExportJob, 1);

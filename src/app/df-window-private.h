@@ -86,9 +86,12 @@ struct _DfWindow
   guint         export_idle_id;
   gboolean      bench_started;
   gboolean      view_reported;
+  guint         autosave_id;        /* pending autosave timeout */
+  char         *autosave_path;      /* this window's autosave file; NULL when not autosaving */
 
   GArray       *loop_curve_ids;     /* of guint: loop curves now in the view */
-  char         *shown_shape;        /* "kind/preset" of the surface in the view, to spot a new shape */
+  char         *shown_shape;
+  char         *selected_name;      /* the loop last selected, found again after undo */        /* "kind/preset" of the surface in the view, to spot a new shape */
 
   /* pointer position over the view, widget coordinates (for sketch size checks) */
   double        pointer_x, pointer_y;
@@ -108,6 +111,7 @@ struct _DfWindow
   GArray       *path_a;             /* of double[2] */
   GArray       *path_b;
   GCancellable *paths_cancellable;
+  gboolean      paths_long_legs;    /* B's ends were far from A's and were joined to them */
 
   /* Geodesic */
   gboolean      geodesic_pressed;
@@ -118,11 +122,20 @@ struct _DfWindow
 void     _df_window_actions_class_init (GtkWidgetClass *widget_class);
 void     _df_window_actions_update     (DfWindow *self);
 
+/* df-window-autosave.c */
+/* Starts autosaving this window's document and offers work left by a crashed run. */
+void     _df_window_autosave_init      (DfWindow *self);
+/* A clean close: stop, and remove this window's autosave. */
+void     _df_window_autosave_finish    (DfWindow *self);
+
 /* df-window-files.c */
 gboolean _df_window_open_path          (DfWindow *self, const char *path, GError **error);
 void     _df_window_open_dialog        (DfWindow *self, gboolean surface_only);
 void     _df_window_save               (DfWindow *self, gboolean ask_path);
 void     _df_window_import_loop_dialog (DfWindow *self);
+/* Gives the project the surface of a .surface file; loops are carried over (undoable). */
+void     _df_window_replace_surface_dialog (DfWindow *self);
+gboolean _df_window_replace_surface_path (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_samples     (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_summary     (DfWindow *self, const char *path, GError **error);
 gboolean _df_window_export_png         (DfWindow *self, const char *path, GError **error);
@@ -158,6 +171,8 @@ void     _df_window_tools_finalize     (DfWindow *self);
 void     _df_window_set_tool           (DfWindow *self, DfTool tool);
 void     _df_window_clear_geodesic     (DfWindow *self);
 void     _df_window_clear_paths        (DfWindow *self);
+/* Ctrl+T: the typed-value entry of the current tool (Probe unless Geodesic) gets the focus. */
+void     _df_window_focus_typed        (DfWindow *self);
 /* The surface changed: drop tool drawings that refer to the old one. */
 void     _df_window_tools_surface_changed (DfWindow *self);
 

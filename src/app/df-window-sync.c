@@ -2,6 +2,7 @@
  * view and the surface panel, one curve per loop, the selected loop's frames, the legend, the
  * title and the status line. Only copies and draws; the numbers come from the core. */
 #include <math.h>
+#include <stdio.h>
 
 #include "df-format.h"
 #include "df-window-private.h"
@@ -57,8 +58,10 @@ sync_title (DfWindow *self)
       for (guint i = 0; spec->preset != NULL && presets[i].name != NULL; i++)
         if (g_str_equal (presets[i].name, spec->preset))
           what = presets[i].title;
-      subtitle = g_strdup_printf ("%s, lengths in %s", what,
-                                  df_document_get_units (self->document));
+      subtitle = g_strdup_printf ("%s, lengths in %s%s", what,
+                                  df_document_get_units (self->document),
+                                  df_document_get_path (self->document) == NULL
+                                    ? ", no file yet" : "");
     }
   gtk_label_set_text (self->subtitle_label, subtitle != NULL ? subtitle : "");
 }
@@ -254,7 +257,8 @@ loop_changed_cb (DfDocument *document,
   _df_window_sync_loop (self, item);
   if (item == df_loops_panel_get_selected (self->loops_panel))
     _df_window_sync_frames (self);
-  if (df_loop_item_get_state (item) == DF_LOOP_FAILED)
+  if (df_loop_item_get_state (item) == DF_LOOP_FAILED
+      && df_loop_item_get_off_surface (item) == NULL)
     _df_window_status (self, TRUE, "“%s” was not measured: %s", df_loop_item_get_name (item),
                        df_loop_item_get_error (item));
   else if (df_loop_item_get_state (item) == DF_LOOP_MEASURED
@@ -284,7 +288,22 @@ loops_items_changed_cb (GListModel *model,
   else if (df_loops_panel_get_selected (self->loops_panel) == NULL
            && g_list_model_get_n_items (model) > 0)
     {
-      g_autoptr(DfLoopItem) item = g_list_model_get_item (model, 0);
+      /* Undo and redo replace every item: select the loop of the same name again; after a
+       * delete, its neighbour, not the first loop. */
+      guint n = g_list_model_get_n_items (model), pick = MIN (position, n - 1);
+      g_autoptr(DfLoopItem) item = NULL;
+
+      for (guint i = 0; i < n && self->selected_name != NULL; i++)
+        {
+          g_autoptr(DfLoopItem) candidate = g_list_model_get_item (model, i);
+
+          if (g_strcmp0 (df_loop_item_get_name (candidate), self->selected_name) == 0)
+            {
+              pick = i;
+              break;
+            }
+        }
+      item = g_list_model_get_item (model, pick);
       df_loops_panel_select (self->loops_panel, item);
     }
   _df_window_sync_frames (self);
@@ -312,6 +331,11 @@ selection_changed_cb (DfLoopsPanel *panel,
 {
   DfLoopItem *item = df_loops_panel_get_selected (panel);
 
+  if (item != NULL)
+    {
+      g_free (self->selected_name);
+      self->selected_name = g_strdup (df_loop_item_get_name (item));
+    }
   /* Redraw all so that the selected loop is the thick one. */
   sync_all_loops (self);
   if (item != NULL && df_loop_item_get_result (item) != NULL)
@@ -328,6 +352,7 @@ spec_changed_cb (DfSurfacePanel *panel,
                  DfWindow       *self)
 {
   g_autoptr(GError) error = NULL;
+  guint carried = 0, off = 0;
 
   if (!df_document_set_spec (self->document, df_surface_panel_get_spec (panel), &error))
     {
@@ -336,8 +361,14 @@ spec_changed_cb (DfSurfacePanel *panel,
       return;
     }
   df_surface_panel_show_error (panel, NULL);
-  if (g_list_model_get_n_items (df_document_get_loops (self->document)) > 0)
-    _df_window_status (self, FALSE, "Surface changed: measuring the loops again…");
+  df_document_get_last_carry (self->document, &carried, &off);
+  if (off > 0)
+    _df_window_status (self, TRUE, "Surface changed: %u loop%s carried over by their places in "
+                       "space, %u off the new surface (kept, not measured; Ctrl+Z undoes the "
+                       "change).", carried, carried == 1 ? "" : "s", off);
+  else if (carried > 0)
+    _df_window_status (self, FALSE, "Surface changed: %u loop%s carried over by their places "
+                       "in space, measuring…", carried, carried == 1 ? "" : "s");
   else
     _df_window_status (self, FALSE, "Surface changed.");
 }
@@ -349,7 +380,15 @@ mesh_ready_cb (DfSurfaceView *view,
   const char *problem = df_surface_view_get_mesh_problem (view);
 
   if (problem != NULL)
-    _df_window_status (self, TRUE, "Part of the surface is not drawn: %s", problem);
+    {
+      /* The problem text says already whether part or all of the surface is missing. */
+      _df_window_status (self, TRUE, "%s", problem);
+      if (self->startup.report_events)
+        {
+          printf ("mesh-problem %s\n", problem);
+          fflush (stdout);
+        }
+    }
   _df_window_actions_update (self);
 }
 

@@ -8,7 +8,10 @@
  *   Two paths  path A, then path B with its ends snapped to A's; compares the carried vectors.
  * Strokes are collected in chart coordinates; all measuring is the core's. */
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
+
+#include "df-project.h"
 
 #include "df-format.h"
 #include "df-window-private.h"
@@ -71,19 +74,36 @@ show_coords (DfWindow *self,
              double    v)
 {
   const df_surface *surface = df_document_get_surface (self->document);
+  const char *units = df_document_get_units (self->document);
   g_autofree char *a = df_format_number (u);
   g_autofree char *text = NULL;
+  g_autofree char *where = NULL;
+  double xyz[3];
 
+  /* The point in space too: t is the profile's own parameter (an angle, a length...), so the
+   * position is what carries the units. */
+  if (surface_point (self, u, v, xyz))
+    {
+      g_autofree char *x = df_format_number (xyz[0]);
+      g_autofree char *y = df_format_number (xyz[1]);
+      g_autofree char *z = df_format_number (xyz[2]);
+      where = g_strdup_printf ("  (%s, %s, %s) %s", x, y, z, units);
+    }
   if (surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
     {
       double phi = remainder (v, 2 * G_PI);
       g_autofree char *b = df_format_number (phi * 180.0 / G_PI);
-      text = g_strdup_printf ("t = %s, φ = %s°", a, b);
+      text = g_strdup_printf ("t = %s, φ = %s°%s", a, b, where != NULL ? where : "");
     }
   else
     {
       g_autofree char *b = df_format_number (v);
-      text = g_strdup_printf ("x = %s, y = %s %s", a, b, df_document_get_units (self->document));
+      g_autofree char *zn = where != NULL ? df_format_number (xyz[2]) : NULL;
+
+      if (zn != NULL)
+        text = g_strdup_printf ("x = %s, y = %s, z = %s %s", a, b, zn, units);
+      else
+        text = g_strdup_printf ("x = %s, y = %s %s", a, b, units);
     }
   gtk_label_set_text (self->coords_label, text);
 }
@@ -399,6 +419,14 @@ probe_at (DfWindow *self,
   df_probe_panel_show (self->probe_panel, surface, &geometry,
                        df_document_get_units (self->document));
   df_surface_view_set_marker (self->view, geometry.point, &colour);
+  if (self->startup.report_events)
+    {
+      char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE], k[G_ASCII_DTOSTR_BUF_SIZE];
+
+      printf ("probed %s %s %s\n", g_ascii_dtostr (a, sizeof a, u),
+              g_ascii_dtostr (b, sizeof b, v), g_ascii_dtostr (k, sizeof k, geometry.K));
+      fflush (stdout);
+    }
 }
 
 /* ---- Geodesic ----------------------------------------------------------------------------- */
@@ -429,13 +457,14 @@ geodesic_aim (DfWindow *self,
     df_surface_view_set_arrow (self->view, DF_ARROW_GEODESIC, a, dir, &colour);
 }
 
+static void shoot_from (DfWindow *self, double heading, double length);
+
 static void
 geodesic_shoot (DfWindow *self,
                 double    u,
                 double    v)
 {
   const df_surface *surface = df_document_get_surface (self->document);
-  const char *units = df_document_get_units (self->document);
   g_auto(df_geodesic_result) result = { 0 };
   df_point_geometry start;
   double a[3], b[3], w[3], du, dv, heading, length;
@@ -483,6 +512,21 @@ geodesic_shoot (DfWindow *self,
       return;
     }
   heading = df_signed_angle (start.xu, w, start.normal);
+  shoot_from (self, heading, length);
+}
+
+/* Shoots from self->geodesic_start with heading (rad, from X_u about N) and length. */
+static void
+shoot_from (DfWindow *self,
+            double    heading,
+            double    length)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  const char *units = df_document_get_units (self->document);
+  g_auto(df_geodesic_result) result = { 0 };
+  df_diag diag;
+  df_status status;
+  g_autoptr(GError) error = NULL;
 
   df_diag_clear (&diag);
   status = df_geodesic_shoot (surface, self->geodesic_start[0], self->geodesic_start[1],
@@ -510,6 +554,15 @@ geodesic_shoot (DfWindow *self,
     _df_window_status (self, result.stopped_early, "Geodesic of %s%s%s.", reached,
                        result.stopped_early ? ", stopped early: " : "",
                        result.stopped_early ? result.stop_reason : "");
+    if (self->startup.report_events && result.n_samples > 0)
+      {
+        df_geodesic_sample *end = &result.samples[result.n_samples - 1];
+        char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE], c[G_ASCII_DTOSTR_BUF_SIZE];
+
+        printf ("geodesic-end %s %s %s\n", g_ascii_dtostr (a, sizeof a, end->u),
+                g_ascii_dtostr (b, sizeof b, end->v), g_ascii_dtostr (c, sizeof c, result.length));
+        fflush (stdout);
+      }
   }
 }
 
@@ -603,10 +656,15 @@ compare_done_cb (GObject      *source,
   draw_transport (self, DF_CURVE_PATH_A, DF_ARROW_PATH_A, &comparison->a, colour_path_a);
   draw_transport (self, DF_CURVE_PATH_B, DF_ARROW_PATH_B, &comparison->b, colour_path_b);
   df_compare_panel_set_angle (self->compare_panel, comparison->angle_rad);
+  df_compare_panel_set_lengths (self->compare_panel, comparison->a.length, comparison->b.length,
+                                df_document_get_units (self->document));
   {
     g_autofree char *angle = df_format_angle (comparison->angle_rad);
-    _df_window_status (self, FALSE, "Carried along B, the direction ends %s from the one "
-                       "carried along A.", angle);
+    _df_window_status (self, self->paths_long_legs, "Carried along B, the direction ends %s "
+                       "from the one carried along A.%s", angle,
+                       self->paths_long_legs ? " Path B was drawn away from A's ends and was "
+                                               "joined to them by straight legs in the chart: "
+                                               "draw it from A's start to A's end." : "");
   }
   paths_set_stage (self, DF_PATHS_DONE);
   g_object_unref (self);
@@ -643,18 +701,23 @@ paths_finish_stroke (DfWindow *self)
     g_autofree double (*uv_a)[2] = NULL;
     g_autofree double (*uv_b)[2] = NULL;
     StrokePoint *b0, *b1;
+    double gap_start, gap_end;
 
     g_array_set_size (self->path_b, 0);
     g_array_append_vals (self->path_b, self->stroke_uv->data, self->stroke_uv->len);
     /* Common ends: B starts and ends exactly where A does. */
     b0 = &g_array_index (self->path_b, StrokePoint, 0);
     b1 = &g_array_index (self->path_b, StrokePoint, self->path_b->len - 1);
+    gap_start = hypot (b0->px - a0->px, b0->py - a0->py);
+    gap_end = hypot (b1->px - a1->px, b1->py - a1->py);
     *b0 = *a0;
     *b1 = *a1;
     draw_stroke (self, DF_CURVE_PATH_B, self->path_b, colour_path_b, 3.5f);
     df_compare_panel_set_paths (self->compare_panel, self->path_a->len, self->path_b->len);
     paths_set_stage (self, DF_PATHS_DONE);
     df_compare_panel_set_hint (self->compare_panel, "Comparing…");
+    /* The snap is silent when B was drawn onto A's ends; say so when it adds long legs. */
+    self->paths_long_legs = MAX (gap_start, gap_end) > 5 * DF_STROKE_STEP_PX;
 
     uv_a = stroke_uv (self->path_a);
     uv_b = stroke_uv (self->path_b);
@@ -794,6 +857,198 @@ pointer_motion_cb (GtkEventControllerMotion *controller,
   if (self->stroking && !self->stroke_left
       && !df_surface_view_pick (self->view, x, y, &u, &v))
     self->stroke_left = TRUE;
+  /* Hover readout of where the pointer is on the surface (the stroke updates it itself). */
+  if (!self->stroking)
+    {
+      if (df_surface_view_pick (self->view, x, y, &u, &v))
+        show_coords (self, u, v);
+      else
+        gtk_label_set_text (self->coords_label, "");
+    }
+}
+
+/* ---- typed values ------------------------------------------------------------------------- */
+
+/* Numbers separated by commas, semicolons or spaces; FALSE (error naming field) unless there
+ * are between min and max finite ones. */
+static gboolean
+parse_numbers (const char  *text,
+               const char  *field,
+               int          min,
+               int          max,
+               double      *out,
+               int         *n_out,
+               GError     **error)
+{
+  g_auto(GStrv) parts = g_strsplit_set (text, ",; \t", -1);
+  int n = 0;
+
+  for (int i = 0; parts[i] != NULL; i++)
+    {
+      char *end = NULL;
+      double value;
+
+      if (parts[i][0] == '\0')
+        continue;
+      value = g_ascii_strtod (parts[i], &end);
+      if (end == parts[i] || *end != '\0' || !isfinite (value))
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: '%s' is not a number",
+                       field, parts[i]);
+          return FALSE;
+        }
+      if (n == max)
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: more than %d numbers",
+                       field, max);
+          return FALSE;
+        }
+      out[n++] = value;
+    }
+  if (n < min || (min == 2 && max == 3 && n != 2 && n != 3))
+    {
+      if (min == max)
+        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: expected %d number%s", field,
+                     min, min == 1 ? "" : "s");
+      else
+        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: expected %d or %d numbers",
+                     field, min, max);
+      return FALSE;
+    }
+  *n_out = n;
+  return TRUE;
+}
+
+/* A typed point: chart coordinates (φ in degrees on a surface of revolution, as everywhere in
+ * the app) or a point in space, placed at its closest surface point (within 5 % of the
+ * surface's size, common practice, no source). */
+static gboolean
+typed_point (DfWindow    *self,
+             const char  *text,
+             const char  *field,
+             double      *u,
+             double      *v,
+             GError     **error)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  double x[3], dist = 0;
+  int n = 0;
+  df_diag diag;
+  df_status status;
+
+  if (surface == NULL || !parse_numbers (text, field, 2, 3, x, &n, error))
+    return FALSE;
+  if (n == 2)
+    {
+      *u = x[0];
+      *v = df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION ? x[1] * G_PI / 180.0 : x[1];
+      return TRUE;
+    }
+  df_diag_clear (&diag);
+  status = df_surface_project (surface, x, 0.05 * df_surface_size (surface), u, v, &dist, &diag);
+  if (status != DF_OK)
+    {
+      df_status_to_gerror (status, &diag, error);
+      g_prefix_error (error, "%s: the point (%g, %g, %g) is not near the surface: ", field,
+                      x[0], x[1], x[2]);
+      return FALSE;
+    }
+  if (dist > 1e-6 * df_surface_size (surface))
+    {
+      g_autofree char *d = df_format_length (dist, df_document_get_units (self->document));
+      _df_window_status (self, FALSE, "%s: the typed point is %s from the surface; its closest "
+                         "surface point is used.", field, d);
+    }
+  return TRUE;
+}
+
+static void
+probe_requested_cb (DfProbePanel *panel,
+                    const char   *text,
+                    DfWindow     *self)
+{
+  g_autoptr(GError) error = NULL;
+  double u, v;
+
+  if (!typed_point (self, text, "Probe at", &u, &v, &error))
+    {
+      df_probe_panel_show_error (panel, error->message);
+      return;
+    }
+  probe_at (self, u, v);
+}
+
+static void
+shoot_requested_cb (DfGeodesicPanel *panel,
+                    const char      *start_text,
+                    const char      *heading_text,
+                    const char      *length_text,
+                    DfWindow        *self)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  g_autoptr(GError) error = NULL;
+  df_point_geometry start;
+  double u, v, heading, length;
+  int n;
+
+  if (!typed_point (self, start_text, "From", &u, &v, &error)
+      || !parse_numbers (heading_text, "Heading", 1, 1, &heading, &n, &error)
+      || !parse_numbers (length_text, "Length", 1, 1, &length, &n, &error))
+    {
+      df_geodesic_panel_show_error (panel, error->message);
+      return;
+    }
+  if (!(length > 0))
+    {
+      df_geodesic_panel_show_error (panel, "Length: must be greater than 0");
+      return;
+    }
+  if (df_surface_geometry (surface, u, v, &start, NULL) == DF_OK && !start.chart_regular)
+    {
+      df_geodesic_panel_show_error (panel, "From: the start point is a pole of the chart, "
+                                           "where no heading can be measured: start next to it.");
+      return;
+    }
+  self->geodesic_start[0] = u;
+  self->geodesic_start[1] = v;
+  shoot_from (self, heading * G_PI / 180.0, length);
+}
+
+/* The typed-value entries name the chart of the surface now shown. */
+static void
+update_typed_hints (DfWindow *self)
+{
+  const df_surface *surface = df_document_get_surface (self->document);
+  gboolean revolution = surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION;
+
+  df_probe_panel_set_placeholder (self->probe_panel,
+                                  revolution ? "t, φ° on the surface or x, y, z in space"
+                                             : "x, y on the surface or x, y, z in space");
+  df_geodesic_panel_set_chart (self->geodesic_panel, revolution ? "t, φ°  or  x, y, z" :
+                                                                  "x, y  or  x, y, z",
+                               revolution ? "Heading 0° = along +t (X_t, the way t grows "
+                                            "along the profile), counted anticlockwise about "
+                                            "N (see the Surface panel's orientation)."
+                                          : "Heading 0° = along +x, 90° = along +y; "
+                                            "anticlockwise about N.",
+                               df_document_get_units (self->document));
+}
+
+void
+_df_window_focus_typed (DfWindow *self)
+{
+  if (self->tool == DF_TOOL_GEODESIC)
+    {
+      gtk_stack_set_visible_child_name (self->panel_stack, "geodesic");
+      df_geodesic_panel_focus_entry (self->geodesic_panel);
+    }
+  else
+    {
+      if (self->tool != DF_TOOL_PROBE)
+        g_object_set (self, "tool", "probe", NULL);
+      gtk_stack_set_visible_child_name (self->panel_stack, "probe");
+      df_probe_panel_focus_entry (self->probe_panel);
+    }
 }
 
 /* ---- tool switching ----------------------------------------------------------------------- */
@@ -842,6 +1097,9 @@ _df_window_tools_surface_changed (DfWindow *self)
   _df_window_clear_paths (self);
   df_surface_view_set_marker (self->view, NULL, NULL);
   df_probe_panel_clear (self->probe_panel);
+  /* The pointer's coordinates were of the old surface. */
+  gtk_label_set_text (self->coords_label, "");
+  update_typed_hints (self);
 }
 
 void
@@ -858,6 +1116,10 @@ _df_window_tools_init (DfWindow *self)
   g_signal_connect (self->view, "surface-pressed", G_CALLBACK (surface_pressed_cb), self);
   g_signal_connect (self->view, "surface-dragged", G_CALLBACK (surface_dragged_cb), self);
   g_signal_connect (self->view, "surface-released", G_CALLBACK (surface_released_cb), self);
+  g_signal_connect (self->probe_panel, "probe-requested", G_CALLBACK (probe_requested_cb),
+                    self);
+  g_signal_connect (self->geodesic_panel, "shoot-requested", G_CALLBACK (shoot_requested_cb),
+                    self);
   paths_set_stage (self, DF_PATHS_WANT_A);
   df_compare_panel_set_paths (self->compare_panel, 0, 0);
   df_compare_panel_set_angle (self->compare_panel, NAN);

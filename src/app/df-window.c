@@ -42,6 +42,7 @@ df_startup_clear (DfStartup *startup)
   startup->demo = FALSE;
   startup->bench_orbit = FALSE;
   startup->report_view = FALSE;
+  startup->report_events = FALSE;
 }
 
 static gboolean
@@ -189,6 +190,9 @@ df_window_dispose (GObject *object)
       g_signal_handlers_disconnect_by_data (df_document_get_loops (self->document), self);
     }
   _df_window_tools_finalize (self);
+  /* Only a window that is torn down cleanly gets here: a crash or a kill leaves the autosave
+   * for the next start. */
+  _df_window_autosave_finish (self);
   g_clear_object (&self->document);
   gtk_widget_dispose_template (GTK_WIDGET (self), DF_TYPE_WINDOW);
   G_OBJECT_CLASS (df_window_parent_class)->dispose (object);
@@ -203,6 +207,7 @@ df_window_finalize (GObject *object)
   g_strfreev (self->recent);
   g_free (self->report_paper);
   g_free (self->shown_shape);
+  g_free (self->selected_name);
   G_OBJECT_CLASS (df_window_parent_class)->finalize (object);
 }
 
@@ -362,6 +367,29 @@ mesh_ready_cb (DfSurfaceView *view,
   _df_window_check_exports (self);
 }
 
+/* "loop-measured NAME-WITHOUT-SPACES HOLONOMY ENCLOSED" with all digits, for test drivers. */
+static void
+report_loop_cb (DfDocument *document,
+                DfLoopItem *item,
+                DfWindow   *self)
+{
+  const df_loop_result *result = df_loop_item_get_result (item);
+  g_autofree char *name = g_strdelimit (g_strdup (df_loop_item_get_name (item)), " ", '_');
+  char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (result == NULL)
+    {
+      if (df_loop_item_get_state (item) == DF_LOOP_FAILED)
+        printf ("loop-failed %s %s\n", name, df_loop_item_get_error (item));
+      fflush (stdout);
+      return;
+    }
+  printf ("loop-measured %s %s %s\n", name,
+          g_ascii_dtostr (a, sizeof a, result->holonomy_rad),
+          g_ascii_dtostr (b, sizeof b, result->enclosed_curvature_rad));
+  fflush (stdout);
+}
+
 static void
 open_demo_or_preset (DfWindow   *self,
                      const char *preset)
@@ -399,6 +427,7 @@ df_window_start (DfWindow        *self,
   self->startup.export_report = g_strdup (startup->export_report);
   self->startup.bench_orbit = startup->bench_orbit;
   self->startup.report_view = startup->report_view;
+  self->startup.report_events = startup->report_events;
   self->exports_pending = is_one_shot (self) && !startup->bench_orbit;
 
   g_signal_connect (self->view, "mesh-ready", G_CALLBACK (mesh_ready_cb), self);
@@ -409,6 +438,11 @@ df_window_start (DfWindow        *self,
       opened = _df_window_open_path (self, startup->file, &error);
       if (!opened)
         {
+          if (startup->report_events)
+            {
+              printf ("open-failed %s\n", error->message);
+              fflush (stdout);
+            }
           _df_window_show_error (self, "Cannot open the file", error);
           if (is_one_shot (self))
             return FALSE;
@@ -477,6 +511,10 @@ df_window_start (DfWindow        *self,
         g_printerr ("driftframe: --view: unknown view '%s' (iso, top, front, side)\n",
                     startup->view);
     }
+  if (startup->report_events)
+    g_signal_connect (self->document, "loop-changed", G_CALLBACK (report_loop_cb), self);
+  if (!is_one_shot (self))
+    _df_window_autosave_init (self);
   _df_window_actions_update (self);
   return TRUE;
 }

@@ -1,6 +1,7 @@
 /* df-work.c: background loop measurement and path comparison on GTask threads (see
  * df-work.h). Each job owns a copy of the surface and the points, so the main thread may
  * change or free its own at any time. */
+#include "df-work-guard.h"
 #include "df-work.h"
 
 /* Samples drawn along a compared path: enough for a smooth polyline at screen size. */
@@ -46,13 +47,20 @@ df_work_path_comparison_free (DfPathComparison *comparison)
   g_free (comparison);
 }
 
-static void
-measure_loop_thread (GTask        *task,
-                     gpointer      source,
-                     gpointer      task_data,
-                     GCancellable *cancellable)
+/* One job's outcome, filled inside the crash guard. */
+typedef struct
 {
-  DfWorkData *work = task_data;
+  GTask    *task;
+  gpointer  data;
+  GError   *error;
+} DfGuarded;
+
+static void
+measure_loop_guarded (gpointer user_data)
+{
+  DfGuarded *guarded = user_data;
+  GTask *task = guarded->task;
+  DfWorkData *work = g_task_get_task_data (task);
   g_autoptr(df_curve) curve = NULL;
   df_loop_options options;
   df_loop_result *result;
@@ -66,10 +74,10 @@ measure_loop_thread (GTask        *task,
   if (status != DF_OK)
     {
       df_status_to_gerror (status, &diag, &error);
-      g_task_return_error (task, error);
+      guarded->error = error;
       return;
     }
-  if (g_task_return_error_if_cancelled (task))
+  if (g_cancellable_is_cancelled (g_task_get_cancellable (task)))
     return;
 
   df_loop_options_init (&options);
@@ -82,10 +90,29 @@ measure_loop_thread (GTask        *task,
     {
       df_work_loop_result_free (result);
       df_status_to_gerror (status, &diag, &error);
-      g_task_return_error (task, error);
+      guarded->error = error;
       return;
     }
-  g_task_return_pointer (task, result, (GDestroyNotify) df_work_loop_result_free);
+  guarded->data = result;
+}
+
+static void
+measure_loop_thread (GTask        *task,
+                     gpointer      source,
+                     gpointer      task_data,
+                     GCancellable *cancellable)
+{
+  DfGuarded guarded = { task, NULL, NULL };
+
+  if (!df_guard_call (measure_loop_guarded, &guarded, "measuring the loop", &guarded.error))
+    guarded.data = NULL;
+  if (guarded.error != NULL)
+    g_task_return_error (task, guarded.error);
+  else if (guarded.data != NULL)
+    g_task_return_pointer (task, guarded.data, (GDestroyNotify) df_work_loop_result_free);
+  else if (!g_task_return_error_if_cancelled (task))
+    g_task_return_new_error (task, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY,
+                             "The loop could not be measured");
 }
 
 void
@@ -126,12 +153,10 @@ df_work_measure_loop_finish (GAsyncResult *result,
 }
 
 static void
-compare_paths_thread (GTask        *task,
-                      gpointer      source,
-                      gpointer      task_data,
-                      GCancellable *cancellable)
+compare_paths_guarded (gpointer user_data)
 {
-  DfWorkData *work = task_data;
+  DfGuarded *guarded = user_data;
+  DfWorkData *work = g_task_get_task_data (guarded->task);
   g_autoptr(df_curve) a = NULL;
   g_autoptr(df_curve) b = NULL;
   df_transport_options options;
@@ -147,7 +172,7 @@ compare_paths_thread (GTask        *task,
     {
       df_status_to_gerror (status, &diag, &error);
       g_prefix_error (&error, "Path A: ");
-      g_task_return_error (task, error);
+      guarded->error = error;
       return;
     }
   df_diag_clear (&diag);
@@ -157,7 +182,7 @@ compare_paths_thread (GTask        *task,
     {
       df_status_to_gerror (status, &diag, &error);
       g_prefix_error (&error, "Path B: ");
-      g_task_return_error (task, error);
+      guarded->error = error;
       return;
     }
 
@@ -171,10 +196,26 @@ compare_paths_thread (GTask        *task,
     {
       df_work_path_comparison_free (comparison);
       df_status_to_gerror (status, &diag, &error);
-      g_task_return_error (task, error);
+      guarded->error = error;
       return;
     }
-  g_task_return_pointer (task, comparison, (GDestroyNotify) df_work_path_comparison_free);
+  guarded->data = comparison;
+}
+
+static void
+compare_paths_thread (GTask        *task,
+                      gpointer      source,
+                      gpointer      task_data,
+                      GCancellable *cancellable)
+{
+  DfGuarded guarded = { task, NULL, NULL };
+
+  if (!df_guard_call (compare_paths_guarded, &guarded, "comparing the paths", &guarded.error))
+    guarded.data = NULL;
+  if (guarded.error != NULL)
+    g_task_return_error (task, guarded.error);
+  else
+    g_task_return_pointer (task, guarded.data, (GDestroyNotify) df_work_path_comparison_free);
 }
 
 void
