@@ -989,3 +989,23 @@ df_document_get_limits (DfDocument *self)
   g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
   return self->limits;
 }
+
+void
+df_document_set_view (DfDocument *self,
+                      const char *colouring,
+                      double      yaw_deg,
+                      double      pitch_deg)
+{
+  df_project_view *v;
+
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  if (self->carried == NULL || !isfinite (yaw_deg) || !isfinite (pitch_deg))
+    return;
+  v = &self->carried->extras.view;
+  v->set = TRUE;
+  g_free (v->colouring);
+  v->colouring = g_strdup (colouring != NULL ? colouring : "gaussian");
+  /* Pitch within the reader's range; yaw as one turn. */
+  v->yaw_deg = remainder (yaw_deg, 360.0);
+  v->pitch_deg = fmax (-90.0, fmin (90.0, pitch_deg));
+}

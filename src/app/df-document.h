@@ -66,6 +66,13 @@ gboolean              df_document_set_spec         (DfDocument            *self,
 const df_project     *df_document_get_meta         (DfDocument *self);
 /* The project's limits with their sources (read-only; NULL before a project is set). */
 const df_limits      *df_document_get_limits       (DfDocument *self);
+/* Records the view (colouring "gaussian", "mean" or "plain"; camera angles in degrees) to be
+ * saved with the project, so its design record is drawn from the same side. Not an edit: the
+ * modified flag does not change. */
+void                  df_document_set_view         (DfDocument *self,
+                                                    const char *colouring,
+                                                    double      yaw_deg,
+                                                    double      pitch_deg);
 /* Sets one title-block field ("title", "part-number", "revision", "author"; blank clears it).
  * The document becomes modified. */
 void                  df_document_set_record       (DfDocument *self,

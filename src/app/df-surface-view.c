@@ -1405,6 +1405,19 @@ df_surface_view_get_eye (DfSurfaceView *self,
 }
 
 void
+df_surface_view_set_angles (DfSurfaceView *self,
+                            double         yaw_deg,
+                            double         pitch_deg)
+{
+  g_return_if_fail (DF_IS_SURFACE_VIEW (self));
+  if (!isfinite (yaw_deg) || !isfinite (pitch_deg))
+    return;
+  df_camera_set_angles (&self->camera, (float) (yaw_deg * G_PI / 180.0),
+                        (float) (pitch_deg * G_PI / 180.0));
+  gtk_gl_area_queue_render (GTK_GL_AREA (self));
+}
+
+void
 df_surface_view_get_angles (DfSurfaceView *self,
                             double        *yaw_deg,
                             double        *pitch_deg)

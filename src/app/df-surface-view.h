@@ -139,6 +139,10 @@ gboolean    df_surface_view_project_point       (DfSurfaceView    *self,
 /* The camera's eye point in space. */
 void        df_surface_view_get_eye             (DfSurfaceView    *self,
                                                  double            eye[3]);
+/* Turns the camera to yaw_deg about +z and pitch_deg above the xy plane (a saved view). */
+void        df_surface_view_set_angles          (DfSurfaceView    *self,
+                                                 double            yaw_deg,
+                                                 double            pitch_deg);
 /* The camera's angles in degrees (yaw about +z, 0 = eye on +x; pitch above the xy plane). */
 void        df_surface_view_get_angles          (DfSurfaceView    *self,
                                                  double           *yaw_deg,

@@ -70,6 +70,17 @@ _df_window_open_path (DfWindow    *self,
   if (!df_document_load (self->document, path, error))
     return FALSE;
   _df_window_add_recent (self, path);
+  {
+    const df_project *meta = df_document_get_meta (self->document);
+
+    /* A project saved with its view opens as it was left: colouring and direction. */
+    if (meta != NULL && meta->extras.view.set)
+      {
+        g_object_set (self, "shading", meta->extras.view.colouring, NULL);
+        df_surface_view_set_angles (self->view, meta->extras.view.yaw_deg,
+                                    meta->extras.view.pitch_deg);
+      }
+  }
   n_loops = g_list_model_get_n_items (df_document_get_loops (self->document));
   if (n_loops > 0)
     {
@@ -247,7 +258,11 @@ save_to (DfWindow   *self,
 {
   g_autoptr(GError) error = NULL;
   g_autofree char *base = g_path_get_basename (path);
+  double yaw, pitch;
 
+  /* The project keeps the view, so its design record is drawn as the user last saw it. */
+  df_surface_view_get_angles (self->view, &yaw, &pitch);
+  df_document_set_view (self->document, _df_shading_to_string (self->shading), yaw, pitch);
   if (!df_document_save (self->document, path, &error))
     {
       _df_window_show_error (self, "The project was not saved", error);
