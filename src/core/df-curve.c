@@ -603,6 +603,18 @@ compute_winding (const df_curve *c)
   return (int) lround (total / (2 * M_PI));
 }
 
+/* How far a spline segment's point at tau lies from the profile parameter t_apex, in t. */
+static double
+apex_distance (const df_curve *c, size_t seg, double tau, double t_apex)
+{
+  double p[2];
+
+  segment_plane (c, seg, tau, p);
+  if (c->coords == DF_COORDS_CHART)
+    return fabs (p[0] - t_apex);
+  return fabs (c->pole_t + c->pole_sign * hypot (p[0], p[1]) - t_apex);
+}
+
 df_status
 df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], size_t n,
                              bool closed, df_curve **out, df_diag *diag)
@@ -842,6 +854,54 @@ df_curve_new_through_points (const df_surface *surface, const double (*uv)[2], s
 
   if (c->coords == DF_COORDS_SPHERE && (st = _df_curve_sphere_breaks (c)) != DF_OK)
     goto fail;
+  /* A cone apex has no tangent plane: a curve that runs through it between its points (the
+   * spline passes within a hair of it) cannot be measured, and the transport would crawl
+   * towards it for seconds before giving up. Found here from 32 samples a segment. */
+  for (int e = 0; e < 2 && c->coords != DF_COORDS_SPHERE; e++)
+    {
+      double tol = 1e-6 * (u_max - u_min);
+
+      if (!poles[e].on_axis || !(poles[e].sin_alpha < 1.0 - 1e-9))
+        continue;
+      for (size_t i = 0; i < nseg; i++)
+        {
+          double t0 = c->taus[i], t1 = c->taus[i + 1], best = INFINITY, best_tau = t0;
+          double a, b;
+
+          /* The nearest approach: the best of 32 samples, then golden-section search between
+           * its neighbours (the distance is smooth along a spline segment). */
+          for (int h = 0; h <= 32; h++)
+            {
+              double tau = t0 + (t1 - t0) * h / 32.0, d = apex_distance (c, i, tau, poles[e].t);
+
+              if (d < best)
+                {
+                  best = d;
+                  best_tau = tau;
+                }
+            }
+          a = fmax (t0, best_tau - (t1 - t0) / 32.0);
+          b = fmin (t1, best_tau + (t1 - t0) / 32.0);
+          for (int it = 0; it < 60 && b - a > 1e-15 * (fabs (a) + 1); it++)
+            {
+              double m1 = b - 0.6180339887498949 * (b - a), m2 = a + 0.6180339887498949 * (b - a);
+
+              if (apex_distance (c, i, m1, poles[e].t) < apex_distance (c, i, m2, poles[e].t))
+                b = m2;
+              else
+                a = m1;
+            }
+          best = fmin (best, apex_distance (c, i, 0.5 * (a + b), poles[e].t));
+          if (best < tol)
+            {
+              st = df_diag_fail (diag, DF_E_SINGULAR, (long) i,
+                                 "the curve between points %zu and %zu runs through the cone "
+                                 "apex, where the surface has no tangent plane; keep the path "
+                                 "off the apex", i + 1, (i + 1) % n + 1);
+              goto fail;
+            }
+        }
+    }
   /* Check the interpolant stays in the domain between the points (plane coordinates only:
    * cheap enough for ten thousand points). Sphere coordinates always do. */
   for (size_t i = 0; i < nseg && c->coords != DF_COORDS_SPHERE; i++)
