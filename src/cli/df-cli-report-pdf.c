@@ -23,20 +23,8 @@ typedef struct
   GPtrArray *line_arrays;   /* the verdict lines of each loop (GStrv) */
 } extras_out;
 
-static const char *
-keep (extras_out *x, char *s)
-{
-  g_ptr_array_add (x->strings, s);
-  return s;
-}
-
-static const char *
-num (extras_out *x, double v, int digits)
-{
-  if (!isfinite (v))
-    return "n/a";
-  return keep (x, g_strdup_printf ("%.*g", digits, v));
-}
+#define keep(x, s) df_report_keep ((x)->strings, (s))
+#define num(x, v, d) df_report_num ((x)->strings, (v), (d))
 
 static void
 add_section (extras_out *x, const char *title, GArray *fields)

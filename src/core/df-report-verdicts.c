@@ -8,6 +8,7 @@
 #include "df-glib.h"
 #include "df-gores.h"
 #include "df-io-error.h"
+#include "df-report.h"
 #include "df-verdict.h"
 
 typedef struct
@@ -15,20 +16,8 @@ typedef struct
   GPtrArray *strings;
 } extras_out;
 
-static const char *
-keep (extras_out *x, char *s)
-{
-  g_ptr_array_add (x->strings, s);
-  return s;
-}
-
-static const char *
-num (extras_out *x, double v, int digits)
-{
-  if (!isfinite (v))
-    return "n/a";
-  return keep (x, g_strdup_printf ("%.*g", digits, v));
-}
+#define keep(x, s) df_report_keep ((x)->strings, (s))
+#define num(x, v, d) df_report_num ((x)->strings, (v), (d))
 
 static const char *
 limit_name (df_limit_id id)

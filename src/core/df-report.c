@@ -328,24 +328,26 @@ key_value_table (flow *f, const df_report_field *fields, gsize n)
 
 /* --- numbers -------------------------------------------------------------------------------- */
 
-/* A string kept until the layout pass ends. */
-static const char *
-keep (flow *f, char *s)
+const char *
+df_report_keep (GPtrArray *strings, char *s)
 {
-  g_ptr_array_add (f->scratch, s);
+  g_ptr_array_add (strings, s);
   return s;
 }
 
-/* Every number the record prints goes through here: never NaN or inf on paper. */
-static const char *
-num (flow *f, double value, int digits)
+const char *
+df_report_num (GPtrArray *strings, double value, int digits)
 {
   if (!isfinite (value))
     return "n/a";
   if (value == 0)
     return "0";
-  return keep (f, g_strdup_printf ("%.*g", digits, value));
+  return df_report_keep (strings, g_strdup_printf ("%.*g", digits, value));
 }
+
+/* Every number of the layout pass goes through these, its strings freed when the pass ends. */
+#define keep(f, s) df_report_keep ((f)->scratch, (s))
+#define num(f, v, d) df_report_num ((f)->scratch, (v), (d))
 
 static const char *
 deg (flow *f, double rad)

@@ -98,6 +98,13 @@ typedef struct
   gsize                    n_sections;
 } df_report;
 
+/* Keeps s (g_free'd with strings, a GPtrArray made with g_free) and returns it: text that lives
+ * as long as the record being put together. */
+const char *df_report_keep (GPtrArray *strings, char *s);
+/* A number as the record prints it: "%.*g", "0" for zero, "n/a" when not finite (never NaN or
+ * inf on paper); the text is kept in strings. */
+const char *df_report_num  (GPtrArray *strings, double value, int digits);
+
 /* Writes the PDF to path (atomically). Errors name the path. */
 gboolean df_report_write_pdf (const df_report *report, const char *path, GError **error);
 
