@@ -1,76 +1,20 @@
 /* df-document.c: the open project: spec, surface, loops, measurements, file and undo (see
- * df-document.h). Geometry comes from the core; measuring runs in df-work.c threads. */
+ * df-document.h). Geometry comes from the core; measuring runs in df-work.c threads. This file
+ * has the object, snapshots and undo, loading and saving; a surface change carrying the loops
+ * is in df-document-carry.c and the loop list's edits in df-document-loops.c. */
 #include <string.h>
 
 #include <math.h>
 
-#include "df-document.h"
-#include "df-history.h"
+#include "df-document-private.h"
 #include "df-project.h"
 #include "df-work-guard.h"
 #include "df-work.h"
 
-/* A loop point carried to a new surface "fits" when the new surface passes within this
- * fraction of its size (its bounding box diagonal) of the point's old place in space: about
- * a pencil line on a part a metre across (common practice, no source). */
-#define DF_CARRY_TOLERANCE 0.01
-/* Comment on a loop's group in undo snapshots and autosaves (and saved files, where the CLI
- * ignores it): the loop was left off the surface and must not be measured on its points. */
-#define DF_OFF_SURFACE_COMMENT "off-surface:"
-
-#define DF_HISTORY_LIMIT 100
-
-struct _DfDocument
-{
-  GObject parent_instance;
-
-  /* owned */
-  df_surface_spec *spec;
-  df_surface      *surface;
-  df_limits       *limits;   /* the project's [limits] and [units], kept through a save */
-  GListStore      *loops;
-  DfHistory       *history;
-  char            *path;
-  char            *saved_snapshot;  /* project text as last loaded or saved */
-  char            *last_label;
-  char            *display_name;
-  gboolean         modified;
-  /* The title block, geodesics, path pairs, probes and view of the project as loaded: kept so
-   * that saving from the app writes them back (the app does not edit them yet). */
-  df_project      *carried;
-  guint            last_carried;     /* loops placed on the surface by the last spec change */
-  guint            last_off;         /* loops left off it */
-};
+GParamSpec *_df_document_properties[DF_DOCUMENT_N_PROPS];
+guint _df_document_signals[DF_DOCUMENT_N_SIGNALS];
 
 G_DEFINE_FINAL_TYPE (DfDocument, df_document, G_TYPE_OBJECT)
-
-enum
-{
-  PROP_0,
-  PROP_PATH,
-  PROP_MODIFIED,
-  N_PROPS
-};
-
-enum
-{
-  SURFACE_CHANGED,
-  LOOP_CHANGED,
-  HISTORY_CHANGED,
-  CHANGED,
-  N_SIGNALS
-};
-
-static GParamSpec *properties[N_PROPS];
-static guint signals[N_SIGNALS];
-
-/* Loop colours: kept away from the blue-white-orange curvature scale, from the frames' ink,
- * green partner and magenta returned-vector arrows, and from each other in lightness as well
- * as hue, so that they still differ for the common colour deficiencies (common practice, no
- * source). pick_colour() takes the one farthest from the colours in use. */
-static const char *const loop_palette[] = {
-  "#7b3fc4", "#00a0b8", "#e8c300", "#6b8e23", "#5d4037", "#9e9e9e", "#ff8fb1", "#00695c",
-};
 
 typedef struct
 {
@@ -136,28 +80,28 @@ df_document_class_init (DfDocumentClass *klass)
   object_class->finalize = df_document_finalize;
   object_class->get_property = df_document_get_property;
 
-  properties[PROP_PATH] =
+  _df_document_properties[PROP_PATH] =
     g_param_spec_string ("path", NULL, NULL, NULL,
                          G_PARAM_READABLE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
-  properties[PROP_MODIFIED] =
+  _df_document_properties[PROP_MODIFIED] =
     g_param_spec_boolean ("modified", NULL, NULL, FALSE,
                           G_PARAM_READABLE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
-  g_object_class_install_properties (object_class, N_PROPS, properties);
+  g_object_class_install_properties (object_class, DF_DOCUMENT_N_PROPS, _df_document_properties);
 
   /* The surface was replaced (load, edit, undo): redraw it and re-read every loop. */
-  signals[SURFACE_CHANGED] =
+  _df_document_signals[SURFACE_CHANGED] =
     g_signal_new ("surface-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 0);
   /* A loop's measurement finished or failed, or its name or frames switch changed. */
-  signals[LOOP_CHANGED] =
+  _df_document_signals[LOOP_CHANGED] =
     g_signal_new ("loop-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 1, DF_TYPE_LOOP_ITEM);
-  signals[HISTORY_CHANGED] =
+  _df_document_signals[HISTORY_CHANGED] =
     g_signal_new ("history-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 0);
   /* Anything that is saved with the project changed (every edit, undo, load, save): the
    * autosave listens to this. */
-  signals[CHANGED] =
+  _df_document_signals[CHANGED] =
     g_signal_new ("changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 0);
 }
@@ -275,8 +219,8 @@ apply_marks (DfDocument *self,
 
 /* The modified flag compares the project text with the one last loaded or saved, so an edit
  * undone back to the saved state is not "modified". */
-static void
-update_modified (DfDocument *self)
+void
+_df_document_update_modified (DfDocument *self)
 {
   g_autofree char *now = snapshot (self);
   gboolean modified = g_strcmp0 (now, self->saved_snapshot) != 0;
@@ -284,9 +228,9 @@ update_modified (DfDocument *self)
   if (modified != self->modified)
     {
       self->modified = modified;
-      g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_MODIFIED]);
+      g_object_notify_by_pspec (G_OBJECT (self), _df_document_properties[PROP_MODIFIED]);
     }
-  g_signal_emit (self, signals[CHANGED], 0);
+  g_signal_emit (self, _df_document_signals[CHANGED], 0);
 }
 
 static void
@@ -297,7 +241,7 @@ set_path (DfDocument *self,
     return;
   g_free (self->path);
   self->path = g_strdup (path);
-  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_PATH]);
+  g_object_notify_by_pspec (G_OBJECT (self), _df_document_properties[PROP_PATH]);
 }
 
 static void
@@ -313,21 +257,21 @@ measure_done_cb (GObject      *source,
   if (measured != NULL)
     {
       df_loop_item_set_result (job->item, measured);
-      g_signal_emit (job->document, signals[LOOP_CHANGED], 0, job->item);
+      g_signal_emit (job->document, _df_document_signals[LOOP_CHANGED], 0, job->item);
     }
   else if (!g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
     {
       df_loop_item_set_failed (job->item, error->message);
-      g_signal_emit (job->document, signals[LOOP_CHANGED], 0, job->item);
+      g_signal_emit (job->document, _df_document_signals[LOOP_CHANGED], 0, job->item);
     }
   g_object_unref (job->document);
   g_object_unref (job->item);
   g_free (job);
 }
 
-static void
-measure_item (DfDocument *self,
-              DfLoopItem *item)
+void
+_df_document_measure_item (DfDocument *self,
+                           DfLoopItem *item)
 {
   MeasureJob *job;
   GCancellable *cancellable;
@@ -344,8 +288,8 @@ measure_item (DfDocument *self,
   df_work_measure_loop_async (self->surface, uv, n, 0, cancellable, measure_done_cb, job);
 }
 
-static void
-measure_all (DfDocument *self)
+void
+_df_document_measure_all (DfDocument *self)
 {
   guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
 
@@ -354,9 +298,9 @@ measure_all (DfDocument *self)
       g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
 
       if (df_loop_item_get_off_surface (item) == NULL)
-        measure_item (self, item);
+        _df_document_measure_item (self, item);
       else
-        g_signal_emit (self, signals[LOOP_CHANGED], 0, item);
+        g_signal_emit (self, _df_document_signals[LOOP_CHANGED], 0, item);
     }
 }
 
@@ -394,21 +338,21 @@ replace_state (DfDocument  *self,
   g_list_store_splice (self->loops, 0, g_list_model_get_n_items (G_LIST_MODEL (self->loops)),
                        items->pdata, items->len);
   apply_marks (self, data);
-  g_signal_emit (self, signals[SURFACE_CHANGED], 0);
-  measure_all (self);
+  g_signal_emit (self, _df_document_signals[SURFACE_CHANGED], 0);
+  _df_document_measure_all (self);
   return TRUE;
 }
 
 /* Records the state before an edit. */
-static void
-push_history (DfDocument *self,
-              const char *label)
+void
+_df_document_push_history (DfDocument *self,
+                           const char *label)
 {
   char *before = snapshot (self);
 
   if (before != NULL)
     df_history_push (self->history, before, label);
-  g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+  g_signal_emit (self, _df_document_signals[HISTORY_CHANGED], 0);
 }
 
 gboolean
@@ -430,8 +374,8 @@ df_document_set_project (DfDocument  *self,
   g_free (self->saved_snapshot);
   /* An unsaved project (from a preset or a .surface) counts as modified only once edited. */
   self->saved_snapshot = snapshot (self);
-  update_modified (self);
-  g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+  _df_document_update_modified (self);
+  g_signal_emit (self, _df_document_signals[HISTORY_CHANGED], 0);
   return TRUE;
 }
 
@@ -455,7 +399,7 @@ df_document_restore (DfDocument  *self,
     df_document_set_display_name (self, display_name);
   /* Not what is on disk: unsaved until the user saves it. */
   g_clear_pointer (&self->saved_snapshot, g_free);
-  update_modified (self);
+  _df_document_update_modified (self);
   return TRUE;
 }
 
@@ -506,7 +450,7 @@ df_document_save (DfDocument  *self,
   set_path (self, path);
   g_free (self->saved_snapshot);
   self->saved_snapshot = g_steal_pointer (&data);
-  update_modified (self);
+  _df_document_update_modified (self);
   return TRUE;
 }
 
@@ -536,7 +480,7 @@ df_document_set_display_name (DfDocument *self,
   g_free (self->display_name);
   self->display_name = g_strdup (name);
   /* Observers refresh titles on "path". */
-  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_PATH]);
+  g_object_notify_by_pspec (G_OBJECT (self), _df_document_properties[PROP_PATH]);
 }
 
 const char *
@@ -577,320 +521,6 @@ df_document_get_units (DfDocument *self)
   return self->spec->units;
 }
 
-/* One loop carried from the old surface to the new one by its points in space. */
-typedef struct
-{
-  double (*uv)[2];
-  gsize    n;
-  char    *off;       /* why it does not fit, or NULL */
-} Carried;
-
-typedef struct
-{
-  const df_surface *from;
-  const df_surface *to;
-  const char       *units;
-  GPtrArray        *items;    /* of DfLoopItem (borrowed) */
-  Carried          *out;      /* one per item */
-} CarryJob;
-
-/* Projects each point's old place onto the new surface (the core's closest point). A point
- * that cannot be evaluated on the old surface or projected counts as not fitting. On a
- * periodic v the projected angles are unwrapped along the loop, as a sketch is. */
-static void
-carry_guarded (gpointer user_data)
-{
-  CarryJob *job = user_data;
-  double tolerance = DF_CARRY_TOLERANCE * df_surface_size (job->to);
-  gboolean periodic = df_surface_v_periodic (job->to);
-
-  for (guint i = 0; i < job->items->len; i++)
-    {
-      DfLoopItem *item = g_ptr_array_index (job->items, i);
-      const double (*uv)[2];
-      Carried *c = &job->out[i];
-      double worst = 0;
-      gsize worst_at = 0, n;
-      gboolean failed = FALSE;
-
-      uv = df_loop_item_get_points (item, &n);
-      c->uv = g_malloc_n (MAX (n, 1), sizeof (double[2]));
-      c->n = n;
-      for (gsize k = 0; k < n; k++)
-        {
-          df_chart_jet jet;
-          double u = uv[k][0], v = uv[k][1], dist = 0;
-
-          if (df_surface_eval (job->from, uv[k][0], uv[k][1], 0, &jet, NULL) != DF_OK
-              || df_surface_project (job->to, jet.x, 0, &u, &v, &dist, NULL) != DF_OK
-              || !isfinite (dist))
-            {
-              failed = TRUE;
-              worst_at = k;
-              break;
-            }
-          if (periodic && k > 0)
-            v += 2 * G_PI * round ((c->uv[k - 1][1] - v) / (2 * G_PI));
-          c->uv[k][0] = u;
-          c->uv[k][1] = v;
-          if (dist > worst)
-            {
-              worst = dist;
-              worst_at = k;
-            }
-        }
-      if (failed)
-        {
-          /* Keep the old chart values: they are only a placeholder, never measured. */
-          memcpy (c->uv, uv, n * sizeof *uv);
-          c->off = g_strdup_printf ("point %zu has no closest point on it", worst_at + 1);
-        }
-      else if (worst > tolerance)
-        {
-          g_autofree char *far = g_strdup_printf ("%.3g %s", worst, job->units);
-          g_autofree char *tol = g_strdup_printf ("%.3g %s", tolerance, job->units);
-          c->off = g_strdup_printf ("point %zu lies %s from it (tolerance %s); kept at the "
-                                    "closest points, not measured; Undo brings the old "
-                                    "surface back", worst_at + 1, far, tol);
-        }
-    }
-}
-
-gboolean
-df_document_set_spec (DfDocument            *self,
-                      const df_surface_spec *spec,
-                      GError               **error)
-{
-  g_autoptr(df_surface) surface = NULL;
-  g_autoptr(GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
-  CarryJob job = { 0 };
-  guint n;
-
-  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
-  g_return_val_if_fail (spec != NULL, FALSE);
-
-  surface = df_surface_spec_build (spec, error);
-  if (surface == NULL)
-    return FALSE;
-
-  /* Loops keep their places in space, not their chart numbers: (t, φ) of a lamp shade read as
-   * (x, y) on a plane would be another loop altogether. */
-  n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
-  for (guint i = 0; i < n; i++)
-    g_ptr_array_add (items, g_list_model_get_item (G_LIST_MODEL (self->loops), i));
-  job.from = self->surface;
-  job.to = surface;
-  job.units = spec->units != NULL && spec->units[0] != '\0' ? spec->units : "mm";
-  job.items = items;
-  job.out = g_new0 (Carried, MAX (n, 1));
-  if (self->surface != NULL && n > 0
-      && !df_guard_call (carry_guarded, &job, "carrying the loops to the new surface", error))
-    {
-      g_free (job.out);
-      return FALSE;
-    }
-
-  push_history (self, "surface change");
-  df_surface_spec_free (self->spec);
-  self->spec = df_surface_spec_copy (spec);
-  df_surface_free (self->surface);
-  self->surface = g_steal_pointer (&surface);
-  self->last_carried = self->last_off = 0;
-  for (guint i = 0; i < n && job.from != NULL; i++)
-    {
-      DfLoopItem *item = g_ptr_array_index (items, i);
-      Carried *c = &job.out[i];
-
-      df_loop_item_set_points (item, (const double (*)[2]) c->uv, c->n);
-      /* A loop already off the surface stays off: its true place was left behind. */
-      if (c->off != NULL && df_loop_item_get_off_surface (item) == NULL)
-        df_loop_item_set_off_surface (item, c->off);
-      if (df_loop_item_get_off_surface (item) != NULL)
-        self->last_off++;
-      else
-        self->last_carried++;
-      g_free (c->uv);
-      g_free (c->off);
-    }
-  g_free (job.out);
-  g_signal_emit (self, signals[SURFACE_CHANGED], 0);
-  measure_all (self);
-  update_modified (self);
-  return TRUE;
-}
-
-void
-df_document_get_last_carry (DfDocument *self,
-                            guint      *carried,
-                            guint      *off)
-{
-  g_return_if_fail (DF_IS_DOCUMENT (self));
-  *carried = self->last_carried;
-  *off = self->last_off;
-}
-
-GListModel *
-df_document_get_loops (DfDocument *self)
-{
-  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
-  return G_LIST_MODEL (self->loops);
-}
-
-/* The palette colour farthest (in RGB) from every loop colour in use, so that a new loop never
- * looks like an existing one, even one read from a file with its own colours. */
-static const char *
-pick_colour (DfDocument *self)
-{
-  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
-  const char *best = loop_palette[n % G_N_ELEMENTS (loop_palette)];
-  double best_distance = -1.0;
-
-  for (guint c = 0; c < G_N_ELEMENTS (loop_palette); c++)
-    {
-      GdkRGBA candidate;
-      double nearest = G_MAXDOUBLE;
-
-      gdk_rgba_parse (&candidate, loop_palette[c]);
-      for (guint i = 0; i < n; i++)
-        {
-          g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
-          GdkRGBA used;
-          double d;
-
-          df_loop_item_get_rgba (item, &used);
-          d = (candidate.red - used.red) * (candidate.red - used.red)
-              + (candidate.green - used.green) * (candidate.green - used.green)
-              + (candidate.blue - used.blue) * (candidate.blue - used.blue);
-          nearest = MIN (nearest, d);
-        }
-      if (nearest > best_distance)
-        {
-          best_distance = nearest;
-          best = loop_palette[c];
-        }
-    }
-  return best;
-}
-
-static char *
-pick_name (DfDocument *self)
-{
-  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->loops));
-
-  for (guint k = n + 1;; k++)
-    {
-      g_autofree char *name = g_strdup_printf ("Loop %u", k);
-      gboolean used = FALSE;
-
-      for (guint i = 0; i < n && !used; i++)
-        {
-          g_autoptr(DfLoopItem) item = g_list_model_get_item (G_LIST_MODEL (self->loops), i);
-          used = g_strcmp0 (df_loop_item_get_name (item), name) == 0;
-        }
-      if (!used)
-        return g_steal_pointer (&name);
-    }
-}
-
-DfLoopItem *
-df_document_add_loop (DfDocument    *self,
-                      const char    *name,
-                      const double (*uv)[2],
-                      gsize          n)
-{
-  g_autoptr(DfLoopItem) item = NULL;
-  g_autofree char *auto_name = NULL;
-
-  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
-  g_return_val_if_fail (self->surface != NULL, NULL);
-
-  if (name == NULL)
-    name = auto_name = pick_name (self);
-  push_history (self, "add loop");
-  item = df_loop_item_new (name, pick_colour (self), TRUE, uv, n);
-  g_list_store_append (self->loops, item);
-  measure_item (self, item);
-  update_modified (self);
-  return item;  /* borrowed: the store holds a reference */
-}
-
-static gboolean
-find_item (DfDocument *self,
-           DfLoopItem *item,
-           guint      *position)
-{
-  return g_list_store_find (self->loops, item, position);
-}
-
-void
-df_document_remove_loop (DfDocument *self,
-                         DfLoopItem *item)
-{
-  guint position;
-
-  g_return_if_fail (DF_IS_DOCUMENT (self));
-  g_return_if_fail (DF_IS_LOOP_ITEM (item));
-
-  if (!find_item (self, item, &position))
-    return;
-  push_history (self, "delete loop");
-  g_cancellable_cancel (df_loop_item_restart_cancellable (item));
-  g_list_store_remove (self->loops, position);
-  update_modified (self);
-}
-
-void
-df_document_rename_loop (DfDocument *self,
-                         DfLoopItem *item,
-                         const char *name)
-{
-  g_return_if_fail (DF_IS_DOCUMENT (self));
-  g_return_if_fail (DF_IS_LOOP_ITEM (item));
-
-  if (name == NULL || name[0] == '\0' || g_strcmp0 (name, df_loop_item_get_name (item)) == 0)
-    return;
-  push_history (self, "rename loop");
-  df_loop_item_set_name (item, name);
-  g_signal_emit (self, signals[LOOP_CHANGED], 0, item);
-  update_modified (self);
-}
-
-void
-df_document_set_loop_frames (DfDocument *self,
-                             DfLoopItem *item,
-                             gboolean    show)
-{
-  g_return_if_fail (DF_IS_DOCUMENT (self));
-  g_return_if_fail (DF_IS_LOOP_ITEM (item));
-
-  if (!!show == df_loop_item_get_show_frames (item))
-    return;
-  /* A display switch: saved with the project, but not worth an undo step. */
-  df_loop_item_set_show_frames (item, show);
-  g_signal_emit (self, signals[LOOP_CHANGED], 0, item);
-  update_modified (self);
-}
-
-DfLoopItem *
-df_document_import_loop_csv (DfDocument  *self,
-                             const char  *path,
-                             GError     **error)
-{
-  g_autofree double (*uv)[2] = NULL;
-  g_autofree char *base = NULL;
-  char *dot;
-  gsize n = 0;
-
-  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
-
-  if (!df_loop_csv_read (path, self->surface, &uv, &n, error))
-    return NULL;
-  base = g_path_get_basename (path);
-  dot = strrchr (base, '.');
-  if (dot != NULL && dot != base)
-    *dot = '\0';
-  return df_document_add_loop (self, base, (const double (*)[2]) uv, n);
-}
 
 gboolean
 df_document_all_measured (DfDocument *self)
@@ -946,8 +576,8 @@ step (DfDocument *self,
     /* Snapshots were written by this program from a state that built: a failure here is a
      * bug, not bad input. */
     g_warning ("Cannot restore the project from the undo history: %s", error->message);
-  update_modified (self);
-  g_signal_emit (self, signals[HISTORY_CHANGED], 0);
+  _df_document_update_modified (self);
+  g_signal_emit (self, _df_document_signals[HISTORY_CHANGED], 0);
   return self->last_label;
 }
 
@@ -980,7 +610,7 @@ df_document_set_record (DfDocument *self,
   g_return_if_fail (DF_IS_DOCUMENT (self));
   if (self->carried == NULL || !df_project_set_record (self->carried, key, value))
     return;
-  update_modified (self);
+  _df_document_update_modified (self);
 }
 
 const df_limits *

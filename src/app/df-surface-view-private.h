@@ -1,6 +1,9 @@
 /* df-surface-view-private.h: what the files of DfSurfaceView share: the instance struct, the
- * mesh and overlay data it owns, its GL names, and the helpers split out by concern
- * (df-surface-view-gl.c draws, df-surface-view-overlay.c builds overlay vertex arrays). */
+ * mesh and overlay data it owns, its GL names, its properties and signals, and the helpers
+ * split out by concern (df-surface-view-mesh.c builds the mesh, df-surface-view-input.c turns
+ * input into camera moves and picks, df-surface-view-capture.c renders offscreen and runs the
+ * benchmark, df-surface-view-gl.c draws, df-surface-view-overlay.c builds overlay vertex
+ * arrays). */
 #pragma once
 
 #include <epoxy/gl.h>
@@ -132,8 +135,48 @@ struct _DfSurfaceView
   double        last_u, last_v;
 };
 
+enum
+{
+  PROP_0,
+  PROP_SHADING,
+  PROP_ISO_LINES,
+  PROP_INTERACTION,
+  PROP_BUSY,
+  DF_SURFACE_VIEW_N_PROPS
+};
+
+enum
+{
+  SURFACE_PRESSED,
+  SURFACE_DRAGGED,
+  SURFACE_RELEASED,
+  SHADING_RANGE_CHANGED,
+  MESH_READY,
+  GL_FAILED,
+  DF_SURFACE_VIEW_N_SIGNALS
+};
+
 /* df-surface-view.c */
+extern GParamSpec *_df_surface_view_properties[DF_SURFACE_VIEW_N_PROPS];
+extern guint _df_surface_view_signals[DF_SURFACE_VIEW_N_SIGNALS];
+
+/* df-surface-view-mesh.c */
 double   _df_surface_view_mesh_range       (DfSurfaceView *self);
+void     _df_surface_view_mesh_data_free   (MeshData      *data);
+void     _df_surface_view_emit_range_changed (DfSurfaceView *self);
+/* Takes data (may be NULL: nothing to draw), refits if asked, rebuilds the overlay. */
+void     _df_surface_view_install_mesh     (DfSurfaceView *self,
+                                            MeshData      *data);
+/* Builds the current surface's mesh on a worker thread; a request while one runs is folded
+ * into one follow-up build. */
+void     _df_surface_view_start_mesh_build (DfSurfaceView *self);
+
+/* df-surface-view-input.c: the drags and scroll of init, the actions and keys of class_init. */
+void     _df_surface_view_input_init       (DfSurfaceView  *self);
+void     _df_surface_view_input_class_init (GtkWidgetClass *widget_class);
+
+/* df-surface-view-capture.c */
+void     _df_surface_view_benchmark_free   (Benchmark     *bench);
 
 /* df-surface-view-overlay.c: fills line_data and solid_data from curves, frames, arrows and the
  * marker, marks them dirty and queues a render. */

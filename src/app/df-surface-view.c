@@ -1,318 +1,30 @@
 /* df-surface-view.c: DfSurfaceView, the GtkGLArea that shows the surface mesh (built by the core
- * in df-mesh on a worker thread) with overlay curves, frames, arrows and a marker, and turns
- * pointer input into camera moves or picked chart points. This file holds the widget, its API,
- * input, picking and the mesh hand-over; drawing is in df-surface-view-gl.c and the overlay
- * vertex arrays in df-surface-view-overlay.c. Geometry comes from the core. */
+ * in df-mesh on a worker thread) with overlay curves, frames, arrows and a marker. This file
+ * holds the widget (properties, signals, GL vfuncs) and its public setters; the mesh hand-over
+ * is in df-surface-view-mesh.c, input and picking in df-surface-view-input.c, offscreen images
+ * and the orbit benchmark in df-surface-view-capture.c, drawing in df-surface-view-gl.c and
+ * the overlay vertex arrays in df-surface-view-overlay.c. Geometry comes from the core. */
 #include "df-surface-view-private.h"
-#include "df-work-guard.h"
 
 #include <epoxy/gl.h>
 #include <math.h>
 #include <stdlib.h>
 
-#include "df-geometry.h"
 #include "df-gl-program.h"
-#include "df-io-error.h"
-#include "df-project.h"
 
-enum
-{
-  PROP_0,
-  PROP_SHADING,
-  PROP_ISO_LINES,
-  PROP_INTERACTION,
-  PROP_BUSY,
-  N_PROPS
-};
-
-enum
-{
-  SURFACE_PRESSED,
-  SURFACE_DRAGGED,
-  SURFACE_RELEASED,
-  SHADING_RANGE_CHANGED,
-  MESH_READY,
-  GL_FAILED,
-  N_SIGNALS
-};
-
-static GParamSpec *properties[N_PROPS];
-static guint signals[N_SIGNALS];
+GParamSpec *_df_surface_view_properties[DF_SURFACE_VIEW_N_PROPS];
+guint _df_surface_view_signals[DF_SURFACE_VIEW_N_SIGNALS];
 
 G_DEFINE_FINAL_TYPE (DfSurfaceView, df_surface_view, GTK_TYPE_GL_AREA)
 
-static void
-benchmark_free (Benchmark *bench)
-{
-  g_array_unref (bench->stamps);
-  g_array_unref (bench->render_us);
-  g_free (bench);
-}
-
-/* ---- mesh data (worker thread) ---------------------------------------------------------- */
-
-static void
-mesh_data_free (MeshData *data)
-{
-  if (data == NULL)
-    return;
-  df_mesh_free (data->mesh);
-  g_free (data->vertices);
-  free (data->coarse);
-  g_free (data->problem);
-  g_free (data);
-}
-
-/* 1, 2 or 5 times a power of ten, near range / 10: iso-line spacing a reader can count in. */
-static double
-nice_step (double range)
-{
-  double raw = range / 10, mag, f;
-
-  if (!(raw > 0) || !isfinite (raw))
-    return 1;
-  mag = pow (10, floor (log10 (raw)));
-  f = raw / mag;
-  return mag * (f < 1.5 ? 1 : f < 3.5 ? 2 : f < 7.5 ? 5 : 10);
-}
-
-static MeshData *
-mesh_data_build (const df_surface *surface)
-{
-  MeshData *data = g_new0 (MeshData, 1);
-  double lo[3], hi[3], u_min, u_max, v_min, v_max;
-  const double *x, *n, *uv, *k, *h;
-  const df_diag *problem;
-  df_status status;
-  df_diag diag;
-  gsize count;
-
-  status = df_mesh_build (surface, NULL, &data->mesh, &diag);
-  if (status != DF_OK)
-    {
-      g_autoptr (GError) error = NULL;
-      df_status_to_gerror (status, &diag, &error);
-      data->problem = g_strdup_printf ("The surface cannot be drawn: %s", error->message);
-      return data;
-    }
-  problem = df_mesh_problem (data->mesh);
-  if (problem != NULL)
-    data->problem = g_strdup_printf ("Part of the surface is not drawn: it cannot be evaluated "
-                                     "at u = %.6g, v = %.6g%s%s and %zu other grid points",
-                                     problem->u, problem->v, problem->detail[0] ? ": " : "",
-                                     problem->detail, df_mesh_n_invalid (data->mesh) - 1);
-
-  df_mesh_get_bbox (data->mesh, lo, hi);
-  for (int i = 0; i < 3; i++)
-    {
-      data->lo[i] = lo[i];
-      data->hi[i] = hi[i];
-    }
-  data->size = sqrt ((hi[0] - lo[0]) * (hi[0] - lo[0]) + (hi[1] - lo[1]) * (hi[1] - lo[1])
-                     + (hi[2] - lo[2]) * (hi[2] - lo[2]));
-  if (!(data->size > 0))
-    data->size = 1;
-
-  /* The colour scale spans 99 % of the area: a cone apex or a cusp rim, where curvature
-   * diverges on a sliver, would otherwise wash everything else out to white. Values that are
-   * rounding noise on a developable or minimal surface (|K| size^2, |H| size below 1e-9) give
-   * an empty range: all white, not speckled. */
-  for (int q = 0; q < 2; q++)
-    {
-      df_mesh_quantity which = q == 0 ? DF_MESH_GAUSSIAN : DF_MESH_MEAN;
-      const double *values = q == 0 ? df_mesh_gaussian (data->mesh) : df_mesh_mean (data->mesh);
-      const uint8_t *valid = df_mesh_valid (data->mesh);
-      double max = q == 0 ? df_mesh_max_abs_k (data->mesh) : df_mesh_max_abs_h (data->mesh);
-      double scale = q == 0 ? data->size * data->size : data->size;
-      double range = df_mesh_abs_quantile (data->mesh, which, 0.99);
-      if (!(range * scale > 1e-9))
-        range = max * scale > 1e-9 ? max : 0;
-      data->range[q] = range;
-      for (gsize i = 0; range > 0 && i < df_mesh_n_vertices (data->mesh); i++)
-        if (valid[i])
-          {
-            data->below[q] |= values[i] < -range * (1 + 1e-6);
-            data->above[q] |= values[i] > range * (1 + 1e-6);
-          }
-    }
-
-  df_surface_get_domain (surface, &u_min, &u_max, &v_min, &v_max);
-  data->iso_step[0] = nice_step (u_max - u_min);
-  /* Meridians of a surface of revolution every 15 degrees, a division the trade reads. */
-  data->iso_step[1] = df_surface_v_periodic (surface) ? G_PI / 12 : nice_step (v_max - v_min);
-
-  /* No coarse mesh while moving any more (see df_surface_view_render). */
-  data->coarse = NULL;
-  data->n_coarse = 0;
-
-  count = df_mesh_n_vertices (data->mesh);
-  x = df_mesh_positions (data->mesh);
-  n = df_mesh_normals (data->mesh);
-  uv = df_mesh_uv (data->mesh);
-  k = df_mesh_gaussian (data->mesh);
-  h = df_mesh_mean (data->mesh);
-  data->vertices = g_new (float, SURFACE_STRIDE * count);
-  for (gsize i = 0; i < count; i++)
-    {
-      float *out = &data->vertices[SURFACE_STRIDE * i];
-      for (int a = 0; a < 3; a++)
-        {
-          out[a] = x[3 * i + a];
-          out[3 + a] = n[3 * i + a];
-        }
-      out[6] = uv[2 * i];
-      out[7] = uv[2 * i + 1];
-      out[8] = k[i];
-      out[9] = h[i];
-    }
-  return data;
-}
-
-static void
-build_job_free (BuildJob *job)
-{
-  df_surface_free (job->surface);
-  g_free (job);
-}
-
-typedef struct
-{
-  const df_surface *surface;
-  MeshData         *data;
-} GuardedBuild;
-
-static void
-mesh_build_guarded (gpointer user_data)
-{
-  GuardedBuild *build = user_data;
-
-  build->data = mesh_data_build (build->surface);
-}
-
-static void
-mesh_build_thread (GTask        *task,
-                   gpointer      source,
-                   gpointer      task_data,
-                   GCancellable *cancellable)
-{
-  BuildJob *job = task_data;
-  GuardedBuild build = { job->surface, NULL };
-  g_autoptr (GError) error = NULL;
-
-  /* A crash while meshing (a degenerate surface the core mishandles) leaves an empty mesh
-   * with the reason, shown like any other "cannot be drawn". */
-  if (!df_guard_call (mesh_build_guarded, &build, "drawing the surface", &error))
-    {
-      build.data = g_new0 (MeshData, 1);
-      build.data->problem = g_strdup_printf ("The surface cannot be drawn: %s", error->message);
-    }
-  g_task_return_pointer (task, build.data, (GDestroyNotify) mesh_data_free);
-}
-
-static void start_mesh_build (DfSurfaceView *self);
-
-double
-_df_surface_view_mesh_range (DfSurfaceView *self)
-{
-  if (self->mesh == NULL || self->mesh->mesh == NULL)
-    return 0;
-  switch (self->shading)
-    {
-    case DF_SHADING_GAUSSIAN:
-      return self->mesh->range[0];
-    case DF_SHADING_MEAN:
-      return self->mesh->range[1];
-    case DF_SHADING_PLAIN:
-    default:
-      return 0;
-    }
-}
-
-static void
-emit_range_changed (DfSurfaceView *self)
-{
-  double m = _df_surface_view_mesh_range (self);
-
-  g_signal_emit (self, signals[SHADING_RANGE_CHANGED], 0, -m, m);
-}
-
-static void
-install_mesh (DfSurfaceView *self,
-              MeshData      *data)
-{
-  g_clear_pointer (&self->mesh, mesh_data_free);
-  self->mesh = data;
-  self->mesh_dirty = TRUE;
-  if (data != NULL && data->mesh != NULL
-      && (!self->camera.fitted || self->fit_pending || self->fit_next_mesh))
-    {
-      self->fit_next_mesh = FALSE;
-      df_surface_view_fit_all (self);
-    }
-  if (data != NULL && data->problem != NULL)
-    g_debug ("%s", data->problem);
-  _df_surface_view_rebuild_overlay (self);
-  emit_range_changed (self);
-  g_signal_emit (self, signals[MESH_READY], 0);
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static void
-mesh_build_done_cb (GObject      *source,
-                    GAsyncResult *result,
-                    gpointer      user_data)
-{
-  DfSurfaceView *self = DF_SURFACE_VIEW (source);
-  BuildJob *job = g_task_get_task_data (G_TASK (result));
-  MeshData *data = g_task_propagate_pointer (G_TASK (result), NULL);
-
-  self->building = FALSE;
-  if (job->generation == self->generation)
-    install_mesh (self, data);
-  else
-    mesh_data_free (data);
-
-  if (self->rebuild_pending && self->surface != NULL)
-    start_mesh_build (self);
-  else
-    g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_BUSY]);
-}
-
-/* One build at a time: requests that arrive meanwhile collapse into one follow-up build of the
- * newest surface, so dragging a parameter slider cannot queue up stale work. */
-static void
-start_mesh_build (DfSurfaceView *self)
-{
-  g_autoptr (GTask) task = NULL;
-  BuildJob *job;
-  gboolean was_busy = self->building;
-
-  if (self->building)
-    {
-      self->rebuild_pending = TRUE;
-      return;
-    }
-  self->rebuild_pending = FALSE;
-  self->building = TRUE;
-  job = g_new0 (BuildJob, 1);
-  job->surface = df_surface_copy (self->surface);
-  job->generation = self->generation;
-  task = g_task_new (self, NULL, mesh_build_done_cb, NULL);
-  g_task_set_source_tag (task, start_mesh_build);
-  g_task_set_task_data (task, job, (GDestroyNotify) build_job_free);
-  g_task_run_in_thread (task, mesh_build_thread);
-  if (!was_busy)
-    g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_BUSY]);
-}
-
-/* ---- GL vfuncs and benchmark ------------------------------------------------------------ */
+/* ---- GL vfuncs -------------------------------------------------------------------------- */
 
 static void
 fail_gl (DfSurfaceView *self,
          GError        *error)
 {
   g_warning ("3D view: %s", error->message);
-  g_signal_emit (self, signals[GL_FAILED], 0, error->message);
+  g_signal_emit (self, _df_surface_view_signals[GL_FAILED], 0, error->message);
   gtk_gl_area_set_error (GTK_GL_AREA (self), error);
 }
 
@@ -330,7 +42,7 @@ df_surface_view_realize (GtkWidget *widget)
   if (gtk_gl_area_get_error (area) != NULL)
     {
       g_warning ("3D view: %s", gtk_gl_area_get_error (area)->message);
-      g_signal_emit (self, signals[GL_FAILED], 0, gtk_gl_area_get_error (area)->message);
+      g_signal_emit (self, _df_surface_view_signals[GL_FAILED], 0, gtk_gl_area_get_error (area)->message);
       return;
     }
   context = gtk_gl_area_get_context (area);
@@ -366,77 +78,6 @@ df_surface_view_unrealize (GtkWidget *widget)
       _df_surface_view_gl_delete (&self->gl);
     }
   GTK_WIDGET_CLASS (df_surface_view_parent_class)->unrealize (widget);
-}
-
-static int
-compare_double (gconstpointer a,
-                gconstpointer b)
-{
-  double x = *(const double *) a, y = *(const double *) b;
-
-  return (x > y) - (x < y);
-}
-
-static gboolean
-benchmark_report_idle (gpointer user_data)
-{
-  DfSurfaceView *self = user_data;
-  Benchmark *bench = g_steal_pointer (&self->bench_report);
-
-  if (bench == NULL)
-    return G_SOURCE_REMOVE;
-  if (bench->done != NULL)
-    bench->done (bench->median_ms, bench->p95_ms, bench->user);
-  benchmark_free (bench);
-  return G_SOURCE_REMOVE;
-}
-
-static void
-benchmark_finish (DfSurfaceView *self)
-{
-  Benchmark *bench = g_steal_pointer (&self->bench);
-  g_autoptr (GArray) times = g_array_new (FALSE, FALSE, sizeof (double));
-  double median = 0, p95 = 0;
-
-  if (bench->tick_id != 0)
-    gtk_widget_remove_tick_callback (GTK_WIDGET (self), bench->tick_id);
-  for (guint i = 1; i < bench->stamps->len; i++)
-    {
-      double ms = (g_array_index (bench->stamps, gint64, i)
-                   - g_array_index (bench->stamps, gint64, i - 1)) / 1000.0;
-      g_array_append_val (times, ms);
-    }
-  if (times->len > 0)
-    {
-      g_array_sort (times, compare_double);
-      median = g_array_index (times, double, times->len / 2);
-      p95 = g_array_index (times, double, MIN (times->len - 1, (guint) ceil (0.95 * times->len) - 1));
-    }
-  {
-    /* The share of the frame spent drawing the scene (the rest is GTK compositing). */
-    g_autoptr (GArray) render = g_array_new (FALSE, FALSE, sizeof (double));
-    for (guint i = 0; i < bench->render_us->len; i++)
-      {
-        double ms = g_array_index (bench->render_us, gint64, i) / 1000.0;
-        g_array_append_val (render, ms);
-      }
-    if (render->len > 0)
-      {
-        g_array_sort (render, compare_double);
-        g_debug ("orbit benchmark: scene render median %.2f ms of a %.2f ms frame (%d x %d px)",
-                 g_array_index (render, double, render->len / 2), median, self->fb_width,
-                 self->fb_height);
-      }
-  }
-  self->camera.yaw = bench->yaw0;
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-  bench->median_ms = median;
-  bench->p95_ms = p95;
-  /* Report from an idle, holding a reference: the listener may well close the window, which
-   * must not happen inside the frame clock's tick. */
-  g_idle_add_full (G_PRIORITY_DEFAULT_IDLE, benchmark_report_idle, g_object_ref (self),
-                   g_object_unref);
-  self->bench_report = bench;
 }
 
 static gboolean
@@ -482,312 +123,6 @@ df_surface_view_resize (GtkGLArea *area,
   GTK_GL_AREA_CLASS (df_surface_view_parent_class)->resize (area, width, height);
 }
 
-/* ---- picking ---------------------------------------------------------------------------- */
-
-/* Nearest hit of the ray with the mesh (Moller-Trumbore, both faces); barycentric (u, v) of the
- * hit in *hit_uv and the point in *hit. Brute force over ~100k triangles stays near a
- * millisecond, well inside a pointer event. */
-static gboolean
-ray_mesh (const df_mesh *mesh,
-          const double   o[3],
-          const double   d[3],
-          double         hit[3],
-          double         hit_uv[2])
-{
-  const double *x = df_mesh_positions (mesh), *uv = df_mesh_uv (mesh);
-  const uint32_t *idx = df_mesh_indices (mesh);
-  double best = INFINITY;
-  gsize best_tri = 0;
-  double best_b[2] = { 0, 0 };
-
-  for (gsize t = 0; t < df_mesh_n_triangles (mesh); t++)
-    {
-      const double *a = &x[3 * idx[3 * t]], *b = &x[3 * idx[3 * t + 1]];
-      const double *c = &x[3 * idx[3 * t + 2]];
-      double e1[3], e2[3], p[3], q[3], s[3], det, inv, bu, bv, dist;
-      for (int i = 0; i < 3; i++)
-        {
-          e1[i] = b[i] - a[i];
-          e2[i] = c[i] - a[i];
-          s[i] = o[i] - a[i];
-        }
-      p[0] = d[1] * e2[2] - d[2] * e2[1];
-      p[1] = d[2] * e2[0] - d[0] * e2[2];
-      p[2] = d[0] * e2[1] - d[1] * e2[0];
-      det = e1[0] * p[0] + e1[1] * p[1] + e1[2] * p[2];
-      if (fabs (det) < 1e-300)
-        continue;
-      inv = 1 / det;
-      bu = (s[0] * p[0] + s[1] * p[1] + s[2] * p[2]) * inv;
-      if (bu < 0 || bu > 1)
-        continue;
-      q[0] = s[1] * e1[2] - s[2] * e1[1];
-      q[1] = s[2] * e1[0] - s[0] * e1[2];
-      q[2] = s[0] * e1[1] - s[1] * e1[0];
-      bv = (d[0] * q[0] + d[1] * q[1] + d[2] * q[2]) * inv;
-      if (bv < 0 || bu + bv > 1)
-        continue;
-      dist = (e2[0] * q[0] + e2[1] * q[1] + e2[2] * q[2]) * inv;
-      if (dist > 0 && dist < best)
-        {
-          best = dist;
-          best_tri = t;
-          best_b[0] = bu;
-          best_b[1] = bv;
-        }
-    }
-  if (!isfinite (best))
-    return FALSE;
-  for (int i = 0; i < 3; i++)
-    hit[i] = o[i] + best * d[i];
-  for (int k = 0; k < 2; k++)
-    hit_uv[k] = (1 - best_b[0] - best_b[1]) * uv[2 * idx[3 * best_tri] + k]
-                + best_b[0] * uv[2 * idx[3 * best_tri + 1] + k]
-                + best_b[1] * uv[2 * idx[3 * best_tri + 2] + k];
-  return TRUE;
-}
-
-gboolean
-df_surface_view_pick (DfSurfaceView *self,
-                      double         widget_x,
-                      double         widget_y,
-                      double        *u,
-                      double        *v)
-{
-  vec3 fo, fd;
-  double o[3], d[3], hit[3], hit_uv[2], pu, pv, dist, size;
-
-  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
-  if (self->surface == NULL || self->mesh == NULL || self->mesh->mesh == NULL)
-    return FALSE;
-  df_camera_ray (&self->camera, widget_x, widget_y, gtk_widget_get_width (GTK_WIDGET (self)),
-                 gtk_widget_get_height (GTK_WIDGET (self)), fo, fd);
-  for (int i = 0; i < 3; i++)
-    {
-      o[i] = fo[i];
-      d[i] = fd[i];
-    }
-  if (!ray_mesh (self->mesh->mesh, o, d, hit, hit_uv))
-    return FALSE;
-
-  /* The mesh is flat between vertices; the projection puts the point on the true surface. If it
-   * fails or lands far away (another sheet), the interpolated chart point is still a surface
-   * point, only slightly off the ray. */
-  size = self->mesh->size;
-  if (df_surface_project (self->surface, hit, 0.05 * size, &pu, &pv, &dist, NULL) == DF_OK
-      && dist < 0.02 * size && df_surface_contains (self->surface, pu, pv))
-    {
-      hit_uv[0] = pu;
-      hit_uv[1] = pv;
-    }
-  if (u != NULL)
-    *u = hit_uv[0];
-  if (v != NULL)
-    *v = hit_uv[1];
-  return TRUE;
-}
-
-/* ---- input ------------------------------------------------------------------------------ */
-
-static void
-set_moving (DfSurfaceView *self,
-            gboolean       moving)
-{
-  if (self->moving == moving)
-    return;
-  self->moving = moving;
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static gboolean
-settle_cb (gpointer user_data)
-{
-  DfSurfaceView *self = user_data;
-
-  self->settle_id = 0;
-  set_moving (self, FALSE);
-  return G_SOURCE_REMOVE;
-}
-
-static void
-orbit_by_pixels (DfSurfaceView *self,
-                 double         dx,
-                 double         dy)
-{
-  df_camera_orbit (&self->camera, glm_rad (-ORBIT_DEG_PER_PX * dx),
-                   glm_rad (ORBIT_DEG_PER_PX * dy));
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static void
-pan_by_pixels (DfSurfaceView *self,
-               double         dx,
-               double         dy)
-{
-  df_camera_pan (&self->camera, dx, dy, gtk_widget_get_height (GTK_WIDGET (self)));
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static void
-pick_event (DfSurfaceView *self,
-            double         x,
-            double         y,
-            int            which)
-{
-  double u, v;
-  gboolean hit = df_surface_view_pick (self, x, y, &u, &v);
-
-  if (hit)
-    {
-      self->last_u = u;
-      self->last_v = v;
-    }
-  if (which == SURFACE_RELEASED)
-    {
-      if (self->pick_active)
-        g_signal_emit (self, signals[SURFACE_RELEASED], 0, self->last_u, self->last_v);
-      self->pick_active = FALSE;
-      return;
-    }
-  if (!hit)
-    return;
-  /* A drag that starts off the surface begins when it first reaches it, so listeners always
-   * see pressed, dragged..., released. */
-  if (!self->pick_active)
-    {
-      self->pick_active = TRUE;
-      g_signal_emit (self, signals[SURFACE_PRESSED], 0, u, v);
-    }
-  else
-    g_signal_emit (self, signals[SURFACE_DRAGGED], 0, u, v);
-}
-
-static void
-drag_begin_cb (GtkGestureDrag *gesture,
-               double          x,
-               double          y,
-               DfSurfaceView  *self)
-{
-  guint button = gtk_gesture_single_get_current_button (GTK_GESTURE_SINGLE (gesture));
-
-  self->drag_last_x = 0;
-  self->drag_last_y = 0;
-  gtk_widget_grab_focus (GTK_WIDGET (self));
-  if (button == GDK_BUTTON_PRIMARY && self->interaction == DF_INTERACTION_PICK)
-    {
-      self->pick_active = FALSE;
-      pick_event (self, x, y, SURFACE_PRESSED);
-    }
-}
-
-static void
-drag_update_cb (GtkGestureDrag *gesture,
-                double          dx,
-                double          dy,
-                DfSurfaceView  *self)
-{
-  guint button = gtk_gesture_single_get_current_button (GTK_GESTURE_SINGLE (gesture));
-  GdkModifierType mods = gtk_event_controller_get_current_event_state (
-      GTK_EVENT_CONTROLLER (gesture));
-  double step_x = dx - self->drag_last_x, step_y = dy - self->drag_last_y;
-  double x0, y0;
-
-  self->drag_last_x = dx;
-  self->drag_last_y = dy;
-  if (button == GDK_BUTTON_PRIMARY && self->interaction == DF_INTERACTION_PICK)
-    {
-      gtk_gesture_drag_get_start_point (gesture, &x0, &y0);
-      pick_event (self, x0 + dx, y0 + dy, SURFACE_DRAGGED);
-    }
-  else if (button == GDK_BUTTON_MIDDLE || (mods & GDK_SHIFT_MASK))
-    {
-      set_moving (self, TRUE);
-      pan_by_pixels (self, step_x, step_y);
-    }
-  else
-    {
-      set_moving (self, TRUE);
-      orbit_by_pixels (self, step_x, step_y);
-    }
-}
-
-static void
-drag_end_cb (GtkGestureDrag *gesture,
-             double          dx,
-             double          dy,
-             DfSurfaceView  *self)
-{
-  guint button = gtk_gesture_single_get_current_button (GTK_GESTURE_SINGLE (gesture));
-  double x0, y0;
-
-  set_moving (self, FALSE);
-  if (button == GDK_BUTTON_PRIMARY && self->interaction == DF_INTERACTION_PICK)
-    {
-      gtk_gesture_drag_get_start_point (gesture, &x0, &y0);
-      pick_event (self, x0 + dx, y0 + dy, SURFACE_RELEASED);
-    }
-}
-
-static gboolean
-scroll_cb (GtkEventControllerScroll *controller,
-           double                    dx,
-           double                    dy,
-           DfSurfaceView            *self)
-{
-  df_camera_zoom (&self->camera, pow (1.12, dy));
-  /* A wheel sends no "end": the motion ends a moment after the last notch. */
-  set_moving (self, TRUE);
-  g_clear_handle_id (&self->settle_id, g_source_remove);
-  self->settle_id = g_timeout_add (180, settle_cb, self);
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-  return TRUE;
-}
-
-static void
-orbit_action (GtkWidget  *widget,
-              const char *action_name,
-              GVariant   *parameter)
-{
-  DfSurfaceView *self = DF_SURFACE_VIEW (widget);
-  double yaw, pitch;
-
-  g_variant_get (parameter, "(dd)", &yaw, &pitch);
-  df_camera_orbit (&self->camera, glm_rad (yaw), glm_rad (pitch));
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static void
-zoom_action (GtkWidget  *widget,
-             const char *action_name,
-             GVariant   *parameter)
-{
-  DfSurfaceView *self = DF_SURFACE_VIEW (widget);
-
-  df_camera_zoom (&self->camera, g_variant_get_double (parameter));
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-}
-
-static void
-fit_all_action (GtkWidget  *widget,
-                const char *action_name,
-                GVariant   *parameter)
-{
-  df_surface_view_fit_all (DF_SURFACE_VIEW (widget));
-}
-
-static void
-standard_view_action (GtkWidget  *widget,
-                      const char *action_name,
-                      GVariant   *parameter)
-{
-  static const char *const names[] = { "iso", "top", "front", "side" };
-  const char *name = g_variant_get_string (parameter, NULL);
-
-  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
-    if (g_str_equal (name, names[i]))
-      df_surface_view_set_standard_view (DF_SURFACE_VIEW (widget), (DfStandardView) i);
-}
-
 /* ---- GObject ---------------------------------------------------------------------------- */
 
 static void
@@ -802,11 +137,11 @@ df_surface_view_dispose (GObject *object)
   if (self->bench != NULL)
     {
       gtk_widget_remove_tick_callback (GTK_WIDGET (self), self->bench->tick_id);
-      g_clear_pointer (&self->bench, benchmark_free);
+      g_clear_pointer (&self->bench, _df_surface_view_benchmark_free);
     }
-  g_clear_pointer (&self->bench_report, benchmark_free);
+  g_clear_pointer (&self->bench_report, _df_surface_view_benchmark_free);
   g_clear_pointer (&self->surface, df_surface_free);
-  g_clear_pointer (&self->mesh, mesh_data_free);
+  g_clear_pointer (&self->mesh, _df_surface_view_mesh_data_free);
   G_OBJECT_CLASS (df_surface_view_parent_class)->dispose (object);
 }
 
@@ -890,85 +225,50 @@ df_surface_view_class_init (DfSurfaceViewClass *klass)
   area_class->render = df_surface_view_render;
   area_class->resize = df_surface_view_resize;
 
-  properties[PROP_SHADING] =
+  _df_surface_view_properties[PROP_SHADING] =
     g_param_spec_int ("shading", NULL, NULL, DF_SHADING_PLAIN, DF_SHADING_MEAN,
                       DF_SHADING_GAUSSIAN,
                       G_PARAM_READWRITE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
-  properties[PROP_ISO_LINES] =
+  _df_surface_view_properties[PROP_ISO_LINES] =
     g_param_spec_boolean ("iso-lines", NULL, NULL, TRUE,
                           G_PARAM_READWRITE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
-  properties[PROP_INTERACTION] =
+  _df_surface_view_properties[PROP_INTERACTION] =
     g_param_spec_int ("interaction", NULL, NULL, DF_INTERACTION_ORBIT, DF_INTERACTION_PICK,
                       DF_INTERACTION_ORBIT,
                       G_PARAM_READWRITE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
-  properties[PROP_BUSY] =
+  _df_surface_view_properties[PROP_BUSY] =
     g_param_spec_boolean ("busy", NULL, NULL, FALSE,
                           G_PARAM_READABLE | G_PARAM_STATIC_STRINGS | G_PARAM_EXPLICIT_NOTIFY);
-  g_object_class_install_properties (object_class, N_PROPS, properties);
+  g_object_class_install_properties (object_class, DF_SURFACE_VIEW_N_PROPS,
+                                     _df_surface_view_properties);
 
-  signals[SURFACE_PRESSED] =
+  _df_surface_view_signals[SURFACE_PRESSED] =
     g_signal_new ("surface-pressed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL,
                   NULL, NULL, G_TYPE_NONE, 2, G_TYPE_DOUBLE, G_TYPE_DOUBLE);
-  signals[SURFACE_DRAGGED] =
+  _df_surface_view_signals[SURFACE_DRAGGED] =
     g_signal_new ("surface-dragged", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL,
                   NULL, NULL, G_TYPE_NONE, 2, G_TYPE_DOUBLE, G_TYPE_DOUBLE);
-  signals[SURFACE_RELEASED] =
+  _df_surface_view_signals[SURFACE_RELEASED] =
     g_signal_new ("surface-released", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL,
                   NULL, NULL, G_TYPE_NONE, 2, G_TYPE_DOUBLE, G_TYPE_DOUBLE);
-  signals[SHADING_RANGE_CHANGED] =
+  _df_surface_view_signals[SHADING_RANGE_CHANGED] =
     g_signal_new ("shading-range-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 2, G_TYPE_DOUBLE, G_TYPE_DOUBLE);
-  signals[MESH_READY] =
+  _df_surface_view_signals[MESH_READY] =
     g_signal_new ("mesh-ready", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL, NULL,
                   NULL, G_TYPE_NONE, 0);
-  signals[GL_FAILED] =
+  _df_surface_view_signals[GL_FAILED] =
     g_signal_new ("gl-failed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0, NULL, NULL,
                   NULL, G_TYPE_NONE, 1, G_TYPE_STRING);
 
-  gtk_widget_class_install_action (widget_class, "view.orbit", "(dd)", orbit_action);
-  gtk_widget_class_install_action (widget_class, "view.zoom", "d", zoom_action);
-  gtk_widget_class_install_action (widget_class, "view.fit-all", NULL, fit_all_action);
-  gtk_widget_class_install_action (widget_class, "view.standard-view", "s",
-                                   standard_view_action);
-
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Left, 0, "view.orbit", "(dd)",
-                                       10.0, 0.0);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Right, 0, "view.orbit", "(dd)",
-                                       -10.0, 0.0);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Up, 0, "view.orbit", "(dd)",
-                                       0.0, -10.0);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Down, 0, "view.orbit", "(dd)",
-                                       0.0, 10.0);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_plus, 0, "view.zoom", "d", 0.8);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_equal, 0, "view.zoom", "d", 0.8);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_KP_Add, 0, "view.zoom", "d", 0.8);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_minus, 0, "view.zoom", "d", 1.25);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_KP_Subtract, 0, "view.zoom", "d",
-                                       1.25);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Home, 0, "view.fit-all", NULL);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_KP_Home, 0, "view.fit-all", NULL);
+  _df_surface_view_input_class_init (widget_class);
 
   gtk_widget_class_set_css_name (widget_class, "surfaceview");
 }
 
 static void
-add_drag (DfSurfaceView *self,
-          guint          button)
-{
-  GtkGesture *drag = gtk_gesture_drag_new ();
-
-  gtk_gesture_single_set_button (GTK_GESTURE_SINGLE (drag), button);
-  g_signal_connect (drag, "drag-begin", G_CALLBACK (drag_begin_cb), self);
-  g_signal_connect (drag, "drag-update", G_CALLBACK (drag_update_cb), self);
-  g_signal_connect (drag, "drag-end", G_CALLBACK (drag_end_cb), self);
-  gtk_widget_add_controller (GTK_WIDGET (self), GTK_EVENT_CONTROLLER (drag));
-}
-
-static void
 df_surface_view_init (DfSurfaceView *self)
 {
-  GtkEventController *scroll;
-
   gtk_gl_area_set_required_version (GTK_GL_AREA (self), 3, 3);
   gtk_gl_area_set_has_depth_buffer (GTK_GL_AREA (self), TRUE);
   gtk_widget_set_focusable (GTK_WIDGET (self), TRUE);
@@ -986,14 +286,8 @@ df_surface_view_init (DfSurfaceView *self)
   self->line_data = g_array_new (FALSE, FALSE, sizeof (float));
   self->solid_data = g_array_new (FALSE, FALSE, sizeof (float));
 
-  add_drag (self, GDK_BUTTON_PRIMARY);
-  add_drag (self, GDK_BUTTON_MIDDLE);
-  add_drag (self, GDK_BUTTON_SECONDARY);
-  scroll = gtk_event_controller_scroll_new (GTK_EVENT_CONTROLLER_SCROLL_VERTICAL);
-  g_signal_connect (scroll, "scroll", G_CALLBACK (scroll_cb), self);
-  gtk_widget_add_controller (GTK_WIDGET (self), scroll);
+  _df_surface_view_input_init (self);
 }
-
 /* ---- public API ------------------------------------------------------------------------- */
 
 GtkWidget *
@@ -1013,16 +307,16 @@ df_surface_view_set_surface (DfSurfaceView    *self,
   if (surface == NULL)
     {
       self->rebuild_pending = FALSE;
-      install_mesh (self, NULL);
+      _df_surface_view_install_mesh (self, NULL);
       return;
     }
   self->surface = df_surface_copy (surface);
   if (self->surface == NULL)
     {
-      install_mesh (self, NULL);
+      _df_surface_view_install_mesh (self, NULL);
       return;
     }
-  start_mesh_build (self);
+  _df_surface_view_start_mesh_build (self);
 }
 
 void
@@ -1063,8 +357,8 @@ df_surface_view_set_shading (DfSurfaceView *self,
   if (self->shading == shading)
     return;
   self->shading = shading;
-  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_SHADING]);
-  emit_range_changed (self);
+  g_object_notify_by_pspec (G_OBJECT (self), _df_surface_view_properties[PROP_SHADING]);
+  _df_surface_view_emit_range_changed (self);
   gtk_gl_area_queue_render (GTK_GL_AREA (self));
 }
 
@@ -1085,7 +379,7 @@ df_surface_view_set_iso_lines (DfSurfaceView *self,
   if (self->iso_lines == show)
     return;
   self->iso_lines = show;
-  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_ISO_LINES]);
+  g_object_notify_by_pspec (G_OBJECT (self), _df_surface_view_properties[PROP_ISO_LINES]);
   gtk_gl_area_queue_render (GTK_GL_AREA (self));
 }
 
@@ -1270,7 +564,7 @@ df_surface_view_set_interaction (DfSurfaceView *self,
   self->pick_active = FALSE;
   gtk_widget_set_cursor_from_name (GTK_WIDGET (self),
                                    mode == DF_INTERACTION_PICK ? "crosshair" : NULL);
-  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_INTERACTION]);
+  g_object_notify_by_pspec (G_OBJECT (self), _df_surface_view_properties[PROP_INTERACTION]);
 }
 
 DfInteraction
@@ -1314,59 +608,6 @@ df_surface_view_get_shading_clipped (DfSurfaceView *self,
     *below = lo;
   if (above != NULL)
     *above = hi;
-}
-
-cairo_surface_t *
-df_surface_view_render_image (DfSurfaceView *self,
-                              int            width,
-                              int            height,
-                              GError       **error)
-{
-  GtkGLArea *area;
-  ViewGl *gl;
-  cairo_surface_t *img;
-  guchar *data, *dst;
-  int w, h, dstride;
-
-  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), NULL);
-  area = GTK_GL_AREA (self);
-  gl = &self->gl;
-  w = width > 0 ? width : self->fb_width;
-  h = height > 0 ? height : self->fb_height;
-  if (!gtk_widget_get_realized (GTK_WIDGET (self)) || w <= 0 || h <= 0 || w > 8192 || h > 8192
-      || gtk_gl_area_get_error (area) != NULL || gl->surface_program == 0
-      || gl->lines_program == 0 || gl->solid_program == 0)
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
-                   "the 3D view is not showing anything to render");
-      return NULL;
-    }
-  gtk_gl_area_make_current (area);
-  data = g_malloc ((gsize) w * h * 4);
-  if (!_df_surface_view_gl_read_pixels (self, w, h, data))
-    {
-      g_free (data);
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
-                   "no offscreen framebuffer to render the view into");
-      return NULL;
-    }
-  /* GL's RGBA rows run bottom-up; cairo's ARGB32 is native-endian premultiplied (opaque here). */
-  img = cairo_image_surface_create (CAIRO_FORMAT_ARGB32, w, h);
-  cairo_surface_flush (img);
-  dst = cairo_image_surface_get_data (img);
-  dstride = cairo_image_surface_get_stride (img);
-  for (int y = 0; y < h; y++)
-    {
-      const guchar *src = data + (gsize) (h - 1 - y) * w * 4;
-      guint32 *row = (guint32 *) (void *) (dst + (gsize) y * dstride);
-
-      for (int x = 0; x < w; x++)
-        row[x] = 0xff000000u | ((guint32) src[4 * x] << 16) | ((guint32) src[4 * x + 1] << 8)
-                 | src[4 * x + 2];
-    }
-  cairo_surface_mark_dirty (img);
-  g_free (data);
-  return img;
 }
 
 gboolean
@@ -1425,111 +666,4 @@ df_surface_view_get_angles (DfSurfaceView *self,
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
   *yaw_deg = self->camera.yaw * 180.0 / G_PI;
   *pitch_deg = self->camera.pitch * 180.0 / G_PI;
-}
-
-gboolean
-df_surface_view_save_png (DfSurfaceView *self,
-                          const char    *path,
-                          GError       **error)
-{
-  GtkGLArea *area;
-  ViewGl *gl;
-  int w, h;
-  g_autoptr (GBytes) pixels = NULL;
-  g_autoptr (GdkTexture) texture = NULL;
-  g_autoptr (GBytes) png = NULL;
-  guchar *data, *row;
-  gsize stride;
-
-  g_return_val_if_fail (DF_IS_SURFACE_VIEW (self), FALSE);
-  g_return_val_if_fail (path != NULL, FALSE);
-
-  area = GTK_GL_AREA (self);
-  gl = &self->gl;
-  w = self->fb_width;
-  h = self->fb_height;
-  stride = (gsize) w * 4;
-  if (!gtk_widget_get_realized (GTK_WIDGET (self)) || w <= 0 || h <= 0
-      || gtk_gl_area_get_error (area) != NULL || gl->surface_program == 0
-      || gl->lines_program == 0 || gl->solid_program == 0)
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
-                   "Cannot save %s: the 3D view is not showing anything", path);
-      return FALSE;
-    }
-
-  gtk_gl_area_make_current (area);
-  data = g_malloc (stride * h);
-  if (!_df_surface_view_gl_read_pixels (self, w, h, data))
-    {
-      g_free (data);
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
-                   "Cannot save %s: no offscreen framebuffer to render into", path);
-      return FALSE;
-    }
-
-  /* GL rows run bottom-up; PNG rows top-down. Alpha is forced opaque. */
-  row = g_malloc (stride);
-  for (int y = 0; y < h / 2; y++)
-    {
-      memcpy (row, data + y * stride, stride);
-      memcpy (data + y * stride, data + (h - 1 - y) * stride, stride);
-      memcpy (data + (h - 1 - y) * stride, row, stride);
-    }
-  g_free (row);
-  for (gsize i = 3; i < stride * h; i += 4)
-    data[i] = 255;
-  pixels = g_bytes_new_take (data, stride * h);
-  texture = gdk_memory_texture_new (w, h, GDK_MEMORY_R8G8B8A8, pixels, stride);
-  png = gdk_texture_save_to_png_bytes (texture);
-  return df_write_file_atomic (path, g_bytes_get_data (png, NULL), g_bytes_get_size (png),
-                               error);
-}
-
-static gboolean
-benchmark_tick_cb (GtkWidget     *widget,
-                   GdkFrameClock *clock,
-                   gpointer       user_data)
-{
-  DfSurfaceView *self = DF_SURFACE_VIEW (widget);
-  Benchmark *bench = self->bench;
-
-  if (bench == NULL)
-    return G_SOURCE_REMOVE;
-  /* n frames are n + 1 stamps: the first render only starts the clock. */
-  if (bench->stamps->len > bench->n_frames)
-    {
-      bench->tick_id = 0;
-      benchmark_finish (self);
-      return G_SOURCE_REMOVE;
-    }
-  df_camera_orbit (&self->camera, 2 * GLM_PIf / bench->n_frames, 0);
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
-  return G_SOURCE_CONTINUE;
-}
-
-void
-df_surface_view_run_orbit_benchmark (DfSurfaceView *self,
-                                     guint          n_frames,
-                                     void         (*done) (double   median_ms,
-                                                           double   p95_ms,
-                                                           gpointer user),
-                                     gpointer       user)
-{
-  Benchmark *bench;
-
-  g_return_if_fail (DF_IS_SURFACE_VIEW (self));
-  g_return_if_fail (self->bench == NULL && self->bench_report == NULL);
-
-  bench = g_new0 (Benchmark, 1);
-  bench->n_frames = MAX (n_frames, 2);
-  bench->stamps = g_array_new (FALSE, FALSE, sizeof (gint64));
-  bench->render_us = g_array_new (FALSE, FALSE, sizeof (gint64));
-  bench->yaw0 = self->camera.yaw;
-  bench->done = done;
-  bench->user = user;
-  self->bench = bench;
-  bench->tick_id = gtk_widget_add_tick_callback (GTK_WIDGET (self), benchmark_tick_cb, NULL,
-                                                 NULL);
-  gtk_gl_area_queue_render (GTK_GL_AREA (self));
 }

@@ -1,0 +1,178 @@
+/* df-window-tools-paths.c: the Two paths tool: path A, then path B with its ends snapped to A's;
+ * the core compares the vectors carried along each. */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "df-project.h"
+
+#include "df-format.h"
+#include "df-window-private.h"
+#include "df-window-tools-private.h"
+
+/* ---- Two paths ---------------------------------------------------------------------------- */
+
+static const char *
+paths_hint (DfPathsStage stage)
+{
+  switch (stage)
+    {
+    case DF_PATHS_WANT_A:
+    case DF_PATHS_DRAWING_A:
+      return "Drag path A on the surface, from its start to its end.";
+    case DF_PATHS_WANT_B:
+    case DF_PATHS_DRAWING_B:
+      return "Now drag path B: another way from A's start to A's end (its ends snap to A's).";
+    case DF_PATHS_DONE:
+    default:
+      return "Done. Drag again to start a new path A, or Clear paths.";
+    }
+}
+
+void
+_df_window_paths_set_stage (DfWindow     *self,
+                            DfPathsStage  stage)
+{
+  self->paths_stage = stage;
+  df_compare_panel_set_hint (self->compare_panel, paths_hint (stage));
+}
+
+void
+_df_window_clear_paths (DfWindow *self)
+{
+  if (self->paths_cancellable != NULL)
+    g_cancellable_cancel (self->paths_cancellable);
+  g_clear_object (&self->paths_cancellable);
+  g_array_set_size (self->path_a, 0);
+  g_array_set_size (self->path_b, 0);
+  df_surface_view_remove_curve (self->view, DF_CURVE_PATH_A);
+  df_surface_view_remove_curve (self->view, DF_CURVE_PATH_B);
+  df_surface_view_remove_arrow (self->view, DF_ARROW_PATH_A);
+  df_surface_view_remove_arrow (self->view, DF_ARROW_PATH_B);
+  df_compare_panel_set_paths (self->compare_panel, 0, 0);
+  df_compare_panel_set_angle (self->compare_panel, NAN);
+  _df_window_paths_set_stage (self, DF_PATHS_WANT_A);
+}
+
+static void
+draw_transport (DfWindow                  *self,
+                guint                      curve_id,
+                guint                      arrow_id,
+                const df_transport_result *result,
+                const char                *colour_spec)
+{
+  g_autofree double (*xyz)[3] = g_malloc_n (MAX (result->n_samples, 1), sizeof (double[3]));
+  GdkRGBA colour = _df_window_rgba (colour_spec);
+
+  for (gsize i = 0; i < result->n_samples; i++)
+    memcpy (xyz[i], result->samples[i].x, sizeof xyz[i]);
+  if (result->n_samples >= 2)
+    {
+      df_surface_view_set_curve (self->view, curve_id, (const double (*)[3]) xyz,
+                                 result->n_samples, FALSE, &colour, 3.5f);
+      df_surface_view_set_arrow (self->view, arrow_id, result->samples[result->n_samples - 1].x,
+                                 result->end_vector, &colour);
+    }
+}
+
+static void
+compare_done_cb (GObject      *source,
+                 GAsyncResult *result,
+                 gpointer      user_data)
+{
+  DfWindow *self = user_data;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(DfPathComparison) comparison = df_work_compare_paths_finish (result, &error);
+
+  if (g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
+    {
+      g_object_unref (self);
+      return;
+    }
+  if (comparison == NULL)
+    {
+      df_compare_panel_show_error (self->compare_panel, error->message);
+      _df_window_status (self, TRUE, "Paths not compared: %s", error->message);
+      _df_window_paths_set_stage (self, DF_PATHS_DONE);
+      g_object_unref (self);
+      return;
+    }
+  draw_transport (self, DF_CURVE_PATH_A, DF_ARROW_PATH_A, &comparison->a, colour_path_a);
+  draw_transport (self, DF_CURVE_PATH_B, DF_ARROW_PATH_B, &comparison->b, colour_path_b);
+  df_compare_panel_set_angle (self->compare_panel, comparison->angle_rad);
+  df_compare_panel_set_lengths (self->compare_panel, comparison->a.length, comparison->b.length,
+                                df_document_get_units (self->document));
+  {
+    g_autofree char *angle = df_format_angle (comparison->angle_rad);
+    _df_window_status (self, self->paths_long_legs, "Carried along B, the direction ends %s "
+                       "from the one carried along A.%s", angle,
+                       self->paths_long_legs ? " Path B was drawn away from A's ends and was "
+                                               "joined to them by straight legs in the chart: "
+                                               "draw it from A's start to A's end." : "");
+  }
+  _df_window_paths_set_stage (self, DF_PATHS_DONE);
+  g_object_unref (self);
+}
+
+void
+_df_window_paths_finish_stroke (DfWindow *self)
+{
+  const char *problem;
+  gboolean is_a = self->paths_stage == DF_PATHS_DRAWING_A;
+
+  self->stroking = FALSE;
+  df_surface_view_remove_curve (self->view, DF_CURVE_SKETCH);
+  problem = _df_window_stroke_problem (self, 3);
+  if (problem != NULL)
+    {
+      _df_window_status (self, TRUE, "Path %s not taken: %s.", is_a ? "A" : "B", problem);
+      _df_window_paths_set_stage (self, is_a ? DF_PATHS_WANT_A : DF_PATHS_WANT_B);
+      return;
+    }
+  if (is_a)
+    {
+      g_array_set_size (self->path_a, 0);
+      g_array_append_vals (self->path_a, self->stroke_uv->data, self->stroke_uv->len);
+      _df_window_draw_stroke (self, DF_CURVE_PATH_A, self->path_a, colour_path_a, 3.5f);
+      df_compare_panel_set_paths (self->compare_panel, self->path_a->len, 0);
+      _df_window_paths_set_stage (self, DF_PATHS_WANT_B);
+      return;
+    }
+
+  {
+    StrokePoint *a0 = &g_array_index (self->path_a, StrokePoint, 0);
+    StrokePoint *a1 = &g_array_index (self->path_a, StrokePoint, self->path_a->len - 1);
+    g_autofree double (*uv_a)[2] = NULL;
+    g_autofree double (*uv_b)[2] = NULL;
+    StrokePoint *b0, *b1;
+    double gap_start, gap_end;
+
+    g_array_set_size (self->path_b, 0);
+    g_array_append_vals (self->path_b, self->stroke_uv->data, self->stroke_uv->len);
+    /* Common ends: B starts and ends exactly where A does. */
+    b0 = &g_array_index (self->path_b, StrokePoint, 0);
+    b1 = &g_array_index (self->path_b, StrokePoint, self->path_b->len - 1);
+    gap_start = hypot (b0->px - a0->px, b0->py - a0->py);
+    gap_end = hypot (b1->px - a1->px, b1->py - a1->py);
+    *b0 = *a0;
+    *b1 = *a1;
+    _df_window_draw_stroke (self, DF_CURVE_PATH_B, self->path_b, colour_path_b, 3.5f);
+    df_compare_panel_set_paths (self->compare_panel, self->path_a->len, self->path_b->len);
+    _df_window_paths_set_stage (self, DF_PATHS_DONE);
+    df_compare_panel_set_hint (self->compare_panel, "Comparing…");
+    /* The snap is silent when B was drawn onto A's ends; say so when it adds long legs. */
+    self->paths_long_legs = MAX (gap_start, gap_end) > 5 * DF_STROKE_STEP_PX;
+
+    uv_a = _df_window_stroke_uv (self->path_a);
+    uv_b = _df_window_stroke_uv (self->path_b);
+    if (self->paths_cancellable != NULL)
+      g_cancellable_cancel (self->paths_cancellable);
+    g_clear_object (&self->paths_cancellable);
+    self->paths_cancellable = g_cancellable_new ();
+    df_work_compare_paths_async (df_document_get_surface (self->document),
+                                 (const double (*)[2]) uv_a, self->path_a->len,
+                                 (const double (*)[2]) uv_b, self->path_b->len,
+                                 self->paths_cancellable, compare_done_cb, g_object_ref (self));
+  }
+}
+
