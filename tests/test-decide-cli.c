@@ -116,6 +116,68 @@ test_check_units (void)
                      / 1000.0, 1e-14, 0.0);
 }
 
+/* A project with no loop: a geodesic on the frustum r = 50 + t drifts from its 70 deg start
+ * heading (Clairaut: r sin(psi) constant, do Carmo sec. 4-4, from memory) beyond 3 deg, while
+ * a meridian path (a geodesic of a surface of revolution, k_g = 0, do Carmo from memory) stays
+ * within: exit 3 from the geodesic alone, its JSON verdict of kind "geodesic". */
+static void
+test_check_geodesic_only (void)
+{
+  g_autofree char *path = write_tmp ("geo.dfproj",
+                                     "[surface]\nkind=revolution\nr=50 + t\nz=-t\nt-min=0\n"
+                                     "t-max=300\nunits=mm\n[limits]\nmax-fibre-deviation-deg=3\n"
+                                     "max-fibre-deviation-deg-source=test\n"
+                                     "[geodesic 1]\nname=Wind\nstart=20;0\nheading-deg=70\n"
+                                     "length=150\n[paths 1]\nname=Meridians\n"
+                                     "a-u=10;40;80;120\na-v=0;0;0;0\nb-u=10;40;80;120\n"
+                                     "b-v=0.5;0.5;0.5;0.5\n");
+  g_autofree char *within = write_tmp ("geo-within.dfproj",
+                                       "[surface]\nkind=revolution\nr=50 + t\nz=-t\nt-min=0\n"
+                                       "t-max=300\nunits=mm\n[limits]\n"
+                                       "max-fibre-deviation-deg=3\n"
+                                       "[paths 1]\nname=Meridians\n"
+                                       "a-u=10;40;80;120\na-v=0;0;0;0\nb-u=10;40;80;120\n"
+                                       "b-v=0.5;0.5;0.5;0.5\n");
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) r2 = { 0 };
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonArray *verdicts;
+  guint n_geo = 0, n_path = 0;
+
+  run_cli (&r, "check", "--project", path, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 3);
+  verdicts = json_object_get_array_member (parse_object (parser, r.out), "verdicts");
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+      const char *kind = json_object_get_string_member (v, "kind");
+
+      if (g_str_equal (kind, "geodesic"))
+        {
+          n_geo++;
+          g_assert_cmpstr (json_object_get_string_member (v, "loop"), ==, "Wind");
+          g_assert_false (json_object_get_boolean_member (v, "within"));
+          g_assert_cmpfloat (json_object_get_double_member (v, "value"), >, 3.0);
+          g_assert_cmpuint (json_array_get_length (json_object_get_array_member (v, "where")),
+                            ==, 2);
+        }
+      else
+        {
+          g_assert_cmpstr (kind, ==, "path");
+          n_path++;
+          g_assert_cmpstr (json_object_get_string_member (v, "loop"), ==, "Meridians");
+          g_assert_true (json_object_get_boolean_member (v, "within"));
+          g_assert_cmpfloat (json_object_get_double_member (v, "value"), <, 1e-6);
+        }
+    }
+  g_assert_cmpuint (n_geo, ==, 1);
+  g_assert_cmpuint (n_path, ==, 2);
+  /* Without the geodesic everything is within: exit 0. */
+  run_cli (&r2, "check", "--project", within, NULL);
+  g_assert_cmpint (r2.status, ==, 0);
+  g_assert_nonnull (strstr (r2.out, "Path Meridians route A"));
+}
+
 static void
 test_check_bad (void)
 {
@@ -214,6 +276,7 @@ main (int argc, char **argv)
   g_test_add_func ("/decide-cli/check-demo", test_check_demo);
   g_test_add_func ("/decide-cli/check-within", test_check_within);
   g_test_add_func ("/decide-cli/check-units", test_check_units);
+  g_test_add_func ("/decide-cli/check-geodesic-only", test_check_geodesic_only);
   g_test_add_func ("/decide-cli/check-bad", test_check_bad);
   g_test_add_func ("/decide-cli/gores", test_gores_cli);
   g_test_add_func ("/decide-cli/gores-bad", test_gores_bad);

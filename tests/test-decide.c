@@ -13,6 +13,7 @@
 #include "df-test.h"
 #include "df-units.h"
 #include "df-verdict.h"
+#include "df-verdict-curves.h"
 
 #define R_SPHERE 100.0
 
@@ -231,6 +232,92 @@ test_verdict_latitude (void)
   g_assert_true (list.items[1].within);
   df_assert_close (list.items[1].value, 1.0 / tan (theta), 1e-5, 0.0);
   df_verdict_list_clear (&list);
+}
+
+/* An open latitude arc at polar angle theta of a sphere: k_g = cot(theta) / R (do Carmo,
+ * from memory), so a fibre started along it and carried parallel falls behind its tangent by
+ * cot(theta) s / R = cos(theta) phi: the path's fibre deviation at the arc's end, and the
+ * stretch beyond a limit d starts at s0 = R tan(theta) d (d in radians). */
+static void
+test_verdict_path_latitude (void)
+{
+  g_autoptr (df_surface) s = sphere ();
+  const double theta = 0.8, dphi = 1.2, d_deg = 10.0;
+  double uv[41][2], length = 0.0;
+  g_autoptr (df_curve) c = NULL;
+  g_autoptr (df_limits) lim = df_limits_new ();
+  df_verdict_list list = { 0 };
+
+  for (int i = 0; i <= 40; i++)
+    {
+      uv[i][0] = theta;
+      uv[i][1] = dphi * i / 40.0;
+    }
+  c = df_test_curve (s, (const double (*)[2]) uv, 41, false);
+  df_limits_set (lim, DF_LIMIT_MIN_STEERING_RADIUS, 50.0, false, DF_UNIT_MM, NULL);
+  df_limits_set (lim, DF_LIMIT_MAX_FIBRE_DEVIATION, d_deg, false, DF_UNIT_MM, NULL);
+  g_assert_cmpint (df_verdicts_path (c, 400, lim, &list, &length, NULL), ==, DF_OK);
+  g_assert_cmpint (list.kind, ==, DF_VERDICT_PATH);
+  g_assert_cmpstr (df_verdict_curve_name (list.kind), ==, "path");
+  df_assert_close (length, R_SPHERE * sin (theta) * dphi, 1e-9, 0.0);
+  g_assert_cmpuint (list.n, ==, 2);
+  /* R tan(0.8) = 102.96 > 50: within, the radius exact on the arc. */
+  g_assert_true (list.items[0].within);
+  df_assert_close (list.items[0].value, R_SPHERE * tan (theta), 1e-6, 0.0);
+  g_assert_false (list.items[1].within);
+  g_assert_cmpint (list.items[1].limit, ==, DF_LIMIT_MAX_FIBRE_DEVIATION);
+  df_assert_close (list.items[1].value, cos (theta) * dphi * 180.0 / G_PI, 1e-6, 0.0);
+  df_assert_close (list.items[1].s0, R_SPHERE * tan (theta) * d_deg * G_PI / 180.0, 1e-3, 0.0);
+  df_assert_close (list.items[1].s1, length, 1e-12, 0.0);
+  df_assert_close (list.items[1].s_worst, length, 1e-12, 0.0);
+  df_verdict_list_clear (&list);
+}
+
+/* A geodesic's deviation from its start heading against the meridians (X_u). Clairaut's
+ * relation (do Carmo sec. 4-4, from memory): r sin(psi) is constant along a geodesic of a
+ * surface of revolution, psi its angle from the meridian. On a cylinder r is constant: the
+ * geodesic (a helix) keeps its heading, no deviation. On the frustum r = 50 + t it drifts to
+ * asin(r0 sin(psi0) / r). */
+static void
+test_verdict_geodesic_clairaut (void)
+{
+  g_autoptr (df_surface) cyl = df_test_revolution ("40", "-t", 0.0, 300.0);
+  g_autoptr (df_surface) cone = df_test_revolution ("50 + t", "-t", 0.0, 300.0);
+  g_autoptr (df_limits) lim = df_limits_new ();
+  df_geodesic_result g = { 0 };
+  df_verdict_list list = { 0 };
+  const double psi0 = 70.0 * G_PI / 180.0;
+  double r_end, worst = 0.0;
+
+  df_limits_set (lim, DF_LIMIT_MAX_FIBRE_DEVIATION, 3.0, false, DF_UNIT_MM, NULL);
+  df_limits_set (lim, DF_LIMIT_FRICTION, 0.1, false, DF_UNIT_MM, NULL);
+  g_assert_cmpint (df_geodesic_shoot (cyl, 20.0, 0.0, psi0, 200.0, 400, &g, NULL), ==, DF_OK);
+  g_assert_cmpint (df_verdicts_geodesic (cyl, &g, psi0, lim, &list, NULL), ==, DF_OK);
+  g_assert_cmpint (list.kind, ==, DF_VERDICT_GEODESIC);
+  g_assert_cmpuint (list.n, ==, 2);
+  g_assert_true (list.items[0].within);
+  g_assert_cmpfloat (list.items[0].value, <, 1e-7);
+  /* k_g = 0 on a geodesic: the friction verdict holds by construction. */
+  g_assert_true (list.items[1].exact);
+  g_assert_cmpfloat (list.items[1].value, ==, 0.0);
+  df_verdict_list_clear (&list);
+  df_geodesic_result_clear (&g);
+
+  g_assert_cmpint (df_geodesic_shoot (cone, 20.0, 0.0, psi0, 150.0, 400, &g, NULL), ==, DF_OK);
+  g_assert_cmpint (df_verdicts_geodesic (cone, &g, psi0, lim, &list, NULL), ==, DF_OK);
+  for (size_t i = 0; i < g.n_samples; i++)
+    {
+      double r = hypot (g.samples[i].point[0], g.samples[i].point[1]);
+
+      worst = fmax (worst, fabs (psi0 - asin (70.0 * sin (psi0) / r)));
+    }
+  r_end = hypot (g.samples[g.n_samples - 1].point[0], g.samples[g.n_samples - 1].point[1]);
+  g_assert_cmpfloat (r_end, >, 80.0);
+  g_assert_false (list.items[0].within);
+  df_assert_close (list.items[0].value, worst * 180.0 / G_PI, 1e-6, 0.0);
+  g_assert_true (list.items[0].has_where);
+  df_verdict_list_clear (&list);
+  df_geodesic_result_clear (&g);
 }
 
 /* Gores of a sphere from the pole to the equator: each has length pi R / 2 and flat area
@@ -581,6 +668,8 @@ main (int argc, char **argv)
   g_test_add_func ("/decide/helix", test_helix);
   g_test_add_func ("/decide/verdict-ellipse", test_verdict_ellipse);
   g_test_add_func ("/decide/verdict-latitude", test_verdict_latitude);
+  g_test_add_func ("/decide/verdict-path-latitude", test_verdict_path_latitude);
+  g_test_add_func ("/decide/verdict-geodesic-clairaut", test_verdict_geodesic_clairaut);
   g_test_add_func ("/decide/sphere-gores", test_sphere_gores);
   g_test_add_func ("/decide/cone-development", test_cone_development);
   g_test_add_func ("/decide/darts-counts", test_darts_counts);
