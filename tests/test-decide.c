@@ -14,6 +14,7 @@
 #include "df-units.h"
 #include "df-verdict.h"
 #include "df-verdict-curves.h"
+#include "df-verdict-region.h"
 
 #define R_SPHERE 100.0
 
@@ -320,6 +321,51 @@ test_verdict_geodesic_clairaut (void)
   df_geodesic_result_clear (&g);
 }
 
+/* max-strain-percent over a loop's region on a sphere: every geodesic circle of radius a has
+ * circumference 2 pi R sin(a/R) (Bertrand-Diguet-Puiseux; do Carmo sec. 4-6, from memory), so
+ * the rim strain is 1 - sin(a/R)/(a/R) (about K a^2 / 6) wherever the disc lies. Without
+ * patch-size, or on a loop that bounds no disc, it is not checked and says why. */
+static void
+test_verdict_strain_sphere (void)
+{
+  g_autoptr (df_surface) s = sphere ();
+  g_autoptr (df_limits) lim = df_limits_new ();
+  g_autoptr (df_curve) c = NULL;
+  g_auto (df_loop_result) r = { 0 };
+  df_verdict_list list = { 0 };
+  double uv[48][2];
+  const double a = 15.0, x = a / R_SPHERE;
+  bool checked = true;
+  char note[240];
+
+  for (int i = 0; i < 48; i++)
+    {
+      uv[i][0] = G_PI / 2 + 0.4 * cos (2 * G_PI * i / 48);
+      uv[i][1] = 0.4 * sin (2 * G_PI * i / 48);
+    }
+  c = df_test_curve (s, (const double (*)[2]) uv, 48, true);
+  df_test_measure (c, &r);
+  df_limits_set (lim, DF_LIMIT_MAX_STRAIN, 0.2, false, DF_UNIT_MM, "test");
+  g_assert_cmpint (df_verdict_strain (c, &r, lim, 0, NULL, &list, &checked, note, sizeof note,
+                                      NULL), ==, DF_OK);
+  g_assert_false (checked);
+  g_assert_nonnull (strstr (note, "patch-size"));
+  g_assert_cmpuint (list.n, ==, 0);
+  lim->patch_size = (df_length_setting) { .set = true, .value = a, .model_value = a };
+  g_assert_cmpint (df_verdict_strain (c, &r, lim, 5, NULL, &list, &checked, note, sizeof note,
+                                      NULL), ==, DF_OK);
+  g_assert_true (checked);
+  g_assert_cmpuint (list.n, ==, 1);
+  g_assert_true (list.items[0].region);
+  g_assert_false (list.items[0].has_where);
+  df_assert_close (list.items[0].value, 100 * (1 - sin (x) / x), 1e-5, 0.0);
+  g_assert_cmpfloat (list.items[0].signed_value, >, 0.0);
+  /* 1 - sin(0.15)/0.15 = 0.374 % > 0.2 %. */
+  g_assert_false (list.items[0].within);
+  g_assert_cmpuint (list.n_exceeded, ==, 1);
+  df_verdict_list_clear (&list);
+}
+
 /* Gores of a sphere from the pole to the equator: each has length pi R / 2 and flat area
  * 2 pi R^2 / n, the hemisphere's area shared out (Archimedes' hat-box theorem; GEOMETRY.md). */
 static void
@@ -609,10 +655,12 @@ test_limits_file (void)
     { "[limits]\nspeed=3\n", "[limits] unknown key 'speed'" },
     { "[units]\nlength=ft\n", "[units] length: unknown unit 'ft'" },
     { "[units]\ncurvature=1/ft^2\n", "[units] curvature: '1/ft^2' is not one of" },
+    { "[limits]\npatch-size=-2\n", "[limits] patch-size: '-2' is not a positive length" },
+    { "[limits]\npatch-size=2 ft\n", "[limits] patch-size: unknown unit 'ft'" },
   };
 
   p = project_with ("[limits]\nmin-steering-radius=0.025 m\nmin-steering-radius-source=Trial "
-                    "T-7, 2026\ntow-width=0.25 in\nfriction=0.2\n[units]\nlength=in\n"
+                    "T-7, 2026\ntow-width=0.25 in\nfriction=0.2\npatch-size=2 cm\n[units]\nlength=in\n"
                     "curvature=1/m^2\n", &error);
   g_assert_no_error (error);
   g_assert_true (p->limits->item[DF_LIMIT_MIN_STEERING_RADIUS].set);
@@ -629,6 +677,9 @@ test_limits_file (void)
   g_assert_nonnull (strstr (saved, "min-steering-radius=0.025 m\n"));
   g_assert_nonnull (strstr (saved, "min-steering-radius-source=Trial T-7, 2026\n"));
   g_assert_nonnull (strstr (saved, "curvature=1/m^2\n"));
+  g_assert_nonnull (strstr (saved, "patch-size=2 cm\n"));
+  /* 2 cm in the surface's mm: 20 (10 mm to the cm, by definition). */
+  df_assert_close (p->limits->patch_size.model_value, 20.0, 1e-14, 0.0);
   again = df_project_from_data (saved, "saved.dfproj", &error);
   g_assert_no_error (error);
   df_assert_close (again->limits->item[DF_LIMIT_TOW_WIDTH].model_value, 6.35, 1e-14, 0.0);
@@ -670,6 +721,7 @@ main (int argc, char **argv)
   g_test_add_func ("/decide/verdict-latitude", test_verdict_latitude);
   g_test_add_func ("/decide/verdict-path-latitude", test_verdict_path_latitude);
   g_test_add_func ("/decide/verdict-geodesic-clairaut", test_verdict_geodesic_clairaut);
+  g_test_add_func ("/decide/verdict-strain-sphere", test_verdict_strain_sphere);
   g_test_add_func ("/decide/sphere-gores", test_sphere_gores);
   g_test_add_func ("/decide/cone-development", test_cone_development);
   g_test_add_func ("/decide/darts-counts", test_darts_counts);

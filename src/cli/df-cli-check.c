@@ -14,6 +14,7 @@
 #include "df-json-out.h"
 #include "df-verdict.h"
 #include "df-verdict-curves.h"
+#include "df-verdict-region.h"
 
 #define NAME "check"
 #define DEFAULT_SAMPLES 2000
@@ -34,6 +35,7 @@ typedef struct
   gboolean        has_darts;
   df_darts        darts;
   int             least_darts;   /* 0 when max-shear-deg is not set */
+  char            strain_note[240];  /* why max-strain-percent was not checked, or "" */
 } loop_check;
 
 /* A geodesic or a path route of the project, checked. */
@@ -106,6 +108,13 @@ check_loop (const df_surface *surface, const df_project_loop *loop, const df_lim
   if (st == DF_OK)
     st = df_verdicts_measure (curve, out->result.samples, out->result.n_samples,
                               out->result.length, limits, &out->verdicts, &diag);
+  if (st == DF_OK)
+    {
+      bool checked;
+
+      st = df_verdict_strain (curve, &out->result, limits, 0, NULL, &out->verdicts, &checked,
+                              out->strain_note, sizeof out->strain_note, &diag);
+    }
   if (st == DF_OK && out->result.bounds_disc && out->result.area > 0.0)
     {
       st = df_darts_compute (out->result.enclosed_curvature_rad, out->result.area, 1,
@@ -149,6 +158,8 @@ quantity_name (df_limit_id id)
       return "fibre deviation";
     case DF_LIMIT_FRICTION:
       return "|k_g/k_n|";
+    case DF_LIMIT_MAX_STRAIN:
+      return "rim strain";
     default:
       return df_limit_key (id);
     }
@@ -156,8 +167,8 @@ quantity_name (df_limit_id id)
 
 /* The lines of one curve's verdicts; returns how many are exceeded. */
 static guint
-print_verdicts (const df_verdict_list *list, const df_display_units *du, const char *un,
-                const char *vn)
+print_verdicts (const df_verdict_list *list, const df_limits *limits,
+                const df_display_units *du, const char *un, const char *vn)
 {
   const char *ln = df_unit_name (du->length);
   guint exceeded = 0;
@@ -175,6 +186,14 @@ print_verdicts (const df_verdict_list *list, const df_display_units *du, const c
               *units && v->has_value ? " " : "", v->has_value ? units : "", df_cli_num (b2, sizeof b2, threshold, 5), units);
       if (v->exact)
         printf (" (a geodesic: k_g = 0)");
+      if (v->region)
+        printf (" over the enclosed region, flat discs of radius %s %s; worst at (%s = %s, "
+                "%s = %s), the flat rim must %s",
+                df_cli_num (b3, sizeof b3, df_unit_length (limits->patch_size.model_value,
+                                                           du->model, du->length), 5), ln,
+                un, df_cli_num (b1, sizeof b1, v->u_worst, 6), vn,
+                df_cli_num (b2, sizeof b2, v->v_worst, 6),
+                v->signed_value >= 0 ? "shrink" : "stretch");
       if (v->has_where)
         printf (" from s = %s to %s %s%s, worst at s = %s (%s = %s, %s = %s)",
                 df_cli_num (b3, sizeof b3, df_unit_length (v->s0, du->model, du->length), 6),
@@ -226,7 +245,9 @@ print_text (const check_options *o, const df_project *project, const df_surface 
       printf ("%s (length %s %s)\n", loop->name,
               df_cli_num (b1, sizeof b1, df_unit_length (c->result.length, du->model,
                                                          du->length), 7), ln);
-      exceeded += print_verdicts (&c->verdicts, du, un, vn);
+      exceeded += print_verdicts (&c->verdicts, project->limits, du, un, vn);
+      if (c->strain_note[0] != '\0')
+        printf ("  not checked: max-strain-percent: %s\n", c->strain_note);
       if (c->has_darts)
         {
           printf ("  darts    enclosed curvature %s deg: one %s of that angle",
@@ -251,7 +272,7 @@ print_text (const check_options *o, const df_project *project, const df_surface 
       if (curves[i].verdicts.kind == DF_VERDICT_GEODESIC && curves[i].verdicts.n > 0)
         printf ("  (fibre deviation of a geodesic: its heading against the u lines, from its "
                 "start heading)\n");
-      exceeded += print_verdicts (&curves[i].verdicts, du, un, vn);
+      exceeded += print_verdicts (&curves[i].verdicts, project->limits, du, un, vn);
     }
   printf ("\n%s\n", exceeded ? "Some limits are exceeded (exit status 3)."
                              : "Everything is within the limits given.");

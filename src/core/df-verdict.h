@@ -49,6 +49,8 @@ typedef struct
    * arc-length stretch (has_where false); the worst point is where the limit is exceeded most
    * (s_worst 0). */
   bool   region;
+  double signed_value;    /* region strain only: the worst strain with its sign, percent (> 0 a
+                           * flat rim must shrink, < 0 stretch) */
   /* Set only by the geodesic verdicts: the value holds by construction (k_g = 0 exactly), not
    * from samples. */
   bool   exact;
