@@ -15,6 +15,7 @@
 #include "df-verdict.h"
 #include "df-verdict-curves.h"
 #include "df-verdict-region.h"
+#include "df-units-convert.h"
 
 #define R_SPHERE 100.0
 
@@ -233,6 +234,37 @@ test_verdict_latitude (void)
   g_assert_true (list.items[1].within);
   df_assert_close (list.items[1].value, 1.0 / tan (theta), 1e-5, 0.0);
   df_verdict_list_clear (&list);
+}
+
+/* A sphere of R = 100 mm measured, then shown in m: K = 1/R^2 at every sample is 1e-4 / mm^2 and
+ * 100 / m^2 (a factor 1e-6 between them), k_g = cot(theta)/R (do Carmo, from memory) 1000 times
+ * larger per m, lengths 1000 times smaller, the holonomy untouched. */
+static void
+test_units_convert_loop (void)
+{
+  g_autoptr (df_surface) s = sphere ();
+  const double theta = 0.6;
+  double uv[48][2];
+  g_autoptr (df_curve) c = NULL;
+  g_auto (df_loop_result) r = { 0 };
+  double hol, len;
+
+  for (int i = 0; i < 48; i++)
+    {
+      uv[i][0] = theta;
+      uv[i][1] = -G_PI + 2.0 * G_PI * i / 48.0;
+    }
+  c = df_test_curve (s, (const double (*)[2]) uv, 48, true);
+  df_test_measure (c, &r);
+  hol = r.holonomy_rad;
+  len = r.length;
+  df_assert_close (r.samples[5].K, 1e-4, 1e-9, 0.0);
+  df_loop_result_convert (&r, DF_UNIT_MM, DF_UNIT_M);
+  df_assert_close (r.samples[5].K, 1.0 / (0.1 * 0.1), 1e-9, 0.0);
+  df_assert_close (r.samples[5].k_g, 1.0 / (tan (theta) * 0.1), 1e-6, 0.0);
+  df_assert_close (r.length, len / 1000, 1e-15, 0.0);
+  df_assert_close (r.samples[5].point[2], 0.1 * cos (theta), 1e-12, 0.0);
+  g_assert_cmpfloat (r.holonomy_rad, ==, hol);
 }
 
 /* An open latitude arc at polar angle theta of a sphere: k_g = cot(theta) / R (do Carmo,
@@ -719,6 +751,7 @@ main (int argc, char **argv)
   g_test_add_func ("/decide/helix", test_helix);
   g_test_add_func ("/decide/verdict-ellipse", test_verdict_ellipse);
   g_test_add_func ("/decide/verdict-latitude", test_verdict_latitude);
+  g_test_add_func ("/decide/units-convert-loop", test_units_convert_loop);
   g_test_add_func ("/decide/verdict-path-latitude", test_verdict_path_latitude);
   g_test_add_func ("/decide/verdict-geodesic-clairaut", test_verdict_geodesic_clairaut);
   g_test_add_func ("/decide/verdict-strain-sphere", test_verdict_strain_sphere);

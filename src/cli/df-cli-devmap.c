@@ -60,18 +60,14 @@ run (devmap_options *o)
     }
   if (!df_cli_surface_load (&o->surface, &spec, &surface, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
-  if (!df_unit_from_name (spec->units, &model))
-    {
-      if (o->units_text != NULL)
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
-                                "are not mm, cm, m or in, so nothing can be converted",
-                                spec->units);
-      model = DF_UNIT_MM;
-    }
-  display = model;
-  if (o->units_text != NULL && !df_unit_from_name (o->units_text, &display))
-    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: mm, "
-                            "cm, m, in)", o->units_text);
+  {
+    int m, d;
+
+    if (!df_cli_units (o->units_text, spec->units, &m, &d, &error))
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    model = (df_unit) m;
+    display = (df_unit) d;
+  }
   /* --radius is in the display units. */
   a = df_unit_length (a, display, model);
   if (!(a > 0.0) || a > df_surface_size (surface))
