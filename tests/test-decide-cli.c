@@ -6,6 +6,7 @@
 
 #include <glib/gstdio.h>
 #include <json-glib/json-glib.h>
+#include <cairo.h>
 
 #include "df-glib.h"
 #include "df-test.h"
@@ -265,6 +266,54 @@ test_devmap_cli (void)
   g_assert_true (g_file_test (csv, G_FILE_TEST_EXISTS));
 }
 
+/* devmap --png: a PNG of the size asked for, the lamp shade's positive curvature drawn warm
+ * (K > 0: the rim of a flat disc must shrink, strain > 0) in more than a few colours, and grey
+ * only where no disc fits. Read back with cairo's own PNG reader. */
+static void
+test_devmap_png (void)
+{
+  g_autofree char *png = tmp_path ("map.png");
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) bad = { 0 };
+  cairo_surface_t *img;
+  g_autoptr (GHashTable) colours = g_hash_table_new (NULL, NULL);
+  guint warm = 0, cool = 0;
+  int w, h, stride;
+  const guint8 *data;
+
+  run_cli (&r, "devmap", "--surface", DF_EXAMPLES_DIR "/lamp-shade.surface", "--radius", "20",
+           "--grid", "12,12", "--max-strain-percent", "0.3", "--png", png, "--png-size",
+           "600,450", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  img = cairo_image_surface_create_from_png (png);
+  g_assert_cmpint (cairo_surface_status (img), ==, CAIRO_STATUS_SUCCESS);
+  w = cairo_image_surface_get_width (img);
+  h = cairo_image_surface_get_height (img);
+  g_assert_cmpint (w, ==, 600);
+  g_assert_cmpint (h, ==, 450);
+  data = cairo_image_surface_get_data (img);
+  stride = cairo_image_surface_get_stride (img);
+  for (int y = 0; y < h; y++)
+    for (int x = 0; x < w; x++)
+      {
+        guint32 px = *(const guint32 *) (data + y * stride + 4 * x) & 0xffffff;
+        int red = (px >> 16) & 0xff, blue = px & 0xff;
+
+        g_hash_table_add (colours, GUINT_TO_POINTER (px));
+        warm += red > blue + 40;
+        cool += blue > red + 40;
+      }
+  cairo_surface_destroy (img);
+  g_assert_cmpuint (g_hash_table_size (colours), >, 200);
+  /* Most of the surface is warm; the only cool pixels are the legend's negative half. */
+  g_assert_cmpuint (warm, >, 20 * cool);
+  g_assert_cmpuint (warm, >, (guint) (w * h / 10));
+  run_cli (&bad, "devmap", "--preset", "sphere", "--radius", "5", "--grid", "4,4", "--png",
+           png, "--png-size", "10,10", NULL);
+  g_assert_cmpint (bad.status, ==, 2);
+  g_assert_nonnull (strstr (bad.err, "--png-size"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -281,6 +330,7 @@ main (int argc, char **argv)
   g_test_add_func ("/decide-cli/gores", test_gores_cli);
   g_test_add_func ("/decide-cli/gores-bad", test_gores_bad);
   g_test_add_func ("/decide-cli/devmap", test_devmap_cli);
+  g_test_add_func ("/decide-cli/devmap-png", test_devmap_png);
   code = g_test_run ();
   {
     g_autoptr (GDir) d = g_dir_open (tmp_dir, 0, NULL);
