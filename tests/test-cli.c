@@ -91,6 +91,31 @@ test_measure_units (void)
   g_assert_nonnull (strstr (bad.err, "--units: unknown unit 'ft'"));
 }
 
+/* A meridian geodesic of a sphere of R = 50 mm traced 0.06 m in --units m: the same 60 mm arc,
+ * ending at z = R cos(theta0 + s/R) (a great circle: arc length = R x angle), shown in m. */
+static void
+test_geodesic_units (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+
+  run_cli (&r, "geodesic", "--preset", "sphere", "--param", "R=50", "--from", "0.5,0",
+           "--heading", "0", "--length", "0.06", "--units", "m", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_cmpstr (json_object_get_string_member (o, "units"), ==, "m");
+  df_assert_close (get_number (o, "requested_length"), 0.06, 1e-15, 0.0);
+  df_assert_close (get_number (o, "length"), 0.06, 1e-9, 0.0);
+  {
+    JsonArray *end = json_object_get_array_member (json_object_get_object_member (o, "end"),
+                                                   "point");
+
+    df_assert_close (json_array_get_double_element (end, 2), 0.05 * cos (0.5 + 60.0 / 50.0),
+                     1e-7, 0.0);
+  }
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -769,6 +794,7 @@ main (int argc, char **argv)
 
   g_test_add_func ("/cli/measure/sphere-latitude", test_measure_sphere);
   g_test_add_func ("/cli/measure/units", test_measure_units);
+  g_test_add_func ("/cli/geodesic/units", test_geodesic_units);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);

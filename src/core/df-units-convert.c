@@ -23,3 +23,17 @@ df_loop_result_convert (df_loop_result *r, df_unit from, df_unit to)
       s->K = df_unit_gaussian (s->K, from, to);
     }
 }
+
+void
+df_geodesic_result_convert (df_geodesic_result *r, df_unit from, df_unit to)
+{
+  if (r == NULL || from == to)
+    return;
+  r->length = df_unit_length (r->length, from, to);
+  for (size_t i = 0; i < r->n_samples; i++)
+    {
+      r->samples[i].s = df_unit_length (r->samples[i].s, from, to);
+      for (int c = 0; c < 3; c++)
+        r->samples[i].point[c] = df_unit_length (r->samples[i].point[c], from, to);
+    }
+}

@@ -6,8 +6,11 @@
  * are left as they are. Plain C; no GLib. */
 #pragma once
 
+#include "df-geodesic.h"
 #include "df-loop.h"
 #include "df-units.h"
 
 /* In place; from == to changes nothing (bit for bit). */
 void df_loop_result_convert (df_loop_result *r, df_unit from, df_unit to);
+/* A geodesic's length, its samples' s and points. */
+void df_geodesic_result_convert (df_geodesic_result *r, df_unit from, df_unit to);
