@@ -116,6 +116,35 @@ test_geodesic_units (void)
   }
 }
 
+/* compare --units m: path A, a meridian of a sphere of R = 50 mm from theta 0.5 to 1.0, is
+ * R x 0.5 long (a great-circle arc), shown in m; the angle between the carried vectors is the
+ * same in either unit. */
+static void
+test_compare_units (void)
+{
+  g_autofree char *pa = write_tmp ("cmp-a.csv", "u,v\n0.5,0\n0.75,0\n1.0,0\n");
+  g_autofree char *pb = write_tmp ("cmp-b.csv", "u,v\n0.5,0\n0.75,0.3\n1.0,0\n");
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  JsonObject *a, *b;
+
+  run_cli (&mm, "compare", "--preset", "sphere", "--param", "R=50", "--path-a", pa, "--path-b",
+           pb, "--json", NULL);
+  run_cli (&m, "compare", "--preset", "sphere", "--param", "R=50", "--path-a", pa, "--path-b",
+           pb, "--json", "--units", "m", NULL);
+  g_assert_cmpint (mm.status, ==, 0);
+  g_assert_cmpint (m.status, ==, 0);
+  a = parse_object (p1, mm.out);
+  b = parse_object (p2, m.out);
+  g_assert_cmpstr (json_object_get_string_member (b, "units"), ==, "m");
+  df_assert_close (get_number (a, "length_a"), 25.0, 1e-8, 0.0);
+  df_assert_close (get_number (b, "length_a"), 0.025, 1e-8, 0.0);
+  df_assert_close (get_number (b, "length_b"), get_number (a, "length_b") / 1000, 1e-14, 0.0);
+  g_assert_cmpfloat (get_number (a, "angle_rad"), ==, get_number (b, "angle_rad"));
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -795,6 +824,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/measure/sphere-latitude", test_measure_sphere);
   g_test_add_func ("/cli/measure/units", test_measure_units);
   g_test_add_func ("/cli/geodesic/units", test_geodesic_units);
+  g_test_add_func ("/cli/compare/units", test_compare_units);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);
