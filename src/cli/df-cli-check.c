@@ -595,8 +595,9 @@ df_cli_check (int argc, char **argv)
   context = df_cli_context_new (NAME, "check every loop of a project against its limits",
                                 "Checks each loop, geodesic and path route of the project against the limits in its "
                                 "[limits] group (min-steering-radius with tow-width, "
-                                "max-fibre-deviation-deg, friction; max-shear-deg sets the "
-                                "least dart count) and lists every stretch where one is "
+                                "max-fibre-deviation-deg, friction; max-strain-percent over "
+                                "each loop's enclosed region at [limits] patch-size; "
+                                "max-shear-deg sets the least dart count) and lists every stretch where one is "
                                 "exceeded. A path's fibre deviation is against its start "
                                 "tangent carried parallel; a geodesic's against its start "
                                 "heading held to the u lines (k_g = 0 on a geodesic).\n\nExit status: 0 everything within the limits, 3 a "
