@@ -52,6 +52,99 @@ write_latitude (const char *name, double theta)
   return write_tmp (name, text->str);
 }
 
+/* The same latitude circle of a sphere of radius R = 50 mm measured in mm and in m: length
+ * 2 pi R sin(theta) and cap area 2 pi R^2 (1 - cos(theta)) (Archimedes' hat-box theorem) in each
+ * unit, so 1000 and 1e6 apart; the holonomy identical (an angle). */
+static void
+test_measure_units (void)
+{
+  const double theta = 0.9, R = 50.0;
+  g_autofree char *loop = write_latitude ("latitude-units.csv", theta);
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  g_auto (cli_run) bad = { 0 };
+  JsonObject *a, *b;
+
+  run_cli (&mm, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+           NULL);
+  run_cli (&m, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+           "--units", "m", NULL);
+  g_assert_cmpint (mm.status, ==, 0);
+  g_assert_cmpint (m.status, ==, 0);
+  a = parse_object (p1, mm.out);
+  b = parse_object (p2, m.out);
+  g_assert_cmpstr (json_object_get_string_member (a, "units"), ==, "mm");
+  g_assert_cmpstr (json_object_get_string_member (b, "units"), ==, "m");
+  g_assert_cmpstr (json_object_get_string_member (b, "curvature_units"), ==, "1/m^2");
+  df_assert_close (get_number (a, "length"), 2 * G_PI * R * sin (theta), 1e-9, 0.0);
+  df_assert_close (get_number (b, "length"), 2 * G_PI * R * sin (theta) / 1000, 1e-9, 0.0);
+  df_assert_close (get_number (a, "area"), 2 * G_PI * R * R * (1 - cos (theta)), 1e-9, 0.0);
+  df_assert_close (get_number (b, "area"), 2 * G_PI * R * R * (1 - cos (theta)) / 1e6, 1e-9,
+                   0.0);
+  /* The steering radius R tan(theta) (k_g = cot(theta) / R, do Carmo, from memory). */
+  df_assert_close (get_number (b, "min_steering_radius"), R * tan (theta) / 1000, 1e-6, 0.0);
+  g_assert_cmpfloat (get_number (a, "holonomy_rad"), ==, get_number (b, "holonomy_rad"));
+  run_cli (&bad, "measure", "--preset", "sphere", "--loop", loop, "--units", "ft", NULL);
+  g_assert_cmpint (bad.status, ==, 2);
+  g_assert_nonnull (strstr (bad.err, "--units: unknown unit 'ft'"));
+}
+
+/* A meridian geodesic of a sphere of R = 50 mm traced 0.06 m in --units m: the same 60 mm arc,
+ * ending at z = R cos(theta0 + s/R) (a great circle: arc length = R x angle), shown in m. */
+static void
+test_geodesic_units (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  JsonObject *o;
+
+  run_cli (&r, "geodesic", "--preset", "sphere", "--param", "R=50", "--from", "0.5,0",
+           "--heading", "0", "--length", "0.06", "--units", "m", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_cmpstr (json_object_get_string_member (o, "units"), ==, "m");
+  df_assert_close (get_number (o, "requested_length"), 0.06, 1e-15, 0.0);
+  df_assert_close (get_number (o, "length"), 0.06, 1e-9, 0.0);
+  {
+    JsonArray *end = json_object_get_array_member (json_object_get_object_member (o, "end"),
+                                                   "point");
+
+    df_assert_close (json_array_get_double_element (end, 2), 0.05 * cos (0.5 + 60.0 / 50.0),
+                     1e-7, 0.0);
+  }
+}
+
+/* compare --units m: path A, a meridian of a sphere of R = 50 mm from theta 0.5 to 1.0, is
+ * R x 0.5 long (a great-circle arc), shown in m; the angle between the carried vectors is the
+ * same in either unit. */
+static void
+test_compare_units (void)
+{
+  g_autofree char *pa = write_tmp ("cmp-a.csv", "u,v\n0.5,0\n0.75,0\n1.0,0\n");
+  g_autofree char *pb = write_tmp ("cmp-b.csv", "u,v\n0.5,0\n0.75,0.3\n1.0,0\n");
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  JsonObject *a, *b;
+
+  run_cli (&mm, "compare", "--preset", "sphere", "--param", "R=50", "--path-a", pa, "--path-b",
+           pb, "--json", NULL);
+  run_cli (&m, "compare", "--preset", "sphere", "--param", "R=50", "--path-a", pa, "--path-b",
+           pb, "--json", "--units", "m", NULL);
+  g_assert_cmpint (mm.status, ==, 0);
+  g_assert_cmpint (m.status, ==, 0);
+  a = parse_object (p1, mm.out);
+  b = parse_object (p2, m.out);
+  g_assert_cmpstr (json_object_get_string_member (b, "units"), ==, "m");
+  df_assert_close (get_number (a, "length_a"), 25.0, 1e-8, 0.0);
+  df_assert_close (get_number (b, "length_a"), 0.025, 1e-8, 0.0);
+  df_assert_close (get_number (b, "length_b"), get_number (a, "length_b") / 1000, 1e-14, 0.0);
+  g_assert_cmpfloat (get_number (a, "angle_rad"), ==, get_number (b, "angle_rad"));
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -729,6 +822,9 @@ main (int argc, char **argv)
   g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
 
   g_test_add_func ("/cli/measure/sphere-latitude", test_measure_sphere);
+  g_test_add_func ("/cli/measure/units", test_measure_units);
+  g_test_add_func ("/cli/geodesic/units", test_geodesic_units);
+  g_test_add_func ("/cli/compare/units", test_compare_units);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);

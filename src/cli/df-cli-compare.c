@@ -14,6 +14,7 @@ typedef struct
   DfCliSurfaceOptions surface;
   char    *path_a;
   char    *path_b;
+  char    *units_text;
   gboolean json;
 } compare_options;
 
@@ -49,6 +50,10 @@ run (compare_options *o)
   g_autoptr (df_curve) a = NULL;
   g_autoptr (df_curve) b = NULL;
   df_transport_options topt;
+  df_transport_result ra = { 0 }, rb = { 0 };
+  double len_a, len_b;
+  int model, display;
+  const char *units;
   double angle = 0.0;
   df_diag diag;
   df_status st;
@@ -66,13 +71,22 @@ run (compare_options *o)
 
   df_transport_options_init (&topt);
   df_diag_clear (&diag);
-  st = df_compare_paths (a, b, NULL, &topt, &angle, NULL, NULL, &diag);
+  st = df_compare_paths (a, b, NULL, &topt, &angle, &ra, &rb, &diag);
+  len_a = ra.length;
+  len_b = rb.length;
+  df_transport_result_clear (&ra);
+  df_transport_result_clear (&rb);
   if (st != DF_OK)
     {
       df_status_to_gerror (st, &diag, &error);
       g_prefix_error (&error, "%s and %s: ", o->path_a, o->path_b);
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
+  if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
+    return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  units = o->units_text != NULL ? df_unit_name ((df_unit) display) : spec->units;
+  len_a = df_unit_length (len_a, (df_unit) model, (df_unit) display);
+  len_b = df_unit_length (len_b, (df_unit) model, (df_unit) display);
 
   if (o->json)
     {
@@ -90,8 +104,10 @@ run (compare_options *o)
       json_builder_set_member_name (j, "normal_side");
       json_builder_add_string_value (j, df_surface_normal_side (surface));
       df_json_add_fit (j, surface);
+      df_json_add_double (j, "length_a", len_a);
+      df_json_add_double (j, "length_b", len_b);
       json_builder_set_member_name (j, "units");
-      json_builder_add_string_value (j, spec->units);
+      json_builder_add_string_value (j, units);
       df_json_add_double (j, "tolerance", topt.rel_tol);
       json_builder_set_member_name (j, "caution");
       json_builder_add_string_value (j, DF_CLI_CAUTION);
@@ -103,10 +119,12 @@ run (compare_options *o)
       char d[40], r[40];
 
       printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label,
-              df_cli_kind_text (surface), spec->units);
+              df_cli_kind_text (surface), units);
       printf ("Normal:  %s\n", df_surface_normal_side (surface));
       df_cli_print_fit (surface, spec->units);
-      printf ("Paths:   A = %s, B = %s (common ends)\n\n", o->path_a, o->path_b);
+      printf ("Paths:   A = %s, B = %s (common ends), lengths %s and %s %s\n\n", o->path_a,
+              o->path_b, df_cli_num (d, sizeof d, len_a, 9), df_cli_num (r, sizeof r, len_b, 9),
+              units);
       printf ("A direction carried along B arrives turned %s deg (%s rad) from the same "
               "direction carried along A,\nmeasured anticlockwise about N at the end point.\n",
               df_cli_num (d, sizeof d, angle * 180.0 / G_PI, 9),
@@ -128,6 +146,8 @@ df_cli_compare (int argc, char **argv)
     { "path-b", 'b', 0, G_OPTION_ARG_FILENAME, &o.path_b,
       "Second path, with the same start and end points", "B.csv" },
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the result as JSON", NULL },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Show the paths' lengths in mm, cm, m or in (default: the surface's units)", "UNIT" },
     { NULL },
   };
 
@@ -146,5 +166,6 @@ df_cli_compare (int argc, char **argv)
   df_cli_surface_options_clear (&o.surface);
   g_free (o.path_a);
   g_free (o.path_b);
+  g_free (o.units_text);
   return code;
 }

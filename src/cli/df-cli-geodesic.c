@@ -6,6 +6,7 @@
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
+#include "df-units-convert.h"
 #include "df-json-out.h"
 
 #define NAME "geodesic"
@@ -17,6 +18,7 @@ typedef struct
   char    *heading_text;
   char    *length_text;
   char    *samples_path;
+  char    *units_text;
   int      count;
   gboolean json;
 } geodesic_options;
@@ -30,7 +32,8 @@ run (geodesic_options *o)
   g_auto (df_geodesic_result) result = { 0 };
   double u, v, heading_deg, length;
   size_t count = 101;
-  const char *un, *vn;
+  const char *un, *vn, *units;
+  int model = 0, display = 0;
   df_diag diag;
   df_status st;
 
@@ -62,6 +65,15 @@ run (geodesic_options *o)
   if (!df_cli_surface_load (&o->surface, &spec, &surface, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
   df_cli_chart_names (surface, &un, &vn);
+  units = spec->units;
+  if (o->units_text != NULL)
+    {
+      if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
+        return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+      units = df_unit_name ((df_unit) display);
+      /* --length is in the display units, as every length shown. */
+      length = df_unit_length (length, (df_unit) display, (df_unit) model);
+    }
   if (!df_surface_contains (surface, u, v))
     {
       double u0, u1, v0, v1;
@@ -88,6 +100,11 @@ run (geodesic_options *o)
       if (!df_geodesic_samples_write (o->samples_path, &result, &csv, &error))
         return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
     }
+  if (o->units_text != NULL)
+    {
+      df_geodesic_result_convert (&result, (df_unit) model, (df_unit) display);
+      length = df_unit_length (length, (df_unit) model, (df_unit) display);
+    }
 
   if (o->json)
     {
@@ -104,7 +121,7 @@ run (geodesic_options *o)
       json_builder_add_string_value (j, df_surface_normal_side (surface));
       df_json_add_fit (j, surface);
       json_builder_set_member_name (j, "units");
-      json_builder_add_string_value (j, spec->units);
+      json_builder_add_string_value (j, units);
       json_builder_set_member_name (j, "caution");
       json_builder_add_string_value (j, DF_CLI_CAUTION);
       json_builder_end_object (j);
@@ -115,14 +132,13 @@ run (geodesic_options *o)
       char a[40], b[40], c[40];
 
       printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label,
-              df_cli_kind_text (surface), spec->units);
+              df_cli_kind_text (surface), units);
       printf ("Normal:  %s\n", df_surface_normal_side (surface));
       df_cli_print_fit (surface, spec->units);
       printf ("Start:   %s = %s, %s = %s, heading %s deg from the %s direction (anticlockwise "
               "about N)\n\n", un, df_cli_num (a, sizeof a, u, 10), vn,
               df_cli_num (b, sizeof b, v, 10), df_cli_num (c, sizeof c, heading_deg, 10), un);
-      printf ("Length reached: %s %s", df_cli_num (a, sizeof a, result.length, 10),
-              spec->units);
+      printf ("Length reached: %s %s", df_cli_num (a, sizeof a, result.length, 10), units);
       if (result.stopped_early)
         printf (" of %s requested: stopped early: %s\n",
                 df_cli_num (b, sizeof b, length, 10), result.stop_reason);
@@ -137,7 +153,7 @@ run (geodesic_options *o)
                   df_cli_num (a, sizeof a, e->u, 10), vn, df_cli_num (b, sizeof b, e->v, 10),
                   df_cli_num (c, sizeof c, e->point[0], 10),
                   df_cli_num (d, sizeof d, e->point[1], 10),
-                  df_cli_num (f, sizeof f, e->point[2], 10), spec->units);
+                  df_cli_num (f, sizeof f, e->point[2], 10), units);
         }
       printf ("Samples: %zu%s%s\n", result.n_samples, o->samples_path ? ", written to " : "",
               o->samples_path ? o->samples_path : "");
@@ -159,7 +175,10 @@ df_cli_geodesic (int argc, char **argv)
       "Start direction in degrees from the first chart direction, anticlockwise about N",
       "DEG" },
     { "length", 'L', 0, G_OPTION_ARG_STRING, &o.length_text,
-      "Length to trace, in the surface's units", "L" },
+      "Length to trace, in the surface's units (in --units when given)", "L" },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Show lengths and points in mm, cm, m or in (default: the surface's units); chart "
+      "coordinates, angles and the --samples file stay as the surface defines them", "UNIT" },
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the result as JSON", NULL },
     { "samples", 'o', 0, G_OPTION_ARG_FILENAME, &o.samples_path,
       "Write the path as CSV (s,u,v,x,y,z,tx,ty,tz)", "OUT.csv" },
@@ -187,5 +206,6 @@ df_cli_geodesic (int argc, char **argv)
   g_free (o.heading_text);
   g_free (o.length_text);
   g_free (o.samples_path);
+  g_free (o.units_text);
   return code;
 }
