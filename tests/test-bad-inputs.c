@@ -127,6 +127,10 @@ static const bad_input cases[] = {
     "measure --preset sphere --loop l.csv", 2, { "l.csv:1:", "missing header", NULL } },
   { "loop-identical-rows", "l.csv", "u,v\n0.5,1\n0.5,1\n0.5,1\n", sizeof ("u,v\n0.5,1\n0.5,1\n0.5,1\n") - 1,
     "measure --preset sphere --loop l.csv", 2, { "l.csv", "only 1 different point", "rows repeat", NULL } },
+  /* One rule for the app and the CLI (issue 11): a row equal to the one before is refused by
+   * the reader with both lines, not left for the curve to refuse at measurement. */
+  { "loop-consecutive-repeat", "l.csv", "u,v\n0.5,0\n0.5,1\n0.5,1\n0.5,2\n", sizeof ("u,v\n0.5,0\n0.5,1\n0.5,1\n0.5,2\n") - 1,
+    "measure --preset sphere --loop l.csv", 2, { "l.csv:4:", "same point as line 3", "consecutive points must differ", NULL } },
   { "loop-wrong-field-count", "l.csv", "u,v\n0.5,0\n0.5,1,2\n", sizeof ("u,v\n0.5,0\n0.5,1,2\n") - 1,
     "measure --preset sphere --loop l.csv", 2, { "l.csv:3:", "expected 2 numbers, found 3", NULL } },
   { "loop-empty-field", "l.csv", "u,v\n0.5,\n", sizeof ("u,v\n0.5,\n") - 1,

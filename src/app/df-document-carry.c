@@ -25,68 +25,120 @@ typedef struct
   const char       *units;
   GPtrArray        *items;    /* of DfLoopItem (borrowed) */
   Carried          *out;      /* one per item */
+  GPtrArray        *paths;    /* of df_project_paths (borrowed; NULL: none) */
+  Carried          *out_paths; /* two per pair: a, b */
 } CarryJob;
 
 /* Projects each point's old place onto the new surface (the core's closest point). A point
  * that cannot be evaluated on the old surface or projected counts as not fitting. On a
  * periodic v the projected angles are unwrapped along the loop, as a sketch is. */
 static void
+carry_points (const CarryJob *job,
+              const double  (*uv)[2],
+              gsize           n,
+              Carried        *c)
+{
+  double tolerance = DF_CARRY_TOLERANCE * df_surface_size (job->to);
+  gboolean periodic = df_surface_v_periodic (job->to);
+  double worst = 0;
+  gsize worst_at = 0;
+  gboolean failed = FALSE;
+
+  c->uv = g_malloc_n (MAX (n, 1), sizeof (double[2]));
+  c->n = n;
+  for (gsize k = 0; k < n; k++)
+    {
+      df_chart_jet jet;
+      double u = uv[k][0], v = uv[k][1], dist = 0;
+
+      if (df_surface_eval (job->from, uv[k][0], uv[k][1], 0, &jet, NULL) != DF_OK
+          || df_surface_project (job->to, jet.x, 0, &u, &v, &dist, NULL) != DF_OK
+          || !isfinite (dist))
+        {
+          failed = TRUE;
+          worst_at = k;
+          break;
+        }
+      if (periodic && k > 0)
+        v += 2 * G_PI * round ((c->uv[k - 1][1] - v) / (2 * G_PI));
+      c->uv[k][0] = u;
+      c->uv[k][1] = v;
+      if (dist > worst)
+        {
+          worst = dist;
+          worst_at = k;
+        }
+    }
+  if (failed)
+    {
+      /* Keep the old chart values: they are only a placeholder, never measured. */
+      memcpy (c->uv, uv, n * sizeof *uv);
+      c->off = g_strdup_printf ("point %zu has no closest point on it", worst_at + 1);
+    }
+  else if (worst > tolerance)
+    {
+      g_autofree char *far = g_strdup_printf ("%.3g %s", worst, job->units);
+      g_autofree char *tol = g_strdup_printf ("%.3g %s", tolerance, job->units);
+      c->off = g_strdup_printf ("point %zu lies %s from it (tolerance %s); kept at the "
+                                "closest points, not measured; Undo brings the old "
+                                "surface back", worst_at + 1, far, tol);
+    }
+}
+
+static void
 carry_guarded (gpointer user_data)
 {
   CarryJob *job = user_data;
-  double tolerance = DF_CARRY_TOLERANCE * df_surface_size (job->to);
-  gboolean periodic = df_surface_v_periodic (job->to);
 
   for (guint i = 0; i < job->items->len; i++)
     {
-      DfLoopItem *item = g_ptr_array_index (job->items, i);
       const double (*uv)[2];
-      Carried *c = &job->out[i];
-      double worst = 0;
-      gsize worst_at = 0, n;
-      gboolean failed = FALSE;
+      gsize n;
 
-      uv = df_loop_item_get_points (item, &n);
-      c->uv = g_malloc_n (MAX (n, 1), sizeof (double[2]));
-      c->n = n;
-      for (gsize k = 0; k < n; k++)
-        {
-          df_chart_jet jet;
-          double u = uv[k][0], v = uv[k][1], dist = 0;
-
-          if (df_surface_eval (job->from, uv[k][0], uv[k][1], 0, &jet, NULL) != DF_OK
-              || df_surface_project (job->to, jet.x, 0, &u, &v, &dist, NULL) != DF_OK
-              || !isfinite (dist))
-            {
-              failed = TRUE;
-              worst_at = k;
-              break;
-            }
-          if (periodic && k > 0)
-            v += 2 * G_PI * round ((c->uv[k - 1][1] - v) / (2 * G_PI));
-          c->uv[k][0] = u;
-          c->uv[k][1] = v;
-          if (dist > worst)
-            {
-              worst = dist;
-              worst_at = k;
-            }
-        }
-      if (failed)
-        {
-          /* Keep the old chart values: they are only a placeholder, never measured. */
-          memcpy (c->uv, uv, n * sizeof *uv);
-          c->off = g_strdup_printf ("point %zu has no closest point on it", worst_at + 1);
-        }
-      else if (worst > tolerance)
-        {
-          g_autofree char *far = g_strdup_printf ("%.3g %s", worst, job->units);
-          g_autofree char *tol = g_strdup_printf ("%.3g %s", tolerance, job->units);
-          c->off = g_strdup_printf ("point %zu lies %s from it (tolerance %s); kept at the "
-                                    "closest points, not measured; Undo brings the old "
-                                    "surface back", worst_at + 1, far, tol);
-        }
+      uv = df_loop_item_get_points (g_ptr_array_index (job->items, i), &n);
+      carry_points (job, uv, n, &job->out[i]);
     }
+  /* Path pairs are point sequences like loops and go the same way. */
+  for (guint i = 0; job->paths != NULL && i < job->paths->len; i++)
+    {
+      df_project_paths *p = g_ptr_array_index (job->paths, i);
+
+      carry_points (job, (const double (*)[2]) p->a, p->n_a, &job->out_paths[2 * i]);
+      carry_points (job, (const double (*)[2]) p->b, p->n_b, &job->out_paths[2 * i + 1]);
+    }
+}
+
+/* Puts each carried path pair in place, or drops it when either path left the surface (undo
+ * brings it back). Returns how many were dropped. */
+static guint
+apply_carried_paths (GPtrArray *paths,
+                     Carried   *out)
+{
+  guint dropped = 0;
+
+  for (guint i = paths->len; i-- > 0;)
+    {
+      df_project_paths *p = g_ptr_array_index (paths, i);
+      Carried *a = &out[2 * i], *b = &out[2 * i + 1];
+
+      if (a->off != NULL || b->off != NULL)
+        {
+          g_ptr_array_remove_index (paths, i);
+          dropped++;
+        }
+      else
+        {
+          g_free (p->a);
+          g_free (p->b);
+          p->a = g_steal_pointer (&a->uv);
+          p->b = g_steal_pointer (&b->uv);
+        }
+      g_free (a->uv);
+      g_free (a->off);
+      g_free (b->uv);
+      g_free (b->off);
+    }
+  return dropped;
 }
 
 gboolean
@@ -116,10 +168,13 @@ df_document_set_spec (DfDocument            *self,
   job.units = spec->units != NULL && spec->units[0] != '\0' ? spec->units : "mm";
   job.items = items;
   job.out = g_new0 (Carried, MAX (n, 1));
-  if (self->surface != NULL && n > 0
+  job.paths = self->carried != NULL ? self->carried->extras.paths : NULL;
+  job.out_paths = g_new0 (Carried, job.paths != NULL ? 2 * job.paths->len + 1 : 1);
+  if (self->surface != NULL && (n > 0 || (job.paths != NULL && job.paths->len > 0))
       && !df_guard_call (carry_guarded, &job, "carrying the loops to the new surface", error))
     {
       g_free (job.out);
+      g_free (job.out_paths);
       return FALSE;
     }
 
@@ -129,6 +184,16 @@ df_document_set_spec (DfDocument            *self,
   df_surface_free (self->surface);
   self->surface = g_steal_pointer (&surface);
   self->last_carried = self->last_off = 0;
+  self->last_dropped_geodesics = self->last_dropped_paths = 0;
+  if (self->carried != NULL && job.from != NULL)
+    {
+      /* A geodesic is a start, a heading from X_u and a length: the heading means another
+       * direction on another chart, so it is not carried (undo brings it back). */
+      self->last_dropped_geodesics = self->carried->extras.geodesics->len;
+      g_ptr_array_set_size (self->carried->extras.geodesics, 0);
+      self->last_dropped_paths = apply_carried_paths (self->carried->extras.paths,
+                                                      job.out_paths);
+    }
   for (guint i = 0; i < n && job.from != NULL; i++)
     {
       DfLoopItem *item = g_ptr_array_index (items, i);
@@ -146,6 +211,7 @@ df_document_set_spec (DfDocument            *self,
       g_free (c->off);
     }
   g_free (job.out);
+  g_free (job.out_paths);
   g_signal_emit (self, _df_document_signals[SURFACE_CHANGED], 0);
   _df_document_measure_all (self);
   _df_document_update_modified (self);
@@ -160,4 +226,14 @@ df_document_get_last_carry (DfDocument *self,
   g_return_if_fail (DF_IS_DOCUMENT (self));
   *carried = self->last_carried;
   *off = self->last_off;
+}
+
+void
+df_document_get_last_dropped (DfDocument *self,
+                              guint      *geodesics,
+                              guint      *paths)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  *geodesics = self->last_dropped_geodesics;
+  *paths = self->last_dropped_paths;
 }

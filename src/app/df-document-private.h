@@ -37,6 +37,9 @@ struct _DfDocument
   df_project      *carried;
   guint            last_carried;     /* loops placed on the surface by the last spec change */
   guint            last_off;         /* loops left off it */
+  char            *load_skipped;     /* messages of loops left out by load, one a line */
+  guint            last_dropped_geodesics; /* geodesics it removed (undo restores them) */
+  guint            last_dropped_paths;     /* path pairs it removed, being off the surface */
 };
 
 enum

@@ -46,6 +46,7 @@ df_document_finalize (GObject *object)
   g_free (self->saved_snapshot);
   g_free (self->last_label);
   g_free (self->display_name);
+  g_free (self->load_skipped);
   df_project_free (self->carried);
   G_OBJECT_CLASS (df_document_parent_class)->finalize (object);
 }
@@ -370,6 +371,7 @@ df_document_set_project (DfDocument  *self,
     return FALSE;
   df_history_clear (self->history);
   g_clear_pointer (&self->display_name, g_free);
+  g_clear_pointer (&self->load_skipped, g_free);
   set_path (self, path);
   g_free (self->saved_snapshot);
   /* An unsaved project (from a preset or a .surface) counts as modified only once edited. */
@@ -421,11 +423,20 @@ df_document_load (DfDocument  *self,
     }
   else
     {
-      df_project *project = df_project_load (path, error);
+      g_autoptr(GPtrArray) skipped = g_ptr_array_new_with_free_func (g_free);
+      df_project *project = df_project_load_skipping (path, skipped, error);
 
-      if (project == NULL)
+      if (project == NULL || !df_document_set_project (self, project, path, error))
         return FALSE;
-      return df_document_set_project (self, project, path, error);
+      if (skipped->len > 0)
+        {
+          g_ptr_array_add (skipped, NULL);
+          self->load_skipped = g_strjoinv ("\n", (char **) skipped->pdata);
+          /* What is open is not what the file holds: saving would leave the bad loops out. */
+          g_clear_pointer (&self->saved_snapshot, g_free);
+          _df_document_update_modified (self);
+        }
+      return TRUE;
     }
 }
 
@@ -593,6 +604,13 @@ df_document_redo (DfDocument *self)
 {
   g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
   return step (self, FALSE);
+}
+
+const char *
+df_document_get_load_skipped (DfDocument *self)
+{
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
+  return self->load_skipped;
 }
 
 const df_project *

@@ -35,6 +35,9 @@ gboolean              df_document_restore          (DfDocument  *self,
 gboolean              df_document_load             (DfDocument  *self,
                                                     const char  *path,
                                                     GError     **error);
+/* After load: the messages (one a line, naming file and group) of loops that could not be read
+ * and were left out while the rest opened, or NULL. */
+const char           *df_document_get_load_skipped (DfDocument *self);
 /* Writes the project atomically and remembers path. */
 gboolean              df_document_save             (DfDocument  *self,
                                                     const char  *path,
@@ -82,6 +85,32 @@ void                  df_document_set_record       (DfDocument *self,
  * it (marked, see df_loop_item_set_off_surface). */
 void                  df_document_get_last_carry   (DfDocument *self, guint *carried,
                                                     guint *off);
+
+/* After set_spec: how many geodesics it removed (a heading from X_u does not carry to another
+ * chart) and how many path pairs, being off the new surface (undo brings both back). */
+void                  df_document_get_last_dropped (DfDocument *self, guint *geodesics,
+                                                    guint *paths);
+
+/* The geodesic and path pair the tools show: the project's last [geodesic N] and [paths N]
+ * (NULL: none). set_ replaces that one when it has the same name, else adds one after it;
+ * clear_ removes it. All are undoable edits; undo, redo and loading emit "surface-changed",
+ * after which the tools show these again. */
+const df_project_geodesic *df_document_get_geodesic (DfDocument *self);
+void                  df_document_set_geodesic     (DfDocument *self,
+                                                    const char *name,
+                                                    double      u,
+                                                    double      v,
+                                                    double      heading_deg,
+                                                    double      length);
+void                  df_document_clear_geodesic   (DfDocument *self);
+const df_project_paths *df_document_get_paths      (DfDocument *self);
+void                  df_document_set_paths        (DfDocument    *self,
+                                                    const char    *name,
+                                                    const double (*a)[2],
+                                                    gsize          n_a,
+                                                    const double (*b)[2],
+                                                    gsize          n_b);
+void                  df_document_clear_paths      (DfDocument *self);
 
 /* The loops, a GListModel of DfLoopItem. */
 GListModel           *df_document_get_loops        (DfDocument *self);

@@ -315,11 +315,30 @@ delete_loop_action (GtkWidget  *widget,
 }
 
 static void
+import_path_action (GtkWidget  *widget,
+                    const char *name,
+                    GVariant   *parameter)
+{
+  _df_window_import_path_dialog (DF_WINDOW (widget), g_str_equal (name, "win.import-path-b"));
+}
+
+static void
+type_loop_action (GtkWidget  *widget,
+                  const char *name,
+                  GVariant   *parameter)
+{
+  _df_window_type_loop_dialog (DF_WINDOW (widget));
+}
+
+static void
 clear_geodesic_action (GtkWidget  *widget,
                        const char *name,
                        GVariant   *parameter)
 {
-  _df_window_clear_geodesic (DF_WINDOW (widget));
+  DfWindow *self = DF_WINDOW (widget);
+
+  df_document_clear_geodesic (self->document);
+  _df_window_show_extras (self);
 }
 
 static void
@@ -327,7 +346,10 @@ clear_paths_action (GtkWidget  *widget,
                     const char *name,
                     GVariant   *parameter)
 {
-  _df_window_clear_paths (DF_WINDOW (widget));
+  DfWindow *self = DF_WINDOW (widget);
+
+  df_document_clear_paths (self->document);
+  _df_window_show_extras (self);
 }
 
 void
@@ -344,6 +366,9 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.save", NULL, save_action);
   gtk_widget_class_install_action (widget_class, "win.save-as", NULL, save_as_action);
   gtk_widget_class_install_action (widget_class, "win.import-loop", NULL, import_loop_action);
+  gtk_widget_class_install_action (widget_class, "win.type-loop", NULL, type_loop_action);
+  gtk_widget_class_install_action (widget_class, "win.import-path-a", NULL, import_path_action);
+  gtk_widget_class_install_action (widget_class, "win.import-path-b", NULL, import_path_action);
   gtk_widget_class_install_action (widget_class, "win.export-samples", "s",
                                    export_to_path_action);
   gtk_widget_class_install_action (widget_class, "win.export-summary", "s",
@@ -388,6 +413,12 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        "win.type-values", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK,
                                        "win.import-loop", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_I,
+                                       GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.type-loop", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_a, GDK_CONTROL_MASK | GDK_ALT_MASK,
+                                       "win.import-path-a", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_b, GDK_CONTROL_MASK | GDK_ALT_MASK,
+                                       "win.import-path-b", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_e, GDK_CONTROL_MASK,
                                        "win.export-png-dialog", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_z, GDK_CONTROL_MASK, "win.undo",
@@ -419,6 +450,9 @@ _df_window_actions_update (DfWindow *self)
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.save", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.save-as", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.import-loop", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.type-loop", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.import-path-a", has_surface);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.import-path-b", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.replace-surface", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-samples", measured);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.export-samples-dialog", measured);

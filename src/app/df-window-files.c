@@ -82,6 +82,30 @@ _df_window_open_path (DfWindow    *self,
       }
   }
   n_loops = g_list_model_get_n_items (df_document_get_loops (self->document));
+  if (df_document_get_load_skipped (self->document) != NULL)
+    {
+      const char *skipped = df_document_get_load_skipped (self->document);
+      g_auto(GStrv) lines = g_strsplit (skipped, "\n", -1);
+      guint n_bad = g_strv_length (lines);
+      g_autoptr(GError) why = g_error_new (DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                                           "%s\n\nThe other %u loop%s opened. Saving writes the "
+                                           "project without %s.", skipped, n_loops,
+                                           n_loops == 1 ? "" : "s",
+                                           n_bad == 1 ? "the loop left out" : "the loops left out");
+
+      if (self->startup.report_events)
+        {
+          for (guint i = 0; i < n_bad; i++)
+            printf ("loop-skipped %s\n", lines[i]);
+          printf ("loops-opened %u\n", n_loops);
+          fflush (stdout);
+        }
+      gtk_stack_set_visible_child_name (self->panel_stack, n_loops > 0 ? "loops" : "surface");
+      _df_window_show_error (self, n_bad == 1 ? "One loop could not be read and was left out"
+                                              : "Some loops could not be read and were left out",
+                             why);
+      return TRUE;
+    }
   if (n_loops > 0)
     {
       gtk_stack_set_visible_child_name (self->panel_stack, "loops");
@@ -96,10 +120,10 @@ _df_window_open_path (DfWindow    *self,
   return TRUE;
 }
 
-static void
-add_filter (GtkFileChooser *chooser,
-            const char     *name,
-            const char     *pattern)
+void
+_df_window_add_filter (GtkFileChooser *chooser,
+                       const char     *name,
+                       const char     *pattern)
 {
   g_autoptr(GtkFileFilter) filter = gtk_file_filter_new ();
 
@@ -110,9 +134,9 @@ add_filter (GtkFileChooser *chooser,
 
 /* File dialogs start in the project's folder (else the most recent file's), not in the
  * working folder of the process or GTK's "Recent" list. */
-static void
-start_in_project_folder (DfWindow       *self,
-                         GtkFileChooser *chooser)
+void
+_df_window_start_in_project_folder (DfWindow       *self,
+                                    GtkFileChooser *chooser)
 {
   const char *path = df_document_get_path (self->document);
   g_autofree char *dir = NULL;
@@ -127,8 +151,8 @@ start_in_project_folder (DfWindow       *self,
     }
 }
 
-static char *
-chooser_path (GtkNativeDialog *dialog)
+char *
+_df_window_chooser_path (GtkNativeDialog *dialog)
 {
   g_autoptr(GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (dialog));
 
@@ -140,7 +164,7 @@ open_response_cb (GtkNativeDialog *dialog,
                   int              response,
                   DfWindow        *self)
 {
-  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? chooser_path (dialog) : NULL;
+  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? _df_window_chooser_path (dialog) : NULL;
   g_autoptr(GError) error = NULL;
 
   if (path != NULL && !_df_window_open_path (self, path, &error))
@@ -165,10 +189,10 @@ open_dialog_now (DfWindow *self,
       gtk_file_filter_add_pattern (both, "*.dfproj");
       gtk_file_filter_add_pattern (both, "*.surface");
       gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (chooser), both);
-      add_filter (GTK_FILE_CHOOSER (chooser), "driftframe projects (*.dfproj)", "*.dfproj");
+      _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "driftframe projects (*.dfproj)", "*.dfproj");
     }
-  add_filter (GTK_FILE_CHOOSER (chooser), "Surfaces (*.surface)", "*.surface");
-  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+  _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "Surfaces (*.surface)", "*.surface");
+  _df_window_start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   g_signal_connect (chooser, "response", G_CALLBACK (open_response_cb), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
@@ -204,16 +228,19 @@ _df_window_replace_surface_path (DfWindow    *self,
 {
   g_autoptr(df_surface_spec) spec = df_surface_spec_load (path, error);
   guint carried = 0, off = 0;
+  g_autofree char *dropped = NULL;
 
   if (spec == NULL || !df_document_set_spec (self->document, spec, error))
     return FALSE;
   df_document_get_last_carry (self->document, &carried, &off);
+  dropped = _df_window_dropped_note (self);
   if (carried + off == 0)
-    _df_window_status (self, FALSE, "Surface replaced.");
+    _df_window_status (self, dropped[0] != '\0', "Surface replaced.%s", dropped);
   else
-    _df_window_status (self, off > 0, "Surface replaced: %u loop%s carried over by their places "
-                     "in space%s%u off the new surface (kept, not measured; Ctrl+Z undoes it).",
-                     carried, carried == 1 ? "" : "s", off > 0 ? ", " : "; ", off);
+    _df_window_status (self, off > 0 || dropped[0] != '\0', "Surface replaced: %u loop%s "
+                       "carried over by their places in space%s%u off the new surface (kept, "
+                       "not measured; Ctrl+Z undoes it).%s", carried, carried == 1 ? "" : "s",
+                       off > 0 ? ", " : "; ", off, dropped);
   return TRUE;
 }
 
@@ -222,7 +249,7 @@ replace_response_cb (GtkNativeDialog *dialog,
                      int              response,
                      DfWindow        *self)
 {
-  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? chooser_path (dialog) : NULL;
+  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? _df_window_chooser_path (dialog) : NULL;
   g_autoptr(GError) error = NULL;
 
   if (path != NULL && !_df_window_replace_surface_path (self, path, &error))
@@ -237,8 +264,8 @@ _df_window_replace_surface_dialog (DfWindow *self)
 
   chooser = gtk_file_chooser_native_new ("Replace Surface", GTK_WINDOW (self),
                                          GTK_FILE_CHOOSER_ACTION_OPEN, "_Replace", "_Cancel");
-  add_filter (GTK_FILE_CHOOSER (chooser), "Surfaces (*.surface)", "*.surface");
-  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+  _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "Surfaces (*.surface)", "*.surface");
+  _df_window_start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   g_signal_connect (chooser, "response", G_CALLBACK (replace_response_cb), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
@@ -283,7 +310,7 @@ save_response_cb (GtkNativeDialog *dialog,
                   int              response,
                   SaveJob         *job)
 {
-  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? chooser_path (dialog) : NULL;
+  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? _df_window_chooser_path (dialog) : NULL;
 
   if (path != NULL)
     {
@@ -319,7 +346,7 @@ save_then (DfWindow *self,
     }
   chooser = gtk_file_chooser_native_new ("Save Project", GTK_WINDOW (self),
                                          GTK_FILE_CHOOSER_ACTION_SAVE, "_Save", "_Cancel");
-  add_filter (GTK_FILE_CHOOSER (chooser), "driftframe projects (*.dfproj)", "*.dfproj");
+  _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "driftframe projects (*.dfproj)", "*.dfproj");
   if (path != NULL)
     {
       g_autoptr(GFile) file = g_file_new_for_path (path);
@@ -330,7 +357,7 @@ save_then (DfWindow *self,
       g_autofree char *title = df_document_get_title (self->document);
       g_autofree char *name = g_strconcat (title, ".dfproj", NULL);
 
-      start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+      _df_window_start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
       g_strdelimit (name, "/\\", '-');
       gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), name);
     }
@@ -408,7 +435,7 @@ import_response_cb (GtkNativeDialog *dialog,
                     int              response,
                     DfWindow        *self)
 {
-  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? chooser_path (dialog) : NULL;
+  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? _df_window_chooser_path (dialog) : NULL;
   g_autoptr(GError) error = NULL;
 
   if (path != NULL)
@@ -435,8 +462,8 @@ _df_window_import_loop_dialog (DfWindow *self)
 
   chooser = gtk_file_chooser_native_new ("Import Loop", GTK_WINDOW (self),
                                          GTK_FILE_CHOOSER_ACTION_OPEN, "_Import", "_Cancel");
-  add_filter (GTK_FILE_CHOOSER (chooser), "Loop CSV (u,v or x,y,z columns)", "*.csv");
-  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+  _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "Loop CSV (u,v or x,y,z columns)", "*.csv");
+  _df_window_start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   g_signal_connect (chooser, "response", G_CALLBACK (import_response_cb), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
@@ -570,7 +597,7 @@ export_response_cb (GtkNativeDialog *dialog,
                     int              response,
                     ExportJob       *job)
 {
-  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? chooser_path (dialog) : NULL;
+  g_autofree char *path = response == GTK_RESPONSE_ACCEPT ? _df_window_chooser_path (dialog) : NULL;
 
   if (path != NULL)
     {
@@ -622,13 +649,13 @@ _df_window_export_dialog (DfWindow   *self,
                                                              : "loop");
       g_strdelimit (name, "/\\", '-');
       gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export Loop Samples");
-      add_filter (GTK_FILE_CHOOSER (chooser), "CSV (*.csv)", "*.csv");
+      _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "CSV (*.csv)", "*.csv");
     }
   else if (g_str_equal (what, "summary"))
     {
       name = g_strdup_printf ("%s-loops.csv", title);
       gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export Loops Summary");
-      add_filter (GTK_FILE_CHOOSER (chooser), "CSV (*.csv)", "*.csv");
+      _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "CSV (*.csv)", "*.csv");
     }
   else if (g_str_equal (what, "report"))
     {
@@ -637,7 +664,7 @@ _df_window_export_dialog (DfWindow   *self,
 
       name = g_strdup_printf ("%s-record.pdf", title);
       gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export Design Record");
-      add_filter (GTK_FILE_CHOOSER (chooser), "PDF document (*.pdf)", "*.pdf");
+      _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "PDF document (*.pdf)", "*.pdf");
       gtk_file_chooser_add_choice (GTK_FILE_CHOOSER (chooser), "paper", "Paper", ids, labels);
       gtk_file_chooser_set_choice (GTK_FILE_CHOOSER (chooser), "paper",
                                    self->report_paper != NULL ? self->report_paper : "a4");
@@ -650,11 +677,11 @@ _df_window_export_dialog (DfWindow   *self,
 
       name = g_strdup_printf ("%s-view.png", title);
       gtk_native_dialog_set_title (GTK_NATIVE_DIALOG (chooser), "Export View as PNG");
-      add_filter (GTK_FILE_CHOOSER (chooser), "PNG image (*.png)", "*.png");
+      _df_window_add_filter (GTK_FILE_CHOOSER (chooser), "PNG image (*.png)", "*.png");
       gtk_file_chooser_add_choice (GTK_FILE_CHOOSER (chooser), "size", "Size", ids, labels);
       gtk_file_chooser_set_choice (GTK_FILE_CHOOSER (chooser), "size", "view");
     }
-  start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
+  _df_window_start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), name);
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   job = g_new0 (ExportJob, 1);

@@ -112,6 +112,7 @@ struct _DfWindow
   GArray       *path_b;
   GCancellable *paths_cancellable;
   gboolean      paths_long_legs;    /* B's ends were far from A's and were joined to them */
+  gboolean      paths_record;       /* the running comparison goes into the document */
 
   /* Geodesic */
   gboolean      geodesic_pressed;
@@ -150,6 +151,19 @@ void     _df_window_edit_record        (DfWindow *self);
 void     _df_window_confirm_discard    (DfWindow *self, GCallback then, const char *verb);
 void     _df_window_show_error         (DfWindow *self, const char *primary, const GError *error);
 void     _df_window_check_exports      (DfWindow *self);
+/* File choosers: a filter; start in the project's folder; the chosen path (g_free) or NULL. */
+void     _df_window_add_filter         (GtkFileChooser *chooser, const char *name,
+                                        const char *pattern);
+void     _df_window_start_in_project_folder (DfWindow *self, GtkFileChooser *chooser);
+char    *_df_window_chooser_path       (GtkNativeDialog *dialog);
+
+/* df-window-points.c: paths A and B from CSV files and a loop from typed points, both read by
+ * the core's loop CSV reader (the CLI's rule). */
+void     _df_window_import_path_dialog (DfWindow *self, gboolean path_b);
+void     _df_window_type_loop_dialog   (DfWindow *self);
+/* Path A or B from a loop CSV file (df-loop-csv.h); B needs A and is compared with it. */
+gboolean _df_window_import_path        (DfWindow *self, const char *path, gboolean path_b,
+                                        GError **error);
 
 /* df-window-state.c */
 void     _df_window_state_load         (DfWindow *self, gboolean *first_run, char **last_project);
@@ -162,6 +176,8 @@ void     _df_window_sync_all           (DfWindow *self);
 void     _df_window_sync_loop          (DfWindow *self, DfLoopItem *item);
 void     _df_window_sync_frames        (DfWindow *self);
 void     _df_window_sync_legend        (DfWindow *self);
+/* After a surface change: " The geodesic was removed: ..." for what it dropped, or "". */
+char    *_df_window_dropped_note       (DfWindow *self);
 void     _df_window_status             (DfWindow *self, gboolean is_error, const char *format,
                                         ...) G_GNUC_PRINTF (3, 4);
 
@@ -171,6 +187,13 @@ void     _df_window_tools_finalize     (DfWindow *self);
 void     _df_window_set_tool           (DfWindow *self, DfTool tool);
 void     _df_window_clear_geodesic     (DfWindow *self);
 void     _df_window_clear_paths        (DfWindow *self);
+/* Shows the document's geodesic and path pair (after undo, redo, loading, a surface change). */
+void     _df_window_show_extras        (DfWindow *self);
+/* Path A and B from chart points; B's ends become A's. far_ends: B was given away from A's
+ * ends (said once compared); record: keep the pair in the document once compared. */
+void     _df_window_paths_set          (DfWindow *self, const double (*a)[2], gsize n_a,
+                                        const double (*b)[2], gsize n_b, gboolean far_ends,
+                                        gboolean record);
 /* Ctrl+T: the typed-value entry of the current tool (Probe unless Geodesic) gets the focus. */
 void     _df_window_focus_typed        (DfWindow *self);
 /* The surface changed: drop tool drawings that refer to the old one. */

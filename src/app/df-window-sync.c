@@ -362,15 +362,41 @@ spec_changed_cb (DfSurfacePanel *panel,
     }
   df_surface_panel_show_error (panel, NULL);
   df_document_get_last_carry (self->document, &carried, &off);
-  if (off > 0)
-    _df_window_status (self, TRUE, "Surface changed: %u loop%s carried over by their places in "
-                       "space, %u off the new surface (kept, not measured; Ctrl+Z undoes the "
-                       "change).", carried, carried == 1 ? "" : "s", off);
-  else if (carried > 0)
-    _df_window_status (self, FALSE, "Surface changed: %u loop%s carried over by their places "
-                       "in space, measuring…", carried, carried == 1 ? "" : "s");
-  else
-    _df_window_status (self, FALSE, "Surface changed.");
+  {
+    g_autofree char *dropped = _df_window_dropped_note (self);
+
+    if (off > 0)
+      _df_window_status (self, TRUE, "Surface changed: %u loop%s carried over by their places "
+                         "in space, %u off the new surface (kept, not measured; Ctrl+Z undoes "
+                         "the change).%s", carried, carried == 1 ? "" : "s", off, dropped);
+    else if (carried > 0)
+      _df_window_status (self, dropped[0] != '\0', "Surface changed: %u loop%s carried over by "
+                         "their places in space, measuring…%s", carried,
+                         carried == 1 ? "" : "s", dropped);
+    else
+      _df_window_status (self, dropped[0] != '\0', "Surface changed.%s", dropped);
+  }
+}
+
+char *
+_df_window_dropped_note (DfWindow *self)
+{
+  guint geodesics = 0, paths = 0;
+  GString *note = g_string_new (NULL);
+
+  df_document_get_last_dropped (self->document, &geodesics, &paths);
+  /* A heading is measured from X_u of the old chart: read on the new one it would be another
+   * direction, so the geodesic is removed rather than reinterpreted. */
+  if (geodesics > 0)
+    g_string_append_printf (note, " %s removed: %s heading belongs to the old surface "
+                            "(Ctrl+Z brings %s back).",
+                            geodesics == 1 ? "The geodesic was" : "The geodesics were",
+                            geodesics == 1 ? "its" : "their", geodesics == 1 ? "it" : "them");
+  if (paths > 0)
+    g_string_append_printf (note, " %u path pair%s removed: off the new surface (Ctrl+Z "
+                            "brings %s back).", paths, paths == 1 ? " was" : "s were",
+                            paths == 1 ? "it" : "them");
+  return g_string_free (note, FALSE);
 }
 
 static void

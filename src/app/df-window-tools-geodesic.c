@@ -128,14 +128,15 @@ _df_window_geodesic_shoot (DfWindow *self,
       return;
     }
   heading = df_signed_angle (start.xu, w, start.normal);
-  _df_window_shoot_from (self, heading, length);
+  _df_window_shoot_from (self, heading, length, TRUE);
 }
 
 /* Shoots from self->geodesic_start with heading (rad, from X_u about N) and length. */
 void
 _df_window_shoot_from (DfWindow *self,
                        double    heading,
-                       double    length)
+                       double    length,
+                       gboolean  record)
 {
   const df_surface *surface = df_document_get_surface (self->document);
   const char *units = df_document_get_units (self->document);
@@ -167,6 +168,9 @@ _df_window_shoot_from (DfWindow *self,
       df_surface_view_set_arrow (self->view, DF_ARROW_GEODESIC, result.samples[0].point,
                                  result.samples[0].tangent, &colour);
     df_geodesic_panel_show (self->geodesic_panel, surface, heading, length, &result, units);
+    if (record)
+      df_document_set_geodesic (self->document, "Geodesic", self->geodesic_start[0],
+                                self->geodesic_start[1], heading * 180 / G_PI, length);
     _df_window_status (self, result.stopped_early, "Geodesic of %s%s%s.", reached,
                        result.stopped_early ? ", stopped early: " : "",
                        result.stopped_early ? result.stop_reason : "");

@@ -100,15 +100,33 @@ compare_done_cb (GObject      *source,
   draw_transport (self, DF_CURVE_PATH_A, DF_ARROW_PATH_A, &comparison->a, colour_path_a);
   draw_transport (self, DF_CURVE_PATH_B, DF_ARROW_PATH_B, &comparison->b, colour_path_b);
   df_compare_panel_set_angle (self->compare_panel, comparison->angle_rad);
+  if (self->startup.report_events)
+    {
+      char a[G_ASCII_DTOSTR_BUF_SIZE], la[G_ASCII_DTOSTR_BUF_SIZE], lb[G_ASCII_DTOSTR_BUF_SIZE];
+
+      printf ("paths-compared %s %s %s\n", g_ascii_dtostr (a, sizeof a, comparison->angle_rad),
+              g_ascii_dtostr (la, sizeof la, comparison->a.length),
+              g_ascii_dtostr (lb, sizeof lb, comparison->b.length));
+      fflush (stdout);
+    }
+  if (self->paths_record)
+    {
+      g_autofree double (*uv_a)[2] = _df_window_stroke_uv (self->path_a);
+      g_autofree double (*uv_b)[2] = _df_window_stroke_uv (self->path_b);
+
+      df_document_set_paths (self->document, "Path pair", (const double (*)[2]) uv_a,
+                             self->path_a->len, (const double (*)[2]) uv_b, self->path_b->len);
+    }
   df_compare_panel_set_lengths (self->compare_panel, comparison->a.length, comparison->b.length,
                                 df_document_get_units (self->document));
   {
     g_autofree char *angle = df_format_angle (comparison->angle_rad);
     _df_window_status (self, self->paths_long_legs, "Carried along B, the direction ends %s "
                        "from the one carried along A.%s", angle,
-                       self->paths_long_legs ? " Path B was drawn away from A's ends and was "
-                                               "joined to them by straight legs in the chart: "
-                                               "draw it from A's start to A's end." : "");
+                       self->paths_long_legs ? " Path B started or ended away from A's "
+                                               "ends and was pulled onto them, which bends "
+                                               "its ends: give B from A's start to A's end."
+                                             : "");
   }
   _df_window_paths_set_stage (self, DF_PATHS_DONE);
   g_object_unref (self);
@@ -142,8 +160,6 @@ _df_window_paths_finish_stroke (DfWindow *self)
   {
     StrokePoint *a0 = &g_array_index (self->path_a, StrokePoint, 0);
     StrokePoint *a1 = &g_array_index (self->path_a, StrokePoint, self->path_a->len - 1);
-    g_autofree double (*uv_a)[2] = NULL;
-    g_autofree double (*uv_b)[2] = NULL;
     StrokePoint *b0, *b1;
     double gap_start, gap_end;
 
@@ -154,25 +170,81 @@ _df_window_paths_finish_stroke (DfWindow *self)
     b1 = &g_array_index (self->path_b, StrokePoint, self->path_b->len - 1);
     gap_start = hypot (b0->px - a0->px, b0->py - a0->py);
     gap_end = hypot (b1->px - a1->px, b1->py - a1->py);
-    *b0 = *a0;
-    *b1 = *a1;
-    _df_window_draw_stroke (self, DF_CURVE_PATH_B, self->path_b, colour_path_b, 3.5f);
-    df_compare_panel_set_paths (self->compare_panel, self->path_a->len, self->path_b->len);
-    _df_window_paths_set_stage (self, DF_PATHS_DONE);
-    df_compare_panel_set_hint (self->compare_panel, "Comparing…");
     /* The snap is silent when B was drawn onto A's ends; say so when it adds long legs. */
     self->paths_long_legs = MAX (gap_start, gap_end) > 5 * DF_STROKE_STEP_PX;
+    /* Path A from a file has no pointer positions: its ends are compared in space. */
+    if (isnan (a0->px) || isnan (a1->px))
+      {
+        double pa[2] = { a0->u, a0->v }, pb[2] = { b0->u, b0->v };
+        double qa[2] = { a1->u, a1->v }, qb[2] = { b1->u, b1->v };
 
-    uv_a = _df_window_stroke_uv (self->path_a);
-    uv_b = _df_window_stroke_uv (self->path_b);
-    if (self->paths_cancellable != NULL)
-      g_cancellable_cancel (self->paths_cancellable);
-    g_clear_object (&self->paths_cancellable);
-    self->paths_cancellable = g_cancellable_new ();
-    df_work_compare_paths_async (df_document_get_surface (self->document),
-                                 (const double (*)[2]) uv_a, self->path_a->len,
-                                 (const double (*)[2]) uv_b, self->path_b->len,
-                                 self->paths_cancellable, compare_done_cb, g_object_ref (self));
+        self->paths_long_legs = _df_window_far_apart (self, pa, pb)
+                                || _df_window_far_apart (self, qa, qb);
+      }
+    *b0 = *a0;
+    *b1 = *a1;
+    _df_window_paths_compare (self, TRUE);
   }
 }
 
+/* Draws path_a and path_b and compares them on a worker thread; record: keep the pair in the
+ * document once compared (an undoable edit), FALSE when showing the document's own pair. */
+void
+_df_window_paths_compare (DfWindow *self,
+                          gboolean  record)
+{
+  g_autofree double (*uv_a)[2] = NULL;
+  g_autofree double (*uv_b)[2] = NULL;
+
+  _df_window_draw_stroke (self, DF_CURVE_PATH_A, self->path_a, colour_path_a, 3.5f);
+  _df_window_draw_stroke (self, DF_CURVE_PATH_B, self->path_b, colour_path_b, 3.5f);
+  df_compare_panel_set_paths (self->compare_panel, self->path_a->len, self->path_b->len);
+  _df_window_paths_set_stage (self, DF_PATHS_DONE);
+  df_compare_panel_set_hint (self->compare_panel, "Comparing…");
+  self->paths_record = record;
+
+  uv_a = _df_window_stroke_uv (self->path_a);
+  uv_b = _df_window_stroke_uv (self->path_b);
+  if (self->paths_cancellable != NULL)
+    g_cancellable_cancel (self->paths_cancellable);
+  g_clear_object (&self->paths_cancellable);
+  self->paths_cancellable = g_cancellable_new ();
+  df_work_compare_paths_async (df_document_get_surface (self->document),
+                               (const double (*)[2]) uv_a, self->path_a->len,
+                               (const double (*)[2]) uv_b, self->path_b->len,
+                               self->paths_cancellable, compare_done_cb, g_object_ref (self));
+}
+
+static void
+fill_path (GArray        *path,
+           const double (*uv)[2],
+           gsize          n)
+{
+  g_array_set_size (path, 0);
+  for (gsize i = 0; i < n; i++)
+    {
+      StrokePoint p = { uv[i][0], uv[i][1], 0, 0 };
+      g_array_append_val (path, p);
+    }
+}
+
+/* Path A and B from chart points (a file or the document); B's ends are A's. far_ends: B was
+ * given away from A's ends, said in the status line once compared. */
+void
+_df_window_paths_set (DfWindow      *self,
+                      const double (*a)[2],
+                      gsize          n_a,
+                      const double (*b)[2],
+                      gsize          n_b,
+                      gboolean       far_ends,
+                      gboolean       record)
+{
+  g_return_if_fail (n_a >= 2 && n_b >= 2);
+  fill_path (self->path_a, a, n_a);
+  fill_path (self->path_b, b, n_b);
+  g_array_index (self->path_b, StrokePoint, 0) = g_array_index (self->path_a, StrokePoint, 0);
+  g_array_index (self->path_b, StrokePoint, n_b - 1)
+    = g_array_index (self->path_a, StrokePoint, n_a - 1);
+  self->paths_long_legs = far_ends;
+  _df_window_paths_compare (self, record);
+}

@@ -81,10 +81,12 @@ void
 _df_window_geodesic_shoot (DfWindow *self,
                            double    u,
                            double    v);
+/* Shoots from self->geodesic_start; record: keep it in the document (an undoable edit). */
 void
 _df_window_shoot_from (DfWindow *self,
                        double    heading,
-                       double    length);
+                       double    length,
+                       gboolean  record);
 
 /* df-window-tools-paths.c */
 void
@@ -92,6 +94,16 @@ _df_window_paths_set_stage (DfWindow     *self,
                             DfPathsStage  stage);
 void
 _df_window_paths_finish_stroke (DfWindow *self);
+void
+_df_window_paths_compare (DfWindow *self,
+                          gboolean  record);
+
+/* df-window-points.c: TRUE when the chart points p and q lie farther apart in space than a
+ * path's ends may (a hundredth of the surface's size). */
+gboolean
+_df_window_far_apart (DfWindow     *self,
+                      const double  p[2],
+                      const double  q[2]);
 
 /* df-window-tools-typed.c */
 void

@@ -154,7 +154,7 @@ _df_window_shoot_requested_cb (DfGeodesicPanel *panel,
     }
   self->geodesic_start[0] = u;
   self->geodesic_start[1] = v;
-  _df_window_shoot_from (self, heading * G_PI / 180.0, length);
+  _df_window_shoot_from (self, heading * G_PI / 180.0, length, TRUE);
 }
 
 /* The typed-value entries name the chart of the surface now shown. */

@@ -309,6 +309,34 @@ _df_window_tools_surface_changed (DfWindow *self)
   /* The pointer's coordinates were of the old surface. */
   gtk_label_set_text (self->coords_label, "");
   _df_window_update_typed_hints (self);
+  _df_window_show_extras (self);
+}
+
+void
+_df_window_show_extras (DfWindow *self)
+{
+  const df_project_geodesic *geodesic = df_document_get_geodesic (self->document);
+  const df_project_paths *paths = df_document_get_paths (self->document);
+  const df_surface *surface = df_document_get_surface (self->document);
+
+  _df_window_clear_geodesic (self);
+  _df_window_clear_paths (self);
+  if (surface == NULL)
+    return;
+  if (geodesic != NULL && df_surface_contains (surface, geodesic->u, geodesic->v))
+    {
+      self->geodesic_start[0] = geodesic->u;
+      self->geodesic_start[1] = geodesic->v;
+      _df_window_shoot_from (self, geodesic->heading_deg * G_PI / 180, geodesic->length, FALSE);
+    }
+  if (paths != NULL && paths->n_a >= 2 && paths->n_b >= 2)
+    _df_window_paths_set (self, (const double (*)[2]) paths->a, paths->n_a,
+                          (const double (*)[2]) paths->b, paths->n_b, FALSE, FALSE);
+  if (self->startup.report_events)
+    {
+      printf ("extras-shown %d %d\n", geodesic != NULL, paths != NULL);
+      fflush (stdout);
+    }
 }
 
 void

@@ -148,6 +148,7 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
                    double (**uv_out)[2], gsize *n_out, GError **error)
 {
   g_autoptr (GArray) points = g_array_new (FALSE, FALSE, sizeof (double[2]));
+  g_autoptr (GArray) point_lines = g_array_new (FALSE, FALSE, sizeof (guint));
   g_auto (GStrv) lines = NULL;
   gboolean have_header = FALSE;
   guint n_cols = 0;
@@ -302,6 +303,7 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
               return FALSE;
             }
           g_array_append_val (points, uv);
+          g_array_append_val (point_lines, lineno);
         }
       else
         {
@@ -334,6 +336,7 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
               return FALSE;
             }
           g_array_append_val (points, uv);
+          g_array_append_val (point_lines, lineno);
         }
     }
 
@@ -364,6 +367,24 @@ df_loop_csv_parse (const char *text, const char *source, const df_surface *surfa
         return FALSE;
       }
   }
+  /* A row equal to the one before cannot be joined to it by a curve: the measurement would
+   * refuse it as "point k repeats point k-1". Refused here, naming both lines, so the app's
+   * import and typed points and the CLI's commands follow one rule before anything is added
+   * (a closing row equal to the first is not consecutive and stays allowed). */
+  for (guint i = 1; i < points->len; i++)
+    {
+      const double *a = (const double *) (void *) points->data + 2 * (i - 1);
+      const double *b = a + 2;
+
+      if (a[0] == b[0] && a[1] == b[1])
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                       "%s:%u: the same point as line %u; consecutive points must differ "
+                       "(delete the repeated row)", source, g_array_index (point_lines, guint, i),
+                       g_array_index (point_lines, guint, i - 1));
+          return FALSE;
+        }
+    }
   *n_out = points->len;
   *uv_out = (double (*)[2]) (void *) g_array_free (g_steal_pointer (&points), FALSE);
   return TRUE;

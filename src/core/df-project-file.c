@@ -298,8 +298,11 @@ read_record (GKeyFile *key_file, const char *source, df_project *project, GError
   return TRUE;
 }
 
+/* skipped: NULL to fail on a bad loop; else its message is added there and the loop left out
+ * (df_project_load_skipping). */
 static df_project *
-project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
+project_from_key_file (GKeyFile *key_file, const char *source, GPtrArray *skipped,
+                       GError **error)
 {
   g_autoptr (GPtrArray) groups_known = g_ptr_array_new ();
   g_autoptr (df_project) project = NULL;
@@ -340,8 +343,18 @@ project_from_key_file (GKeyFile *key_file, const char *source, GError **error)
 
       if (!g_str_has_prefix (groups[i], LOOP_PREFIX))
         continue;
-      loop = read_loop (key_file, groups[i], source, surface, error);
-      if (loop == NULL)
+      if (skipped != NULL)
+        {
+          g_autoptr (GError) bad = NULL;
+
+          loop = read_loop (key_file, groups[i], source, surface, &bad);
+          if (loop == NULL)
+            {
+              g_ptr_array_add (skipped, g_strdup (bad->message));
+              continue;
+            }
+        }
+      else if ((loop = read_loop (key_file, groups[i], source, surface, error)) == NULL)
         return NULL;
       g_ptr_array_add (project->loops, loop);
     }
@@ -364,7 +377,7 @@ df_project_from_bytes (const char *data, gsize length, const char *source, GErro
   key_file = _df_key_file_load_bytes (data, length, source, error);
   if (key_file == NULL)
     return NULL;
-  return project_from_key_file (key_file, source, error);
+  return project_from_key_file (key_file, source, NULL, error);
 }
 
 df_project *
@@ -374,7 +387,19 @@ df_project_load (const char *path, GError **error)
 
   if (key_file == NULL)
     return NULL;
-  return project_from_key_file (key_file, path, error);
+  return project_from_key_file (key_file, path, NULL, error);
+}
+
+df_project *
+df_project_load_skipping (const char *path, GPtrArray *skipped, GError **error)
+{
+  g_autoptr (GKeyFile) key_file = NULL;
+
+  g_return_val_if_fail (skipped != NULL, NULL);
+  key_file = _df_key_file_load (path, error);
+  if (key_file == NULL)
+    return NULL;
+  return project_from_key_file (key_file, path, skipped, error);
 }
 
 static char *

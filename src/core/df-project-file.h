@@ -60,6 +60,11 @@ gboolean         df_project_set_record (df_project *project, const char *key, co
 
 /* Messages name the file and group: "part.dfproj: [loop 2] u: 7 values but v has 6". */
 df_project      *df_project_load       (const char *path, GError **error);
+/* Like df_project_load, but a loop group that cannot be read is left out and its message
+ * (naming the file and group) added to skipped (of char *, g_free): an editor opens the rest
+ * and names the bad one. Everything else fails as in df_project_load. */
+df_project      *df_project_load_skipping (const char *path, GPtrArray *skipped,
+                                           GError **error);
 df_project      *df_project_from_data  (const char *data, const char *source, GError **error);
 /* From bytes with their length, so a NUL byte inside is reported instead of cutting the text. */
 df_project      *df_project_from_bytes (const char *data, gsize length, const char *source,

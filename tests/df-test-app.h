@@ -1,0 +1,54 @@
+/* df-test-app.h: the harness of the app's end-to-end tests (df-test-app.c). Each test starts
+ * its own Xvfb, runs the app with --report-events and reads its lines; helpers fail the test
+ * (g_assert) on what cannot go on. */
+#pragma once
+
+#include <gdk-pixbuf/gdk-pixbuf.h>
+#include <gio/gio.h>
+
+/* Generous: the software rasterizer and a cold start are slow on a loaded machine. */
+#define STEP_TIMEOUT_S 90
+
+/* XDG_DATA_DIRS before g_test_init isolated it (set by main): the app's file dialogs need the
+ * system's GSettings schemas and MIME database from there. */
+extern char *system_data_dirs;
+
+typedef struct
+{
+  GSubprocess *server;
+  char        *display;  /* ":N" */
+} Xserver;
+
+void xserver_stop (Xserver *x);
+gboolean wait_for (gboolean *done, int seconds);
+/* Starts Xvfb on a free display; FALSE (the test skipped) when the tools are missing. */
+gboolean xserver_start (Xserver *x);
+GSubprocessLauncher *app_launcher (Xserver *x);
+/* The app's next output line starting with prefix (g_free); NULL at its end or on timeout. */
+char *read_until (GDataInputStream *out, const char *prefix);
+char *read_until_either (GDataInputStream *out, const char *a, const char *b);
+/* Waits for the app to quit by itself; kills it and FALSE on timeout. */
+gboolean app_wait (GSubprocess *app);
+int column_of (char **header, const char *name);
+char **split_csv_line (const char *line);
+/* A CSV with a header line into rows of fields (g_strfreev each). */
+GPtrArray *read_csv (const char *path, char ***header_out);
+double field (GPtrArray *rows, guint row, int column);
+void xdotool_run (Xserver *x, GPtrArray *args);
+/* Runs xdotool with the NULL-terminated arguments on the test's display. */
+void xdotool_va (Xserver *x, const char *first, ...);
+/* Focuses the dialog titled title and presses key. */
+void answer_dialog (Xserver *x, const char *title, const char *key);
+/* Gives the main window the keyboard focus. */
+void focus_main (Xserver *x);
+/* "view-geometry XID X Y WIDTH HEIGHT", split. */
+char **read_view_geometry (GDataInputStream *out);
+/* Drags a counter-clockwise circle of radius px round the view's centre. */
+void drag_circle (Xserver *x, char **geometry, int radius, int n_steps);
+void parse_measured (const char *line, double *holonomy, double *enclosed);
+/* Autosave files left in the app's state folder. */
+guint count_autosaves (void);
+GdkPixbuf *load_png (const char *path);
+/* Types text into the focused field, replacing what is there. */
+void type_field (Xserver *x, const char *text);
+void parse_three (const char *line, double out[3]);

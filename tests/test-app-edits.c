@@ -1,0 +1,288 @@
+/* test-app-edits.c: end-to-end tests of the app's edits beyond sketching (issue 11), driven
+ * from outside under Xvfb with xdotool (harness in df-test-app.c): undo and redo of a geodesic
+ * and of a surface change that removed it; a path pair read from CSV files and compared; a
+ * project with one bad loop opening the rest and naming it. Skips
+ * (with the reason) when Xvfb or xdotool is missing. */
+#include <gio/gio.h>
+#include <glib/gstdio.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "df-glib.h"
+#include "df-test.h"
+#include "df-test-app.h"
+
+/* The sphere preset (src/core/df-presets.c): R = 100, chart t = polar angle, phi = longitude. */
+#define R_SPHERE 100.0
+
+static GSubprocess *
+start_app (Xserver           *x,
+           GDataInputStream **out,
+           const char        *first,
+           ...)
+{
+  g_autoptr(GSubprocessLauncher) launcher = app_launcher (x);
+  g_autoptr(GPtrArray) args = g_ptr_array_new ();
+  g_autoptr(GError) error = NULL;
+  GSubprocess *app;
+  va_list ap;
+
+  g_ptr_array_add (args, (char *) DF_APP_PATH);
+  va_start (ap, first);
+  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
+    g_ptr_array_add (args, (char *) a);
+  va_end (ap);
+  g_ptr_array_add (args, (char *) "--report-view-geometry");
+  g_ptr_array_add (args, (char *) "--report-events");
+  g_ptr_array_add (args, NULL);
+  app = g_subprocess_launcher_spawnv (launcher, (const char *const *) args->pdata, &error);
+  g_assert_no_error (error);
+  *out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  return app;
+}
+
+static void
+stop_app (GSubprocess *app,
+          Xserver     *x)
+{
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (x);
+}
+
+/* Puts the keyboard focus on the 3D view (a click in Look mode changes nothing), so that
+ * Ctrl+Z reaches the window and not a text field's own undo. */
+static void
+focus_view (Xserver  *x,
+            char    **geometry)
+{
+  g_autofree char *cx = g_strdup_printf ("%d", atoi (geometry[4]) / 2);
+  g_autofree char *cy = g_strdup_printf ("%d", atoi (geometry[5]) - 20);
+
+  focus_main (x);
+  xdotool_va (x, "key", "ctrl+1", "sleep", "0.5", "mousemove", "--window", geometry[1], cx, cy,
+              "click", "1", "sleep", "0.5", NULL);
+}
+
+static void
+expect_shown (GDataInputStream *out,
+              const char       *what)
+{
+  g_autofree char *line = read_until (out, "extras-shown ");
+
+  g_assert_nonnull (line);
+  g_assert_cmpstr (line, ==, what);
+}
+
+/* A shot geodesic is part of the project: Ctrl+Z removes it and Ctrl+Shift+Z shoots the same
+ * one again; a surface change removes it (its heading is measured from the old chart's X_u)
+ * and undoing the change brings it back with the same end. Heading 0 along +t is a meridian,
+ * a great circle, so its end is at t0 + L / R (do Carmo sec. 4-4, from memory). */
+static void
+test_undo_geodesic (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *surface = g_build_filename (dir, "big.surface", NULL);
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_auto(GStrv) geometry = NULL;
+  g_autoptr(GError) error = NULL;
+  char *line;
+  double end[3], again[3];
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--preset", "sphere", "--tool", "geodesic", NULL);
+  geometry = read_view_geometry (out);
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+t", NULL);
+  type_field (&x, "0.6, 0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "50");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, end);
+  g_free (line);
+  df_assert_close (end[0], 0.6 + 50 / R_SPHERE, 1e-6, 1e-8);
+
+  focus_view (&x, geometry);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  expect_shown (out, "extras-shown 0 0");
+  xdotool_va (&x, "key", "ctrl+shift+z", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, again);
+  g_free (line);
+  for (int i = 0; i < 3; i++)
+    df_assert_close (again[i], end[i], 1e-12, 1e-12);
+  expect_shown (out, "extras-shown 1 0");
+
+  /* Another sphere (R = 150) through Replace Surface: the geodesic is removed, not read on
+   * the new chart; Ctrl+Z restores the first sphere and the same geodesic. */
+  g_file_set_contents (surface, "[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\n"
+                                "t-min=0\nt-max=pi\n[parameters]\nR=150\n", -1, &error);
+  g_assert_no_error (error);
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+r", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Replace Surface",
+              "windowfocus", "sleep", "1", "type", "--delay", "20", surface, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  expect_shown (out, "extras-shown 0 0");
+  focus_view (&x, geometry);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  line = read_until (out, "geodesic-end ");
+  g_assert_nonnull (line);
+  parse_three (line, again);
+  g_free (line);
+  for (int i = 0; i < 3; i++)
+    df_assert_close (again[i], end[i], 1e-12, 1e-12);
+
+  stop_app (app, &x);
+  g_remove (surface);
+  g_rmdir (dir);
+}
+
+/* Path B: phi_B(t) = 0.5 sin(2 pi (t - 0.5)) from t = 0.5 to 1, both ends on path A, the
+ * meridian phi = 0. */
+static double
+phi_b (double t)
+{
+  return 0.5 * sin (2 * G_PI * (t - 0.5));
+}
+
+/* Paths A and B from CSV files, typed into the file dialogs: the angle between the directions
+ * carried along them is the curvature enclosed between them (Gauss-Bonnet), on the unit-K
+ * sphere of radius R: |angle| = int_{0.5}^{1} phi_B(t) sin t dt (K dA = sin t dt dphi; do
+ * Carmo sec. 4-5, from memory), integrated here by composite Simpson on 2000 panels. A along
+ * the meridian is R * 0.5 long. Ctrl+Z removes the pair, which is part of the project. */
+static void
+test_paths_from_csv (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *a_path = g_build_filename (dir, "a.csv", NULL);
+  g_autofree char *b_path = g_build_filename (dir, "b.csv", NULL);
+  g_autoptr(GString) a = g_string_new ("u,v\n");
+  g_autoptr(GString) b = g_string_new ("u,v\n");
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_auto(GStrv) geometry = NULL;
+  g_auto(GStrv) parts = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autofree char *line = NULL;
+  double expected = 0, h = 0.5 / 2000;
+
+  for (int i = 0; i <= 40; i++)
+    {
+      double t = 0.5 + 0.5 * i / 40;
+      char tu[G_ASCII_DTOSTR_BUF_SIZE], pv[G_ASCII_DTOSTR_BUF_SIZE];
+
+      g_string_append_printf (a, "%s,0\n", g_ascii_dtostr (tu, sizeof tu, t));
+      g_string_append_printf (b, "%s,%s\n", tu, g_ascii_dtostr (pv, sizeof pv, phi_b (t)));
+    }
+  for (int i = 0; i <= 2000; i++)
+    {
+      double t = 0.5 + i * h, w = (i == 0 || i == 2000) ? 1 : (i % 2 ? 4 : 2);
+      expected += w * phi_b (t) * sin (t) * h / 3;
+    }
+  g_file_set_contents (a_path, a->str, -1, &error);
+  g_assert_no_error (error);
+  g_file_set_contents (b_path, b->str, -1, &error);
+  g_assert_no_error (error);
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--preset", "sphere", NULL);
+  geometry = read_view_geometry (out);
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+alt+a", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Import Path A",
+              "windowfocus", "sleep", "1", "type", "--delay", "20", a_path, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+alt+b", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Import Path B",
+              "windowfocus", "sleep", "1", "type", "--delay", "20", b_path, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  line = read_until (out, "paths-compared ");
+  g_assert_nonnull (line);
+  parts = g_strsplit (line, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 4);
+  df_assert_close (fabs (g_ascii_strtod (parts[1], NULL)), expected, 1e-5, 1e-7);
+  df_assert_close (g_ascii_strtod (parts[2], NULL), 0.5 * R_SPHERE, 1e-8, 1e-8);
+  g_assert_cmpfloat (g_ascii_strtod (parts[3], NULL), >, 0.5 * R_SPHERE);
+
+  focus_view (&x, geometry);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  expect_shown (out, "extras-shown 0 0");
+  xdotool_va (&x, "key", "ctrl+shift+z", NULL);
+  expect_shown (out, "extras-shown 0 1");
+
+  stop_app (app, &x);
+  g_remove (a_path);
+  g_remove (b_path);
+  g_rmdir (dir);
+}
+
+/* A project whose second loop is broken (u and v of different lengths) opens with the other
+ * two loops, both measured, and names the bad one by file and group. */
+static void
+test_bad_loop_project (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *path = g_build_filename (dir, "part.dfproj", NULL);
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autofree char *skipped = NULL;
+  g_autofree char *opened = NULL;
+  g_autofree char *first = NULL;
+  g_autofree char *second = NULL;
+
+  g_file_set_contents (path, "[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\n"
+                             "t-max=pi\n[parameters]\nR=100\n"
+                             "[loop 1]\nname=Good one\nu=0.5;0.5;0.5;0.5\nv=0;1.5;3;4.5\n"
+                             "[loop 2]\nname=Broken\nu=0.5;0.6;0.7\nv=0;1\n"
+                             "[loop 3]\nname=Good two\nu=0.8;0.8;0.8;0.8\nv=0;1.5;3;4.5\n",
+                       -1, &error);
+  g_assert_no_error (error);
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, path, NULL);
+  skipped = read_until (out, "loop-skipped ");
+  g_assert_nonnull (skipped);
+  g_assert_nonnull (strstr (skipped, "part.dfproj"));
+  g_assert_nonnull (strstr (skipped, "[loop 2]"));
+  opened = read_until (out, "loops-opened ");
+  g_assert_cmpstr (opened, ==, "loops-opened 2");
+  first = read_until (out, "loop-measured Good_");
+  second = read_until (out, "loop-measured Good_");
+  g_assert_nonnull (first);
+  g_assert_nonnull (second);
+  g_assert_cmpstr (first, !=, second);
+  stop_app (app, &x);
+  g_remove (path);
+  g_rmdir (dir);
+}
+
+int
+main (int   argc,
+      char *argv[])
+{
+  df_core_init ();
+  /* The XDG Base Directory default when unset. */
+  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
+                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+
+  g_test_add_func ("/app/edits/undo-geodesic", test_undo_geodesic);
+  g_test_add_func ("/app/edits/paths-from-csv", test_paths_from_csv);
+  g_test_add_func ("/app/edits/bad-loop-project", test_bad_loop_project);
+  return g_test_run ();
+}
