@@ -885,6 +885,7 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
   df_status st;
   double max_abs_kg, u_min, u_max;
   size_t n_s;
+  bool chart_coords;
 
   memset (out, 0, sizeof *out);
   df_diag_clear (diag);
@@ -949,13 +950,14 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       goto done;
     }
   out->n_samples = tr.n_samples;
+  chart_coords = df_curve_get_coords (curve) == DF_COORDS_CHART;
   for (size_t i = 0; i < tr.n_samples; i++)
     {
       df_loop_sample *ls = &out->samples[i];
       const df_transport_sample *ts = &tr.samples[i];
       df_curve_point cp;
       df_point_geometry geo;
-      double speed;
+      double speed, k_sqrt_g, sqrt_g;
 
       if ((st = df_curve_eval (curve, ts->tau, &cp, diag)) != DF_OK)
         goto done;
@@ -972,9 +974,17 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
       ls->k_g = df_geodesic_curvature (cp.dx, cp.ddx, cp.normal, &speed);
       if (fabs (ls->k_g) > max_abs_kg)
         max_abs_kg = fabs (ls->k_g);
-      if ((st = df_surface_geometry (ctx.surface, cp.u, cp.v, &geo, diag)) != DF_OK)
+      /* K from the second-order jet where the chart is regular (the full geometry needs a
+       * third-order one); near a pole the curve is in polar coordinates and the geometry
+       * gives K's limit. */
+      if (chart_coords && !cp.at_pole
+          && df_surface_k_area (ctx.surface, cp.u, cp.v, &k_sqrt_g, &sqrt_g, NULL) == DF_OK
+          && sqrt_g > 0)
+        ls->K = k_sqrt_g / sqrt_g;
+      else if ((st = df_surface_geometry (ctx.surface, cp.u, cp.v, &geo, diag)) != DF_OK)
         goto done;
-      ls->K = geo.K;
+      else
+        ls->K = geo.K;
     }
   out->max_abs_kg = max_abs_kg;
   /* A geodesic loop (k_g = 0 to rounding) has no steering limit. */
