@@ -36,7 +36,8 @@ open_module (GError **error)
           tried = was ? g_strconcat (was, ", ", path, NULL) : g_strdup (path);
           continue;
         }
-      /* Local binding: the module's own copy of the core stays its own. */
+      /* The module's core calls resolve to the executable's (exported); its own names stay
+       * local. */
       m = g_module_open (path, G_MODULE_BIND_LOCAL);
       if (m == NULL)
         {
