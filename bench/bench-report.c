@@ -1,7 +1,8 @@
 /* bench-report.c: benchmark of `driftframe-cli report` at workshop scale: writes a project of
  * 2000 loops (40-point ellipses in (t, phi) spread over the demo's lamp-shade mould) and prints
  * the median time of the whole report process, which measures the loops on two threads.
- * Usage: bench-report [REPEATS]. */
+ * Usage: bench-report [REPEATS [KEEP.dfproj]]: with a second argument the project is also
+ * written there, for profiling the report by hand. */
 #include <glib.h>
 #include <glib/gstdio.h>
 #include <math.h>
@@ -88,6 +89,8 @@ main (int argc, char **argv)
   if (!df_write_file_atomic (path, text, -1, &error))
     g_error ("%s", error->message);
 
+  if (argc > 2 && !df_write_file_atomic (argv[2], text, -1, &error))
+    g_error ("%s", error->message);
   times = g_new (double, repeats);
   for (int k = 0; k < repeats; k++)
     {

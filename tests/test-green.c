@@ -2,7 +2,8 @@
  * global fit cannot follow: narrow Gaussian bumps up to height/width 10, centred and
  * off-centre, and a C2 piecewise-polynomial graph, each against the closed form for a radial
  * graph; the error estimate against the true error; the regression from issue 6 (a steep bump
- * that made `measure` fail); and the wrap of a half-turn holonomy to +pi. */
+ * that made `measure` fail); the wrap of a half-turn holonomy to +pi; and a loop whose
+ * enclosed curvature cannot be computed (a hole in the formula inside it) still measuring. */
 #include <math.h>
 #include <string.h>
 
@@ -244,6 +245,35 @@ test_cone_half_turn (void)
   g_assert_cmpfloat (r.holonomy_rad, <=, G_PI);
 }
 
+/* The null-with-note path on a genuine input: a graph with a small hole where the formula has
+ * no value, z = sqrt(rho^2 - eps^2) for rho < eps, centred between the nodes of the 97 x 97 grid
+ * the surface is checked on (spacing 20/96, the hole's centre 0.147 from the nearest node,
+ * eps = 0.1), so the surface is accepted; a circle of radius 0.5 round it. The transport only
+ * goes along the circle and measures; Green's inner integrals run across the enclosed region
+ * and meet the hole, so the enclosed curvature is null with the reason in the note and the
+ * measurement still succeeds. The holonomy of a parallel of a surface of revolution is
+ * 2 pi - int k_g ds = 2 pi (1 - 1 / sqrt(1 + f'(rho)^2)) (k_g = 1 / (rho sqrt(1 + f'^2)), do
+ * Carmo, Differential Geometry of Curves and Surfaces, sec. 4-4, from memory); here
+ * f' = rho / sqrt(rho^2 - eps^2). */
+static void
+test_enclosed_null_with_note (void)
+{
+  const double eps = 0.1, rho = 0.5, h = 20.0 / 96, cx = 0.5 * h, cy = 1.5 * h;
+  g_autofree char *f = g_strdup_printf ("sqrt((x - %.17g)^2 + (y - %.17g)^2 - %.17g^2)", cx, cy,
+                                        eps);
+  g_autoptr (df_surface) s = df_test_graph (f, -10, 10, -10, 10);
+  g_auto (df_loop_result) r = { 0 };
+  double slope = rho / sqrt (rho * rho - eps * eps);
+
+  measure_circle (s, cx, cy, rho, &r);
+  g_assert_true (r.bounds_disc);
+  g_assert_false (r.enclosed_available);
+  g_assert_nonnull (strstr (r.enclosed_note, "the enclosed curvature could not be computed"));
+  g_assert_nonnull (strstr (r.enclosed_note, "sqrt"));
+  df_assert_close (df_wrap_angle (r.holonomy_rad - radial_total_curvature (slope)), 0.0, 0.0,
+                   1e-8);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -256,5 +286,6 @@ main (int argc, char **argv)
   g_test_add_func ("/green/line-integral-knots", test_green_error_estimate);
   g_test_add_func ("/green/wrap/half-turn", test_wrap_half_turn);
   g_test_add_func ("/green/wrap/cone-apex", test_cone_half_turn);
+  g_test_add_func ("/green/enclosed-null-with-note", test_enclosed_null_with_note);
   return g_test_run ();
 }

@@ -51,3 +51,12 @@ int       _df_curve_sphere_plane  (const df_curve *c, double tau, int force, dou
                                    double dp[2], double ddp[2]);
 /* Sphere coordinates: stores the equator crossings as the curve's breaks. */
 df_status _df_curve_sphere_breaks (df_curve *c);
+
+/* Slopes s_i of the C2 cubic through (x_i, y_i), i < n (df-curve-spline.c). Closed: periodic
+ * with period x[n] - x[0]; open: not-a-knot ends. Returns 0 or a GSL error code. */
+int       _df_curve_spline_slopes (const double *x, const double *y, size_t n, bool closed,
+                                   double *s);
+/* Per-segment cubic coefficients a + b dt + c dt^2 + d dt^3 (4 per segment) from values and
+ * slopes. */
+void      _df_curve_spline_coefficients (const double *x, const double *y, const double *s,
+                                         size_t nseg, size_t n, double *coef);

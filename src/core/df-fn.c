@@ -178,10 +178,19 @@ formula_eval (const void *data, double u, double v, int order, df_fn_jet out, df
       return DF_OK;
     }
   {
+    /* Taylor coefficient of x^i y^j times i! j! is the partial derivative. */
+    static const double factor[DF_JET_N] = { 1, 1, 1, 2, 1, 2, 6, 2, 2, 6 };
     df_jet vars[2], r;
 
-    df_jet_var (&vars[0], u, 0);
-    df_jet_var (&vars[1], v, 1);
+    /* Jets truncated at the order asked for and in the function's own variables: a profile's
+     * second-order jet has 3 coefficients where the full one has 10 (df-jet.h). */
+    if (order > 3)
+      order = 3;
+    df_jet_seed (&vars[0], u, 0, f->dim, order);
+    if (f->dim == 2)
+      df_jet_seed (&vars[1], v, 1, 2, order);
+    else
+      df_jet_const (&vars[1], v);
     for (int k = 0; k < f->n_out; k++)
       {
         /* Inside the chart's range a failing formula is a singular value of the surface, not
@@ -190,7 +199,7 @@ formula_eval (const void *data, double u, double v, int order, df_fn_jet out, df
           return df_diag_fail_at (diag, DF_E_NONFINITE, -1, u, v, "%s: %s", f->name[k],
                                   local.detail);
         for (int i = 0; i < DF_JET_N; i++)
-          out[k][i] = df_jet_deriv (&r, (df_jet_index) i);
+          out[k][i] = r.c[i] * factor[i];
       }
   }
   return DF_OK;

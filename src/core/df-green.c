@@ -35,7 +35,7 @@
  * converges at the first comparison. */
 #define LINE_GL 5
 /* Panels the curve starts with: knot-aligned groups of spline segments. */
-#define LINE_PANELS 128
+#define LINE_PANELS 64
 /* A bound on the work of the line quadrature with direct inner integrals (each point costs
  * a few hundred surface evaluations, about 0.2 us each): after it the remaining panels are
  * accepted with their error estimates, which then say how far the result got. */

@@ -1,6 +1,10 @@
 /* df-jet.h: truncated Taylor polynomials ("jets") in two variables to total degree 3, the
  * number type of forward-mode automatic differentiation. Evaluating a formula on jets gives
  * its value and exact partial derivatives up to third order in one pass.
+ * A jet carries its own truncation (how many variables, which order), so that a caller who
+ * needs only second derivatives of a profile r(t) pays for 3 coefficients, not 10, and a
+ * constant costs a multiplication by a number: the transport asks for second-order jets of a
+ * one-variable profile millions of times per report.
  * Plain C + libm; no GLib. */
 #pragma once
 
@@ -10,9 +14,16 @@
  * df_jet_deriv() converts to plain partial derivatives. */
 #define DF_JET_N 10
 
+/* n_vars: 0 for a constant (only c[0] may be non-zero), 1 for a function of x alone (only
+ * the coefficients of 1, x, x^2, x^3 may be non-zero), 2 for x and y. order: the total degree
+ * kept (1..3). Coefficients outside the truncation are always zero, so the full formulas
+ * would give the same result; the arithmetic below skips them. The result of an operation
+ * keeps the smaller order and the larger number of variables of its non-constant operands. */
 typedef struct
 {
-  double c[DF_JET_N];
+  double        c[DF_JET_N];
+  unsigned char n_vars;
+  unsigned char order;
 } df_jet;
 
 typedef enum
@@ -24,8 +35,10 @@ typedef enum
 } df_jet_index;
 
 void   df_jet_const (df_jet *out, double value);
-/* The independent variable `which` (0 = x, 1 = y) at `value`. */
+/* The independent variable `which` (0 = x, 1 = y) at `value`, to full order in x and y. */
 void   df_jet_var   (df_jet *out, double value, int which);
+/* The same truncated: n_vars 1 (then which must be 0) or 2, order 1..3. */
+void   df_jet_seed  (df_jet *out, double value, int which, int n_vars, int order);
 /* Plain partial derivative for a coefficient index (undoes the factorial scaling). */
 double df_jet_deriv (const df_jet *a, df_jet_index index);
 

@@ -126,20 +126,23 @@ compare_points (gconstpointer a, gconstpointer b)
   return 0;
 }
 
-/* How many different chart points (exactly equal ones counted once), up to MIN_POINTS. */
+/* How many different chart points (exactly equal ones counted once), up to MIN_POINTS: a scan
+ * against the few found so far (sorting all the points cost a 10^4-point loop 4 ms). */
 static guint
 count_distinct (const double (*uv)[2], guint n)
 {
-  g_autofree double (*sorted)[2] = NULL;
-  guint distinct = n > 0 ? 1 : 0;
+  const double *found[MIN_POINTS];
+  guint distinct = 0;
 
-  if (n == 0)
-    return 0;
-  sorted = g_memdup2 (uv, n * sizeof *uv);
-  qsort (sorted, n, sizeof *sorted, compare_points);
-  for (guint i = 1; i < n && distinct < MIN_POINTS; i++)
-    if (compare_points (sorted[i - 1], sorted[i]) != 0)
-      distinct++;
+  for (guint i = 0; i < n && distinct < MIN_POINTS; i++)
+    {
+      gboolean seen = FALSE;
+
+      for (guint k = 0; k < distinct && !seen; k++)
+        seen = compare_points (found[k], uv[i]) == 0;
+      if (!seen)
+        found[distinct++] = uv[i];
+    }
   return distinct;
 }
 

@@ -22,7 +22,7 @@
 #define SEARCH_STEPS 60
 /* A full Newton step below this fraction of the coordinate's range is taken without a further
  * evaluation: convergence is quadratic, so the error left is of the order of its square. */
-#define STEP_DONE 1e-8
+#define STEP_DONE 1e-7
 /* Steps are capped to this fraction of the range, so a wild first step cannot leave the
  * basin in one go. */
 #define STEP_CAP 0.25
