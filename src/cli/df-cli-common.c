@@ -268,6 +268,13 @@ df_cli_print_fit (const df_surface *surface, const char *units)
           df_cli_num (c[2], sizeof c[2], info.max_at[2], 6),
           df_cli_num (t, sizeof t, info.tolerance, 3), units,
           info.chosen ? "chosen from the data by GCV" : "fit-tolerance given");
+  if (info.has_symmetry)
+    printf ("Round:   departs from rotational symmetry by RMS %s %s, max %s %s at (%s, %s, %s)\n",
+            df_cli_num (a, sizeof a, info.symmetry_rms, 3), units,
+            df_cli_num (b, sizeof b, info.symmetry_max, 3), units,
+            df_cli_num (c[0], sizeof c[0], info.symmetry_max_at[0], 6),
+            df_cli_num (c[1], sizeof c[1], info.symmetry_max_at[1], 6),
+            df_cli_num (c[2], sizeof c[2], info.symmetry_max_at[2], 6));
   printf ("         curvature is a second derivative of fitted data: K at a point is noisier "
           "than a loop's holonomy\n");
 }

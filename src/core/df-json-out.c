@@ -328,5 +328,15 @@ df_json_add_fit (JsonBuilder *b, const df_surface *surface)
   df_json_add_double (b, "tolerance", info.tolerance);
   json_builder_set_member_name (b, "tolerance_chosen");
   json_builder_add_string_value (b, info.chosen ? "gcv" : "given");
+  if (info.has_symmetry)
+    {
+      /* A revolution fitted to a mesh: how far the part is out of round (df-fit.h). */
+      json_builder_set_member_name (b, "rotational_departure");
+      json_builder_begin_object (b);
+      df_json_add_double (b, "rms", info.symmetry_rms);
+      df_json_add_double (b, "max", info.symmetry_max);
+      df_json_add_vector (b, "max_at", info.symmetry_max_at, 3);
+      json_builder_end_object (b);
+    }
   json_builder_end_object (b);
 }

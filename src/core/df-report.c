@@ -93,6 +93,7 @@ df_report_fields_add_spec (df_report_fields *f, const df_surface_spec *spec,
       df_fit_info info;
 
       df_report_fields_add_file (f, g_str_equal (spec->data_key, "profile") ? "Profile data"
+                                    : g_str_equal (spec->data_key, "mesh") ? "Mesh data"
                                                                             : "Height data",
                                  path);
       if (surface != NULL && df_fit_get_info (df_surface_get_fn (surface), &info))
@@ -106,6 +107,16 @@ df_report_fields_add_spec (df_report_fields *f, const df_surface_spec *spec,
             info.chosen ? "chosen from the data by cross-validation" : "given");
 
           df_report_fields_add (f, "Fit", text);
+          if (info.has_symmetry)
+            {
+              g_autofree char *round = g_strdup_printf (
+                "departs from rotational symmetry by RMS %.4g %s, largest %.4g %s at "
+                "(%.6g, %.6g, %.6g)", info.symmetry_rms, spec->units, info.symmetry_max,
+                spec->units, info.symmetry_max_at[0], info.symmetry_max_at[1],
+                info.symmetry_max_at[2]);
+
+              df_report_fields_add (f, "Round", round);
+            }
         }
     }
   else if (spec->kind == DF_SURFACE_REVOLUTION)
