@@ -22,6 +22,20 @@ typedef struct
   const char *must[4];      /* parts of stderr (status != 0) or stdout (0), NULL-ended */
 } bad_input;
 
+/* A case with a second file: a surface naming the first (a mesh), or NULL. */
+typedef struct
+{
+  bad_input   c;
+  const char *file2;
+  const char *content2;
+} bad_input2;
+
+/* Surfaces from meshes: a surface file naming m.stl (or m.obj) and the mesh's bytes. */
+#define MESH_SURFACE(kind, name) "[surface]\nkind=" kind "\nmesh=" name "\n"
+#define STL_TRI(a, b, c) "facet normal 0 0 1\nouter loop\nvertex " a "\nvertex " b \
+                         "\nvertex " c "\nendloop\nendfacet\n"
+#define MESH_ARGS "probe --surface s.surface --at 0.2,0.2"
+
 static const bad_input cases[] = {
   { "surface-empty", "s.surface", "  \n", sizeof ("  \n") - 1,
     "probe --surface s.surface --at 0.1,0.1", 2, { "s.surface: the file is empty", NULL } },
@@ -181,6 +195,34 @@ static const bad_input cases[] = {
     "measure --preset sphere", 2, { "--loop is required", NULL } },
   { "cli-missing-surface-file", NULL, NULL, 0,
     "probe --surface none.surface --at 1,1", 2, { "none.surface", "No such file", NULL } },
+
+};
+
+static const bad_input2 cases2[] = {
+  { { "mesh-missing", NULL, NULL, 0, MESH_ARGS, 2, { "s.surface", "mesh", "m.stl", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.stl") },
+  { { "mesh-unreadable", "m.stl", "solid x\nfacet banana\n", sizeof ("solid x\nfacet banana\n") - 1,
+    MESH_ARGS, 2, { "m.stl", "not a mesh assimp can read", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.stl") },
+  { { "mesh-no-triangles", "m.obj", "v 0 0 0\nv 1 0 0\nv 0 1 0\nl 1 2\n", sizeof ("v 0 0 0\nv 1 0 0\nv 0 1 0\nl 1 2\n") - 1,
+    MESH_ARGS, 2, { "m.obj", "no triangles", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.obj") },
+  { { "mesh-degenerate", "m.stl", "solid d\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") STL_TRI ("0 0 0", "1 1 0", "2 2 0") "endsolid d\n",
+    sizeof ("solid d\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") STL_TRI ("0 0 0", "1 1 0", "2 2 0") "endsolid d\n") - 1,
+    MESH_ARGS, 2, { "m.stl", "triangle 1", "degenerate", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.stl") },
+  { { "mesh-fold", "m.stl", "solid f\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") STL_TRI ("1 0 0", "1 1 1", "2 0 0") STL_TRI ("1 1 1", "2 1 1", "2 0 0") STL_TRI ("0 1 0", "1 0 0", "0.5 0.5 2") "endsolid f\n",
+    sizeof ("solid f\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") STL_TRI ("1 0 0", "1 1 1", "2 0 0") STL_TRI ("1 1 1", "2 1 1", "2 0 0") STL_TRI ("0 1 0", "1 0 0", "0.5 0.5 2") "endsolid f\n") - 1,
+    MESH_ARGS, 2, { "m.stl", "(x, y)", "folds over", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.stl") },
+  { { "mesh-bad-extension", NULL, NULL, 0, MESH_ARGS, 2, { "s.surface", "mesh", "ends in .stl", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.step") },
+  { { "mesh-bad-units", "m.stl", "solid u\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") "endsolid u\n", sizeof ("solid u\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") "endsolid u\n") - 1,
+    MESH_ARGS, 2, { "s.surface", "units", "'feet'", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.stl") "units=feet\n" },
+  { { "mesh-bad-placement", "m.stl", "solid p\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") "endsolid p\n", sizeof ("solid p\n" STL_TRI ("0 0 0", "1 0 0", "0 1 0") "endsolid p\n") - 1,
+    MESH_ARGS, 2, { "s.surface", "placement-rotate-deg", "three numbers", NULL } },
+    "s.surface", MESH_SURFACE ("graph", "m.stl") "placement-rotate-deg=10,20\n" },
 };
 
 /* LONGFORMULA: a graph whose z formula is 10 001 characters; MANYPARAMS: 1001 parameters. */
@@ -213,9 +255,8 @@ generated (const char *name, gsize *length)
 }
 
 static void
-run_case (gconstpointer data)
+run_one (const bad_input *c, const char *file2, const char *content2)
 {
-  const bad_input *c = data;
   g_autoptr (GError) error = NULL;
   g_autofree char *dir = g_dir_make_tmp ("df-bad-XXXXXX", &error);
   g_auto (GStrv) args = NULL;
@@ -234,6 +275,13 @@ run_case (gconstpointer data)
       g_autofree char *gen = generated (c->content, &length);
 
       g_file_set_contents (path, gen != NULL ? gen : c->content, (gssize) length, &error);
+      g_assert_no_error (error);
+    }
+  if (file2 != NULL)
+    {
+      g_autofree char *path = g_build_filename (dir, file2, NULL);
+
+      g_file_set_contents (path, content2, -1, &error);
       g_assert_no_error (error);
     }
   g_shell_parse_argv (c->args, &argc, &args, &error);
@@ -267,7 +315,27 @@ run_case (gconstpointer data)
 
       g_remove (path);
     }
+  if (file2 != NULL)
+    {
+      g_autofree char *path = g_build_filename (dir, file2, NULL);
+
+      g_remove (path);
+    }
   g_rmdir (dir);
+}
+
+static void
+run_case (gconstpointer data)
+{
+  run_one (data, NULL, NULL);
+}
+
+static void
+run_case2 (gconstpointer data)
+{
+  const bad_input2 *c = data;
+
+  run_one (&c->c, c->file2, c->content2);
 }
 
 int
@@ -279,6 +347,12 @@ main (int argc, char **argv)
       g_autofree char *path = g_strdup_printf ("/bad-inputs/%s", cases[i].id);
 
       g_test_add_data_func (path, &cases[i], run_case);
+    }
+  for (gsize i = 0; i < G_N_ELEMENTS (cases2); i++)
+    {
+      g_autofree char *path = g_strdup_printf ("/bad-inputs/%s", cases2[i].c.id);
+
+      g_test_add_data_func (path, &cases2[i], run_case2);
     }
   return g_test_run ();
 }

@@ -523,3 +523,23 @@ df_fit_get_info (const df_fn *fn, df_fit_info *info)
     return false;
   return true;
 }
+
+bool
+df_fit_set_info (df_fn *fn, const df_fit_info *info)
+{
+  /* The data belong to fn; the accessors hand them out const for readers only. */
+  profile_data *p = (profile_data *) df_fn_get_data (fn, &_df_fit_profile_type);
+  const void *gd = df_fn_get_data (fn, &_df_fit_grid_type);
+  const void *sd = df_fn_get_data (fn, &_df_fit_scattered_type);
+  df_fit_info *g = gd != NULL   ? (df_fit_info *) _df_fit_grid_info (gd)
+                   : sd != NULL ? (df_fit_info *) _df_fit_scattered_info (sd)
+                                : NULL;
+
+  if (p != NULL)
+    p->info = *info;
+  else if (g != NULL)
+    *g = *info;
+  else
+    return false;
+  return true;
+}

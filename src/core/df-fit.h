@@ -25,6 +25,14 @@ typedef struct
   double lambda;           /* the smoothing weight it came to (relative to the data's) */
   /* Profile only: the ends on the axis, 0 none, 1 smooth pole, 2 cone apex. */
   int    pole[2];
+  /* A surface of revolution from a mesh (df-fit-mesh.h): how far the part departs from
+   * rotational symmetry: each vertex's distance from the fitted profile (in the half-plane
+   * through the axis and the vertex, signed outward) less the mean of that distance over the
+   * angle at its place along the profile; RMS and max, and the vertex (x, y, z) with the max. */
+  bool   has_symmetry;
+  double symmetry_rms;
+  double symmetry_max;
+  double symmetry_max_at[3];
 } df_fit_info;
 
 /* Tolerance for "choose from the data" (GCV). 0 asks for the least smoothing (the spline
@@ -61,3 +69,6 @@ df_status df_fit_grid     (const double (*xyz)[3],
 
 /* The fit quality of a fitted function; false for a formula. */
 bool      df_fit_get_info (const df_fn *fn, df_fit_info *info);
+/* Replaces a fitted function's fit quality (a fit of derived points, such as a mesh's, reports
+ * on the original data); false for a formula. */
+bool      df_fit_set_info (df_fn *fn, const df_fit_info *info);

@@ -55,3 +55,16 @@ double   *_df_key_file_get_numbers   (GKeyFile   *key_file,
  * preset. The message names the parameter and its valid range. */
 gboolean  _df_preset_check_params    (const df_surface_spec *spec,
                                       GError               **error);
+
+/* Surfaces from data (df-surface-data.c): the [surface] keys profile=, heights=, mesh=,
+ * fit-tolerance=, data-sha256= and placement-*; building the fitted surface; units= of a data
+ * surface must be one df-units.h converts (mm, cm, m, in). */
+gboolean  _df_surface_spec_read_data_keys   (GKeyFile        *key_file,
+                                             const char      *source,
+                                             df_surface_spec *spec,
+                                             const char      *kind,
+                                             GError         **error);
+gboolean  _df_surface_spec_check_data_units (const df_surface_spec *spec,
+                                             const char            *source,
+                                             GError               **error);
+df_surface *_df_surface_spec_build_data     (const df_surface_spec *spec, GError **error);

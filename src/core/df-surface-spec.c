@@ -9,6 +9,7 @@
 #include "df-data-csv.h"
 #include "df-fit.h"
 #include "df-glib.h"
+#include "df-mesh-read.h"
 #include "df-surface-spec-private.h"
 
 #define GROUP_SURFACE    "surface"
@@ -78,6 +79,8 @@ df_surface_spec_copy (const df_surface_spec *spec)
   copy->base_dir = g_strdup (spec->base_dir);
   copy->fit_tolerance_text = g_strdup (spec->fit_tolerance_text);
   copy->data_sha256 = g_strdup (spec->data_sha256);
+  copy->placement_rotate_text = g_strdup (spec->placement_rotate_text);
+  copy->placement_offset_text = g_strdup (spec->placement_offset_text);
   return copy;
 }
 
@@ -98,6 +101,8 @@ df_surface_spec_free (df_surface_spec *spec)
   g_free (spec->base_dir);
   g_free (spec->fit_tolerance_text);
   g_free (spec->data_sha256);
+  g_free (spec->placement_rotate_text);
+  g_free (spec->placement_offset_text);
   g_free (spec);
 }
 
@@ -193,7 +198,9 @@ df_surface_spec_new_data (df_surface_type kind, const char *path,
 {
   df_surface_spec *spec = spec_alloc (kind);
 
-  spec->data_key = g_strdup (kind == DF_SURFACE_REVOLUTION ? "profile" : "heights");
+  spec->data_key = g_strdup (df_mesh_data_hint (path) != NULL    ? "mesh"
+                             : kind == DF_SURFACE_REVOLUTION ? "profile"
+                                                             : "heights");
   spec->data_path = g_strdup (path);
   spec->fit_tolerance_text = g_strdup (fit_tolerance_text);
   return spec;
@@ -209,73 +216,6 @@ df_surface_spec_data_file (const df_surface_spec *spec)
   return g_build_filename (spec->base_dir, spec->data_path, NULL);
 }
 
-/* fit-tolerance: a length >= 0, or DF_FIT_TOLERANCE_AUTO when absent. */
-static gboolean
-parse_fit_tolerance (const df_surface_spec *spec, double *tol, GError **error)
-{
-  char *end = NULL;
-
-  *tol = DF_FIT_TOLERANCE_AUTO;
-  if (spec->fit_tolerance_text == NULL)
-    return TRUE;
-  *tol = g_ascii_strtod (spec->fit_tolerance_text, &end);
-  if (end == spec->fit_tolerance_text || *end != '\0' || !isfinite (*tol) || *tol < 0.0)
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "fit-tolerance: '%s' is not a "
-                   "length >= 0", spec->fit_tolerance_text);
-      return FALSE;
-    }
-  return TRUE;
-}
-
-/* Reads the data file and fits it; fit complaints name the file and line of the row. */
-static df_surface *
-build_from_data (const df_surface_spec *spec, GError **error)
-{
-  static const char *const rz[] = { "r", "z" };
-  static const char *const xyz[] = { "x", "y", "z" };
-  gboolean rev = spec->kind == DF_SURFACE_REVOLUTION;
-  g_autofree char *path = df_surface_spec_data_file (spec);
-  g_autofree double *v = NULL;
-  g_autofree guint *lines = NULL;
-  gsize n = 0;
-  double tol, dom[4];
-  df_fn *fn = NULL;
-  df_surface *surface = NULL;
-  df_diag diag;
-  df_status st;
-
-  if (!parse_fit_tolerance (spec, &tol, error)
-      || !df_data_csv_read (path, rev ? rz : xyz, rev ? 2 : 3, &v, &n, &lines, error))
-    return NULL;
-  if (rev)
-    st = df_fit_profile ((const double (*)[2]) v, n, tol, &fn, NULL, &diag);
-  else
-    st = df_fit_grid ((const double (*)[3]) v, n, tol, &fn, NULL, &diag);
-  if (st != DF_OK)
-    {
-      if (diag.index >= 0 && (gsize) diag.index < n)
-        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY, "%s:%u: %s", path,
-                     lines[diag.index], diag.detail);
-      else
-        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY, "%s: %s", path,
-                     st == DF_E_NOMEM ? "out of memory" : diag.detail);
-      return NULL;
-    }
-  df_fn_get_domain (fn, dom);
-  if (rev)
-    st = df_surface_new_revolution_fn (fn, dom[0], dom[1], &surface, &diag);
-  else
-    st = df_surface_new_graph_fn (fn, dom[0], dom[1], dom[2], dom[3], &surface, &diag);
-  if (st != DF_OK)
-    {
-      df_status_to_gerror (st, &diag, error);
-      g_prefix_error (error, "%s: the fitted surface: ", path);
-      return NULL;
-    }
-  return surface;
-}
-
 df_surface *
 df_surface_spec_build (const df_surface_spec *spec, GError **error)
 {
@@ -289,7 +229,7 @@ df_surface_spec_build (const df_surface_spec *spec, GError **error)
   if (!_df_preset_check_params (spec, error))
     return NULL;
   if (spec->data_key != NULL)
-    return build_from_data (spec, error);
+    return _df_surface_spec_build_data (spec, error);
   if (!compile_spec (spec, &r, &z, range, error))
     return NULL;
 
@@ -313,98 +253,10 @@ is_surface_key (const char *key)
 {
   static const char *const keys[] = { "kind", "preset", "r", "z", "t-min", "t-max", "x-min",
                                       "x-max", "y-min", "y-max", "units", "profile", "heights",
-                                      "fit-tolerance", "data-sha256", NULL };
+                                      "mesh", "fit-tolerance", "data-sha256",
+                                      "placement-rotate-deg", "placement-offset", NULL };
 
   return g_strv_contains (keys, key);
-}
-
-/* profile= / heights= and fit-tolerance=: a data surface names its file instead of the
- * formulas and ranges, and may not have both. */
-static gboolean
-read_data_keys (GKeyFile *key_file, const char *source, df_surface_spec *spec, const char *kind,
-                GError **error)
-{
-  gboolean rev = spec->kind == DF_SURFACE_REVOLUTION;
-  const char *key = rev ? "profile" : "heights", *other = rev ? "heights" : "profile";
-  static const char *const formula_keys[] = { "r", "z", "t-min", "t-max", "x-min", "x-max",
-                                              "y-min", "y-max", NULL };
-
-  if (g_key_file_has_key (key_file, GROUP_SURFACE, other, NULL))
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] %s: not a key of a %s "
-                   "surface (use %s=)", source, GROUP_SURFACE, other, kind, key);
-      return FALSE;
-    }
-  if (g_key_file_has_key (key_file, GROUP_SURFACE, "mesh", NULL))
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] mesh: triangle meshes are "
-                   "not read yet; export the heights as x,y,z", source, GROUP_SURFACE);
-      return FALSE;
-    }
-  if (!g_key_file_has_key (key_file, GROUP_SURFACE, key, NULL))
-    {
-      if (g_key_file_has_key (key_file, GROUP_SURFACE, "fit-tolerance", NULL))
-        {
-          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] fit-tolerance: only "
-                       "for a surface from data (%s=FILE)", source, GROUP_SURFACE, key);
-          return FALSE;
-        }
-      return TRUE;
-    }
-  for (int i = 0; formula_keys[i] != NULL; i++)
-    if (g_key_file_has_key (key_file, GROUP_SURFACE, formula_keys[i], NULL))
-      {
-        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] %s: a surface from data "
-                     "(%s=) has no formulas or ranges", source, GROUP_SURFACE,
-                     formula_keys[i], key);
-        return FALSE;
-      }
-  spec->data_key = g_strdup (key);
-  spec->data_path = _df_key_file_get_text (key_file, GROUP_SURFACE, key, TRUE, source, error);
-  if (spec->data_path == NULL)
-    return FALSE;
-  if (_df_text_is_blank (spec->data_path))
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] %s: no file named",
-                   source, GROUP_SURFACE, key);
-      return FALSE;
-    }
-  spec->base_dir = g_path_get_dirname (source);
-  {
-    g_autofree char *path = df_surface_spec_data_file (spec);
-    g_autofree char *saved = _df_key_file_get_text (key_file, GROUP_SURFACE, "data-sha256",
-                                                    FALSE, source, NULL);
-
-    spec->data_sha256 = df_data_file_sha256 (path, error);
-    if (spec->data_sha256 == NULL)
-      {
-        g_prefix_error (error, "%s: [%s] %s: ", source, GROUP_SURFACE, key);
-        return FALSE;
-      }
-    if (saved != NULL && g_ascii_strcasecmp (saved, spec->data_sha256) != 0)
-      {
-        g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "%s: [%s] %s: the data file %s has "
-                     "changed since this file was saved (SHA-256 %.12s... now, %.12s... then): "
-                     "check it and import it again; it is not re-fitted silently", source,
-                     GROUP_SURFACE, key, path, spec->data_sha256, saved);
-        return FALSE;
-      }
-  }
-  if (g_key_file_has_key (key_file, GROUP_SURFACE, "fit-tolerance", NULL))
-    {
-      double tol;
-
-      spec->fit_tolerance_text = _df_key_file_get_text (key_file, GROUP_SURFACE,
-                                                        "fit-tolerance", TRUE, source, error);
-      if (spec->fit_tolerance_text == NULL)
-        return FALSE;
-      if (!parse_fit_tolerance (spec, &tol, error))
-        {
-          g_prefix_error (error, "%s: [%s] ", source, GROUP_SURFACE);
-          return FALSE;
-        }
-    }
-  return TRUE;
 }
 
 df_surface_spec *
@@ -432,7 +284,9 @@ df_surface_spec_from_key_file (GKeyFile *key_file, const char *source, GError **
       {
         g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
                      "%s: [%s] unknown key '%s' (known: kind, preset, r, z, t-min, t-max, "
-                     "x-min, x-max, y-min, y-max, units, profile, heights, fit-tolerance, data-sha256)", source, GROUP_SURFACE, keys[i]);
+                     "x-min, x-max, y-min, y-max, units, profile, heights, mesh, fit-tolerance, "
+                     "data-sha256, placement-rotate-deg, placement-offset)", source,
+                     GROUP_SURFACE, keys[i]);
         return NULL;
       }
 
@@ -452,7 +306,7 @@ df_surface_spec_from_key_file (GKeyFile *key_file, const char *source, GError **
     }
 
   spec = spec_alloc (type);
-  if (!read_data_keys (key_file, source, spec, kind, error))
+  if (!_df_surface_spec_read_data_keys (key_file, source, spec, kind, error))
     return NULL;
   if (spec->data_key != NULL)
     ;
@@ -510,6 +364,8 @@ df_surface_spec_from_key_file (GKeyFile *key_file, const char *source, GError **
       if (spec->units == NULL)
         return NULL;
     }
+  if (spec->data_key != NULL && !_df_surface_spec_check_data_units (spec, source, error))
+    return NULL;
 
   if (g_key_file_has_group (key_file, GROUP_PARAMETERS))
     {
@@ -562,6 +418,12 @@ df_surface_spec_to_key_file (const df_surface_spec *spec, GKeyFile *key_file)
                                spec->fit_tolerance_text);
       if (sha != NULL)
         g_key_file_set_string (key_file, GROUP_SURFACE, "data-sha256", sha);
+      if (spec->placement_rotate_text != NULL)
+        g_key_file_set_string (key_file, GROUP_SURFACE, "placement-rotate-deg",
+                               spec->placement_rotate_text);
+      if (spec->placement_offset_text != NULL)
+        g_key_file_set_string (key_file, GROUP_SURFACE, "placement-offset",
+                               spec->placement_offset_text);
     }
   if (rev && spec->data_key == NULL)
     g_key_file_set_string (key_file, GROUP_SURFACE, "r", spec->r_text ? spec->r_text : "");

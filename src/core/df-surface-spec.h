@@ -19,6 +19,13 @@
  * the file that names them:
  *   kind=revolution  profile=mould.csv   (header r,z; points in order along the profile)
  *   kind=graph       heights=panel.csv   (header x,y,z; a full grid of heights)
+ *   kind=graph       mesh=fairing.stl    (a triangle mesh, .stl/.obj/.ply: vertices fitted
+ *                                         as heights; a mesh that folds over is refused)
+ *   kind=revolution  mesh=mould.stl      (vertices' (sqrt(x^2+y^2), z) fitted as a profile)
+ *   placement-rotate-deg=AX,AY,AZ        # optional (heights, mesh): the data turned AX degrees
+ *                                        # about x, then AY about y, then AZ about z ...
+ *   placement-offset=X,Y,Z               # ... then moved by (X, Y, Z), before fitting
+ *   units=mm                             # the unit of the file's numbers: mm, cm, m or in
  *   fit-tolerance=0.01                   # optional: RMS distance the fit may keep, in units;
  *                                        # 0 interpolates; absent: chosen from the data (GCV)
  *   data-sha256=...                      # written on save; checked on load */
@@ -48,10 +55,14 @@ typedef struct
   /* SHA-256 of the data file as first read (key data-sha256): a saved project records it,
    * and a file that changed since is reported on load, never silently re-fitted. */
   char      *data_sha256;
+  /* Placement of the data before fitting (heights= and mesh= only): "AX,AY,AZ" degrees about
+   * the fixed x, y, z axes in that order, then the offset "X,Y,Z" in units; NULL: none. */
+  char      *placement_rotate_text;
+  char      *placement_offset_text;
 } df_surface_spec;
 
 /* A surface fitted to the data file path (key "profile" for a revolution, "heights" for a
- * graph). */
+ * graph; "mesh" for either when path ends in .stl, .obj or .ply). */
 df_surface_spec *df_surface_spec_new_data       (df_surface_type kind, const char *path,
                                                  const char *fit_tolerance_text);
 /* The data file's path as opened (base_dir applied; g_free), or NULL for formulas. */
