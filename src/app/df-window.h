@@ -11,6 +11,7 @@ G_BEGIN_DECLS
 typedef struct
 {
   char    *file;            /* .dfproj or .surface to open */
+  char    *import_data;     /* measured data or a mesh to fit once the window is up */
   gboolean demo;            /* open the demo project */
   char    *preset;          /* start from this preset */
   char    *tool;            /* look, sketch, probe, geodesic, paths */
