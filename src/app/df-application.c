@@ -35,6 +35,9 @@ static const GOptionEntry option_entries[] = {
     "PATH" },
   { "bench-orbit", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Orbit the view once, print the median and 95th-percentile frame times and quit", NULL },
+  { "bench-mesh", 0, 0, G_OPTION_ARG_NONE, NULL,
+    "Build the display mesh of the surface (after --import-data: of the fitted one) a few "
+    "times, print the times and quit", NULL },
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print where the 3D view lies in the window (for test drivers)", NULL },
   { "import-data", 0, 0, G_OPTION_ARG_FILENAME, NULL,
@@ -216,6 +219,7 @@ df_application_command_line (GApplication            *application,
       startup.import_data = g_file_get_path (file);
     }
   startup.bench_orbit = g_variant_dict_contains (options, "bench-orbit");
+  startup.bench_mesh = g_variant_dict_contains (options, "bench-mesh");
   startup.report_view = g_variant_dict_contains (options, "report-view-geometry");
   startup.report_events = g_variant_dict_contains (options, "report-events");
 

@@ -24,6 +24,7 @@ struct _DfWindowData
   gsize         n_data;
   double        max_abs;
   double        range;               /* the colour scale's end: +/- range */
+  gint64        fit_start;           /* when the running fit was asked for (--bench-mesh) */
 };
 
 static DfFitSummary *
@@ -184,6 +185,84 @@ _df_window_data_sync (DfWindow *self)
                         g_object_ref (self));
 }
 
+/* ---- the display mesh benchmark ------------------------------------------------------------ */
+
+#define BENCH_MESH_RUNS 7
+
+typedef struct
+{
+  DfWindow *self;
+  gint64    start;
+  GArray   *ms;       /* of double */
+  gulong    handler;
+} MeshBench;
+
+static int
+cmp_double (gconstpointer a,
+            gconstpointer b)
+{
+  double x = *(const double *) a, y = *(const double *) b;
+
+  return (x > y) - (x < y);
+}
+
+static gboolean bench_next (gpointer user_data);
+
+static void
+bench_mesh_ready_cb (DfSurfaceView *view,
+                     MeshBench     *bench)
+{
+  double ms = (g_get_monotonic_time () - bench->start) / 1000.0;
+
+  /* Only the builds this benchmark asked for. */
+  if (bench->start == 0)
+    return;
+  bench->start = 0;
+  g_array_append_val (bench->ms, ms);
+  /* Let the frame that shows the mesh go by before the next request. */
+  g_timeout_add (100, bench_next, bench);
+}
+
+static gboolean
+bench_next (gpointer user_data)
+{
+  MeshBench *bench = user_data;
+  DfWindow *self = bench->self;
+
+  if (bench->ms->len < BENCH_MESH_RUNS)
+    {
+      bench->start = g_get_monotonic_time ();
+      /* The request the window makes on every surface change: a copy of the surface to the
+       * view, the mesh built on its worker thread and installed on this one. */
+      df_surface_view_set_surface (self->view, df_document_get_surface (self->document));
+      return G_SOURCE_REMOVE;
+    }
+  g_signal_handler_disconnect (self->view, bench->handler);
+  g_array_sort (bench->ms, cmp_double);
+  printf ("display mesh: median %.1f ms, min %.1f ms, max %.1f ms over %u builds (request to "
+          "mesh in place)\n", g_array_index (bench->ms, double, bench->ms->len / 2),
+          g_array_index (bench->ms, double, 0),
+          g_array_index (bench->ms, double, bench->ms->len - 1), bench->ms->len);
+  fflush (stdout);
+  g_array_unref (bench->ms);
+  g_free (bench);
+  g_application_quit (g_application_get_default ());
+  return G_SOURCE_REMOVE;
+}
+
+void
+_df_window_data_bench_mesh (DfWindow *self)
+{
+  MeshBench *bench = g_new0 (MeshBench, 1);
+
+  bench->self = self;
+  bench->ms = g_array_new (FALSE, FALSE, sizeof (double));
+  bench->handler = g_signal_connect (self->view, "mesh-ready",
+                                     G_CALLBACK (bench_mesh_ready_cb), bench);
+  /* After the mesh of the surface just set is in place. */
+  g_timeout_add (1500, bench_next, bench);
+}
+
 /* ---- fitting --------------------------------------------------------------------------- */
 
 static void
@@ -230,10 +309,22 @@ fit_done_cb (GObject      *source,
         }
       else
         _df_window_status (self, FALSE, "Fitted %s.", base);
+      if (self->startup.bench_mesh)
+        {
+          printf ("fit in place: %.0f ms from the request (reading, fitting, %zu points' "
+                  "deviations, carrying the loops)\n",
+                  (g_get_monotonic_time () - d->fit_start) / 1000.0, fit->n_points);
+          _df_window_data_bench_mesh (self);
+        }
       g_object_unref (self);
       return;
     }
 failed:
+  if (self->startup.bench_mesh)
+    {
+      g_printerr ("driftframe: --bench-mesh: %s\n", error->message);
+      g_application_quit (g_application_get_default ());
+    }
   /* The document still has the surface it had: say why, where the user looks. */
   df_fit_summary_set_error (summary (self), error->message);
   df_surface_panel_show_error (self->surface_panel, error);
@@ -255,6 +346,7 @@ _df_window_data_fit (DfWindow              *self,
   g_clear_object (&d->fit_cancellable);
   d->fit_cancellable = g_cancellable_new ();
   df_fit_summary_set_busy (summary (self), TRUE);
+  d->fit_start = g_get_monotonic_time ();
   _df_window_status (self, FALSE, "Fitting %s…", base);
   df_data_fit_async (spec, d->fit_cancellable, fit_done_cb, g_object_ref (self));
 }

@@ -25,4 +25,8 @@ gboolean _df_window_data_take_file  (DfWindow              *self,
                                      const char            *path,
                                      gboolean               as_data);
 
+/* --bench-mesh: times the display mesh of the document's surface from the request to the
+ * mesh in place (worker thread, vertex arrays, hand-over) a few times, prints them, quits. */
+void     _df_window_data_bench_mesh (DfWindow              *self);
+
 G_END_DECLS

@@ -432,6 +432,7 @@ df_window_start (DfWindow        *self,
   self->startup.export_png = g_strdup (startup->export_png);
   self->startup.export_report = g_strdup (startup->export_report);
   self->startup.bench_orbit = startup->bench_orbit;
+  self->startup.bench_mesh = startup->bench_mesh;
   self->startup.report_view = startup->report_view;
   self->startup.report_events = startup->report_events;
   self->exports_pending = is_one_shot (self) && !startup->bench_orbit;
@@ -489,6 +490,8 @@ df_window_start (DfWindow        *self,
   /* Data are fitted over the surface the window opened with, which stays if they fail. */
   if (startup->import_data != NULL)
     _df_window_data_take_file (self, startup->import_data, TRUE);
+  else if (startup->bench_mesh)
+    _df_window_data_bench_mesh (self);
 
   if (startup->tool != NULL)
     {

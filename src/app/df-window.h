@@ -22,6 +22,7 @@ typedef struct
   char    *export_png;      /* export the view once everything is drawn, then quit */
   char    *export_report;   /* write the PDF design record once everything is drawn, then quit */
   gboolean bench_orbit;     /* print orbit frame times, then quit */
+  gboolean bench_mesh;      /* print display-mesh build times (after --import-data), then quit */
   gboolean report_view;     /* print the view's place in the window (for test drivers) */
   gboolean report_events;   /* print measurements, autosaves and restores (for test drivers) */
 } DfStartup;
