@@ -284,21 +284,31 @@ draw_legend (GtkDrawingArea *area,
     hi = self->clamped ? g_strdup_printf ("≥ %s", b) : g_steal_pointer (&b);
   }
   labels[0] = lo;
-  labels[1] = "0 (on the fit)";
+  labels[1] = "0";
   labels[2] = hi;
   layout = gtk_widget_create_pango_layout (GTK_WIDGET (area), NULL);
   gdk_cairo_set_source_rgba (cr, &fg);
-  for (int i = 0; i < 3; i++)
-    {
-      int tw, th;
-      double x;
+  {
+    int tw[3], th;
+    double gap = 8;
 
-      pango_layout_set_text (layout, labels[i], -1);
-      pango_layout_get_pixel_size (layout, &tw, &th);
-      x = i == 0 ? margin : i == 2 ? width - margin - tw : (width - tw) / 2.0;
-      cairo_move_to (cr, x, bar_h + 2);
-      pango_cairo_show_layout (cr, layout);
-    }
+    for (int i = 0; i < 3; i++)
+      {
+        pango_layout_set_text (layout, labels[i], -1);
+        pango_layout_get_pixel_size (layout, &tw[i], &th);
+      }
+    for (int i = 0; i < 3; i++)
+      {
+        double x = i == 0 ? margin : i == 2 ? width - margin - tw[2] : (width - tw[1]) / 2.0;
+
+        /* The zero mark only where it clears both ends (a narrow panel, long numbers). */
+        if (i == 1 && (x < margin + tw[0] + gap || x + tw[1] > width - margin - tw[2] - gap))
+          continue;
+        pango_layout_set_text (layout, labels[i], -1);
+        cairo_move_to (cr, x, bar_h + 2);
+        pango_cairo_show_layout (cr, layout);
+      }
+  }
   g_object_unref (layout);
 }
 

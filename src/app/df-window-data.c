@@ -456,6 +456,20 @@ question_response_cb (GtkDialog *dialog,
   question_free (q);
 }
 
+static gboolean
+present_later_cb (gpointer user_data)
+{
+  gtk_window_present (GTK_WINDOW (user_data));
+  g_object_unref (user_data);
+  return G_SOURCE_REMOVE;
+}
+
+static void
+present_after_map (GtkWidget *dialog)
+{
+  g_timeout_add (300, present_later_cb, g_object_ref (dialog));
+}
+
 static void
 ask (DfWindow   *self,
      const char *path,
@@ -496,7 +510,13 @@ ask (DfWindow   *self,
     }
   gtk_dialog_set_default_response (GTK_DIALOG (dialog), mesh ? ANSWER_GRAPH : ANSWER_GRAPH);
   g_signal_connect (dialog, "response", G_CALLBACK (question_response_cb), q);
-  gtk_window_present (GTK_WINDOW (dialog));
+  /* Asked at start-up (a mesh on the command line), before the window is on screen: a dialog
+   * shown now would be stacked behind it. */
+  if (gtk_widget_get_mapped (GTK_WIDGET (self)))
+    gtk_window_present (GTK_WINDOW (dialog));
+  else
+    g_signal_connect_object (self, "map", G_CALLBACK (present_after_map), dialog,
+                             G_CONNECT_SWAPPED);
 }
 
 static void
