@@ -122,6 +122,7 @@ test_read_points (void)
     g_assert_cmpfloat (xyz[0][0], ==, 11);
     g_assert_cmpfloat (xyz[0][1], ==, 22);
     g_assert_cmpfloat (xyz[1][2], ==, 36);
+    g_clear_pointer (&xyz, g_free);
   }
   {
     g_autoptr(df_surface_spec) spec = df_surface_spec_new_data (DF_SURFACE_GRAPH, "/nonexistent/h.csv",
