@@ -35,8 +35,14 @@ static const GOptionEntry option_entries[] = {
     "PATH" },
   { "bench-orbit", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Orbit the view once, print the median and 95th-percentile frame times and quit", NULL },
+  { "bench-mesh", 0, 0, G_OPTION_ARG_NONE, NULL,
+    "Build the display mesh of the surface (after --import-data: of the fitted one) a few "
+    "times, print the times and quit", NULL },
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print where the 3D view lies in the window (for test drivers)", NULL },
+  { "import-data", 0, 0, G_OPTION_ARG_FILENAME, NULL,
+    "Fit the surface to measured data or a mesh (CSV of r,z or x,y,z; STL, OBJ, PLY) once the "
+    "window is open", "PATH" },
   { "report-events", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print loop measurements, autosaves and restores as they happen (for test drivers)",
     NULL },
@@ -184,7 +190,15 @@ df_application_command_line (GApplication            *application,
     {
       g_autoptr(GFile) file = g_application_command_line_create_file_for_arg (command_line,
                                                                               files[0]);
-      startup.file = g_file_get_path (file);
+      char *path = g_file_get_path (file);
+
+      /* Measured data or a mesh on the command line are fitted, not opened as a project. */
+      if (path != NULL && (g_str_has_suffix (path, ".csv") || g_str_has_suffix (path, ".stl")
+                           || g_str_has_suffix (path, ".obj") || g_str_has_suffix (path, ".ply")
+                           || g_str_has_suffix (path, ".STL")))
+        startup.import_data = path;
+      else
+        startup.file = path;
     }
   startup.demo = g_variant_dict_contains (options, "demo");
   g_variant_dict_lookup (options, "preset", "s", &startup.preset);
@@ -195,7 +209,17 @@ df_application_command_line (GApplication            *application,
   g_variant_dict_lookup (options, "export-summary", "^ay", &startup.export_summary);
   g_variant_dict_lookup (options, "export-png", "^ay", &startup.export_png);
   g_variant_dict_lookup (options, "export-report", "^ay", &startup.export_report);
+  if (startup.import_data == NULL
+      && g_variant_dict_lookup (options, "import-data", "^ay", &startup.import_data)
+      && !g_path_is_absolute (startup.import_data))
+    {
+      g_autoptr(GFile) file = g_application_command_line_create_file_for_arg (command_line,
+                                                                              startup.import_data);
+      g_free (startup.import_data);
+      startup.import_data = g_file_get_path (file);
+    }
   startup.bench_orbit = g_variant_dict_contains (options, "bench-orbit");
+  startup.bench_mesh = g_variant_dict_contains (options, "bench-mesh");
   startup.report_view = g_variant_dict_contains (options, "report-view-geometry");
   startup.report_events = g_variant_dict_contains (options, "report-events");
 
@@ -232,7 +256,7 @@ df_application_init (DfApplication *self)
 {
   g_application_add_main_option_entries (G_APPLICATION (self), option_entries);
   g_application_set_option_context_parameter_string (G_APPLICATION (self),
-                                                     "[FILE.dfproj|FILE.surface]");
+                                                     "[FILE.dfproj|FILE.surface|DATA.csv|MESH.stl]");
   g_application_set_option_context_summary (G_APPLICATION (self),
                                             "Sketch loops on a curved surface and read how it "
                                             "turns a carried direction.");

@@ -5,6 +5,7 @@
 
 #include <math.h>
 
+#include "df-data-import.h"
 #include "df-document-private.h"
 #include "df-project.h"
 #include "df-work-guard.h"
@@ -146,17 +147,28 @@ df_document_set_spec (DfDocument            *self,
                       const df_surface_spec *spec,
                       GError               **error)
 {
-  g_autoptr(df_surface) surface = NULL;
-  g_autoptr(GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
-  CarryJob job = { 0 };
-  guint n;
+  df_surface *surface;
 
   g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
   g_return_val_if_fail (spec != NULL, FALSE);
 
   surface = df_surface_spec_build (spec, error);
-  if (surface == NULL)
-    return FALSE;
+  return surface != NULL && df_document_set_spec_built (self, spec, surface, error);
+}
+
+gboolean
+df_document_set_spec_built (DfDocument            *self,
+                            const df_surface_spec *spec,
+                            df_surface            *built,
+                            GError               **error)
+{
+  g_autoptr(df_surface) surface = built;
+  g_autoptr(GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
+  CarryJob job = { 0 };
+  guint n;
+
+  g_return_val_if_fail (DF_IS_DOCUMENT (self), FALSE);
+  g_return_val_if_fail (spec != NULL && built != NULL, FALSE);
 
   /* Loops keep their places in space, not their chart numbers: (t, φ) of a lamp shade read as
    * (x, y) on a plane would be another loop altogether. */
@@ -181,6 +193,7 @@ df_document_set_spec (DfDocument            *self,
   _df_document_push_history (self, "surface change");
   df_surface_spec_free (self->spec);
   self->spec = df_surface_spec_copy (spec);
+  df_data_spec_make_absolute (self->spec);
   df_surface_free (self->surface);
   self->surface = g_steal_pointer (&surface);
   self->last_carried = self->last_off = 0;

@@ -6,6 +6,7 @@
 
 #include <math.h>
 
+#include "df-data-import.h"
 #include "df-document-private.h"
 #include "df-project.h"
 #include "df-work-guard.h"
@@ -322,6 +323,7 @@ replace_state (DfDocument  *self,
 
   df_surface_spec_free (self->spec);
   self->spec = df_surface_spec_copy (project->spec);
+  df_data_spec_make_absolute (self->spec);
   df_project_free (self->carried);
   self->carried = df_project_new (df_surface_spec_copy (project->spec));
   df_project_copy_meta (self->carried, project);
@@ -456,8 +458,14 @@ df_document_save (DfDocument  *self,
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "There is no surface to save");
       return FALSE;
     }
-  if (!df_write_file_atomic (path, data, -1, error))
-    return FALSE;
+  /* A data file is named relative to the project in the file (the document keeps it
+   * absolute, so undo and autosaves find it from anywhere). */
+  {
+    g_autofree char *on_disk = df_data_project_text_for (data, path);
+
+    if (!df_write_file_atomic (path, on_disk, -1, error))
+      return FALSE;
+  }
   set_path (self, path);
   g_free (self->saved_snapshot);
   self->saved_snapshot = g_steal_pointer (&data);

@@ -64,6 +64,13 @@ gboolean              df_document_set_spec         (DfDocument            *self,
                                                     const df_surface_spec *spec,
                                                     GError               **error);
 
+/* Like set_spec with the surface already built from spec (taken, also on failure): a data
+ * surface fitted on a worker thread (df-data-import.h). */
+gboolean              df_document_set_spec_built   (DfDocument            *self,
+                                                    const df_surface_spec *spec,
+                                                    df_surface            *surface,
+                                                    GError               **error);
+
 /* The project's title block, geodesics, paths, probes and view as loaded (read-only; NULL
  * before a project is set). */
 const df_project     *df_document_get_meta         (DfDocument *self);

@@ -5,6 +5,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "df-fit-summary.h"
 #include "df-surface-panel.h"
 
 /* Wait this long after the last keystroke before building: a formula mid-edit is usually
@@ -15,7 +16,8 @@ enum
 {
   KIND_PRESET,
   KIND_REVOLUTION,
-  KIND_GRAPH
+  KIND_GRAPH,
+  KIND_DATA      /* a surface fitted to a data file (df-fit-summary.c) */
 };
 
 /* One formula or range entry of the revolution or graph page. */
@@ -57,6 +59,7 @@ struct _DfSurfacePanel
   GtkEntry    *units_entry;
   GtkLabel    *build_error;
   GtkLabel    *normal_label;
+  DfFitSummary *fit_summary;
 
   /* owned */
   df_surface_spec *spec;
@@ -457,13 +460,17 @@ fill_all (DfSurfacePanel *self)
       kind = KIND_PRESET;
       gtk_drop_down_set_selected (self->preset_dropdown, preset_index (self->spec->preset));
     }
+  else if (self->spec->data_key != NULL)
+    kind = KIND_DATA;
   else
     kind = self->spec->kind == DF_SURFACE_REVOLUTION ? KIND_REVOLUTION : KIND_GRAPH;
   gtk_drop_down_set_selected (self->kind_dropdown, kind);
   gtk_stack_set_visible_child_name (self->kind_stack, kind == KIND_PRESET ? "preset"
                                                       : kind == KIND_REVOLUTION ? "revolution"
+                                                      : kind == KIND_DATA ? "data"
                                                       : "graph");
-  gtk_widget_set_visible (GTK_WIDGET (self->add_param_box), kind != KIND_PRESET);
+  gtk_widget_set_visible (GTK_WIDGET (self->add_param_box),
+                          kind != KIND_PRESET && kind != KIND_DATA);
   update_description (self);
   fill_fields (self);
   gtk_editable_set_text (GTK_EDITABLE (self->units_entry),
@@ -540,12 +547,21 @@ kind_selected_cb (GtkDropDown    *dropdown,
 
         /* Switching to formulas keeps the current shape when the kind matches, so a preset
          * can be edited as formulas; otherwise start from a simple example of that kind. */
-        if (self->spec->kind != want
+        if ((self->spec->kind != want || self->spec->data_key != NULL)
             && !load_preset (self, want == DF_SURFACE_REVOLUTION ? "sphere" : "bump"))
           return;
         g_clear_pointer (&self->spec->preset, g_free);
       }
       break;
+    case KIND_DATA:
+      /* Data come from a file: ask for it; the dropdown shows the current surface until an
+       * import lands. */
+      if (self->spec->data_key == NULL)
+        {
+          fill_all (self);
+          gtk_widget_activate_action (GTK_WIDGET (self), "win.import-data", NULL);
+        }
+      return;
     default:
       return;
     }
@@ -648,6 +664,7 @@ df_surface_panel_class_init (DfSurfacePanelClass *klass)
   gtk_widget_class_bind_template_child (widget_class, DfSurfacePanel, units_entry);
   gtk_widget_class_bind_template_child (widget_class, DfSurfacePanel, build_error);
   gtk_widget_class_bind_template_child (widget_class, DfSurfacePanel, normal_label);
+  gtk_widget_class_bind_template_child (widget_class, DfSurfacePanel, fit_summary);
   gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
   gtk_widget_class_set_css_name (widget_class, "dfsurfacepanel");
 }
@@ -658,6 +675,7 @@ df_surface_panel_init (DfSurfacePanel *self)
   const df_preset_info *presets = df_presets_list ();
   g_autoptr(GtkStringList) titles = gtk_string_list_new (NULL);
 
+  g_type_ensure (DF_TYPE_FIT_SUMMARY);
   gtk_widget_init_template (GTK_WIDGET (self));
 
   self->param_rows = g_array_new (FALSE, TRUE, sizeof (ParamRow));
@@ -749,4 +767,11 @@ df_surface_panel_set_normal_text (DfSurfacePanel *self,
 {
   g_return_if_fail (DF_IS_SURFACE_PANEL (self));
   gtk_label_set_text (self->normal_label, text != NULL ? text : "");
+}
+
+GtkWidget *
+df_surface_panel_get_fit_summary (DfSurfacePanel *self)
+{
+  g_return_val_if_fail (DF_IS_SURFACE_PANEL (self), NULL);
+  return GTK_WIDGET (self->fit_summary);
 }

@@ -25,5 +25,7 @@ void                   df_surface_panel_show_error      (DfSurfacePanel *self,
                                                          const GError   *error);
 void                   df_surface_panel_set_normal_text (DfSurfacePanel *self,
                                                          const char     *text);
+/* The DfFitSummary shown for a surface fitted to data. */
+GtkWidget             *df_surface_panel_get_fit_summary (DfSurfacePanel *self);
 
 G_END_DECLS

@@ -216,6 +216,7 @@ _df_surface_view_gl_upload (DfSurfaceView *self)
       gl->solid_vertices = self->solid_data->len / SOLID_STRIDE;
       self->overlay_dirty = FALSE;
     }
+  _df_surface_view_points_upload (&self->points);
   glBindVertexArray (0);
   glBindBuffer (GL_ARRAY_BUFFER, 0);
 }
@@ -293,6 +294,7 @@ _df_surface_view_gl_draw (DfSurfaceView *self,
       else
         glDrawElements (GL_TRIANGLES, gl->surface_indices, GL_UNSIGNED_INT, NULL);
     }
+  _df_surface_view_points_draw (self, (const float *) view, (const float *) proj);
 
   if (gl->line_vertices > 0 || gl->solid_vertices > 0)
     {

@@ -83,6 +83,19 @@ typedef struct
   GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
 } ViewGl;
 
+/* Data points over a fitted surface (df-surface-view-points.c): position and colour per point,
+ * and the GL names of their program and buffer, created and deleted with the rest. */
+#define POINT_STRIDE 6
+typedef struct
+{
+  GLuint  program, vao, vbo;
+  GLint   view, proj, bias, size, alpha;
+  GLsizei count;
+  float  *data;         /* POINT_STRIDE per point */
+  gsize   n;
+  gboolean dirty;
+} ViewPoints;
+
 typedef struct
 {
   guint    n_frames;
@@ -114,6 +127,7 @@ struct _DfSurfaceView
   Benchmark    *bench;          /* running */
   Benchmark    *bench_report;   /* finished, waiting for its report */
   ViewGl        gl;
+  ViewPoints    points;
 
   /* state */
   DfCamera      camera;
@@ -198,5 +212,15 @@ gboolean _df_surface_view_gl_read_pixels   (DfSurfaceView *self,
                                             int            width,
                                             int            height,
                                             guchar        *pixels);
+
+/* df-surface-view-points.c; the GL ones need the area's context current. */
+gboolean _df_surface_view_points_create    (ViewPoints    *points,
+                                            GError       **error);
+void     _df_surface_view_points_delete    (ViewPoints    *points);
+void     _df_surface_view_points_upload    (ViewPoints    *points);
+void     _df_surface_view_points_draw      (DfSurfaceView *self,
+                                            const float   *view,
+                                            const float   *proj);
+void     _df_surface_view_points_clear     (ViewPoints    *points);
 
 G_END_DECLS

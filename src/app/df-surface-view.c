@@ -57,7 +57,8 @@ df_surface_view_realize (GtkWidget *widget)
       return;
     }
 
-  if (!_df_surface_view_gl_create (&self->gl, &error))
+  if (!_df_surface_view_gl_create (&self->gl, &error)
+      || !_df_surface_view_points_create (&self->points, &error))
     {
       fail_gl (self, error);
       return;
@@ -76,6 +77,7 @@ df_surface_view_unrealize (GtkWidget *widget)
     {
       gtk_gl_area_make_current (area);
       _df_surface_view_gl_delete (&self->gl);
+      _df_surface_view_points_delete (&self->points);
     }
   GTK_WIDGET_CLASS (df_surface_view_parent_class)->unrealize (widget);
 }
@@ -155,6 +157,7 @@ df_surface_view_finalize (GObject *object)
   g_clear_pointer (&self->frames, g_free);
   g_clear_pointer (&self->line_data, g_array_unref);
   g_clear_pointer (&self->solid_data, g_array_unref);
+  _df_surface_view_points_clear (&self->points);
   G_OBJECT_CLASS (df_surface_view_parent_class)->finalize (object);
 }
 

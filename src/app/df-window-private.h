@@ -15,6 +15,8 @@
 
 G_BEGIN_DECLS
 
+typedef struct _DfWindowData DfWindowData;
+
 typedef enum
 {
   DF_TOOL_LOOK,
@@ -70,6 +72,7 @@ struct _DfWindow
 
   /* owned */
   DfDocument   *document;
+  DfWindowData *data;               /* surfaces from data (df-window-data.c) */
   DfStartup     startup;
   DfTool        tool;
   DfShading     shading;

@@ -5,6 +5,7 @@
 #include <stdio.h>
 
 #include "df-format.h"
+#include "df-window-data.h"
 #include "df-window-private.h"
 
 /* Frames drawn along a loop: enough to see the rotation, few enough to read. */
@@ -224,6 +225,7 @@ sync_surface (DfWindow *self)
     }
   _df_window_sync_legend (self);
   _df_window_tools_surface_changed (self);
+  _df_window_data_sync (self);
 }
 
 void
@@ -354,6 +356,12 @@ spec_changed_cb (DfSurfacePanel *panel,
   g_autoptr(GError) error = NULL;
   guint carried = 0, off = 0;
 
+  /* A surface from data is fitted on a worker thread (df-window-data.c). */
+  if (df_surface_panel_get_spec (panel)->data_key != NULL)
+    {
+      _df_window_data_fit (self, df_surface_panel_get_spec (panel));
+      return;
+    }
   if (!df_document_set_spec (self->document, df_surface_panel_get_spec (panel), &error))
     {
       df_surface_panel_show_error (panel, error);

@@ -2,6 +2,7 @@
  * (what to open first, one-shot exports and benchmark), and closing with unsaved changes.
  * Actions are in df-window-actions.c, files in df-window-files.c, remembered state in
  * df-window-state.c, document-to-view sync in df-window-sync.c, tools in df-window-tools.c. */
+#include "df-window-data.h"
 #include "df-window-private.h"
 
 #include <stdio.h>
@@ -31,6 +32,7 @@ void
 df_startup_clear (DfStartup *startup)
 {
   g_clear_pointer (&startup->file, g_free);
+  g_clear_pointer (&startup->import_data, g_free);
   g_clear_pointer (&startup->preset, g_free);
   g_clear_pointer (&startup->tool, g_free);
   g_clear_pointer (&startup->view, g_free);
@@ -190,6 +192,7 @@ df_window_dispose (GObject *object)
       g_signal_handlers_disconnect_by_data (df_document_get_loops (self->document), self);
     }
   _df_window_tools_finalize (self);
+  _df_window_data_finalize (self);
   /* Only a window that is torn down cleanly gets here: a crash or a kill leaves the autosave
    * for the next start. */
   _df_window_autosave_finish (self);
@@ -268,6 +271,7 @@ df_window_class_init (DfWindowClass *klass)
                                              G_STRUCT_OFFSET (DfWindow, recent_menu));
 
   _df_window_actions_class_init (widget_class);
+  _df_window_data_class_init (widget_class);
 }
 
 static void
@@ -285,6 +289,7 @@ df_window_init (DfWindow *self)
 
   _df_window_sync_init (self);
   _df_window_tools_init (self);
+  _df_window_data_init (self);
   _df_window_actions_update (self);
   /* The menus read these actions' states while the template was built, before the fields
    * above were set: tell them, or the colouring radio and the iso-lines check start wrong. */
@@ -416,6 +421,7 @@ df_window_start (DfWindow        *self,
 
   df_startup_clear (&self->startup);
   self->startup.file = g_strdup (startup->file);
+  self->startup.import_data = g_strdup (startup->import_data);
   self->startup.demo = startup->demo;
   self->startup.preset = g_strdup (startup->preset);
   self->startup.tool = g_strdup (startup->tool);
@@ -426,6 +432,7 @@ df_window_start (DfWindow        *self,
   self->startup.export_png = g_strdup (startup->export_png);
   self->startup.export_report = g_strdup (startup->export_report);
   self->startup.bench_orbit = startup->bench_orbit;
+  self->startup.bench_mesh = startup->bench_mesh;
   self->startup.report_view = startup->report_view;
   self->startup.report_events = startup->report_events;
   self->exports_pending = is_one_shot (self) && !startup->bench_orbit;
@@ -480,6 +487,11 @@ df_window_start (DfWindow        *self,
     }
   if (!opened || df_document_get_surface (self->document) == NULL)
     open_demo_or_preset (self, "sphere");
+  /* Data are fitted over the surface the window opened with, which stays if they fail. */
+  if (startup->import_data != NULL)
+    _df_window_data_take_file (self, startup->import_data, TRUE);
+  else if (startup->bench_mesh)
+    _df_window_data_bench_mesh (self);
 
   if (startup->tool != NULL)
     {

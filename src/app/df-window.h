@@ -11,6 +11,7 @@ G_BEGIN_DECLS
 typedef struct
 {
   char    *file;            /* .dfproj or .surface to open */
+  char    *import_data;     /* measured data or a mesh to fit once the window is up */
   gboolean demo;            /* open the demo project */
   char    *preset;          /* start from this preset */
   char    *tool;            /* look, sketch, probe, geodesic, paths */
@@ -21,6 +22,7 @@ typedef struct
   char    *export_png;      /* export the view once everything is drawn, then quit */
   char    *export_report;   /* write the PDF design record once everything is drawn, then quit */
   gboolean bench_orbit;     /* print orbit frame times, then quit */
+  gboolean bench_mesh;      /* print display-mesh build times (after --import-data), then quit */
   gboolean report_view;     /* print the view's place in the window (for test drivers) */
   gboolean report_events;   /* print measurements, autosaves and restores (for test drivers) */
 } DfStartup;

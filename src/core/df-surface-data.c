@@ -344,3 +344,61 @@ _df_surface_spec_read_data_keys (GKeyFile *key_file, const char *source, df_surf
          && read_placement_key (key_file, source, "placement-offset",
                                 &spec->placement_offset_text, error);
 }
+
+/* The data points as fitted (placement applied), for showing them over the fit. */
+gboolean
+df_surface_spec_read_data_points (const df_surface_spec *spec, double (**xyz)[3], gsize *n,
+                                  GError **error)
+{
+  static const char *const rz[] = { "r", "z" };
+  static const char *const cols[] = { "x", "y", "z" };
+  gboolean rev = spec->kind == DF_SURFACE_REVOLUTION;
+  g_autofree char *path = df_surface_spec_data_file (spec);
+  g_autofree double *v = NULL;
+  double rot[3][3], offset[3];
+  gsize m = 0;
+
+  *xyz = NULL;
+  *n = 0;
+  if (path == NULL)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "the surface has no data file");
+      return FALSE;
+    }
+  if (!placement_of (spec, rot, offset, error))
+    return FALSE;
+  if (g_strcmp0 (spec->data_key, "mesh") == 0)
+    {
+      df_mesh_data mesh = { 0 };
+
+      if (!df_mesh_data_read (path, &mesh, error))
+        return FALSE;
+      place_points (mesh.vertices, mesh.n_vertices, (const double (*)[3]) rot, offset);
+      *xyz = g_steal_pointer (&mesh.vertices);
+      *n = mesh.n_vertices;
+      df_mesh_data_clear (&mesh);
+      return TRUE;
+    }
+  if (!df_data_csv_read (path, rev ? rz : cols, rev ? 2 : 3, &v, &m, NULL, error))
+    return FALSE;
+  if (rev)
+    {
+      double (*p)[3] = g_malloc_n (MAX (m, 1), sizeof (double[3]));
+
+      /* A profile point (r, z) lies in the half-plane phi = 0. */
+      for (gsize i = 0; i < m; i++)
+        {
+          p[i][0] = v[2 * i];
+          p[i][1] = 0;
+          p[i][2] = v[2 * i + 1];
+        }
+      *xyz = p;
+    }
+  else
+    {
+      place_points ((double (*)[3]) v, m, (const double (*)[3]) rot, offset);
+      *xyz = (double (*)[3]) g_steal_pointer (&v);
+    }
+  *n = m;
+  return TRUE;
+}

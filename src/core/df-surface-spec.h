@@ -67,6 +67,12 @@ df_surface_spec *df_surface_spec_new_data       (df_surface_type kind, const cha
                                                  const char *fit_tolerance_text);
 /* The data file's path as opened (base_dir applied; g_free), or NULL for formulas. */
 char            *df_surface_spec_data_file      (const df_surface_spec *spec);
+/* The data points of a surface from data as they are fitted (placement applied; a profile's
+ * (r, z) as (r, 0, z); a mesh's vertices), *n of them (g_free), in file order. Errors as the
+ * build's reader: the file and the line. */
+gboolean         df_surface_spec_read_data_points (const df_surface_spec *spec,
+                                                   double (**xyz)[3], gsize *n,
+                                                   GError **error);
 
 df_surface_spec *df_surface_spec_new_revolution (const char *r_text, const char *z_text,
                                                  const char *t_min_text, const char *t_max_text);
