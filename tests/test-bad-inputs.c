@@ -93,6 +93,8 @@ static const bad_input cases[] = {
     "probe --surface s.surface --at 0.1,0.1", 2, { "s.surface", "p1000", "more than 1000 parameters", NULL } },
   { "surface-bom-accepted", "s.surface", "\xef\xbb\xbf[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n", sizeof ("\xef\xbb\xbf[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n") - 1,
     "probe --surface s.surface --at 0.1,0.1", 0, { "Gaussian", NULL } },
+  { "project-patch-size", "p.dfproj", "[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n[limits]\npatch-size=-2\n", sizeof ("[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n[limits]\npatch-size=-2\n") - 1,
+    "check --project p.dfproj", 2, { "p.dfproj", "[limits] patch-size", "is not a positive length", NULL } },
   { "project-empty-u", "p.dfproj", "[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n[loop 1]\nu=\nv=\n", sizeof ("[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n[loop 1]\nu=\nv=\n") - 1,
     "report --project p.dfproj", 2, { "p.dfproj", "[loop 1] u", "no values", NULL } },
   { "project-count-mismatch", "p.dfproj", "[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n[loop 1]\nu=1;1;1.5\nv=0;1\n", sizeof ("[surface]\nkind=revolution\nr=R*sin(t)\nz=R*cos(t)\nt-min=0\nt-max=pi\n[parameters]\nR=100\n[loop 1]\nu=1;1;1.5\nv=0;1\n") - 1,

@@ -52,6 +52,45 @@ write_latitude (const char *name, double theta)
   return write_tmp (name, text->str);
 }
 
+/* The same latitude circle of a sphere of radius R = 50 mm measured in mm and in m: length
+ * 2 pi R sin(theta) and cap area 2 pi R^2 (1 - cos(theta)) (Archimedes' hat-box theorem) in each
+ * unit, so 1000 and 1e6 apart; the holonomy identical (an angle). */
+static void
+test_measure_units (void)
+{
+  const double theta = 0.9, R = 50.0;
+  g_autofree char *loop = write_latitude ("latitude-units.csv", theta);
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  g_auto (cli_run) bad = { 0 };
+  JsonObject *a, *b;
+
+  run_cli (&mm, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+           NULL);
+  run_cli (&m, "measure", "--preset", "sphere", "--param", "R=50", "--loop", loop, "--json",
+           "--units", "m", NULL);
+  g_assert_cmpint (mm.status, ==, 0);
+  g_assert_cmpint (m.status, ==, 0);
+  a = parse_object (p1, mm.out);
+  b = parse_object (p2, m.out);
+  g_assert_cmpstr (json_object_get_string_member (a, "units"), ==, "mm");
+  g_assert_cmpstr (json_object_get_string_member (b, "units"), ==, "m");
+  g_assert_cmpstr (json_object_get_string_member (b, "curvature_units"), ==, "1/m^2");
+  df_assert_close (get_number (a, "length"), 2 * G_PI * R * sin (theta), 1e-9, 0.0);
+  df_assert_close (get_number (b, "length"), 2 * G_PI * R * sin (theta) / 1000, 1e-9, 0.0);
+  df_assert_close (get_number (a, "area"), 2 * G_PI * R * R * (1 - cos (theta)), 1e-9, 0.0);
+  df_assert_close (get_number (b, "area"), 2 * G_PI * R * R * (1 - cos (theta)) / 1e6, 1e-9,
+                   0.0);
+  /* The steering radius R tan(theta) (k_g = cot(theta) / R, do Carmo, from memory). */
+  df_assert_close (get_number (b, "min_steering_radius"), R * tan (theta) / 1000, 1e-6, 0.0);
+  g_assert_cmpfloat (get_number (a, "holonomy_rad"), ==, get_number (b, "holonomy_rad"));
+  run_cli (&bad, "measure", "--preset", "sphere", "--loop", loop, "--units", "ft", NULL);
+  g_assert_cmpint (bad.status, ==, 2);
+  g_assert_nonnull (strstr (bad.err, "--units: unknown unit 'ft'"));
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -729,6 +768,7 @@ main (int argc, char **argv)
   g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
 
   g_test_add_func ("/cli/measure/sphere-latitude", test_measure_sphere);
+  g_test_add_func ("/cli/measure/units", test_measure_units);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);

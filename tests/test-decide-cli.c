@@ -6,6 +6,7 @@
 
 #include <glib/gstdio.h>
 #include <json-glib/json-glib.h>
+#include <cairo.h>
 
 #include "df-glib.h"
 #include "df-test.h"
@@ -116,6 +117,68 @@ test_check_units (void)
                      / 1000.0, 1e-14, 0.0);
 }
 
+/* A project with no loop: a geodesic on the frustum r = 50 + t drifts from its 70 deg start
+ * heading (Clairaut: r sin(psi) constant, do Carmo sec. 4-4, from memory) beyond 3 deg, while
+ * a meridian path (a geodesic of a surface of revolution, k_g = 0, do Carmo from memory) stays
+ * within: exit 3 from the geodesic alone, its JSON verdict of kind "geodesic". */
+static void
+test_check_geodesic_only (void)
+{
+  g_autofree char *path = write_tmp ("geo.dfproj",
+                                     "[surface]\nkind=revolution\nr=50 + t\nz=-t\nt-min=0\n"
+                                     "t-max=300\nunits=mm\n[limits]\nmax-fibre-deviation-deg=3\n"
+                                     "max-fibre-deviation-deg-source=test\n"
+                                     "[geodesic 1]\nname=Wind\nstart=20;0\nheading-deg=70\n"
+                                     "length=150\n[paths 1]\nname=Meridians\n"
+                                     "a-u=10;40;80;120\na-v=0;0;0;0\nb-u=10;40;80;120\n"
+                                     "b-v=0.5;0.5;0.5;0.5\n");
+  g_autofree char *within = write_tmp ("geo-within.dfproj",
+                                       "[surface]\nkind=revolution\nr=50 + t\nz=-t\nt-min=0\n"
+                                       "t-max=300\nunits=mm\n[limits]\n"
+                                       "max-fibre-deviation-deg=3\n"
+                                       "[paths 1]\nname=Meridians\n"
+                                       "a-u=10;40;80;120\na-v=0;0;0;0\nb-u=10;40;80;120\n"
+                                       "b-v=0.5;0.5;0.5;0.5\n");
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) r2 = { 0 };
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  JsonArray *verdicts;
+  guint n_geo = 0, n_path = 0;
+
+  run_cli (&r, "check", "--project", path, "--json", NULL);
+  g_assert_cmpint (r.status, ==, 3);
+  verdicts = json_object_get_array_member (parse_object (parser, r.out), "verdicts");
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+      const char *kind = json_object_get_string_member (v, "kind");
+
+      if (g_str_equal (kind, "geodesic"))
+        {
+          n_geo++;
+          g_assert_cmpstr (json_object_get_string_member (v, "loop"), ==, "Wind");
+          g_assert_false (json_object_get_boolean_member (v, "within"));
+          g_assert_cmpfloat (json_object_get_double_member (v, "value"), >, 3.0);
+          g_assert_cmpuint (json_array_get_length (json_object_get_array_member (v, "where")),
+                            ==, 2);
+        }
+      else
+        {
+          g_assert_cmpstr (kind, ==, "path");
+          n_path++;
+          g_assert_cmpstr (json_object_get_string_member (v, "loop"), ==, "Meridians");
+          g_assert_true (json_object_get_boolean_member (v, "within"));
+          g_assert_cmpfloat (json_object_get_double_member (v, "value"), <, 1e-6);
+        }
+    }
+  g_assert_cmpuint (n_geo, ==, 1);
+  g_assert_cmpuint (n_path, ==, 2);
+  /* Without the geodesic everything is within: exit 0. */
+  run_cli (&r2, "check", "--project", within, NULL);
+  g_assert_cmpint (r2.status, ==, 0);
+  g_assert_nonnull (strstr (r2.out, "Path Meridians route A"));
+}
+
 static void
 test_check_bad (void)
 {
@@ -203,6 +266,54 @@ test_devmap_cli (void)
   g_assert_true (g_file_test (csv, G_FILE_TEST_EXISTS));
 }
 
+/* devmap --png: a PNG of the size asked for, the lamp shade's positive curvature drawn warm
+ * (K > 0: the rim of a flat disc must shrink, strain > 0) in more than a few colours, and grey
+ * only where no disc fits. Read back with cairo's own PNG reader. */
+static void
+test_devmap_png (void)
+{
+  g_autofree char *png = tmp_path ("map.png");
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) bad = { 0 };
+  cairo_surface_t *img;
+  g_autoptr (GHashTable) colours = g_hash_table_new (NULL, NULL);
+  guint warm = 0, cool = 0;
+  int w, h, stride;
+  const guint8 *data;
+
+  run_cli (&r, "devmap", "--surface", DF_EXAMPLES_DIR "/lamp-shade.surface", "--radius", "20",
+           "--grid", "12,12", "--max-strain-percent", "0.3", "--png", png, "--png-size",
+           "600,450", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  img = cairo_image_surface_create_from_png (png);
+  g_assert_cmpint (cairo_surface_status (img), ==, CAIRO_STATUS_SUCCESS);
+  w = cairo_image_surface_get_width (img);
+  h = cairo_image_surface_get_height (img);
+  g_assert_cmpint (w, ==, 600);
+  g_assert_cmpint (h, ==, 450);
+  data = cairo_image_surface_get_data (img);
+  stride = cairo_image_surface_get_stride (img);
+  for (int y = 0; y < h; y++)
+    for (int x = 0; x < w; x++)
+      {
+        guint32 px = *(const guint32 *) (data + y * stride + 4 * x) & 0xffffff;
+        int red = (px >> 16) & 0xff, blue = px & 0xff;
+
+        g_hash_table_add (colours, GUINT_TO_POINTER (px));
+        warm += red > blue + 40;
+        cool += blue > red + 40;
+      }
+  cairo_surface_destroy (img);
+  g_assert_cmpuint (g_hash_table_size (colours), >, 200);
+  /* Most of the surface is warm; the only cool pixels are the legend's negative half. */
+  g_assert_cmpuint (warm, >, 20 * cool);
+  g_assert_cmpuint (warm, >, (guint) (w * h / 10));
+  run_cli (&bad, "devmap", "--preset", "sphere", "--radius", "5", "--grid", "4,4", "--png",
+           png, "--png-size", "10,10", NULL);
+  g_assert_cmpint (bad.status, ==, 2);
+  g_assert_nonnull (strstr (bad.err, "--png-size"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -214,10 +325,12 @@ main (int argc, char **argv)
   g_test_add_func ("/decide-cli/check-demo", test_check_demo);
   g_test_add_func ("/decide-cli/check-within", test_check_within);
   g_test_add_func ("/decide-cli/check-units", test_check_units);
+  g_test_add_func ("/decide-cli/check-geodesic-only", test_check_geodesic_only);
   g_test_add_func ("/decide-cli/check-bad", test_check_bad);
   g_test_add_func ("/decide-cli/gores", test_gores_cli);
   g_test_add_func ("/decide-cli/gores-bad", test_gores_bad);
   g_test_add_func ("/decide-cli/devmap", test_devmap_cli);
+  g_test_add_func ("/decide-cli/devmap-png", test_devmap_png);
   code = g_test_run ();
   {
     g_autoptr (GDir) d = g_dir_open (tmp_dir, 0, NULL);

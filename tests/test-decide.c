@@ -13,6 +13,9 @@
 #include "df-test.h"
 #include "df-units.h"
 #include "df-verdict.h"
+#include "df-verdict-curves.h"
+#include "df-verdict-region.h"
+#include "df-units-convert.h"
 
 #define R_SPHERE 100.0
 
@@ -230,6 +233,168 @@ test_verdict_latitude (void)
   /* cot(0.5) = 1.83 < 2.5: within. */
   g_assert_true (list.items[1].within);
   df_assert_close (list.items[1].value, 1.0 / tan (theta), 1e-5, 0.0);
+  df_verdict_list_clear (&list);
+}
+
+/* A sphere of R = 100 mm measured, then shown in m: K = 1/R^2 at every sample is 1e-4 / mm^2 and
+ * 100 / m^2 (a factor 1e-6 between them), k_g = cot(theta)/R (do Carmo, from memory) 1000 times
+ * larger per m, lengths 1000 times smaller, the holonomy untouched. */
+static void
+test_units_convert_loop (void)
+{
+  g_autoptr (df_surface) s = sphere ();
+  const double theta = 0.6;
+  double uv[48][2];
+  g_autoptr (df_curve) c = NULL;
+  g_auto (df_loop_result) r = { 0 };
+  double hol, len;
+
+  for (int i = 0; i < 48; i++)
+    {
+      uv[i][0] = theta;
+      uv[i][1] = -G_PI + 2.0 * G_PI * i / 48.0;
+    }
+  c = df_test_curve (s, (const double (*)[2]) uv, 48, true);
+  df_test_measure (c, &r);
+  hol = r.holonomy_rad;
+  len = r.length;
+  df_assert_close (r.samples[5].K, 1e-4, 1e-9, 0.0);
+  df_loop_result_convert (&r, DF_UNIT_MM, DF_UNIT_M);
+  df_assert_close (r.samples[5].K, 1.0 / (0.1 * 0.1), 1e-9, 0.0);
+  df_assert_close (r.samples[5].k_g, 1.0 / (tan (theta) * 0.1), 1e-6, 0.0);
+  df_assert_close (r.length, len / 1000, 1e-15, 0.0);
+  df_assert_close (r.samples[5].point[2], 0.1 * cos (theta), 1e-12, 0.0);
+  g_assert_cmpfloat (r.holonomy_rad, ==, hol);
+}
+
+/* An open latitude arc at polar angle theta of a sphere: k_g = cot(theta) / R (do Carmo,
+ * from memory), so a fibre started along it and carried parallel falls behind its tangent by
+ * cot(theta) s / R = cos(theta) phi: the path's fibre deviation at the arc's end, and the
+ * stretch beyond a limit d starts at s0 = R tan(theta) d (d in radians). */
+static void
+test_verdict_path_latitude (void)
+{
+  g_autoptr (df_surface) s = sphere ();
+  const double theta = 0.8, dphi = 1.2, d_deg = 10.0;
+  double uv[41][2], length = 0.0;
+  g_autoptr (df_curve) c = NULL;
+  g_autoptr (df_limits) lim = df_limits_new ();
+  df_verdict_list list = { 0 };
+
+  for (int i = 0; i <= 40; i++)
+    {
+      uv[i][0] = theta;
+      uv[i][1] = dphi * i / 40.0;
+    }
+  c = df_test_curve (s, (const double (*)[2]) uv, 41, false);
+  df_limits_set (lim, DF_LIMIT_MIN_STEERING_RADIUS, 50.0, false, DF_UNIT_MM, NULL);
+  df_limits_set (lim, DF_LIMIT_MAX_FIBRE_DEVIATION, d_deg, false, DF_UNIT_MM, NULL);
+  g_assert_cmpint (df_verdicts_path (c, 400, lim, &list, &length, NULL), ==, DF_OK);
+  g_assert_cmpint (list.kind, ==, DF_VERDICT_PATH);
+  g_assert_cmpstr (df_verdict_curve_name (list.kind), ==, "path");
+  df_assert_close (length, R_SPHERE * sin (theta) * dphi, 1e-9, 0.0);
+  g_assert_cmpuint (list.n, ==, 2);
+  /* R tan(0.8) = 102.96 > 50: within, the radius exact on the arc. */
+  g_assert_true (list.items[0].within);
+  df_assert_close (list.items[0].value, R_SPHERE * tan (theta), 1e-6, 0.0);
+  g_assert_false (list.items[1].within);
+  g_assert_cmpint (list.items[1].limit, ==, DF_LIMIT_MAX_FIBRE_DEVIATION);
+  df_assert_close (list.items[1].value, cos (theta) * dphi * 180.0 / G_PI, 1e-6, 0.0);
+  df_assert_close (list.items[1].s0, R_SPHERE * tan (theta) * d_deg * G_PI / 180.0, 1e-3, 0.0);
+  df_assert_close (list.items[1].s1, length, 1e-12, 0.0);
+  df_assert_close (list.items[1].s_worst, length, 1e-12, 0.0);
+  df_verdict_list_clear (&list);
+}
+
+/* A geodesic's deviation from its start heading against the meridians (X_u). Clairaut's
+ * relation (do Carmo sec. 4-4, from memory): r sin(psi) is constant along a geodesic of a
+ * surface of revolution, psi its angle from the meridian. On a cylinder r is constant: the
+ * geodesic (a helix) keeps its heading, no deviation. On the frustum r = 50 + t it drifts to
+ * asin(r0 sin(psi0) / r). */
+static void
+test_verdict_geodesic_clairaut (void)
+{
+  g_autoptr (df_surface) cyl = df_test_revolution ("40", "-t", 0.0, 300.0);
+  g_autoptr (df_surface) cone = df_test_revolution ("50 + t", "-t", 0.0, 300.0);
+  g_autoptr (df_limits) lim = df_limits_new ();
+  df_geodesic_result g = { 0 };
+  df_verdict_list list = { 0 };
+  const double psi0 = 70.0 * G_PI / 180.0;
+  double r_end, worst = 0.0;
+
+  df_limits_set (lim, DF_LIMIT_MAX_FIBRE_DEVIATION, 3.0, false, DF_UNIT_MM, NULL);
+  df_limits_set (lim, DF_LIMIT_FRICTION, 0.1, false, DF_UNIT_MM, NULL);
+  g_assert_cmpint (df_geodesic_shoot (cyl, 20.0, 0.0, psi0, 200.0, 400, &g, NULL), ==, DF_OK);
+  g_assert_cmpint (df_verdicts_geodesic (cyl, &g, psi0, lim, &list, NULL), ==, DF_OK);
+  g_assert_cmpint (list.kind, ==, DF_VERDICT_GEODESIC);
+  g_assert_cmpuint (list.n, ==, 2);
+  g_assert_true (list.items[0].within);
+  g_assert_cmpfloat (list.items[0].value, <, 1e-7);
+  /* k_g = 0 on a geodesic: the friction verdict holds by construction. */
+  g_assert_true (list.items[1].exact);
+  g_assert_cmpfloat (list.items[1].value, ==, 0.0);
+  df_verdict_list_clear (&list);
+  df_geodesic_result_clear (&g);
+
+  g_assert_cmpint (df_geodesic_shoot (cone, 20.0, 0.0, psi0, 150.0, 400, &g, NULL), ==, DF_OK);
+  g_assert_cmpint (df_verdicts_geodesic (cone, &g, psi0, lim, &list, NULL), ==, DF_OK);
+  for (size_t i = 0; i < g.n_samples; i++)
+    {
+      double r = hypot (g.samples[i].point[0], g.samples[i].point[1]);
+
+      worst = fmax (worst, fabs (psi0 - asin (70.0 * sin (psi0) / r)));
+    }
+  r_end = hypot (g.samples[g.n_samples - 1].point[0], g.samples[g.n_samples - 1].point[1]);
+  g_assert_cmpfloat (r_end, >, 80.0);
+  g_assert_false (list.items[0].within);
+  df_assert_close (list.items[0].value, worst * 180.0 / G_PI, 1e-6, 0.0);
+  g_assert_true (list.items[0].has_where);
+  df_verdict_list_clear (&list);
+  df_geodesic_result_clear (&g);
+}
+
+/* max-strain-percent over a loop's region on a sphere: every geodesic circle of radius a has
+ * circumference 2 pi R sin(a/R) (Bertrand-Diguet-Puiseux; do Carmo sec. 4-6, from memory), so
+ * the rim strain is 1 - sin(a/R)/(a/R) (about K a^2 / 6) wherever the disc lies. Without
+ * patch-size, or on a loop that bounds no disc, it is not checked and says why. */
+static void
+test_verdict_strain_sphere (void)
+{
+  g_autoptr (df_surface) s = sphere ();
+  g_autoptr (df_limits) lim = df_limits_new ();
+  g_autoptr (df_curve) c = NULL;
+  g_auto (df_loop_result) r = { 0 };
+  df_verdict_list list = { 0 };
+  double uv[48][2];
+  const double a = 15.0, x = a / R_SPHERE;
+  bool checked = true;
+  char note[240];
+
+  for (int i = 0; i < 48; i++)
+    {
+      uv[i][0] = G_PI / 2 + 0.4 * cos (2 * G_PI * i / 48);
+      uv[i][1] = 0.4 * sin (2 * G_PI * i / 48);
+    }
+  c = df_test_curve (s, (const double (*)[2]) uv, 48, true);
+  df_test_measure (c, &r);
+  df_limits_set (lim, DF_LIMIT_MAX_STRAIN, 0.2, false, DF_UNIT_MM, "test");
+  g_assert_cmpint (df_verdict_strain (c, &r, lim, 0, NULL, &list, &checked, note, sizeof note,
+                                      NULL), ==, DF_OK);
+  g_assert_false (checked);
+  g_assert_nonnull (strstr (note, "patch-size"));
+  g_assert_cmpuint (list.n, ==, 0);
+  lim->patch_size = (df_length_setting) { .set = true, .value = a, .model_value = a };
+  g_assert_cmpint (df_verdict_strain (c, &r, lim, 5, NULL, &list, &checked, note, sizeof note,
+                                      NULL), ==, DF_OK);
+  g_assert_true (checked);
+  g_assert_cmpuint (list.n, ==, 1);
+  g_assert_true (list.items[0].region);
+  g_assert_false (list.items[0].has_where);
+  df_assert_close (list.items[0].value, 100 * (1 - sin (x) / x), 1e-5, 0.0);
+  g_assert_cmpfloat (list.items[0].signed_value, >, 0.0);
+  /* 1 - sin(0.15)/0.15 = 0.374 % > 0.2 %. */
+  g_assert_false (list.items[0].within);
+  g_assert_cmpuint (list.n_exceeded, ==, 1);
   df_verdict_list_clear (&list);
 }
 
@@ -522,10 +687,12 @@ test_limits_file (void)
     { "[limits]\nspeed=3\n", "[limits] unknown key 'speed'" },
     { "[units]\nlength=ft\n", "[units] length: unknown unit 'ft'" },
     { "[units]\ncurvature=1/ft^2\n", "[units] curvature: '1/ft^2' is not one of" },
+    { "[limits]\npatch-size=-2\n", "[limits] patch-size: '-2' is not a positive length" },
+    { "[limits]\npatch-size=2 ft\n", "[limits] patch-size: unknown unit 'ft'" },
   };
 
   p = project_with ("[limits]\nmin-steering-radius=0.025 m\nmin-steering-radius-source=Trial "
-                    "T-7, 2026\ntow-width=0.25 in\nfriction=0.2\n[units]\nlength=in\n"
+                    "T-7, 2026\ntow-width=0.25 in\nfriction=0.2\npatch-size=2 cm\n[units]\nlength=in\n"
                     "curvature=1/m^2\n", &error);
   g_assert_no_error (error);
   g_assert_true (p->limits->item[DF_LIMIT_MIN_STEERING_RADIUS].set);
@@ -542,6 +709,9 @@ test_limits_file (void)
   g_assert_nonnull (strstr (saved, "min-steering-radius=0.025 m\n"));
   g_assert_nonnull (strstr (saved, "min-steering-radius-source=Trial T-7, 2026\n"));
   g_assert_nonnull (strstr (saved, "curvature=1/m^2\n"));
+  g_assert_nonnull (strstr (saved, "patch-size=2 cm\n"));
+  /* 2 cm in the surface's mm: 20 (10 mm to the cm, by definition). */
+  df_assert_close (p->limits->patch_size.model_value, 20.0, 1e-14, 0.0);
   again = df_project_from_data (saved, "saved.dfproj", &error);
   g_assert_no_error (error);
   df_assert_close (again->limits->item[DF_LIMIT_TOW_WIDTH].model_value, 6.35, 1e-14, 0.0);
@@ -581,6 +751,10 @@ main (int argc, char **argv)
   g_test_add_func ("/decide/helix", test_helix);
   g_test_add_func ("/decide/verdict-ellipse", test_verdict_ellipse);
   g_test_add_func ("/decide/verdict-latitude", test_verdict_latitude);
+  g_test_add_func ("/decide/units-convert-loop", test_units_convert_loop);
+  g_test_add_func ("/decide/verdict-path-latitude", test_verdict_path_latitude);
+  g_test_add_func ("/decide/verdict-geodesic-clairaut", test_verdict_geodesic_clairaut);
+  g_test_add_func ("/decide/verdict-strain-sphere", test_verdict_strain_sphere);
   g_test_add_func ("/decide/sphere-gores", test_sphere_gores);
   g_test_add_func ("/decide/cone-development", test_cone_development);
   g_test_add_func ("/decide/darts-counts", test_darts_counts);

@@ -13,6 +13,8 @@
 #include "df-limits-file.h"
 #include "df-json-out.h"
 #include "df-verdict.h"
+#include "df-verdict-curves.h"
+#include "df-verdict-region.h"
 
 #define NAME "check"
 #define DEFAULT_SAMPLES 2000
@@ -33,7 +35,59 @@ typedef struct
   gboolean        has_darts;
   df_darts        darts;
   int             least_darts;   /* 0 when max-shear-deg is not set */
+  char            strain_note[240];  /* why max-strain-percent was not checked, or "" */
 } loop_check;
+
+/* A geodesic or a path route of the project, checked. */
+typedef struct
+{
+  char           *name;     /* the geodesic's, or "PAIR route A" */
+  df_verdict_list verdicts;
+  double          length;
+  int             route;    /* 0 none (a geodesic), 'a' or 'b' */
+} curve_check;
+
+static gboolean
+check_geodesic (const df_surface *surface, const df_project_geodesic *g, const df_limits *limits,
+                size_t n_samples, curve_check *out, GError **error)
+{
+  df_geodesic_result res = { 0 };
+  df_diag diag;
+  df_status st;
+
+  df_diag_clear (&diag);
+  out->name = g_strdup (g->name);
+  st = df_geodesic_shoot (surface, g->u, g->v, g->heading_deg * G_PI / 180.0, g->length,
+                          n_samples, &res, &diag);
+  if (st == DF_OK)
+    st = df_verdicts_geodesic (surface, &res, g->heading_deg * G_PI / 180.0, limits,
+                               &out->verdicts, &diag);
+  out->length = res.length;
+  df_geodesic_result_clear (&res);
+  if (st != DF_OK)
+    return df_status_to_gerror (st, &diag, error);
+  return TRUE;
+}
+
+static gboolean
+check_route (const df_surface *surface, const df_project_paths *p, int route,
+             const df_limits *limits, size_t n_samples, curve_check *out, GError **error)
+{
+  g_autoptr (df_curve) curve = NULL;
+  df_diag diag;
+  df_status st;
+
+  df_diag_clear (&diag);
+  out->name = g_strdup_printf ("%s route %c", p->name, route == 'a' ? 'A' : 'B');
+  out->route = route;
+  st = df_curve_new_through_points (surface, (const double (*)[2]) (route == 'a' ? p->a : p->b),
+                                    route == 'a' ? p->n_a : p->n_b, false, &curve, &diag);
+  if (st == DF_OK)
+    st = df_verdicts_path (curve, n_samples, limits, &out->verdicts, &out->length, &diag);
+  if (st != DF_OK)
+    return df_status_to_gerror (st, &diag, error);
+  return TRUE;
+}
 
 static gboolean
 check_loop (const df_surface *surface, const df_project_loop *loop, const df_limits *limits,
@@ -54,6 +108,13 @@ check_loop (const df_surface *surface, const df_project_loop *loop, const df_lim
   if (st == DF_OK)
     st = df_verdicts_measure (curve, out->result.samples, out->result.n_samples,
                               out->result.length, limits, &out->verdicts, &diag);
+  if (st == DF_OK)
+    {
+      bool checked;
+
+      st = df_verdict_strain (curve, &out->result, limits, 0, NULL, &out->verdicts, &checked,
+                              out->strain_note, sizeof out->strain_note, &diag);
+    }
   if (st == DF_OK && out->result.bounds_disc && out->result.area > 0.0)
     {
       st = df_darts_compute (out->result.enclosed_curvature_rad, out->result.area, 1,
@@ -97,14 +158,64 @@ quantity_name (df_limit_id id)
       return "fibre deviation";
     case DF_LIMIT_FRICTION:
       return "|k_g/k_n|";
+    case DF_LIMIT_MAX_STRAIN:
+      return "rim strain";
     default:
       return df_limit_key (id);
     }
 }
 
+/* The lines of one curve's verdicts; returns how many are exceeded. */
+static guint
+print_verdicts (const df_verdict_list *list, const df_limits *limits,
+                const df_display_units *du, const char *un, const char *vn)
+{
+  const char *ln = df_unit_name (du->length);
+  guint exceeded = 0;
+
+  for (size_t k = 0; k < list->n; k++)
+    {
+      const df_verdict *v = &list->items[k];
+      double value, threshold;
+      const char *units = display (v, du, &value, &threshold);
+      char b1[40], b2[40], b3[40], b4[40], b5[40];
+
+      printf ("  %-8s %s %s%s%s (limit %s %s)", v->within ? "within" : "EXCEEDED",
+              quantity_name (v->limit),
+              v->has_value ? df_cli_num (b1, sizeof b1, value, 5) : "unbounded",
+              *units && v->has_value ? " " : "", v->has_value ? units : "", df_cli_num (b2, sizeof b2, threshold, 5), units);
+      if (v->exact)
+        printf (" (a geodesic: k_g = 0)");
+      if (v->region)
+        printf (" over the enclosed region, flat discs of radius %s %s; worst at (%s = %s, "
+                "%s = %s), the flat rim must %s",
+                df_cli_num (b3, sizeof b3, df_unit_length (limits->patch_size.model_value,
+                                                           du->model, du->length), 5), ln,
+                un, df_cli_num (b1, sizeof b1, v->u_worst, 6), vn,
+                df_cli_num (b2, sizeof b2, v->v_worst, 6),
+                v->signed_value >= 0 ? "shrink" : "stretch");
+      if (v->has_where)
+        printf (" from s = %s to %s %s%s, worst at s = %s (%s = %s, %s = %s)",
+                df_cli_num (b3, sizeof b3, df_unit_length (v->s0, du->model, du->length), 6),
+                df_cli_num (b4, sizeof b4, df_unit_length (v->s1, du->model, du->length), 6),
+                ln, v->s0 > v->s1 ? " (through the start)" : "",
+                df_cli_num (b5, sizeof b5, df_unit_length (v->s_worst, du->model,
+                                                           du->length), 6),
+                un, df_cli_num (b1, sizeof b1, v->u_worst, 6), vn,
+                df_cli_num (b2, sizeof b2, v->v_worst, 6));
+      if (v->has_tow)
+        printf ("; tow inner edge compressed about %s %%",
+                df_cli_num (b3, sizeof b3, 100.0 * v->tow_compression, 3));
+      printf ("\n");
+      exceeded += !v->within;
+    }
+  return exceeded;
+}
+
 static void
 print_text (const check_options *o, const df_project *project, const df_surface *surface,
-            const loop_check *checks, const df_display_units *du, gboolean any_limit)
+            const loop_check *checks, const curve_check *curves, guint n_curves,
+            const df_display_units *du, gboolean any_limit)
 {
   const char *ln = df_unit_name (du->length), *un, *vn;
   guint exceeded = 0;
@@ -129,36 +240,14 @@ print_text (const check_options *o, const df_project *project, const df_surface 
     {
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);
       const loop_check *c = &checks[i];
-      char b1[40], b2[40], b3[40], b4[40], b5[40];
+      char b1[40], b2[40], b3[40];
 
       printf ("%s (length %s %s)\n", loop->name,
               df_cli_num (b1, sizeof b1, df_unit_length (c->result.length, du->model,
                                                          du->length), 7), ln);
-      for (size_t k = 0; k < c->verdicts.n; k++)
-        {
-          const df_verdict *v = &c->verdicts.items[k];
-          double value, threshold;
-          const char *units = display (v, du, &value, &threshold);
-
-          printf ("  %-8s %s %s%s%s (limit %s %s)", v->within ? "within" : "EXCEEDED",
-                  quantity_name (v->limit),
-                  v->has_value ? df_cli_num (b1, sizeof b1, value, 5) : "unbounded",
-                  *units ? " " : "", units, df_cli_num (b2, sizeof b2, threshold, 5), units);
-          if (v->has_where)
-            printf (" from s = %s to %s %s%s, worst at s = %s (%s = %s, %s = %s)",
-                    df_cli_num (b3, sizeof b3, df_unit_length (v->s0, du->model, du->length), 6),
-                    df_cli_num (b4, sizeof b4, df_unit_length (v->s1, du->model, du->length), 6),
-                    ln, v->s0 > v->s1 ? " (through the start)" : "",
-                    df_cli_num (b5, sizeof b5, df_unit_length (v->s_worst, du->model,
-                                                               du->length), 6),
-                    un, df_cli_num (b1, sizeof b1, v->u_worst, 6), vn,
-                    df_cli_num (b2, sizeof b2, v->v_worst, 6));
-          if (v->has_tow)
-            printf ("; tow inner edge compressed about %s %%",
-                    df_cli_num (b3, sizeof b3, 100.0 * v->tow_compression, 3));
-          printf ("\n");
-          exceeded += !v->within;
-        }
+      exceeded += print_verdicts (&c->verdicts, project->limits, du, un, vn);
+      if (c->strain_note[0] != '\0')
+        printf ("  not checked: max-strain-percent: %s\n", c->strain_note);
       if (c->has_darts)
         {
           printf ("  darts    enclosed curvature %s deg: one %s of that angle",
@@ -173,14 +262,27 @@ print_text (const check_options *o, const df_project *project, const df_surface 
                                                              du->length), 4), ln);
         }
     }
+  for (guint i = 0; i < n_curves; i++)
+    {
+      char b1[40];
+
+      printf ("%s %s (length %s %s)\n", curves[i].route ? "Path" : "Geodesic", curves[i].name,
+              df_cli_num (b1, sizeof b1, df_unit_length (curves[i].length, du->model,
+                                                         du->length), 7), ln);
+      if (curves[i].verdicts.kind == DF_VERDICT_GEODESIC && curves[i].verdicts.n > 0)
+        printf ("  (fibre deviation of a geodesic: its heading against the u lines, from its "
+                "start heading)\n");
+      exceeded += print_verdicts (&curves[i].verdicts, project->limits, du, un, vn);
+    }
   printf ("\n%s\n", exceeded ? "Some limits are exceeded (exit status 3)."
                              : "Everything is within the limits given.");
   printf ("Caution: %s\n", DF_DECIDE_CAUTION);
 }
 
 static void
-add_verdict (JsonBuilder *b, const char *loop_name, guint index, const df_verdict *v,
-             const df_limits *limits, const df_display_units *du)
+add_verdict (JsonBuilder *b, const char *loop_name, guint index, df_verdict_curve kind,
+             int route, const df_verdict *v, const df_limits *limits,
+             const df_display_units *du)
 {
   double value, threshold;
   const char *units = display (v, du, &value, &threshold);
@@ -189,8 +291,20 @@ add_verdict (JsonBuilder *b, const char *loop_name, guint index, const df_verdic
   json_builder_begin_object (b);
   json_builder_set_member_name (b, "loop");
   json_builder_add_string_value (b, loop_name);
+  json_builder_set_member_name (b, "kind");
+  json_builder_add_string_value (b, df_verdict_curve_name (kind));
+  /* loop_index counts within its kind: [loop N], [geodesic N], [paths N]. */
   json_builder_set_member_name (b, "loop_index");
   json_builder_add_int_value (b, index + 1);
+  if (route != 0)
+    {
+      json_builder_set_member_name (b, "route");
+      json_builder_add_string_value (b, route == 'a' ? "a" : "b");
+    }
+  json_builder_set_member_name (b, "region");
+  json_builder_add_boolean_value (b, v->region);
+  json_builder_set_member_name (b, "exact");
+  json_builder_add_boolean_value (b, v->exact);
   json_builder_set_member_name (b, "limit");
   json_builder_add_string_value (b, df_limit_key (v->limit));
   df_json_add_double_or_null (b, "value", v->has_value, value);
@@ -237,7 +351,8 @@ add_verdict (JsonBuilder *b, const char *loop_name, guint index, const df_verdic
 
 static void
 print_json (const check_options *o, const df_project *project, const loop_check *checks,
-            const df_display_units *du, gboolean exceeded)
+            const curve_check *curves, guint n_curves, const df_display_units *du,
+            gboolean exceeded)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -278,7 +393,25 @@ print_json (const check_options *o, const df_project *project, const loop_check 
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);
 
       for (size_t k = 0; k < checks[i].verdicts.n; k++)
-        add_verdict (b, loop->name, i, &checks[i].verdicts.items[k], project->limits, du);
+        add_verdict (b, loop->name, i, DF_VERDICT_LOOP, 0, &checks[i].verdicts.items[k],
+                     project->limits, du);
+    }
+  for (guint i = 0, gi = 0, pi = 0; i < n_curves; i++)
+    {
+      const curve_check *c = &curves[i];
+      gboolean geo = c->verdicts.kind == DF_VERDICT_GEODESIC;
+      const char *name = geo ? ((const df_project_geodesic *) g_ptr_array_index (
+                                   project->extras.geodesics, gi))->name
+                             : ((const df_project_paths *) g_ptr_array_index (
+                                   project->extras.paths, pi))->name;
+
+      for (size_t k = 0; k < c->verdicts.n; k++)
+        add_verdict (b, name, geo ? gi : pi, c->verdicts.kind, c->route, &c->verdicts.items[k],
+                     project->limits, du);
+      if (geo)
+        gi++;
+      else if (c->route == 'b')
+        pi++;
     }
   json_builder_end_array (b);
   json_builder_set_member_name (b, "darts");
@@ -320,6 +453,8 @@ run (check_options *o)
   g_autoptr (df_project) project = NULL;
   g_autoptr (df_surface) surface = NULL;
   g_autofree loop_check *checks = NULL;
+  g_autofree curve_check *curves = NULL;
+  guint n_curves = 0;
   df_display_units du;
   gboolean exceeded = FALSE, any_limit = FALSE;
   int code = DF_CLI_EXIT_OK;
@@ -369,9 +504,9 @@ run (check_options *o)
   for (int i = 0; i < DF_N_LIMITS; i++)
     any_limit = any_limit || project->limits->item[i].set;
   n = project->loops->len;
-  if (n == 0)
-    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: the project has no loops",
-                            o->project_path);
+  if (n == 0 && project->extras.geodesics->len == 0 && project->extras.paths->len == 0)
+    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: the project has no loops, geodesics "
+                            "or paths", o->project_path);
 
   checks = g_new0 (loop_check, n);
   for (guint i = 0; i < n && code == DF_CLI_EXIT_OK; i++)
@@ -385,12 +520,41 @@ run (check_options *o)
         }
       exceeded = exceeded || checks[i].verdicts.n_exceeded > 0;
     }
+  curves = g_new0 (curve_check, project->extras.geodesics->len
+                                   + 2 * project->extras.paths->len + 1);
+  for (guint i = 0; i < project->extras.geodesics->len && code == DF_CLI_EXIT_OK; i++)
+    {
+      const df_project_geodesic *g = g_ptr_array_index (project->extras.geodesics, i);
+
+      if (!check_geodesic (surface, g, project->limits, n_samples, &curves[n_curves++], &error))
+        {
+          g_prefix_error (&error, "%s: [geodesic %u] '%s': ", o->project_path, i + 1, g->name);
+          code = df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+        }
+      exceeded = exceeded || curves[n_curves - 1].verdicts.n_exceeded > 0;
+    }
+  for (guint i = 0; i < project->extras.paths->len && code == DF_CLI_EXIT_OK; i++)
+    {
+      const df_project_paths *p = g_ptr_array_index (project->extras.paths, i);
+
+      for (int r = 'a'; r <= 'b' && code == DF_CLI_EXIT_OK; r++)
+        {
+          if (!check_route (surface, p, r, project->limits, n_samples, &curves[n_curves++],
+                            &error))
+            {
+              g_prefix_error (&error, "%s: [paths %u] '%s' route %c: ", o->project_path, i + 1,
+                              p->name, r);
+              code = df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+            }
+          exceeded = exceeded || curves[n_curves - 1].verdicts.n_exceeded > 0;
+        }
+    }
   if (code == DF_CLI_EXIT_OK)
     {
       if (o->json)
-        print_json (o, project, checks, &du, exceeded);
+        print_json (o, project, checks, curves, n_curves, &du, exceeded);
       else
-        print_text (o, project, surface, checks, &du, any_limit);
+        print_text (o, project, surface, checks, curves, n_curves, &du, any_limit);
       if (exceeded)
         code = DF_CLI_EXIT_EXCEEDED;
     }
@@ -398,6 +562,11 @@ run (check_options *o)
     {
       df_loop_result_clear (&checks[i].result);
       df_verdict_list_clear (&checks[i].verdicts);
+    }
+  for (guint i = 0; i < n_curves; i++)
+    {
+      g_free (curves[i].name);
+      df_verdict_list_clear (&curves[i].verdicts);
     }
   return code;
 }
@@ -424,11 +593,13 @@ df_cli_check (int argc, char **argv)
   };
 
   context = df_cli_context_new (NAME, "check every loop of a project against its limits",
-                                "Checks each loop of the project against the limits in its "
+                                "Checks each loop, geodesic and path route of the project against the limits in its "
                                 "[limits] group (min-steering-radius with tow-width, "
                                 "max-fibre-deviation-deg, friction; max-shear-deg sets the "
                                 "least dart count) and lists every stretch where one is "
-                                "exceeded.\n\nExit status: 0 everything within the limits, 3 a "
+                                "exceeded. A path's fibre deviation is against its start "
+                                "tangent carried parallel; a geodesic's against its start "
+                                "heading held to the u lines (k_g = 0 on a geodesic).\n\nExit status: 0 everything within the limits, 3 a "
                                 "limit is exceeded, 2 bad input.");
   g_option_context_add_main_entries (context, entries, NULL);
   if (!df_cli_parse (context, NAME, &argc, &argv))

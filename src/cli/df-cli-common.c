@@ -271,3 +271,33 @@ df_cli_print_fit (const df_surface *surface, const char *units)
   printf ("         curvature is a second derivative of fitted data: K at a point is noisier "
           "than a loop's holonomy\n");
 }
+
+gboolean
+df_cli_units (const char *units_text, const char *surface_units, int *model, int *display,
+              GError **error)
+{
+  df_unit m, d;
+
+  if (!df_unit_from_name (surface_units, &m))
+    {
+      if (units_text != NULL)
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "--units: the surface's units "
+                       "'%s' are not mm, cm, m or in, so nothing can be converted",
+                       surface_units != NULL ? surface_units : "");
+          return FALSE;
+        }
+      /* An unknown label: numbers stay unconverted. */
+      m = DF_UNIT_MM;
+    }
+  d = m;
+  if (units_text != NULL && !df_unit_from_name (units_text, &d))
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                   "--units: unknown unit '%s' (known: mm, cm, m, in)", units_text);
+      return FALSE;
+    }
+  *model = (int) m;
+  *display = (int) d;
+  return TRUE;
+}

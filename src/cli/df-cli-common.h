@@ -87,5 +87,11 @@ df_csv_context df_cli_csv_context    (const df_surface_spec *spec, const df_surf
  * (given | chosen by GCV)" and the noise caution; nothing for formulas. */
 void      df_cli_print_fit           (const df_surface *surface, const char *units);
 
+/* --units: the model unit (the surface's units label; mm for a label that is no known unit,
+ * when nothing is asked) and the display unit (units_text, else the model's). Errors name the
+ * option: an unknown unit, or a conversion asked of a surface whose label is no known unit. */
+gboolean  df_cli_units               (const char *units_text, const char *surface_units,
+                                      int *model, int *display, GError **error);
+
 /* Prints a finished JSON document (builder's root) on stdout. */
 void      df_cli_print_json          (JsonBuilder *builder);

@@ -7,6 +7,7 @@
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
+#include "df-report-devmap.h"
 #include "df-decide-out.h"
 #include "df-devmap.h"
 #include "df-json-out.h"
@@ -21,6 +22,8 @@ typedef struct
   char    *units_text;
   char    *max_strain_text;
   char    *csv_path;
+  char    *png_path;
+  char    *png_size_text;
   int      directions;
   gboolean json;
 } devmap_options;
@@ -60,18 +63,14 @@ run (devmap_options *o)
     }
   if (!df_cli_surface_load (&o->surface, &spec, &surface, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
-  if (!df_unit_from_name (spec->units, &model))
-    {
-      if (o->units_text != NULL)
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
-                                "are not mm, cm, m or in, so nothing can be converted",
-                                spec->units);
-      model = DF_UNIT_MM;
-    }
-  display = model;
-  if (o->units_text != NULL && !df_unit_from_name (o->units_text, &display))
-    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: mm, "
-                            "cm, m, in)", o->units_text);
+  {
+    int m, d;
+
+    if (!df_cli_units (o->units_text, spec->units, &m, &d, &error))
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    model = (df_unit) m;
+    display = (df_unit) d;
+  }
   /* --radius is in the display units. */
   a = df_unit_length (a, display, model);
   if (!(a > 0.0) || a > df_surface_size (surface))
@@ -104,6 +103,35 @@ run (devmap_options *o)
       any = TRUE;
       if (o->max_strain_text != NULL && 100.0 * fabs (p->strain) > max_strain)
         over++;
+    }
+  if (o->png_path != NULL)
+    {
+      double pw = 1200, phh = 900;
+
+      if (o->png_size_text != NULL
+          && (!df_cli_parse_pair ("--png-size", o->png_size_text, &pw, &phh, &error)
+              || pw != floor (pw) || phh != floor (phh)))
+        {
+          df_devmap_clear (&map);
+          if (error == NULL)
+            return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--png-size: '%s' is not two "
+                                    "whole numbers W,H", o->png_size_text);
+          return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+        }
+      if (!(pw >= 200 && pw <= 8000 && phh >= 200 && phh <= 8000))
+        {
+          df_devmap_clear (&map);
+          return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--png-size: %s is outside "
+                                  "[200, 8000] pixels a side", o->png_size_text);
+        }
+      if (!df_devmap_png_write (o->png_path, surface, &map, (int) pw, (int) phh,
+                                o->max_strain_text != NULL ? max_strain : NAN,
+                                df_unit_name (display), df_unit_length (a, model, display),
+                                DF_DECIDE_CAUTION, &error))
+        {
+          df_devmap_clear (&map);
+          return df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
+        }
     }
   if (o->csv_path != NULL
       && !df_devmap_csv_write (o->csv_path, surface, &map, model, display, &error))
@@ -187,6 +215,11 @@ df_cli_devmap (int argc, char **argv)
     { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
       "Display and export units: mm, cm, m or in (default: the surface's)", "UNIT" },
     { "csv", 0, 0, G_OPTION_ARG_FILENAME, &o.csv_path, "Write the grid as CSV", "OUT.csv" },
+    { "png", 0, 0, G_OPTION_ARG_FILENAME, &o.png_path,
+      "Draw the surface coloured by the rim strain, the --max-strain-percent limit ticked on "
+      "the legend, as PNG", "OUT.png" },
+    { "png-size", 0, 0, G_OPTION_ARG_STRING, &o.png_size_text,
+      "Pixels of the PNG (default 1200,900)", "W,H" },
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the summary as JSON", NULL },
     { NULL },
   };
@@ -208,6 +241,8 @@ df_cli_devmap (int argc, char **argv)
   g_free (o.grid_text);
   g_free (o.units_text);
   g_free (o.max_strain_text);
+  g_free (o.png_path);
+  g_free (o.png_size_text);
   g_free (o.csv_path);
   return code;
 }

@@ -75,19 +75,14 @@ run (gores_options *o)
   if (df_surface_get_kind (surface) != DF_SURFACE_REVOLUTION)
     return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: gores need a surface of revolution "
                             "(this one is a graph)", o->surface.label);
-  if (!df_unit_from_name (spec->units, &model))
-    {
-      if (o->units_text != NULL)
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
-                                "are not mm, cm, m or in, so nothing can be converted",
-                                spec->units);
-      /* An unknown label: written as it is, numbers unconverted; the SVG then says mm. */
-      model = DF_UNIT_MM;
-    }
-  display = model;
-  if (o->units_text != NULL && !df_unit_from_name (o->units_text, &display))
-    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: mm, "
-                            "cm, m, in)", o->units_text);
+  {
+    int m, d;
+
+    if (!df_cli_units (o->units_text, spec->units, &m, &d, &error))
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    model = (df_unit) m;
+    display = (df_unit) d;
+  }
   un = df_unit_name (display);
 
   df_diag_clear (&diag);

@@ -6,6 +6,7 @@
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
+#include "df-units-convert.h"
 #include "df-json-out.h"
 
 #define NAME "measure"
@@ -17,6 +18,7 @@ typedef struct
   char    *samples_path;
   char    *tolerance_text;
   char    *fair_text;
+  char    *units_text;
   int      count;
   gboolean json;
 } measure_options;
@@ -76,8 +78,8 @@ fit_sensitivity (const df_surface_spec *spec, const df_surface *surface, const d
 
 static void
 print_json (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            const df_loop_result *r, double tol, const df_fair_info *fair, gsize n_points,
-            gboolean has_sens, double sens)
+            const char *units, const df_loop_result *r, double tol, const df_fair_info *fair,
+            gsize n_points, gboolean has_sens, double sens)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -91,7 +93,14 @@ print_json (const measure_options *o, const df_surface_spec *spec, const df_surf
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
   json_builder_set_member_name (b, "units");
-  json_builder_add_string_value (b, spec->units);
+  json_builder_add_string_value (b, units);
+  /* Curvature follows the length unit (df-units-convert.h). */
+  json_builder_set_member_name (b, "curvature_units");
+  {
+    g_autofree char *cu = g_strdup_printf ("1/%s^2", units);
+
+    json_builder_add_string_value (b, cu);
+  }
   df_json_add_double (b, "tolerance", tol);
   df_json_add_fit (b, surface);
   if (spec->data_key != NULL)
@@ -113,15 +122,15 @@ print_angle_line (const char *label, double rad)
 
 static void
 print_text (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            gsize n_points, const df_loop_result *r, double tol, const df_fair_info *fair,
-            gboolean has_sens, double sens)
+            const char *un, gsize n_points, const df_loop_result *r, double tol,
+            const df_fair_info *fair, gboolean has_sens, double sens)
 {
-  const char *un = spec->units;
   char a[40], b[40];
 
   printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface), un);
   printf ("Normal:  %s\n", df_surface_normal_side (surface));
-  df_cli_print_fit (surface, un);
+  /* The fit's residuals stay in the surface's own units, where its data are. */
+  df_cli_print_fit (surface, spec->units);
   printf ("Loop:    %s, %zu points", o->loop_path, n_points);
   if (r->axis_winding != 0)
     printf (", winds %d time%s around the axis", r->axis_winding,
@@ -275,13 +284,28 @@ run (measure_options *o)
     double sens = 0.0;
     gboolean has_sens = fit_sensitivity (spec, surface, (const double (*)[2]) uv, n, &lopt,
                                          result.holonomy_rad, &sens);
+    const char *units = spec->units;
 
+    if (o->units_text != NULL)
+      {
+        int model, display;
+
+        if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
+          return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+        df_loop_result_convert (&result, (df_unit) model, (df_unit) display);
+        if (o->fair_text != NULL)
+          {
+            fair.tolerance = df_unit_length (fair.tolerance, model, display);
+            fair.max_deviation = df_unit_length (fair.max_deviation, model, display);
+          }
+        units = df_unit_name ((df_unit) display);
+      }
     if (o->json)
-      print_json (o, spec, surface, &result, lopt.rel_tol, o->fair_text ? &fair : NULL, n,
-                  has_sens, sens);
+      print_json (o, spec, surface, units, &result, lopt.rel_tol, o->fair_text ? &fair : NULL,
+                  n, has_sens, sens);
     else
-      print_text (o, spec, surface, n, &result, lopt.rel_tol, o->fair_text ? &fair : NULL,
-                  has_sens, sens);
+      print_text (o, spec, surface, units, n, &result, lopt.rel_tol,
+                  o->fair_text ? &fair : NULL, has_sens, sens);
   }
   return DF_CLI_EXIT_OK;
 }
@@ -306,6 +330,10 @@ df_cli_measure (int argc, char **argv)
       "units) of them, so the steering radius shows the design, not the noise", "TOL" },
     { "tolerance", 0, 0, G_OPTION_ARG_STRING, &o.tolerance_text,
       "Relative tolerance of the transport integration (default 1e-11)", "REL" },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Show lengths in mm, cm, m or in (areas in their square, curvature per length or "
+      "squared length alike; default: the surface's units). Chart coordinates, angles and the "
+      "--samples file stay as the surface defines them", "UNIT" },
     { NULL },
   };
 
@@ -328,5 +356,6 @@ df_cli_measure (int argc, char **argv)
   g_free (o.samples_path);
   g_free (o.tolerance_text);
   g_free (o.fair_text);
+  g_free (o.units_text);
   return code;
 }

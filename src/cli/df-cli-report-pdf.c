@@ -11,6 +11,7 @@
 #include "df-io-error.h"
 #include "df-report.h"
 #include "df-report-verdicts.h"
+#include "df-verdict-curves.h"
 
 /* Strings and arrays that the report points into, freed together. */
 typedef struct
@@ -51,6 +52,28 @@ add_curve (extras_out *x, const char *name, double r, double g, double b, double
 
   g_ptr_array_add (x->points, xyz);
   g_array_append_val (x->curves, c);
+}
+
+/* The user's limits along a geodesic or path route, one field per verdict (nothing when the
+ * project sets no curve limit). */
+static void
+verdict_fields (extras_out *x, GArray *fields, const df_verdict_list *list, df_status st,
+                df_diag *diag, const df_limits *limits, const char *u, const char *what)
+{
+  if (st != DF_OK)
+    {
+      g_autoptr (GError) error = NULL;
+
+      df_status_to_gerror (st, diag, &error);
+      field (fields, keep (x, g_strdup_printf ("Limits (%s)", what)),
+             keep (x, g_strdup_printf ("not checked: %s", error->message)));
+      return;
+    }
+  for (size_t k = 0; k < list->n; k++)
+    field (fields, keep (x, g_strdup_printf ("Limit (%s)", what)),
+           keep (x, df_report_verdict_text (&list->items[k], limits, u)));
+  if (list->n > 0)
+    field (fields, "Caution", DF_DECIDE_CAUTION);
 }
 
 static void
@@ -98,6 +121,21 @@ geodesic_sections (extras_out *x, const df_project *project, const df_surface *s
                                            u)));
           if (res.stopped_early)
             field (fields, "Stopped", keep (x, g_strdup (res.stop_reason)));
+          {
+            df_geodesic_result fine = { 0 };
+            df_verdict_list list = { 0 };
+
+            /* The verdicts on the finer sampling `check` uses, so both agree. */
+            df_diag_clear (&diag);
+            st = df_geodesic_shoot (surface, g->u, g->v, g->heading_deg * G_PI / 180, g->length,
+                                    2000, &fine, &diag);
+            if (st == DF_OK)
+              st = df_verdicts_geodesic (surface, &fine, g->heading_deg * G_PI / 180,
+                                         project->limits, &list, &diag);
+            verdict_fields (x, fields, &list, st, &diag, project->limits, u, "geodesic");
+            df_verdict_list_clear (&list);
+            df_geodesic_result_clear (&fine);
+          }
         }
       add_section (x, keep (x, g_strdup_printf ("Geodesic %u: %s", i + 1, g->name)), fields);
       df_geodesic_result_clear (&res);
@@ -166,6 +204,16 @@ paths_sections (extras_out *x, const df_project *project, const df_surface *surf
                                                                   u)));
           field (fields, "Length of B", keep (x, g_strdup_printf ("%s %s", num (x, rb.length, 8),
                                                                   u)));
+          for (int k = 0; k < 2; k++)
+            {
+              df_verdict_list list = { 0 };
+
+              df_diag_clear (&diag);
+              st = df_verdicts_path (k ? b : a, 2000, project->limits, &list, NULL, &diag);
+              verdict_fields (x, fields, &list, st, &diag, project->limits, u,
+                              k ? "route B" : "route A");
+              df_verdict_list_clear (&list);
+            }
         }
       add_section (x, keep (x, g_strdup_printf ("Path pair %u: %s", i + 1, p->name)), fields);
       df_transport_result_clear (&ra);

@@ -110,6 +110,37 @@ parse_value (const char *text, df_limit_id id, const char *source, double *value
   return TRUE;
 }
 
+/* A positive length with an optional unit: "20", "20 mm". */
+static gboolean
+parse_length (const char *text, const char *group, const char *key, const char *source,
+              df_length_setting *out, GError **error)
+{
+  char *end = NULL;
+  g_autofree char *rest = NULL;
+  double value = g_ascii_strtod (text, &end);
+
+  if (end == text || !isfinite (value) || !(value > 0.0))
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                   "%s: [%s] %s: '%s' is not a positive length", source, group, key, text);
+      return FALSE;
+    }
+  rest = g_strstrip (g_strdup (end));
+  out->has_unit = rest[0] != '\0';
+  out->unit = DF_UNIT_MM;
+  if (out->has_unit && !df_unit_from_name (rest, &out->unit))
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                   "%s: [%s] %s: unknown unit '%s' (known: mm, cm, m, in)", source, group, key,
+                   rest);
+      return FALSE;
+    }
+  out->set = true;
+  out->value = value;
+  out->model_value = value;
+  return TRUE;
+}
+
 static gboolean
 read_limits (GKeyFile *key_file, const char *source, df_limits *limits, GError **error)
 {
@@ -123,12 +154,20 @@ read_limits (GKeyFile *key_file, const char *source, df_limits *limits, GError *
       gboolean is_source;
       g_autofree char *text = NULL;
 
+      if (g_str_equal (keys[i], "patch-size"))
+        {
+          text = _df_key_file_get_text (key_file, DF_LIMITS_GROUP, keys[i], FALSE, source,
+                                        error);
+          ok = text != NULL && parse_length (text, DF_LIMITS_GROUP, "patch-size", source,
+                                             &limits->patch_size, error);
+          continue;
+        }
       if (!find_limit (keys[i], &id, &is_source))
         {
           g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
                        "%s: [" DF_LIMITS_GROUP "] unknown key '%s' (known: min-steering-radius, "
                        "tow-width, max-fibre-deviation-deg, max-shear-deg, friction, "
-                       "max-strain-percent, each with NAME-source)", source, keys[i]);
+                       "max-strain-percent, each with NAME-source; patch-size)", source, keys[i]);
           ok = FALSE;
           break;
         }
@@ -254,19 +293,31 @@ df_limits_from_key_file (GKeyFile *key_file, const char *source, const char *sur
   return limits;
 }
 
-char *
-df_limit_value_text (const df_limit *limit)
+/* The shortest of %.15g and %.17g that reads back to the same double: "6.35", not
+ * "6.3499999999999996", and still bit for bit. */
+static char *
+exact_text (double value, gboolean has_unit, df_unit unit)
 {
   char buf[G_ASCII_DTOSTR_BUF_SIZE];
 
-  /* The shortest of %.15g and %.17g that reads back to the same double: "6.35", not
-   * "6.3499999999999996", and still bit for bit. */
-  g_ascii_formatd (buf, sizeof buf, "%.15g", limit->value);
-  if (g_ascii_strtod (buf, NULL) != limit->value)
-    g_ascii_formatd (buf, sizeof buf, "%.17g", limit->value);
-  if (limit->has_unit)
-    return g_strdup_printf ("%s %s", buf, df_unit_name (limit->unit));
+  g_ascii_formatd (buf, sizeof buf, "%.15g", value);
+  if (g_ascii_strtod (buf, NULL) != value)
+    g_ascii_formatd (buf, sizeof buf, "%.17g", value);
+  if (has_unit)
+    return g_strdup_printf ("%s %s", buf, df_unit_name (unit));
   return g_strdup (buf);
+}
+
+char *
+df_limit_value_text (const df_limit *limit)
+{
+  return exact_text (limit->value, limit->has_unit, limit->unit);
+}
+
+char *
+df_length_setting_text (const df_length_setting *setting)
+{
+  return exact_text (setting->value, setting->has_unit, setting->unit);
 }
 
 void
@@ -289,6 +340,12 @@ df_limits_to_key_file (const df_limits *limits, GKeyFile *key_file)
           source_key = g_strdup_printf ("%s-source", df_limit_key ((df_limit_id) i));
           g_key_file_set_string (key_file, DF_LIMITS_GROUP, source_key, l->source);
         }
+    }
+  if (limits->patch_size.set)
+    {
+      g_autofree char *text = df_length_setting_text (&limits->patch_size);
+
+      g_key_file_set_string (key_file, DF_LIMITS_GROUP, "patch-size", text);
     }
   if (limits->has_length_unit)
     g_key_file_set_string (key_file, DF_UNITS_GROUP, "length",

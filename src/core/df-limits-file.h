@@ -7,6 +7,8 @@
  *   max-shear-deg=35
  *   friction=0.2
  *   max-strain-percent=2
+ *   patch-size=20 mm                      # the disc radius a that max-strain-percent is
+ *                                         # checked at (a choice, so no -source)
  *   [units]                               # optional display units
  *   length=mm                             # mm, cm, m or in
  *   curvature=1/m^2                       # Gaussian curvature per square of mm, cm, m or in
@@ -31,3 +33,4 @@ void       df_limits_to_key_file   (const df_limits *limits, GKeyFile *key_file)
 
 /* "25 mm" style text of a limit's value, as written back (newly allocated). */
 char      *df_limit_value_text     (const df_limit *limit);
+char      *df_length_setting_text  (const df_length_setting *setting);

@@ -110,11 +110,34 @@ df_limits_set (df_limits *limits, df_limit_id id, double value, bool has_unit, d
   l->source = dup_text (source);
 }
 
+static df_status
+resolve_setting (df_length_setting *l, const char *key, bool known, df_unit model,
+                 const char *surface_units, df_diag *diag)
+{
+  if (!l->set)
+    return DF_OK;
+  l->model_value = l->value;
+  if (!l->has_unit)
+    return DF_OK;
+  if (!known)
+    return df_diag_fail (diag, DF_E_INPUT, -1,
+                         "%s is given in %s but the surface's units '%s' are not mm, cm, m "
+                         "or in, so the two cannot be related", key, df_unit_name (l->unit),
+                         surface_units ? surface_units : "");
+  l->model_value = df_unit_length (l->value, l->unit, model);
+  return DF_OK;
+}
+
 df_status
 df_limits_resolve (df_limits *limits, const char *surface_units, df_diag *diag)
 {
   df_unit model;
   bool known = df_unit_from_name (surface_units, &model);
+  df_status st;
+
+  if ((st = resolve_setting (&limits->patch_size, "patch-size", known, model, surface_units,
+                             diag)) != DF_OK)
+    return st;
 
   for (int i = 0; i < DF_N_LIMITS; i++)
     {

@@ -39,9 +39,22 @@ typedef struct
   char   *source;       /* free text, owned; NULL when the user gave none */
 } df_limit;
 
+/* A length the decision layer needs that is a choice, not material data (no source): the
+ * patch size of max-strain-percent's map. */
+typedef struct
+{
+  bool    set;
+  double  value;        /* as written */
+  bool    has_unit;
+  df_unit unit;
+  double  model_value;  /* in the surface's units (df_limits_resolve) */
+} df_length_setting;
+
 typedef struct
 {
   df_limit item[DF_N_LIMITS];
+  /* The disc radius a of max-strain-percent's developability map ([limits] patch-size). */
+  df_length_setting patch_size;
   /* Display units from the project's [units] group; unset = the surface's own units. */
   bool     has_length_unit;
   df_unit  length_unit;
@@ -63,7 +76,7 @@ const char   *df_limit_kind_units (df_limit_kind kind);
 void          df_limits_set       (df_limits *limits, df_limit_id id, double value,
                                    bool has_unit, df_unit unit, const char *source);
 
-/* Computes model_value for every set limit given the surface's units label. Fails with
+/* Computes model_value for every set limit (and patch_size) given the surface's units label. Fails with
  * DF_E_INPUT (diag index = the limit id) when a length carries a unit but the surface's label
  * is not a known unit, so the two cannot be related. */
 df_status     df_limits_resolve   (df_limits *limits, const char *surface_units, df_diag *diag);

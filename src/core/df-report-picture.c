@@ -193,12 +193,13 @@ shade (const view *v, const double n[3])
 }
 
 /* Paints the mesh back to front into an image of the box and returns it. */
+/* kk: the value per vertex shaded on the diverging ramp over [-range, range]; a triangle with
+ * a non-finite value (no value there) is drawn grey. */
 static cairo_surface_t *
-paint_surface (const view *v, const df_mesh *mesh, double range, double x, double y, double w,
-               double h, double px)
+paint_surface (const view *v, const df_mesh *mesh, const double *kk, double range, double x,
+               double y, double w, double h, double px)
 {
   const double *pos = df_mesh_positions (mesh), *nrm = df_mesh_normals (mesh);
-  const double *kk = df_mesh_gaussian (mesh);
   const uint32_t *idx = df_mesh_indices (mesh);
   size_t nt = df_mesh_n_triangles (mesh);
   int iw = (int) ceil (w * px), ih = (int) ceil (h * px);
@@ -244,7 +245,10 @@ paint_surface (const view *v, const df_mesh *mesh, double range, double x, doubl
         }
       cairo_close_path (cr);
       normalize3 (n);
-      df_colour_ramp (range > 0 ? kavg / range : 0, rgb);
+      if (isfinite (kavg))
+        df_colour_ramp (range > 0 ? kavg / range : 0, rgb);
+      else
+        rgb[0] = rgb[1] = rgb[2] = 0.7;
       light = shade (v, n);
       cairo_set_source_rgb (cr, rgb[0] * light, rgb[1] * light, rgb[2] * light);
       cairo_fill (cr);
@@ -331,6 +335,26 @@ draw_text (cairo_t *cr, double x, double y, const char *text, double size, gbool
   draw_text_placed (cr, x, y, text, size, centre, backdrop, NULL);
 }
 
+/* A mark at value on the legend bar (bx..bx+bw over -range..range): a tick through the bar
+ * with its label, so it reads without colour. */
+static void
+draw_legend_mark (cairo_t *cr, double bx, double by, double bw, double bh, double range,
+                  double value, const char *label)
+{
+  double mx = bx + bw * (0.5 + 0.5 * value / range);
+
+  if (!(range > 0) || !isfinite (value) || fabs (value) > range)
+    return;
+  cairo_save (cr);
+  cairo_set_source_rgb (cr, 0, 0, 0);
+  cairo_set_line_width (cr, 1.2);
+  cairo_move_to (cr, mx, by - 1);
+  cairo_line_to (cr, mx, by + bh + 3);
+  cairo_stroke (cr);
+  draw_text (cr, mx, by + bh + 17, label, 6.5, TRUE, FALSE);
+  cairo_restore (cr);
+}
+
 static void
 draw_legend (cairo_t *cr, double x, double y, double w, double range, const char *units)
 {
@@ -366,6 +390,34 @@ draw_legend (cairo_t *cr, double x, double y, double w, double range, const char
   else
     g_snprintf (caption, sizeof caption, "Gaussian curvature K = 0 everywhere (developable)");
   draw_text (cr, bx + bw / 2, by - 2, caption, 7.5, TRUE, FALSE);
+}
+
+/* The legend of a user colouring: its caption, its range, and the marks. */
+static void
+draw_legend_colouring (cairo_t *cr, double x, double y, double w,
+                       const df_picture_colouring *c)
+{
+  char caption[200];
+
+  draw_legend (cr, x, y, w, c->range, "unit");
+  /* Over the K caption: the colouring's own. */
+  {
+    double bw = fmin (w * 0.6, 260), bx = x + (w - bw) / 2, by = y + 8, bh = 9;
+
+    cairo_save (cr);
+    cairo_set_source_rgb (cr, 1, 1, 1);
+    cairo_rectangle (cr, x, y, w, by - y - 0.5);
+    cairo_fill (cr);
+    cairo_set_source_rgb (cr, 0.1, 0.1, 0.1);
+    g_snprintf (caption, sizeof caption, "%s", c->caption != NULL ? c->caption : "");
+    draw_text (cr, bx + bw / 2, by - 2, caption, 7.5, TRUE, FALSE);
+    cairo_restore (cr);
+    if (c->has_mark)
+      {
+        draw_legend_mark (cr, bx, by, bw, bh, c->range, c->mark, c->mark_label);
+        draw_legend_mark (cr, bx, by, bw, bh, c->range, -c->mark, c->mark_label);
+      }
+  }
 }
 
 static void
@@ -447,6 +499,17 @@ df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h, dou
                         double pitch_deg, const df_surface *surface, const char *units,
                         const df_picture_curve *curves, gsize n_curves, GError **error)
 {
+  return df_report_draw_picture_coloured (cr, x, y, w, h, yaw_deg, pitch_deg, surface, units,
+                                          NULL, curves, n_curves, error);
+}
+
+gboolean
+df_report_draw_picture_coloured (cairo_t *cr, double x, double y, double w, double h,
+                                 double yaw_deg, double pitch_deg, const df_surface *surface,
+                                 const char *units, const df_picture_colouring *colouring,
+                                 const df_picture_curve *curves, gsize n_curves, GError **error)
+{
+  double *values = NULL;
   df_mesh_options mo = { PICTURE_MAX_VERTICES, 0, 0 };
   df_mesh *mesh = NULL;
   df_diag diag;
@@ -469,8 +532,19 @@ df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h, dou
   /* The 99 % area quantile, as the app shades: a cone apex's sliver does not wash out the
    * scale, yet a constant K gets its own value as the range. */
   range = df_mesh_abs_quantile (mesh, DF_MESH_GAUSSIAN, 0.99);
+  if (colouring != NULL)
+    {
+      const double *uv = df_mesh_uv (mesh);
 
-  img = paint_surface (&v, mesh, range, x, y, w, ph, px);
+      values = g_new (double, df_mesh_n_vertices (mesh));
+      for (size_t i = 0; i < df_mesh_n_vertices (mesh); i++)
+        values[i] = colouring->value_at (uv[2 * i], uv[2 * i + 1], colouring->user);
+      range = colouring->range;
+    }
+
+  img = paint_surface (&v, mesh, values != NULL ? values : df_mesh_gaussian (mesh), range, x, y,
+                       w, ph, px);
+  g_free (values);
   cairo_save (cr);
   cairo_rectangle (cr, x, y, w, ph);
   cairo_clip (cr);
@@ -492,7 +566,10 @@ df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h, dou
   cairo_restore (cr);
   g_free (zb.z);
 
-  draw_legend (cr, x, y + ph, w, range, units != NULL ? units : "unit");
+  if (colouring != NULL)
+    draw_legend_colouring (cr, x, y + ph, w, colouring);
+  else
+    draw_legend (cr, x, y + ph, w, range, units != NULL ? units : "unit");
   df_mesh_free (mesh);
   return TRUE;
 }

@@ -34,3 +34,33 @@ gboolean df_report_draw_picture (cairo_t                *cr,
                                  const df_picture_curve *curves,
                                  gsize                   n_curves,
                                  GError                **error);
+
+/* Another colouring than K (the developability map): value_at gives the value at a chart
+ * point (non-finite: no value, drawn grey), shaded on the same diverging scale over
+ * [-range, range]; the legend shows caption and, when has_mark, ticks at +/- mark labelled
+ * mark_label (a user's limit: readable without colour). */
+typedef struct
+{
+  double    (*value_at) (double u, double v, void *user);
+  void       *user;
+  double      range;
+  const char *caption;
+  gboolean    has_mark;
+  double      mark;
+  const char *mark_label;
+} df_picture_colouring;
+
+/* df_report_draw_picture with colouring (NULL: K, as df_report_draw_picture). */
+gboolean df_report_draw_picture_coloured (cairo_t                    *cr,
+                                          double                      x,
+                                          double                      y,
+                                          double                      w,
+                                          double                      h,
+                                          double                      yaw_deg,
+                                          double                      pitch_deg,
+                                          const df_surface           *surface,
+                                          const char                 *units,
+                                          const df_picture_colouring *colouring,
+                                          const df_picture_curve     *curves,
+                                          gsize                       n_curves,
+                                          GError                    **error);

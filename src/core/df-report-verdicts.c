@@ -10,6 +10,7 @@
 #include "df-io-error.h"
 #include "df-report.h"
 #include "df-verdict.h"
+#include "df-verdict-region.h"
 
 typedef struct
 {
@@ -30,9 +31,45 @@ limit_name (df_limit_id id)
       return "Fibre deviation";
     case DF_LIMIT_FRICTION:
       return "|k_g/k_n| against friction";
+    case DF_LIMIT_MAX_STRAIN:
+      return "Rim strain";
     default:
       return df_limit_key (id);
     }
+}
+
+char *
+df_report_verdict_text (const df_verdict *v, const df_limits *limits, const char *u)
+{
+  g_autoptr (GPtrArray) scratch = g_ptr_array_new_with_free_func (g_free);
+  extras_out xs = { scratch }, *x = &xs;
+  const df_limit *l = &limits->item[v->limit];
+  df_limit_kind kind = df_limit_kind_of (v->limit);
+  const char *vu = kind == DF_LIMIT_KIND_LENGTH ? u
+                   : kind == DF_LIMIT_KIND_RATIO ? "" : df_limit_kind_units (kind);
+  g_autoptr (GString) t = g_string_new (NULL);
+
+  g_string_append_printf (t, "%s: %s \xe2\x80\x94 worst %s%s%s against the limit %s%s%s",
+                          limit_name (v->limit), v->within ? "within" : "EXCEEDED",
+                          v->has_value ? num (x, v->value, 5) : "unbounded",
+                          *vu && v->has_value ? " " : "", v->has_value ? vu : "",
+                          num (x, v->threshold, 5), *vu ? " " : "", vu);
+  if (v->exact)
+    g_string_append (t, " (a geodesic: k_g = 0)");
+  if (v->region)
+    g_string_append_printf (t, " over the enclosed region (flat discs of radius %s %s), worst "
+                            "at (%s, %s)", num (x, limits->patch_size.model_value, 5), u,
+                            num (x, v->u_worst, 6), num (x, v->v_worst, 6));
+  if (v->has_where)
+    g_string_append_printf (t, ", from s = %s to %s %s%s, worst at s = %s %s",
+                            num (x, v->s0, 6), num (x, v->s1, 6), u,
+                            v->s0 > v->s1 ? " (through the start)" : "",
+                            num (x, v->s_worst, 6), u);
+  if (v->has_tow)
+    g_string_append_printf (t, "; tow inner edge compressed about %s %%",
+                            num (x, 100 * v->tow_compression, 3));
+  g_string_append_printf (t, ". Source: %s.", l->source != NULL ? l->source : "none given");
+  return g_string_free (g_steal_pointer (&t), FALSE);
 }
 
 char **
@@ -48,6 +85,7 @@ df_report_verdict_lines (const df_surface *surface, const double (*uv)[2], gsize
   df_loop_result res = { 0 };
   df_verdict_list list = { 0 };
   gboolean any = FALSE;
+  char note[240] = "";
   df_diag diag;
   df_status st;
 
@@ -73,6 +111,13 @@ df_report_verdict_lines (const df_surface *surface, const double (*uv)[2], gsize
   if (st == DF_OK)
     st = df_verdicts_measure (curve, res.samples, res.n_samples, res.length, limits, &list,
                               &diag);
+  if (st == DF_OK)
+    {
+      bool strain_checked;
+
+      st = df_verdict_strain (curve, &res, limits, 0, NULL, &list, &strain_checked, note,
+                              sizeof note, &diag);
+    }
   if (st != DF_OK)
     {
       g_autoptr (GError) error = NULL;
@@ -83,28 +128,10 @@ df_report_verdict_lines (const df_surface *surface, const double (*uv)[2], gsize
     }
   for (size_t k = 0; st == DF_OK && k < list.n; k++)
     {
-      const df_verdict *v = &list.items[k];
-      const df_limit *l = &limits->item[v->limit];
-      df_limit_kind kind = df_limit_kind_of (v->limit);
-      const char *vu = kind == DF_LIMIT_KIND_LENGTH ? u
-                       : kind == DF_LIMIT_KIND_RATIO ? "" : df_limit_kind_units (kind);
-      g_autoptr (GString) t = g_string_new (NULL);
-
-      g_string_append_printf (t, "%s: %s \xe2\x80\x94 worst %s%s%s against the limit %s%s%s",
-                              limit_name (v->limit), v->within ? "within" : "EXCEEDED",
-                              v->has_value ? num (x, v->value, 5) : "unbounded",
-                              *vu ? " " : "", vu, num (x, v->threshold, 5), *vu ? " " : "", vu);
-      if (v->has_where)
-        g_string_append_printf (t, ", from s = %s to %s %s%s, worst at s = %s %s",
-                                num (x, v->s0, 6), num (x, v->s1, 6), u,
-                                v->s0 > v->s1 ? " (through the start)" : "",
-                                num (x, v->s_worst, 6), u);
-      if (v->has_tow)
-        g_string_append_printf (t, "; tow inner edge compressed about %s %%",
-                                num (x, 100 * v->tow_compression, 3));
-      g_string_append_printf (t, ". Source: %s.", l->source != NULL ? l->source : "none given");
-      g_ptr_array_add (lines, (g_string_free (g_steal_pointer (&t), FALSE)));
+      g_ptr_array_add (lines, df_report_verdict_text (&list.items[k], limits, u));
     }
+  if (st == DF_OK && note[0] != '\0')
+    g_ptr_array_add (lines, g_strdup_printf ("Rim strain not checked: %s.", note));
   if (st == DF_OK && res.bounds_disc && res.area > 0)
     {
       df_darts d;

@@ -7,6 +7,11 @@
 
 #include "df-limits.h"
 #include "df-surface.h"
+#include "df-verdict.h"
+
+/* One verdict as a line of the record (worst value, stretch, tow compression, source); units
+ * names the surface's length unit. Newly allocated. */
+char  *df_report_verdict_text  (const df_verdict *v, const df_limits *limits, const char *units);
 
 /* A NULL-terminated array of lines (g_strfreev), or NULL when limits set no limit. kg_limit:
  * 1 / min-steering-radius (0 when unset), for the k_g plot; checked: the verdicts could be

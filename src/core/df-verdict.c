@@ -9,6 +9,7 @@
 #include <string.h>
 
 #include "df-vec3.h"
+#include "df-verdict-private.h"
 
 /* Beyond this |k_g / k_n| the normal curvature has vanished to rounding: no friction holds. */
 #define RATIO_UNBOUNDED 1e12
@@ -166,12 +167,11 @@ set_worst (df_verdict *v, const df_loop_sample *smp, double q, const df_limits *
 }
 
 static df_status
-check_one (const df_curve *curve, const df_loop_sample *smp, size_t n, double length,
-           const df_limits *limits, df_limit_id id, double size, df_verdict_list *out,
-           df_diag *diag)
+check_one (const df_curve *curve, bool closed, const df_loop_sample *smp, size_t n,
+           double length, const df_limits *limits, df_limit_id id, double size,
+           df_verdict_list *out, df_diag *diag)
 {
   quantity_ctx ctx = { curve, id, 1e-9 / size };
-  bool closed = df_curve_is_closed (curve);
   /* k_g and k_n are periodic round a closed curve; the deviation restarts at 0 there. */
   bool periodic = closed && id != DF_LIMIT_MAX_FIBRE_DEVIATION;
   size_t m = periodic ? n - 1 : n;   /* the last sample of a closed curve repeats the first */
@@ -183,7 +183,10 @@ check_one (const df_curve *curve, const df_loop_sample *smp, size_t n, double le
 
   if (q == NULL)
     return DF_E_NOMEM;
-  df_curve_get_range (curve, &tau0, &tau1);
+  tau0 = 0.0;
+  tau1 = 1.0;
+  if (curve != NULL)
+    df_curve_get_range (curve, &tau0, &tau1);
   switch (id)
     {
     case DF_LIMIT_MIN_STEERING_RADIUS:
@@ -304,27 +307,26 @@ done:
 }
 
 df_status
-df_verdicts_measure (const df_curve *curve, const df_loop_sample *samples, size_t n_samples,
-                     double length, const df_limits *limits, df_verdict_list *out,
-                     df_diag *diag)
+_df_verdicts_from_samples (const df_curve *curve, bool closed, double size,
+                           const df_loop_sample *samples, size_t n_samples, double length,
+                           const df_limits *limits, const df_limit_id *ids, size_t n_ids,
+                           df_verdict_list *out, df_diag *diag)
 {
-  static const df_limit_id checked[] = { DF_LIMIT_MIN_STEERING_RADIUS,
-                                         DF_LIMIT_MAX_FIBRE_DEVIATION, DF_LIMIT_FRICTION };
-  double size;
-
-  memset (out, 0, sizeof *out);
-  if (curve == NULL || samples == NULL || limits == NULL || n_samples < 8)
-    return df_diag_fail (diag, DF_E_INPUT, -1, "verdicts need a curve, limits and >= 8 samples");
+  if (samples == NULL || limits == NULL || n_samples < 8)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "verdicts need samples, limits and >= 8 samples");
   if (!(length > 0.0) || !isfinite (length))
     return df_diag_fail (diag, DF_E_INPUT, -1, "the curve has no length");
-  size = df_surface_size (df_curve_get_surface (curve));
-  for (size_t i = 0; i < sizeof checked / sizeof checked[0]; i++)
+  for (size_t i = 0; i < n_ids; i++)
     {
       df_status st;
 
-      if (!limits->item[checked[i]].set)
+      if (!limits->item[ids[i]].set)
         continue;
-      st = check_one (curve, samples, n_samples, length, limits, checked[i], size, out, diag);
+      /* Without a curve only the deviation (known at the samples) can be refined. */
+      if (curve == NULL && ids[i] != DF_LIMIT_MAX_FIBRE_DEVIATION)
+        continue;
+      st = check_one (curve, closed, samples, n_samples, length, limits, ids[i], size, out,
+                      diag);
       if (st != DF_OK)
         {
           df_verdict_list_clear (out);
@@ -334,11 +336,52 @@ df_verdicts_measure (const df_curve *curve, const df_loop_sample *samples, size_
   return DF_OK;
 }
 
+df_status
+df_verdicts_measure (const df_curve *curve, const df_loop_sample *samples, size_t n_samples,
+                     double length, const df_limits *limits, df_verdict_list *out,
+                     df_diag *diag)
+{
+  static const df_limit_id checked[] = { DF_LIMIT_MIN_STEERING_RADIUS,
+                                         DF_LIMIT_MAX_FIBRE_DEVIATION, DF_LIMIT_FRICTION };
+
+  memset (out, 0, sizeof *out);
+  if (curve == NULL)
+    return df_diag_fail (diag, DF_E_INPUT, -1, "verdicts need a curve");
+  out->kind = df_curve_is_closed (curve) ? DF_VERDICT_LOOP : DF_VERDICT_PATH;
+  return _df_verdicts_from_samples (curve, df_curve_is_closed (curve),
+                                    df_surface_size (df_curve_get_surface (curve)), samples,
+                                    n_samples, length, limits, checked,
+                                    sizeof checked / sizeof checked[0], out, diag);
+}
+
+df_status
+_df_verdict_push (df_verdict_list *out, const df_verdict *v)
+{
+  return push (out, v);
+}
+
+const char *
+df_verdict_curve_name (df_verdict_curve kind)
+{
+  switch (kind)
+    {
+    case DF_VERDICT_GEODESIC:
+      return "geodesic";
+    case DF_VERDICT_PATH:
+      return "path";
+    default:
+      return "loop";
+    }
+}
+
 void
 df_verdict_list_clear (df_verdict_list *list)
 {
   if (list == NULL)
     return;
+  df_verdict_curve kind = list->kind;
+
   free (list->items);
   memset (list, 0, sizeof *list);
+  list->kind = kind;
 }

@@ -5,6 +5,9 @@
  * between the path and a fibre carried parallel from its start, df_loop_sample.angle_rad)
  * against max-fibre-deviation-deg, and |k_g / k_n| against friction (a winding path slips where
  * the in-surface bend asks more side force than friction gives; k_n = II(T, T)).
+ * Loops, open paths and geodesics each get verdicts (df-verdict-curves.h: what "intended" means
+ * for each); a loop's enclosed region also gets max-strain-percent and max-shear-deg
+ * (df-verdict-region.h).
  * Geometric indicators only: the limits are the user's data. The decision layer above
  * measurement; plain C + libm + GSL; no GLib. */
 #pragma once
@@ -15,6 +18,16 @@
 #include "df-curve.h"
 #include "df-limits.h"
 #include "df-loop.h"
+
+/* What a verdict list is about: JSON names "loop", "geodesic", "path". */
+typedef enum
+{
+  DF_VERDICT_LOOP,
+  DF_VERDICT_GEODESIC,
+  DF_VERDICT_PATH
+} df_verdict_curve;
+
+const char *df_verdict_curve_name (df_verdict_curve kind);
 
 typedef struct
 {
@@ -32,6 +45,15 @@ typedef struct
   double s_worst;         /* where the worst value is (the worst sample) */
   double u_worst, v_worst;
   double point_worst[3];
+  /* A verdict over a loop's enclosed region (max-strain-percent, max-shear-deg): there is no
+   * arc-length stretch (has_where false); the worst point is where the limit is exceeded most
+   * (s_worst 0). */
+  bool   region;
+  double signed_value;    /* region strain only: the worst strain with its sign, percent (> 0 a
+                           * flat rim must shrink, < 0 stretch) */
+  /* Set only by the geodesic verdicts: the value holds by construction (k_g = 0 exactly), not
+   * from samples. */
+  bool   exact;
   bool   has_tow;         /* steering only, tow-width set */
   double tow_compression; /* w / (2 R) at the worst point, a fraction (from memory) */
 } df_verdict;
@@ -41,6 +63,7 @@ typedef struct
   size_t      n;
   df_verdict *items;      /* owned */
   size_t      n_exceeded;
+  df_verdict_curve kind;  /* set by the function that fills the list */
 } df_verdict_list;
 
 /* Normal and geodesic curvature of the curve at tau: k_n = x'' . N / |x'|^2 = II(T, T),
@@ -62,4 +85,5 @@ df_status df_verdicts_measure (const df_curve       *curve,
                                df_verdict_list      *out,
                                df_diag              *diag);
 
+/* Frees the items; keeps kind. NULL: no-op. */
 void      df_verdict_list_clear (df_verdict_list *list);
