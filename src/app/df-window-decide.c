@@ -12,6 +12,7 @@
 #include <math.h>
 #include <stdio.h>
 
+#include "df-devmap-window.h"
 #include "df-document-limits.h"
 #include "df-gore-dialog.h"
 #include "df-limits-dialog.h"
@@ -27,6 +28,7 @@ typedef struct
   DfWindow   *window;        /* borrowed: owns this */
   char       *limits_text;   /* the limits last checked against */
   GHashTable *mark_counts;   /* loop id -> marks drawn (GUINT_TO_POINTER) */
+  GtkWidget  *devmap;        /* DfDevmapWindow, made on first use; destroyed with the window */
 } DecideState;
 
 static void
@@ -433,7 +435,25 @@ gore_tool_activated (GSimpleAction *action,
   df_gore_dialog_present (GTK_WINDOW (self), self->document, self->startup.report_events);
 }
 
+static void
+devmap_activated (GSimpleAction *action,
+                  GVariant      *parameter,
+                  gpointer       user_data)
+{
+  DfWindow *self = user_data;
+  DecideState *st = state_of (self);
+
+  if (df_document_get_surface (self->document) == NULL)
+    return;
+  if (st->devmap == NULL)
+    st->devmap = df_devmap_window_new (GTK_WINDOW (self), self->document, self->view,
+                                       GTK_WIDGET (self->legend),
+                                       self->startup.report_events);
+  gtk_window_present (GTK_WINDOW (st->devmap));
+}
+
 static const GActionEntry decide_actions[] = {
+  { "devmap", devmap_activated, NULL, NULL, NULL, { 0 } },
   { "edit-limits", edit_limits_activated, NULL, NULL, NULL, { 0 } },
   { "gore-tool", gore_tool_activated, NULL, NULL, NULL, { 0 } },
 };
@@ -457,6 +477,7 @@ add_menu_section (DfWindow *self)
   g_autoptr(GMenuItem) limits = g_menu_item_new ("Material and Process Limits…",
                                                  "win.edit-limits");
   g_autoptr(GMenuItem) gores = g_menu_item_new ("Gore Pattern…", "win.gore-tool");
+  g_autoptr(GMenuItem) devmap = g_menu_item_new ("Developability Map…", "win.devmap");
 
   if (!G_IS_MENU (model))
     return;
@@ -464,6 +485,8 @@ add_menu_section (DfWindow *self)
   g_menu_item_set_attribute (gores, "accel", "s", "<Control><Shift>g");
   g_menu_append_item (section, limits);
   g_menu_append_item (section, gores);
+  g_menu_item_set_attribute (devmap, "accel", "s", "<Control><Shift>m");
+  g_menu_append_item (section, devmap);
   g_menu_insert_section (G_MENU (model), MIN (3, g_menu_model_get_n_items (model)), NULL,
                          G_MENU_MODEL (section));
 }
@@ -483,6 +506,7 @@ _df_window_decide_init (DfWindow *self)
   gtk_shortcut_controller_set_scope (GTK_SHORTCUT_CONTROLLER (shortcuts), GTK_SHORTCUT_SCOPE_GLOBAL);
   add_shortcut (GTK_SHORTCUT_CONTROLLER (shortcuts), "<Control><Shift>l", "win.edit-limits");
   add_shortcut (GTK_SHORTCUT_CONTROLLER (shortcuts), "<Control><Shift>g", "win.gore-tool");
+  add_shortcut (GTK_SHORTCUT_CONTROLLER (shortcuts), "<Control><Shift>m", "win.devmap");
   gtk_widget_add_controller (GTK_WIDGET (self), shortcuts);
   add_menu_section (self);
   /* Connected with the window as data: its dispose disconnects everything of the document's
