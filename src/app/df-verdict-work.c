@@ -81,8 +81,23 @@ check_guarded (gpointer user_data)
     status = df_verdicts_measure (curve, result.samples, result.n_samples, result.length,
                                   work->limits, &check->list, &diag);
   if (status == DF_OK && !g_cancellable_is_cancelled (g_task_get_cancellable (g->task)))
-    status = df_verdict_strain (curve, &result, work->limits, 0, NULL, &check->list, &checked,
-                                note, sizeof note, &diag);
+    {
+      df_diag strain_diag;
+      df_status strain;
+
+      /* A region that cannot be sampled costs only its own verdict: the curve's stand. */
+      df_diag_clear (&strain_diag);
+      strain = df_verdict_strain (curve, &result, work->limits, 0, NULL, &check->list, &checked,
+                                  note, sizeof note, &strain_diag);
+      if (strain != DF_OK)
+        {
+          g_autoptr(GError) error = NULL;
+
+          df_status_to_gerror (strain, &strain_diag, &error);
+          g_snprintf (note, sizeof note, "not checked: %s", error->message);
+          checked = false;
+        }
+    }
   if (status != DF_OK)
     {
       df_status_to_gerror (status, &diag, &g->error);
