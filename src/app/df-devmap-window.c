@@ -29,7 +29,7 @@ struct _DfDevmapWindow
   /* owned */
   DfDocument   *document;
   DfSurfaceView *view;
-  GtkWidget    *legend;       /* in the view's overlay */
+  GtkWidget    *legend;       /* in the view's overlay; a reference of ours */
   GtkWidget    *view_legend;  /* the view's own legend, faded out while the map shows */
   GCancellable *cancellable;
   df_devmap    *map;
@@ -421,11 +421,12 @@ df_devmap_window_dispose (GObject *object)
     }
   if (self->legend != NULL)
     {
+      /* Held by a reference of ours: the overlay may have gone first (the main window closing). */
       GtkWidget *overlay = gtk_widget_get_parent (self->legend);
 
       if (GTK_IS_OVERLAY (overlay))
         gtk_overlay_remove_overlay (GTK_OVERLAY (overlay), self->legend);
-      self->legend = NULL;
+      g_clear_object (&self->legend);
     }
   if (self->view_legend != NULL)
     gtk_widget_set_opacity (self->view_legend, 1);
@@ -585,7 +586,7 @@ df_devmap_window_new (GtkWindow     *parent,
     }
   gtk_editable_set_text (GTK_EDITABLE (self->radius),
                          g_ascii_formatd (buf, sizeof buf, "%.6g", a > 0 ? a : 1));
-  self->legend = df_devmap_legend_new ();
+  self->legend = g_object_ref_sink (df_devmap_legend_new ());
   gtk_widget_set_halign (self->legend, GTK_ALIGN_END);
   gtk_widget_set_valign (self->legend, GTK_ALIGN_END);
   gtk_widget_set_margin_end (self->legend, 12);

@@ -3,6 +3,7 @@
 #include "df-verdict-details.h"
 
 #include "df-decide-out.h"
+#include "df-format.h"
 #include "df-loop-verdicts.h"
 #include "df-verdict-plot.h"
 #include "df-verdict-text.h"
@@ -67,6 +68,10 @@ sync_details (DfVerdictDetails *self)
   const df_limits *limits = self->document != NULL ? df_document_get_limits (self->document)
                                                    : NULL;
   const char *units = self->document != NULL ? df_document_get_units (self->document) : "mm";
+  const df_surface *surface = self->document != NULL ? df_document_get_surface (self->document)
+                                                     : NULL;
+  gboolean revolution = surface != NULL
+                        && g_str_equal (df_surface_kind_name (surface), "revolution");
 
   clear_list (self);
   gtk_widget_set_visible (GTK_WIDGET (self), state != DF_VERDICTS_NONE);
@@ -100,13 +105,43 @@ sync_details (DfVerdictDetails *self)
 
               if (v->within != (pass == 1))
                 continue;
-              text = df_verdict_describe (v, limits, units);
+              text = df_verdict_describe (v, limits, units, revolution);
               gtk_box_append (GTK_BOX (self->list),
                               verdict_line (v->within ? "object-select-symbolic"
                                                       : "dialog-warning-symbolic",
                                             df_verdict_limit_title (v->limit), text,
                                             !v->within));
             }
+        if (check->has_darts)
+          {
+            const df_darts *d = &check->darts;
+            g_autofree char *angle = df_format_angle (d->angle_each_rad);
+            g_autofree char *len = df_format_length (d->length, units);
+            g_autofree char *text = NULL;
+
+            if (check->darts_least > 0)
+              {
+                g_autofree char *each = df_format_angle (check->darts_each.angle_each_rad);
+                const df_limit *shear = &limits->item[DF_LIMIT_MAX_SHEAR];
+
+                text = g_strdup_printf ("one %s of %s lets a flat sheet fit, or at least %d of %s "
+                                        "each to stay within your fabric locking angle (source: "
+                                        "%s); each about %s long (an estimate from the area).",
+                                        d->gusset ? "gusset (inserted)" : "dart (removed)",
+                                        angle, check->darts_least, each,
+                                        shear->source != NULL ? shear->source : "none given",
+                                        len);
+              }
+            else
+              text = g_strdup_printf ("one %s of %s lets a flat sheet fit; about %s long (an "
+                                      "estimate from the area). Set a fabric locking angle for "
+                                      "the least count.",
+                                      d->gusset ? "gusset (inserted)" : "dart (removed)", angle,
+                                      len);
+            gtk_box_append (GTK_BOX (self->list),
+                            verdict_line ("dialog-information-symbolic",
+                                          d->gusset ? "Gussets" : "Darts", text, FALSE));
+          }
         if (check->strain_note != NULL)
           gtk_box_append (GTK_BOX (self->list),
                           verdict_line ("dialog-information-symbolic",

@@ -62,7 +62,8 @@ with_units (double value,
 char *
 df_verdict_describe (const df_verdict *v,
                      const df_limits  *limits,
-                     const char       *su)
+                     const char       *su,
+                     gboolean          revolution)
 {
   const char *u = df_verdict_units (v->limit, su);
   const df_limit *l = limits != NULL ? &limits->item[v->limit] : NULL;
@@ -95,7 +96,8 @@ df_verdict_describe (const df_verdict *v,
       g_autofree char *uw = df_format_number (v->u_worst);
       g_autofree char *vw = df_format_number (v->v_worst);
 
-      g_string_append_printf (t, " (worst at u = %s, v = %s)", uw, vw);
+      g_string_append_printf (t, revolution ? " (worst at t = %s, φ = %s rad)"
+                                            : " (worst at x = %s, y = %s)", uw, vw);
     }
   if (v->has_tow && isfinite (v->tow_compression))
     {

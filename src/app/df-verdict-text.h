@@ -17,9 +17,11 @@ const char *df_verdict_limit_title (df_limit_id id);
 const char *df_verdict_units       (df_limit_id id, const char *surface_units);
 /* "Exceeded from s = 53.65 to 75.31 mm: worst 19.1 mm at s = 66.62 mm (t = 90.09, φ = 0.5);
  * limit 25 mm; tow inner edge compressed about 16.6 %. Source: invented for the demo." */
+/* revolution: the chart is named t, φ (else x, y). */
 char       *df_verdict_describe    (const df_verdict *verdict,
                                     const df_limits  *limits,
-                                    const char       *surface_units);
+                                    const char       *surface_units,
+                                    gboolean          revolution);
 /* "Within all 5 limits" / "3 stretches beyond limits". */
 char       *df_verdict_summary     (const df_verdict_list *list);
 

@@ -105,6 +105,22 @@ check_guarded (gpointer user_data)
       df_loop_check_free (check);
       return;
     }
+  if (result.bounds_disc && result.enclosed_available && result.area > 0
+      && df_darts_compute (result.enclosed_curvature_rad, result.area, 1, &check->darts,
+                           NULL) == DF_OK)
+    {
+      const df_limit *shear = &work->limits->item[DF_LIMIT_MAX_SHEAR];
+
+      check->has_darts = TRUE;
+      if (shear->set
+          && df_darts_least_count (result.enclosed_curvature_rad,
+                                   shear->model_value * G_PI / 180, &check->darts_least,
+                                   NULL) == DF_OK
+          && check->darts_least > 0
+          && df_darts_compute (result.enclosed_curvature_rad, result.area, check->darts_least,
+                               &check->darts_each, NULL) != DF_OK)
+        check->darts_least = 0;
+    }
   check->strain_checked = checked;
   check->strain_note = note[0] != '\0' ? g_strdup (note) : NULL;
   check->length = result.length;

@@ -8,6 +8,7 @@
 #include <gio/gio.h>
 
 #include "df-glib.h"
+#include "df-gores.h"
 #include "df-verdict.h"
 
 G_BEGIN_DECLS
@@ -18,6 +19,13 @@ typedef struct
   gboolean        strain_checked;
   char           *strain_note;   /* why the region's strain was not checked, or NULL */
   double          length;
+  /* Darts for a flat sheet over the enclosed region (df_darts_compute), when the loop bounds a
+   * disc: one of the whole enclosed curvature, and the least count each closing at most
+   * max-shear-deg (0 when that limit is not set). */
+  gboolean        has_darts;
+  df_darts        darts;
+  int             darts_least;
+  df_darts        darts_each;    /* the least count's darts */
   gsize           n;             /* samples, evenly in the curve's parameter */
   double         *s;             /* arc length */
   double         *kg;            /* 1/length, + turning left about N */
