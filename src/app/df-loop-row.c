@@ -1,6 +1,7 @@
 /* df-loop-row.c: a row of the loops list (see df-loop-row.h). It observes its DfLoopItem and
  * shows its colour, name and summary. */
 #include "df-loop-row.h"
+#include "df-verdict-badge.h"
 
 struct _DfLoopRow
 {
@@ -108,6 +109,9 @@ df_loop_row_new (DfLoopItem *item)
   self->item = g_object_ref (item);
   g_signal_connect (item, "notify::name", G_CALLBACK (item_notify_cb), self);
   g_signal_connect (item, "notify::summary", G_CALLBACK (item_notify_cb), self);
+  /* Under the summary: the loop against the user's limits. */
+  gtk_box_append (GTK_BOX (gtk_widget_get_parent (GTK_WIDGET (self->summary_label))),
+                  df_verdict_badge_new (item));
   sync_from_item (self);
   return GTK_WIDGET (self);
 }

@@ -6,6 +6,7 @@
 #include "df-format.h"
 #include "df-loop-row.h"
 #include "df-loops-panel.h"
+#include "df-verdict-details.h"
 
 struct _DfLoopsPanel
 {
@@ -30,6 +31,7 @@ struct _DfLoopsPanel
 
   /* owned */
   DfDocument *document;
+  GtkWidget  *verdict_details;   /* child of the details box, after the notes */
 };
 
 G_DEFINE_FINAL_TYPE (DfLoopsPanel, df_loops_panel, GTK_TYPE_WIDGET)
@@ -79,6 +81,7 @@ update_details (DfLoopsPanel *self)
   g_autoptr(GString) notes = g_string_new (NULL);
 
   show_text (self->error_label, NULL);
+  df_verdict_details_set_item (DF_VERDICT_DETAILS (self->verdict_details), self->document, item);
   gtk_widget_set_sensitive (GTK_WIDGET (self->details_title), item != NULL);
   if (item == NULL)
     {
@@ -309,6 +312,10 @@ static void
 df_loops_panel_init (DfLoopsPanel *self)
 {
   gtk_widget_init_template (GTK_WIDGET (self));
+  self->verdict_details = df_verdict_details_new ();
+  gtk_widget_insert_after (self->verdict_details,
+                           gtk_widget_get_parent (GTK_WIDGET (self->error_label)),
+                           GTK_WIDGET (self->error_label));
   g_signal_connect (self->list_box, "row-selected", G_CALLBACK (row_selected_cb), self);
   g_signal_connect (self->details_title, "notify::editing", G_CALLBACK (title_editing_cb), self);
   update_empty (self);

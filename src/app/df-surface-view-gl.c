@@ -189,10 +189,16 @@ _df_surface_view_gl_upload (DfSurfaceView *self)
           n_indices = 3 * df_mesh_n_triangles (self->mesh->mesh);
           n_coarse = 3 * self->mesh->n_coarse;
         }
+      gboolean copied = FALSE;
+      const float *vertices = n_vertices > 0 ? _df_surface_view_field_vertices (self, &copied)
+                                             : NULL;
+
       glBindVertexArray (gl->surface_vao);
       glBindBuffer (GL_ARRAY_BUFFER, gl->surface_vbo);
       glBufferData (GL_ARRAY_BUFFER, n_vertices * SURFACE_STRIDE * sizeof (float),
-                    n_vertices > 0 ? self->mesh->vertices : NULL, GL_STATIC_DRAW);
+                    vertices, GL_STATIC_DRAW);
+      if (copied)
+        g_free ((float *) vertices);
       glBufferData (GL_ELEMENT_ARRAY_BUFFER, n_indices * sizeof (uint32_t),
                     n_indices > 0 ? df_mesh_indices (self->mesh->mesh) : NULL, GL_STATIC_DRAW);
       gl->surface_indices = n_indices;
@@ -277,8 +283,17 @@ _df_surface_view_gl_draw (DfSurfaceView *self,
       glUseProgram (gl->surface_program);
       glUniformMatrix4fv (gl->su.view, 1, GL_FALSE, (float *) view);
       glUniformMatrix4fv (gl->su.proj, 1, GL_FALSE, (float *) proj);
-      glUniform1i (gl->su.shading, self->shading);
-      glUniform1f (gl->su.inv_range, range > 0 ? 1 / range : 0);
+      if (_df_surface_view_field_active (self))
+        {
+          /* The field rides in the K slot of the vertices. */
+          glUniform1i (gl->su.shading, DF_SHADING_GAUSSIAN);
+          glUniform1f (gl->su.inv_range, self->field_range > 0 ? 1 / self->field_range : 0);
+        }
+      else
+        {
+          glUniform1i (gl->su.shading, self->shading);
+          glUniform1f (gl->su.inv_range, range > 0 ? 1 / range : 0);
+        }
       glUniform3fv (gl->su.ramp, DF_SHADING_RAMP_STOPS, (const float *) ramp_stops);
       glUniform3fv (gl->su.plain, 1, plain_colour);
       glUniform1i (gl->su.iso, self->iso_lines);

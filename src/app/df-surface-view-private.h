@@ -147,6 +147,12 @@ struct _DfSurfaceView
   double        drag_last_x, drag_last_y;
   gboolean      pick_active;    /* a press landed on the surface; released will follow */
   double        last_u, last_v;
+
+  /* A colouring given from outside (df-surface-view-field.c): one value per vertex of the
+   * mesh it was made for, drawn instead of K while that mesh is shown. */
+  float        *field;
+  const MeshData *field_mesh;
+  double        field_range;
 };
 
 enum
@@ -188,6 +194,12 @@ void     _df_surface_view_start_mesh_build (DfSurfaceView *self);
 /* df-surface-view-input.c: the drags and scroll of init, the actions and keys of class_init. */
 void     _df_surface_view_input_init       (DfSurfaceView  *self);
 void     _df_surface_view_input_class_init (GtkWidgetClass *widget_class);
+
+/* df-surface-view-field.c: the vertices to upload (the mesh's own, or a copy carrying the
+ * field; free with g_free when *copied), and the colour range (0: the mesh's). */
+const float *_df_surface_view_field_vertices (DfSurfaceView *self, gboolean *copied);
+gboolean     _df_surface_view_field_active   (DfSurfaceView *self);
+void         _df_surface_view_field_free     (DfSurfaceView *self);
 
 /* df-surface-view-capture.c */
 void     _df_surface_view_benchmark_free   (Benchmark     *bench);

@@ -155,6 +155,7 @@ df_surface_view_finalize (GObject *object)
   g_clear_pointer (&self->curves, g_hash_table_unref);
   g_clear_pointer (&self->arrows, g_hash_table_unref);
   g_clear_pointer (&self->frames, g_free);
+  _df_surface_view_field_free (self);
   g_clear_pointer (&self->line_data, g_array_unref);
   g_clear_pointer (&self->solid_data, g_array_unref);
   _df_surface_view_points_clear (&self->points);

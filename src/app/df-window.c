@@ -4,6 +4,7 @@
  * df-window-state.c, document-to-view sync in df-window-sync.c, tools in df-window-tools.c. */
 #include "df-window-data.h"
 #include "df-window-private.h"
+#include "df-window-decide.h"
 
 #include <stdio.h>
 
@@ -290,6 +291,7 @@ df_window_init (DfWindow *self)
   _df_window_sync_init (self);
   _df_window_tools_init (self);
   _df_window_data_init (self);
+  _df_window_decide_init (self);
   _df_window_actions_update (self);
   /* The menus read these actions' states while the template was built, before the fields
    * above were set: tell them, or the colouring radio and the iso-lines check start wrong. */

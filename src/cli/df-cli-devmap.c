@@ -7,7 +7,7 @@
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
-#include "df-report-devmap.h"
+#include "df-cli-report-pdf.h"
 #include "df-decide-out.h"
 #include "df-devmap.h"
 #include "df-json-out.h"
@@ -124,7 +124,7 @@ run (devmap_options *o)
           return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--png-size: %s is outside "
                                   "[200, 8000] pixels a side", o->png_size_text);
         }
-      if (!df_devmap_png_write (o->png_path, surface, &map, (int) pw, (int) phh,
+      if (!df_cli_devmap_write_png (o->png_path, surface, &map, (int) pw, (int) phh,
                                 o->max_strain_text != NULL ? max_strain : NAN,
                                 df_unit_name (display), df_unit_length (a, model, display),
                                 DF_DECIDE_CAUTION, &error))

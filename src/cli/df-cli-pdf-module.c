@@ -79,3 +79,30 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
                              error);
   return ok;
 }
+
+typedef gboolean (*write_devmap_png_fn) (const char *, const df_surface *, const df_devmap *,
+                                         int, int, double, const char *, double, const char *,
+                                         GError **);
+
+gboolean
+df_cli_devmap_write_png (const char *path, const df_surface *surface, const df_devmap *map,
+                         int width, int height, double max_strain_percent, const char *units,
+                         double a_display, const char *caution, GError **error)
+{
+  GModule *m = open_module (error);
+  gpointer sym = NULL;
+
+  if (m == NULL)
+    return FALSE;
+  if (!g_module_symbol (m, "df_cli_pdf_module_devmap_png", &sym) || sym == NULL)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FILE,
+                   "the picture writer %s has no devmap entry point: %s", g_module_name (m),
+                   g_module_error ());
+      g_module_close (m);
+      return FALSE;
+    }
+  g_module_make_resident (m);
+  return ((write_devmap_png_fn) sym) (path, surface, map, width, height, max_strain_percent,
+                                      units, a_display, caution, error);
+}

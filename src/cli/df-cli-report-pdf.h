@@ -17,3 +17,11 @@ gboolean df_cli_report_write_pdf (const char           *project_path,
                                   const char           *paper,
                                   const char           *out_path,
                                   GError              **error);
+
+/* devmap --png through the same module (df-cli-module-devmap.c): df_devmap_png_write's
+ * arguments. */
+#include "df-devmap.h"
+gboolean df_cli_devmap_write_png (const char *path, const df_surface *surface,
+                                  const df_devmap *map, int width, int height,
+                                  double max_strain_percent, const char *units,
+                                  double a_display, const char *caution, GError **error);
