@@ -1,13 +1,15 @@
 /* test-drape.c: the woven-ply drape (df-drape.c) against closed forms: zero shear and the
  * developed outline on the plane and the cylinder; on the sphere, Gauss-Bonnet for every
  * geodesic cell, symmetry about the generators, convergence of the shear, Hazzidakis' formula,
- * and the sum of the cells' excess against `measure` of the block's boundary. */
+ * and the sum of the cells' excess against `measure` of the block's boundary and of the whole
+ * cells' boundary loop (`drape --boundary`). */
 #include <glib/gstdio.h>
 #include <json-glib/json-glib.h>
 #include <math.h>
 
 #include "df-drape.h"
 #include "df-drape-out.h"
+#include "df-loop-csv.h"
 #include "df-test.h"
 
 /* A chart rectangle as the ply outline, n points a side. */
@@ -376,6 +378,153 @@ test_sphere_block_measure (void)
     }
 }
 
+/* A polygon through the given corners (offsets from (pi/2, 0) in the chart), each side cut into
+ * n points. */
+static double (*corner_outline (const double (*c)[2], size_t nc, int n, size_t *count))[2]
+{
+  double (*p)[2] = g_malloc_n (nc * (size_t) n, sizeof *p);
+  size_t k = 0;
+
+  for (size_t a = 0; a < nc; a++)
+    for (int q = 0; q < n; q++, k++)
+      {
+        const double *p0 = c[a], *p1 = c[(a + 1) % nc];
+
+        p[k][0] = G_PI / 2 + p0[0] + (p1[0] - p0[0]) * q / n;
+        p[k][1] = p0[1] + (p1[1] - p0[1]) * q / n;
+      }
+  *count = k;
+  return p;
+}
+
+/* Measures the boundary loop written as CSV, read back by the loop reader as `measure` does:
+ * its enclosed curvature, from Green's theorem (df-green), independent of the cells' angles. */
+static double
+measure_boundary (const df_surface *s, const df_drape *d, df_drape_boundary_info *info)
+{
+  g_autofree char *csv = df_drape_boundary_to_csv (d, 64, info);
+  g_autofree double (*uv)[2] = NULL;
+  g_autoptr (df_curve) curve = NULL;
+  g_autoptr (GError) error = NULL;
+  g_auto (df_loop_result) r = { 0 };
+  gsize n = 0;
+  df_diag diag;
+
+  g_assert_nonnull (csv);
+  g_assert_true (df_loop_csv_parse (csv, "boundary.csv", s, &uv, &n, &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (n, ==, info->n_segments * 64);
+  g_assert_cmpint (df_curve_new_through_points (s, (const double (*)[2]) uv, n, true, &curve,
+                                                &diag), ==, DF_OK);
+  df_test_measure (curve, &r);
+  g_assert_true (r.bounds_disc);
+  g_assert_true (r.disc_on_left);
+  g_test_message ("boundary: %zu cells (%zu whole of %zu, %zu pieces, %zu filled, %zu cut), "
+                  "excess %.15g, measure %.15g", info->n_cells,
+                  info->n_cells - info->n_cells_filled, info->n_whole_cells, info->n_pieces,
+                  info->n_cells_filled, info->n_corner_cuts, info->excess_rad,
+                  r.enclosed_curvature_rad);
+  return r.enclosed_curvature_rad;
+}
+
+/* The boundary loop of the whole cells, read back and measured, encloses the curvature of the
+ * cells it bounds (Gauss-Bonnet for each geodesic cell adds up over cells sharing sides; do
+ * Carmo, Differential Geometry of Curves and Surfaces, sec. 4-5, from memory). A simply
+ * connected set of whole cells is bounded whole; a dumbbell whose neck is narrower than a cell
+ * keeps its larger lobe; a ring of whole cells round an outline's slit-open hole has the hole
+ * filled, and its cells' excess counts; a ring closed only where two cells touch at a corner is
+ * opened there. */
+static void
+test_sphere_boundary_loop (void)
+{
+  g_autoptr (df_surface) s = df_test_revolution ("sin(t)", "cos(t)", 0, G_PI);
+  const double dumbbell[][2] = { { -0.45, -0.2 }, { -0.1, -0.2 }, { -0.1, -0.01 },
+                                 { 0.1, -0.01 }, { 0.1, -0.2 }, { 0.5, -0.2 }, { 0.5, 0.2 },
+                                 { 0.1, 0.2 }, { 0.1, 0.01 }, { -0.1, 0.01 }, { -0.1, 0.2 },
+                                 { -0.45, 0.2 } };
+  /* A square ring, open by a slit at 0.01 < v < 0.02 between two rows of pins (v = 0 and
+   * 0.05 along the start's weft, the equator), so cells span the slit. */
+  const double ring[][2] = { { 0.4, 0.02 }, { 0.4, 0.4 }, { -0.4, 0.4 }, { -0.4, -0.4 },
+                             { 0.4, -0.4 }, { 0.4, 0.01 }, { 0.2, 0.01 }, { 0.2, -0.2 },
+                             { -0.2, -0.2 }, { -0.2, 0.2 }, { 0.2, 0.2 }, { 0.2, 0.02 } };
+  /* In cells (h = 0.04) from the start pin: bars of pins 0..6 x 0..2 (bottom), 4..6 x 0..6
+   * (right), 2..6 x 4..6 (top), 0..2 x 0..4 (left), each widened by 0.4 h, slit open at
+   * 3.3 < i < 3.4 between two columns of pins. Cells (1, 3) and (2, 4) touch only at pin
+   * (2, 4), the hole (2, 3) on one side and (1, 4) outside on the other. */
+  const double pinch[][2] = { { 3.4, -0.4 }, { 6.4, -0.4 }, { 6.4, 6.4 }, { 1.6, 6.4 },
+                              { 1.6, 4.4 }, { -0.4, 4.4 }, { -0.4, -0.4 }, { 3.3, -0.4 },
+                              { 3.3, 2.4 }, { 2.4, 2.4 }, { 2.4, 3.6 }, { 3.6, 3.6 },
+                              { 3.6, 2.4 }, { 3.4, 2.4 } };
+  df_drape_boundary_info info;
+
+  {
+    g_autoptr (df_drape) d = unit_sphere_drape (s, 20, 0.05);
+    const df_drape_summary *sm = df_drape_get_summary (d);
+    double got = measure_boundary (s, d, &info);
+
+    g_assert_cmpuint (info.n_pieces, ==, 1);
+    g_assert_cmpuint (info.n_whole_left_out, ==, 0);
+    g_assert_cmpuint (info.n_cells_filled, ==, 0);
+    g_assert_cmpuint (info.n_cells, ==, sm->n_whole_cells);
+    df_assert_close (info.excess_rad, sm->enclosed_curvature_rad, 1e-14, 0);
+    df_assert_close (got, sm->enclosed_curvature_rad, 0, 1e-6);
+  }
+  {
+    size_t n;
+    g_autofree double (*ol)[2] = corner_outline (dumbbell, G_N_ELEMENTS (dumbbell), 20, &n);
+    g_autoptr (df_drape) d = drape_or_die (s, (const double (*)[2]) ol, n, G_PI / 2, 0, 0, 0.05);
+    const df_drape_summary *sm = df_drape_get_summary (d);
+    double got = measure_boundary (s, d, &info);
+
+    g_assert_cmpuint (info.n_pieces, ==, 2);
+    g_assert_cmpuint (info.n_whole_left_out, >, 0);
+    g_assert_cmpuint (info.n_cells + info.n_whole_left_out, ==, sm->n_whole_cells);
+    /* The larger lobe (0.4 against 0.35 wide) is kept. */
+    g_assert_cmpuint (info.n_cells, >, info.n_whole_left_out);
+    g_assert_cmpfloat (info.excess_rad, <, sm->enclosed_curvature_rad);
+    df_assert_close (got, info.excess_rad, 0, 1e-6);
+  }
+  {
+    size_t n;
+    g_autofree double (*ol)[2] = corner_outline (ring, G_N_ELEMENTS (ring), 20, &n);
+    g_autoptr (df_drape) d = drape_or_die (s, (const double (*)[2]) ol, n, G_PI / 2, 0.3, 0,
+                                           0.05);
+    const df_drape_summary *sm = df_drape_get_summary (d);
+    double got = measure_boundary (s, d, &info);
+
+    g_assert_cmpuint (info.n_pieces, ==, 1);
+    g_assert_cmpuint (info.n_cells_filled, >, 0);
+    g_assert_cmpuint (info.n_cells - info.n_cells_filled, ==, sm->n_whole_cells);
+    g_assert_cmpfloat (info.excess_rad, >, sm->enclosed_curvature_rad);
+    df_assert_close (got, info.excess_rad, 0, 1e-6);
+  }
+  {
+    const double h = 0.04;
+    double scaled[G_N_ELEMENTS (pinch)][2];
+    size_t n;
+    g_autofree double (*ol)[2] = NULL;
+
+    for (gsize k = 0; k < G_N_ELEMENTS (pinch); k++)
+      scaled[k][0] = pinch[k][0] * h, scaled[k][1] = pinch[k][1] * h;
+    ol = corner_outline ((const double (*)[2]) scaled, G_N_ELEMENTS (pinch), 20, &n);
+    {
+      g_autoptr (df_drape) d = drape_or_die (s, (const double (*)[2]) ol, n, G_PI / 2, 0, 0, h);
+      const df_drape_summary *sm = df_drape_get_summary (d);
+      double got = measure_boundary (s, d, &info);
+
+      /* 12 + 8 + 4 + 4 cells in the bars (less the overlaps), one taken out at the corner
+       * contact. */
+      g_assert_cmpuint (sm->n_whole_cells, ==, 28);
+      g_assert_cmpuint (info.n_pieces, ==, 1);
+      g_assert_cmpuint (info.n_corner_cuts, ==, 1);
+      g_assert_cmpuint (info.n_cells_filled, ==, 0);
+      g_assert_cmpuint (info.n_cells, ==, 27);
+      g_assert_cmpuint (info.n_whole_left_out, ==, 1);
+      df_assert_close (got, info.excess_rad, 0, 1e-6);
+    }
+  }
+}
+
 static void
 run_cli (const char *const *args, char **out, char **err, int *status)
 {
@@ -509,6 +658,81 @@ test_cli (void)
   g_rmdir (dir);
 }
 
+/* `drape --boundary` writes the whole cells' boundary as a loop that `measure` reads; on a
+ * sphere the enclosed curvature `measure` gives for it (Green's theorem) equals the drape's
+ * enclosed_curvature_rad (the sum of the whole cells' angle excess) to 1e-6 rad: Gauss-Bonnet
+ * (do Carmo, Differential Geometry of Curves and Surfaces, sec. 4-5, from memory). */
+static void
+test_cli_boundary (void)
+{
+  g_autofree char *dir = g_dir_make_tmp ("drape-XXXXXX", NULL);
+  g_autofree char *loop = g_build_filename (dir, "ply.csv", NULL);
+  g_autofree char *bnd = g_build_filename (dir, "boundary.csv", NULL);
+  g_autoptr (GString) csv = g_string_new ("u,v\n");
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_autoptr (JsonParser) parser2 = json_parser_new ();
+  g_autofree char *out = NULL, *err = NULL, *out2 = NULL, *err2 = NULL;
+  JsonObject *o, *b, *m;
+  double drape_k, measured_k;
+  int status;
+
+  /* An ellipse, off the equator, on a sphere of radius 100 mm. */
+  for (int k = 0; k < 30; k++)
+    {
+      double a = 2 * G_PI * k / 30;
+
+      g_string_append_printf (csv, "%.12f,%.12f\n", 1.2 + 0.5 * cos (a), 0.35 * sin (a));
+    }
+  g_assert_true (g_file_set_contents (loop, csv->str, -1, NULL));
+  {
+    const char *args[] = { "drape", "--preset", "sphere", "--param", "R=100", "--loop", loop,
+                           "--start", "1.25,0.05", "--warp-deg", "25", "--cell", "4", "--json",
+                           "--boundary", bnd, NULL };
+
+    run_cli (args, &out, &err, &status);
+  }
+  g_assert_cmpint (status, ==, 0);
+  g_assert_true (json_parser_load_from_data (parser, out, -1, NULL));
+  o = json_node_get_object (json_parser_get_root (parser));
+  b = json_object_get_object_member (o, "boundary");
+  g_assert_nonnull (b);
+  g_assert_true (json_object_get_boolean_member (b, "all_whole_cells"));
+  g_assert_cmpint (json_object_get_int_member (b, "pieces"), ==, 1);
+  g_assert_cmpint (json_object_get_int_member (b, "cells"), >, 200);
+  drape_k = json_object_get_double_member (o, "enclosed_curvature_rad");
+  g_assert_cmpfloat (drape_k, >, 0.1);
+  {
+    const char *args[] = { "measure", "--preset", "sphere", "--param", "R=100", "--loop", bnd,
+                           "--json", NULL };
+
+    run_cli (args, &out2, &err2, &status);
+  }
+  g_assert_cmpint (status, ==, 0);
+  g_assert_true (json_parser_load_from_data (parser2, out2, -1, NULL));
+  m = json_node_get_object (json_parser_get_root (parser2));
+  if (json_object_has_member (m, "loops"))
+    m = json_array_get_object_element (json_object_get_array_member (m, "loops"), 0);
+  measured_k = json_object_get_double_member (m, "enclosed_curvature_rad");
+  g_test_message ("drape %.15g, measure %.15g", drape_k, measured_k);
+  df_assert_close (measured_k, drape_k, 0, 1e-6);
+  g_clear_pointer (&out, g_free);
+  g_clear_pointer (&err, g_free);
+  {
+    /* Cells larger than the ply: no whole cell, so no loop; said naming the file. */
+    const char *args[] = { "drape", "--preset", "sphere", "--param", "R=100", "--loop", loop,
+                           "--start", "1.25,0.05", "--warp-deg", "25", "--cell", "60",
+                           "--boundary", bnd, NULL };
+
+    g_remove (bnd);
+    run_cli (args, &out, &err, &status);
+    g_assert_cmpint (status, ==, 1);
+    g_assert_nonnull (strstr (err, "boundary.csv: the drape has no whole cell"));
+    g_assert_false (g_file_test (bnd, G_FILE_TEST_EXISTS));
+  }
+  g_remove (loop);
+  g_rmdir (dir);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -522,6 +746,8 @@ main (int argc, char **argv)
   g_test_add_func ("/core/drape/sphere-convergence", test_sphere_convergence);
   g_test_add_func ("/core/drape/sphere-hazzidakis", test_sphere_hazzidakis);
   g_test_add_func ("/core/drape/sphere-block-measure", test_sphere_block_measure);
+  g_test_add_func ("/core/drape/sphere-boundary-loop", test_sphere_boundary_loop);
   g_test_add_func ("/core/drape/cli", test_cli);
+  g_test_add_func ("/core/drape/cli-boundary", test_cli_boundary);
   return g_test_run ();
 }

@@ -92,6 +92,46 @@ df_drape_flat_write (const char *path, const df_drape *d, GError **error)
 }
 
 /* A coordinate for SVG text, C locale, 4 decimals. */
+char *
+df_drape_boundary_to_csv (const df_drape *d, int per_segment, df_drape_boundary_info *info)
+{
+  g_autofree double (*uv)[2] = NULL;
+  size_t n = df_drape_whole_boundary (d, per_segment, &uv, info);
+  GString *out;
+
+  if (n == 0)
+    return NULL;
+  /* '#' lines are skipped by the loop reader (df-loop-csv.h). */
+  out = g_string_new ("# driftframe: boundary of the whole cells of a drape, anticlockwise "
+                      "about N" CSV_EOL);
+  g_string_append_printf (out, "# %zu cells bounded, %zu thread segments" CSV_EOL,
+                          info->n_cells, info->n_segments);
+  if (info->n_whole_left_out > 0 || info->n_cells_filled > 0)
+    g_string_append_printf (out, "# the whole cells are not one simply connected piece: the "
+                            "outer boundary of the largest (%zu whole cells left out, %zu "
+                            "cells of holes inside)" CSV_EOL, info->n_whole_left_out,
+                            info->n_cells_filled);
+  g_string_append (out, "u,v" CSV_EOL);
+  for (size_t k = 0; k < n; k++)
+    append_row (out, uv[k], 2);
+  return g_string_free (out, FALSE);
+}
+
+gboolean
+df_drape_boundary_write (const char *path, const df_drape *d, int per_segment,
+                         df_drape_boundary_info *info, GError **error)
+{
+  g_autofree char *text = df_drape_boundary_to_csv (d, per_segment, info);
+
+  if (text == NULL)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY, "%s: the drape has no whole cell "
+                   "inside the ply outline, so no boundary to write", path);
+      return FALSE;
+    }
+  return df_write_file_atomic (path, text, -1, error);
+}
+
 static const char *
 fmt (char *buf, double v)
 {

@@ -27,6 +27,14 @@ gboolean df_drape_nodes_write  (const char *path, const df_drape *drape, GError 
 char    *df_drape_flat_to_csv  (const df_drape *drape);
 gboolean df_drape_flat_write   (const char *path, const df_drape *drape, GError **error);
 
+/* The boundary of the whole cells (df_drape_whole_boundary) as a loop CSV `u,v` that
+ * `measure` reads, per_segment points a thread segment, '#' lines saying what it bounds;
+ * *info filled. NULL / an error naming the file when there is no whole cell. */
+char    *df_drape_boundary_to_csv (const df_drape *drape, int per_segment,
+                                   df_drape_boundary_info *info);
+gboolean df_drape_boundary_write  (const char *path, const df_drape *drape, int per_segment,
+                                   df_drape_boundary_info *info, GError **error);
+
 /* The flat pattern as SVG at true scale (width and height with units: mm, cm and in as they
  * are, m converted to mm; other units are written as plain user units): the cut outline, the
  * thread lattice every h, the cells past the locking angle shaded, the start pin, seen from the

@@ -157,3 +157,26 @@ size_t    df_drape_block_points   (const df_drape *drape, int i0, int i1, int j0
                                    int per_segment, double (**out)[2]);
 /* Sum of the angle excess over the block's cells; NAN when one is not complete. */
 double    df_drape_block_excess   (const df_drape *drape, int i0, int i1, int j0, int j1);
+
+/* The boundary of the whole cells as one simple closed curve, for writing as a loop: chart
+ * points, per_segment a thread segment (start pin included), anticlockwise about N (the
+ * cells on its left), in *out (free() it); returns the count, 0 on failure (no whole cell, no
+ * memory). When the whole cells are not one simply connected piece, the region bounded is
+ * made one (df-drape-boundary.c): the largest edge-connected piece, its holes filled, cells
+ * touching only at a corner separated by taking one out; *info says what was done and the
+ * excess summed over the cells the curve bounds (= its enclosed curvature by Gauss-Bonnet). */
+typedef struct
+{
+  size_t n_whole_cells;      /* whole cells of the drape */
+  size_t n_cells;            /* cells the curve bounds */
+  size_t n_pieces;           /* edge-connected pieces of whole cells (1 when connected) */
+  size_t n_whole_left_out;   /* whole cells outside the curve (other pieces, corner cuts) */
+  size_t n_cells_filled;     /* cells inside it that are not whole (holes) */
+  size_t n_corner_cuts;      /* cells taken out where two touched only at a corner */
+  size_t n_segments;         /* thread segments along the curve */
+  double excess_rad;         /* sum over the cells bounded; NAN when a filled one is not
+                              * complete */
+} df_drape_boundary_info;
+
+size_t    df_drape_whole_boundary (const df_drape *drape, int per_segment, double (**out)[2],
+                                   df_drape_boundary_info *info);
