@@ -53,8 +53,12 @@ _df_drape_shoot (shooter *sh, const double uv[2], const double vel[2], double le
 }
 
 /* One generator ray from the start: pins every h along the geodesic with heading theta, at
- * most cap, until one lies farther than dcap from the start. Writes chart points and unit
- * velocities. */
+ * most cap, until one lies farther than dcap from the start or the ray is longer than
+ * 2 dcap. The length cap is for closed surfaces: on a sphere smaller than dcap every point
+ * is nearer than dcap and a chord test alone lets the ray wind round it up to cap pins
+ * (4000 a ray, which took half a minute for a cell larger than the ply). Twice the chord
+ * cap is more than a geodesic to any needed pin (at most pi/2 times the chord on a sphere).
+ * Writes chart points and unit velocities. */
 size_t
 _df_drape_generator (df_drape *d, shooter *sh, const net_node *start, double theta,
                      size_t cap, double (*uv)[2], double (*vel)[2], bool *hit_edge)
@@ -75,7 +79,8 @@ _df_drape_generator (df_drape *d, shooter *sh, const net_node *start, double the
       if (df_surface_eval (d->surface, uv[n - 1][0], uv[n - 1][1], 0, &j, NULL) != DF_OK)
         break;
       if (sqrt ((j.x[0] - d->x0[0]) * (j.x[0] - d->x0[0]) + (j.x[1] - d->x0[1]) * (j.x[1] - d->x0[1])
-                + (j.x[2] - d->x0[2]) * (j.x[2] - d->x0[2])) > d->dcap)
+                + (j.x[2] - d->x0[2]) * (j.x[2] - d->x0[2])) > d->dcap
+          || (double) (n - 1) * d->opt.cell > 2 * d->dcap)
         break;
       if (!_df_drape_shoot (sh, uv[n - 1], vel[n - 1], d->opt.cell, sh->substeps, uv[n], vel[n]))
         {

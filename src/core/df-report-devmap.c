@@ -71,7 +71,7 @@ df_devmap_png_write (const char *path, const df_surface *surface, const df_devma
 {
   g_autoptr (GPtrArray) strings = g_ptr_array_new_with_free_func (g_free);
   g_autoptr (GByteArray) png = g_byte_array_new ();
-  df_picture_colouring col = { strain_at, (void *) map, 0 };
+  df_picture_colouring col = { .value_at = strain_at, .user = (void *) map };
   cairo_surface_t *img;
   cairo_t *cr;
   double range = 0, sx, sy;
