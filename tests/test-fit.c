@@ -227,6 +227,43 @@ test_paraboloid_grid (void)
     df_assert_close (centred_circle (s, rho), paraboloid_want (rho), 0.0, 1e-6);
 }
 
+/* The enclosed curvature on a spline surface of many pieces (the direct route of Green's
+ * theorem, its line points shared among threads): with one thread and with two, the closed
+ * form of the paraboloid above to 1e-6 rad, and the two runs alike to rounding (the panels are
+ * split the same way whichever thread runs them). */
+static void
+test_paraboloid_threads (void)
+{
+  size_t n, m = 400;
+  g_autofree double (*xyz)[3] = paraboloid_grid (&n, 0.0);
+  g_autofree double (*uv)[2] = g_malloc (m * sizeof *uv);
+  df_fit_info info;
+  g_autoptr (df_surface) s = grid_surface ((const double (*)[3]) xyz, n, 0.0, &info);
+  double enclosed[2];
+  const double rho = 45;
+
+  for (size_t i = 0; i < m; i++)
+    {
+      uv[i][0] = rho * cos (2 * G_PI * i / m);
+      uv[i][1] = rho * sin (2 * G_PI * i / m);
+    }
+  for (int t = 0; t < 2; t++)
+    {
+      g_autoptr (df_curve) c = df_test_curve (s, (const double (*)[2]) uv, m, true);
+      g_auto (df_loop_result) r = { 0 };
+      df_loop_options opt;
+      df_diag diag;
+
+      df_loop_options_init (&opt);
+      opt.threads = t + 1;
+      g_assert_cmpint (df_loop_measure (c, &opt, &r, &diag), ==, DF_OK);
+      g_assert_true (r.enclosed_available);
+      df_assert_close (r.enclosed_curvature_rad, paraboloid_want (rho), 0.0, 1e-6);
+      enclosed[t] = r.enclosed_curvature_rad;
+    }
+  df_assert_close (enclosed[1], enclosed[0], 0.0, 1e-12);
+}
+
 static void
 test_paraboloid_noise (void)
 {
@@ -409,6 +446,7 @@ main (int argc, char **argv)
   g_test_add_func ("/core/fit/cone-profile", test_cone_profile);
   g_test_add_func ("/core/fit/paraboloid-grid", test_paraboloid_grid);
   g_test_add_func ("/core/fit/paraboloid-noise", test_paraboloid_noise);
+  g_test_add_func ("/core/fit/paraboloid-threads", test_paraboloid_threads);
   g_test_add_func ("/core/fit/paraboloid-gcv", test_paraboloid_gcv);
   g_test_add_func ("/core/fit/domain", test_domain);
   g_test_add_func ("/core/fit/paraboloid-scattered", test_paraboloid_scattered);

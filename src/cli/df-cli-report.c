@@ -26,8 +26,8 @@ typedef struct
 } report_options;
 
 static gboolean
-measure_loop (const df_surface *surface, const df_project_loop *loop, df_loop_result *out,
-              GError **error)
+measure_loop (const df_surface *surface, const df_project_loop *loop, int threads,
+              df_loop_result *out, GError **error)
 {
   g_autoptr (df_curve) curve = NULL;
   df_loop_options opt;
@@ -35,6 +35,7 @@ measure_loop (const df_surface *surface, const df_project_loop *loop, df_loop_re
   df_status st;
 
   df_loop_options_init (&opt);
+  opt.threads = threads;
   df_diag_clear (&diag);
   st = df_curve_new_through_points (surface, (const double (*)[2]) loop->uv, loop->n, true,
                                     &curve, &diag);
@@ -56,6 +57,7 @@ typedef struct
   const df_project *project;
   df_loop_result   *results;
   GError          **errors;
+  int               loop_threads;   /* 1 when the loops themselves run in parallel */
 } report_job;
 
 static void
@@ -65,7 +67,7 @@ measure_task (gpointer data, gpointer user_data)
   guint i = GPOINTER_TO_UINT (data) - 1;
   const df_project_loop *loop = g_ptr_array_index (job->project->loops, i);
 
-  measure_loop (job->surface, loop, &job->results[i], &job->errors[i]);
+  measure_loop (job->surface, loop, job->loop_threads, &job->results[i], &job->errors[i]);
 }
 
 /* Measures every loop on the pool's threads; failures[i] gets the reason loop i could not be
@@ -76,12 +78,14 @@ measure_all (const df_project *project, const df_surface *surface, df_loop_resul
 {
   guint n = project->loops->len, n_failed = 0;
   g_autofree GError **errors = g_new0 (GError *, n);
-  report_job job = { surface, project, results, errors };
+  report_job job = { surface, project, results, errors, REPORT_THREADS };
   gint threads = MIN (REPORT_THREADS, MAX (1, (gint) g_get_num_processors ()));
   GThreadPool *pool = NULL;
 
   if (n > 1 && threads > 1)
     pool = g_thread_pool_new (measure_task, &job, MIN (threads, (gint) n), TRUE, NULL);
+  if (pool != NULL)
+    job.loop_threads = 1;
   for (guint i = 0; i < n; i++)
     if (pool == NULL || !g_thread_pool_push (pool, GUINT_TO_POINTER (i + 1), NULL))
       measure_task (GUINT_TO_POINTER (i + 1), &job);

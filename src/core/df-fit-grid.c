@@ -88,7 +88,16 @@ grid_copy (const void *data)
   return c;
 }
 
-const df_fn_type _df_fit_grid_type = { "height spline", grid_eval, NULL, grid_copy, grid_free };
+static double
+grid_piece_width (const void *data, int axis)
+{
+  const grid_data *g = data;
+
+  return axis == 0 ? g->bx.h : g->by.h;
+}
+
+const df_fn_type _df_fit_grid_type = { "height spline", grid_eval, NULL, grid_copy, grid_free,
+                                       grid_piece_width };
 
 const df_fit_info *
 _df_fit_grid_info (const void *data)

@@ -108,8 +108,16 @@ scat_copy (const void *data)
   return c;
 }
 
+static double
+scat_piece_width (const void *data, int axis)
+{
+  const scat_data *g = data;
+
+  return axis == 0 ? g->bx.h : g->by.h;
+}
+
 const df_fn_type _df_fit_scattered_type = {
-  "scattered height spline", scat_eval, scat_contains, scat_copy, scat_free
+  "scattered height spline", scat_eval, scat_contains, scat_copy, scat_free, scat_piece_width
 };
 
 const df_fit_info *

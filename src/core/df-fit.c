@@ -268,7 +268,7 @@ profile_copy (const void *data)
 }
 
 const df_fn_type _df_fit_profile_type = {
-  "profile spline", profile_eval, NULL, profile_copy, profile_free
+  "profile spline", profile_eval, NULL, profile_copy, profile_free, NULL
 };
 
 /* ---- fitting ---- */

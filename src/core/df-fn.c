@@ -107,6 +107,12 @@ df_fn_contains (const df_fn *fn, double u, double v)
   return fn->type->contains == NULL || fn->type->contains (fn->data, u, v);
 }
 
+double
+df_fn_piece_width (const df_fn *fn, int axis)
+{
+  return fn->type->piece_width != NULL ? fn->type->piece_width (fn->data, axis) : 0.0;
+}
+
 const void *
 df_fn_get_data (const df_fn *fn, const df_fn_type *type)
 {
@@ -206,7 +212,7 @@ formula_eval (const void *data, double u, double v, int order, df_fn_jet out, df
 }
 
 static const df_fn_type formula_type = {
-  "formula", formula_eval, NULL, formula_copy, formula_free
+  "formula", formula_eval, NULL, formula_copy, formula_free, NULL
 };
 
 df_fn *

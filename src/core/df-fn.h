@@ -31,6 +31,10 @@ typedef struct
   bool      (*contains) (const void *data, double u, double v);
   void     *(*copy) (const void *data);
   void      (*free) (void *data);
+  /* Optional: the width of the polynomial pieces along axis 0 (u) or 1 (v) of a piecewise-
+   * polynomial function (a spline's knot spacing); NULL for an analytic one. Lets a caller
+   * skip methods that need one smooth function over many pieces. */
+  double    (*piece_width) (const void *data, int axis);
 } df_fn_type;
 
 typedef struct df_fn df_fn;
@@ -60,6 +64,8 @@ const char *df_fn_type_name    (const df_fn *fn);
 /* The natural domain; false (dom untouched) for a function defined by the caller's range. */
 bool        df_fn_get_domain   (const df_fn *fn, double dom[4]);
 bool        df_fn_contains     (const df_fn *fn, double u, double v);
+/* The type's piece_width, or 0 for an analytic function. */
+double      df_fn_piece_width  (const df_fn *fn, int axis);
 /* Type check for implementations' own accessors (df-fit.c). */
 const void *df_fn_get_data     (const df_fn *fn, const df_fn_type *type);
 

@@ -14,6 +14,9 @@
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
 #include <math.h>
+#include <pthread.h>
+#include <stdbool.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -26,6 +29,11 @@
 /* Highest Chebyshev degree tried for the fast path: beyond it the fit costs more surface
  * evaluations (n^2) than direct quadrature along the loop usually does. */
 #define FIT_MAX_DEGREE 128
+/* Most polynomial pieces of a spline surface across the loop's box, per direction, for which
+ * the fast path is tried: a global series of degree FIT_MAX_DEGREE follows a smooth spline
+ * over a few dozen pieces, but over more the fit's n^2 evaluations were spent only to fail
+ * (a fitted 1000 x 1000 height grid: 27 000 evaluations, an eighth of a loop's time). */
+#define FIT_MAX_PIECES 48
 /* Points along the loop where the fit is checked against direct quadrature. */
 #define FIT_CHECKS 24
 
@@ -131,57 +139,60 @@ start_panels (const df_curve *curve, double **out)
   return m;
 }
 
-df_status
-df_green_line_integral (const df_curve *curve, df_green_line_fn fn, void *user,
-                        const double *epsabs, const double *epsrel, size_t max_evals,
-                        df_green_line_result *out, df_diag *diag)
+/* One worker's share of the line integral: its start panels [first, last) of bounds, its
+ * own integrand context and stack. Phase 1 applies the rule to each start panel; phase 2
+ * bisects them against goal[]. */
+typedef struct
 {
-  double tau0, tau1, *bounds = NULL, total[2] = { 0.0, 0.0 }, goal[2];
-  size_t n_bounds, n_stack = 0, cap;
-  panel *stack = NULL;
-  gsl_integration_glfixed_table *gl = gsl_integration_glfixed_table_alloc (LINE_GL);
-  line_ctx lc = { curve, fn, user, gl, 0, diag };
-  df_status st = DF_OK;
+  line_ctx              lc;
+  const double         *bounds;
+  size_t                first, last;
+  double                goal[2];
+  size_t                max_evals;
+  panel                *stack;
+  size_t                n_stack, cap;
+  double                total[2];
+  df_green_line_result  res;
+  df_diag               diag;
+  df_status             st;
+} line_worker;
 
-  memset (out, 0, sizeof *out);
-  df_diag_clear (diag);
-  df_curve_get_range (curve, &tau0, &tau1);
-  n_bounds = start_panels (curve, &bounds);
-  cap = n_bounds + 64;
-  stack = malloc (cap * sizeof *stack);
-  if (gl == NULL || n_bounds == 0 || stack == NULL)
+static void
+worker_start (line_worker *w)
+{
+  w->n_stack = 0;
+  w->total[0] = w->total[1] = 0.0;
+  w->res.reached[0] = w->res.reached[1] = true;
+  for (size_t i = w->first; i < w->last; i++)
     {
-      st = DF_E_NOMEM;
-      goto out;
+      panel *pn = &w->stack[w->n_stack++];
+
+      pn->a = w->bounds[i];
+      pn->b = w->bounds[i + 1];
+      if ((w->st = line_rule (&w->lc, pn->a, pn->b, pn->whole, NULL)) != DF_OK)
+        return;
+      w->total[0] += pn->whole[0];
+      w->total[1] += pn->whole[1];
     }
-  out->reached[0] = out->reached[1] = true;
-  for (size_t i = 0; i + 1 < n_bounds; i++)
-    {
-      panel *pn = &stack[n_stack++];
+}
 
-      pn->a = bounds[i];
-      pn->b = bounds[i + 1];
-      if ((st = line_rule (&lc, pn->a, pn->b, pn->whole, NULL)) != DF_OK)
-        goto out;
-      total[0] += pn->whole[0];
-      total[1] += pn->whole[1];
-    }
-  /* Each panel's share of the tolerance is its share of the parameter range. */
-  for (int c = 0; c < 2; c++)
-    goal[c] = fmax (epsabs[c], epsrel[c] * fabs (total[c])) / (tau1 - tau0);
+/* Bisection, depth first: a panel is accepted when its two halves agree with the whole, and
+ * the halves' sum is kept. The difference estimates the whole's error, so it bounds the
+ * halves' error generously: an honest figure for the result. */
+static void
+worker_bisect (line_worker *w)
+{
+  const double *goal = w->goal;
 
-  /* Bisection, depth first: a panel is accepted when its two halves agree with the whole, and
-   * the halves' sum is kept. The difference estimates the whole's error, so it bounds the
-   * halves' error generously: an honest figure for the result. */
-  while (n_stack > 0)
+  while (w->n_stack > 0 && w->st == DF_OK)
     {
-      panel pn = stack[--n_stack];
+      panel pn = w->stack[--w->n_stack];
       double mid = 0.5 * (pn.a + pn.b), left[2], right[2], diff[2], noise[2] = { 0.0, 0.0 };
       bool ok = true, at_limit;
 
-      if ((st = line_rule (&lc, pn.a, mid, left, noise)) != DF_OK
-          || (st = line_rule (&lc, mid, pn.b, right, noise)) != DF_OK)
-        goto out;
+      if ((w->st = line_rule (&w->lc, pn.a, mid, left, noise)) != DF_OK
+          || (w->st = line_rule (&w->lc, mid, pn.b, right, noise)) != DF_OK)
+        return;
       /* Where the integrand itself is only known to some error (inner integrals stopped by
        * rounding at a kink), halves and whole cannot agree better than that: twice it is
        * allowed on top, and it is in the caller's error figure already. */
@@ -190,43 +201,170 @@ df_green_line_integral (const df_curve *curve, df_green_line_fn fn, void *user,
           diff[c] = fabs (left[c] + right[c] - pn.whole[c]);
           ok = ok && diff[c] <= goal[c] * (pn.b - pn.a) + 2 * noise[c];
         }
-      at_limit = lc.evals >= max_evals || !(mid > pn.a && mid < pn.b);
+      at_limit = w->lc.evals >= w->max_evals || !(mid > pn.a && mid < pn.b);
       if (ok || at_limit)
         {
           for (int c = 0; c < 2; c++)
             {
-              out->value[c] += left[c] + right[c];
-              out->error[c] += diff[c];
+              w->res.value[c] += left[c] + right[c];
+              w->res.error[c] += diff[c];
               if (!ok && diff[c] > goal[c] * (pn.b - pn.a) + 2 * noise[c])
-                out->reached[c] = false;
+                w->res.reached[c] = false;
             }
           continue;
         }
-      if (n_stack + 2 > cap)
+      if (w->n_stack + 2 > w->cap)
         {
-          panel *grown = realloc (stack, 2 * cap * sizeof *stack);
+          panel *grown = realloc (w->stack, 2 * w->cap * sizeof *w->stack);
 
           if (grown == NULL)
             {
-              st = DF_E_NOMEM;
-              goto out;
+              w->st = DF_E_NOMEM;
+              return;
             }
-          stack = grown;
-          cap *= 2;
+          w->stack = grown;
+          w->cap *= 2;
         }
-      stack[n_stack++] = (panel) { mid, pn.b, { right[0], right[1] } };
-      stack[n_stack++] = (panel) { pn.a, mid, { left[0], left[1] } };
+      w->stack[w->n_stack++] = (panel) { mid, pn.b, { right[0], right[1] } };
+      w->stack[w->n_stack++] = (panel) { pn.a, mid, { left[0], left[1] } };
+    }
+}
+
+static void *
+worker_start_main (void *data)
+{
+  worker_start (data);
+  return NULL;
+}
+
+static void *
+worker_bisect_main (void *data)
+{
+  worker_bisect (data);
+  return NULL;
+}
+
+/* Runs phase on every worker: the first on this thread, the others on their own threads
+ * (run here too when a thread cannot be started). Each worker writes only its own struct. */
+static void
+run_workers (line_worker *w, size_t n, void *(*phase) (void *))
+{
+  pthread_t tid[DF_GREEN_MAX_THREADS];
+  bool started[DF_GREEN_MAX_THREADS] = { false };
+
+  for (size_t k = 1; k < n; k++)
+    started[k] = pthread_create (&tid[k], NULL, phase, &w[k]) == 0;
+  phase (&w[0]);
+  for (size_t k = 1; k < n; k++)
+    {
+      if (started[k])
+        pthread_join (tid[k], NULL);
+      else
+        phase (&w[k]);
+    }
+}
+
+df_status
+df_green_line_integral_shared (const df_curve *curve, df_green_line_fn fn, void *const *users,
+                               size_t n_users, const double *epsabs, const double *epsrel,
+                               size_t max_evals, df_green_line_result *out, df_diag *diag)
+{
+  double tau0, tau1, *bounds = NULL, total[2] = { 0.0, 0.0 }, goal[2];
+  size_t n_bounds, n_panels, n = n_users < 1 ? 1 : n_users;
+  gsl_integration_glfixed_table *gl = gsl_integration_glfixed_table_alloc (LINE_GL);
+  line_worker w[DF_GREEN_MAX_THREADS];
+  df_status st = DF_OK;
+
+  memset (out, 0, sizeof *out);
+  memset (w, 0, sizeof w);
+  df_diag_clear (diag);
+  if (n > DF_GREEN_MAX_THREADS)
+    n = DF_GREEN_MAX_THREADS;
+  df_curve_get_range (curve, &tau0, &tau1);
+  n_bounds = start_panels (curve, &bounds);
+  n_panels = n_bounds > 0 ? n_bounds - 1 : 0;
+  if (n > n_panels)
+    n = n_panels > 0 ? n_panels : 1;
+  /* Consecutive start panels per worker; the partition depends only on n, and the workers'
+   * sums are added in worker order, so a result does not depend on which thread ran what. */
+  for (size_t k = 0; k < n; k++)
+    {
+      w[k].lc = (line_ctx) { curve, fn, users[k], gl, 0, &w[k].diag };
+      w[k].bounds = bounds;
+      w[k].first = n_panels * k / n;
+      w[k].last = n_panels * (k + 1) / n;
+      w[k].max_evals = max_evals / n;
+      w[k].cap = (w[k].last - w[k].first) + 64;
+      w[k].stack = malloc (w[k].cap * sizeof *w[k].stack);
+      if (w[k].stack == NULL)
+        st = DF_E_NOMEM;
+    }
+  if (gl == NULL || n_bounds == 0 || st != DF_OK)
+    {
+      st = DF_E_NOMEM;
+      goto out;
+    }
+  run_workers (w, n, worker_start_main);
+  for (size_t k = 0; k < n && st == DF_OK; k++)
+    if ((st = w[k].st) != DF_OK)
+      *diag = w[k].diag;
+  if (st != DF_OK)
+    goto out;
+  for (size_t k = 0; k < n; k++)
+    for (int c = 0; c < 2; c++)
+      total[c] += w[k].total[c];
+  /* Each panel's share of the tolerance is its share of the parameter range. */
+  for (int c = 0; c < 2; c++)
+    goal[c] = fmax (epsabs[c], epsrel[c] * fabs (total[c])) / (tau1 - tau0);
+  for (size_t k = 0; k < n; k++)
+    memcpy (w[k].goal, goal, sizeof goal);
+  run_workers (w, n, worker_bisect_main);
+  out->reached[0] = out->reached[1] = true;
+  for (size_t k = 0; k < n; k++)
+    {
+      if (st == DF_OK && (st = w[k].st) != DF_OK)
+        *diag = w[k].diag;
+      for (int c = 0; c < 2; c++)
+        {
+          out->value[c] += w[k].res.value[c];
+          out->error[c] += w[k].res.error[c];
+          out->reached[c] = out->reached[c] && w[k].res.reached[c];
+        }
+      out->evals += w[k].lc.evals;
     }
 out:
-  out->evals = lc.evals;
+  for (size_t k = 0; k < n; k++)
+    free (w[k].stack);
   free (bounds);
-  free (stack);
   if (gl)
     gsl_integration_glfixed_table_free (gl);
   return st;
 }
 
+df_status
+df_green_line_integral (const df_curve *curve, df_green_line_fn fn, void *user,
+                        const double *epsabs, const double *epsrel, size_t max_evals,
+                        df_green_line_result *out, df_diag *diag)
+{
+  void *users[1] = { user };
+
+  return df_green_line_integral_shared (curve, fn, users, 1, epsabs, epsrel, max_evals, out,
+                                        diag);
+}
+
 /* --- graphs: the inner integrals ------------------------------------------------------------ */
+
+/* Slots of the per-line memo (a power of two). The curvature and area passes at one line point
+ * run QAG on the same interval; their first rule and first bisections fall on the same nodes,
+ * and one K sqrt(g) evaluation gives both integrands, so the area pass reads most of its
+ * values back (on a fitted 1000 x 1000 height grid this halves the surface evaluations). */
+#define MEMO_SLOTS 1024
+
+typedef struct
+{
+  double   u, ksg, sg;
+  unsigned line;     /* the line it belongs to: valid when it is graph_ctx.line */
+} memo_slot;
 
 typedef struct
 {
@@ -243,7 +381,33 @@ typedef struct
   int               comp;
   df_status         fail;
   df_diag           fail_diag;
+  memo_slot        *memo;           /* values along the line at v, or NULL */
+  unsigned          line;           /* numbers the lines, from 1 */
+  size_t            memo_hits;
 } graph_ctx;
+
+static memo_slot *
+memo_find (graph_ctx *g, double u)
+{
+  uint64_t bits;
+  size_t k;
+
+  memcpy (&bits, &u, sizeof bits);
+  bits ^= bits >> 29;
+  bits *= 0xbf58476d1ce4e5b9ULL;
+  bits ^= bits >> 32;
+  k = (size_t) bits & (MEMO_SLOTS - 1);
+  /* Linear probing over a few slots; a full neighbourhood is overwritten (a memo, not a
+   * record: a lost value is only evaluated again). */
+  for (int probe = 0; probe < 8; probe++)
+    {
+      memo_slot *m = &g->memo[(k + (size_t) probe) & (MEMO_SLOTS - 1)];
+
+      if (m->line != g->line || m->u == u)
+        return m;
+    }
+  return &g->memo[k];
+}
 
 static double
 inner_integrand (double u, void *data)
@@ -252,8 +416,19 @@ inner_integrand (double u, void *data)
   double ksg = 0.0, sg = 0.0;
   df_status st;
 
+  memo_slot *m = NULL;
+
   if (g->fail != DF_OK)
     return 0.0;
+  if (g->memo != NULL)
+    {
+      m = memo_find (g, u);
+      if (m->line == g->line && m->u == u)
+        {
+          g->memo_hits++;
+          return g->comp == 0 ? m->ksg : m->sg;
+        }
+    }
   g->evals++;
   st = df_surface_k_area (g->surface, u, g->v, &ksg, &sg, &g->fail_diag);
   if (st == DF_OK && !(isfinite (ksg) && isfinite (sg)))
@@ -264,6 +439,8 @@ inner_integrand (double u, void *data)
       g->fail = st;
       return 0.0;
     }
+  if (m != NULL)
+    *m = (memo_slot) { u, ksg, sg, g->line };
   return g->comp == 0 ? ksg : sg;
 }
 
@@ -283,6 +460,12 @@ inner_direct (graph_ctx *g, double u, double v, int comp, double *value, double 
     *error = 0.0;
   if (u == g->u_ref)
     return DF_OK;
+  /* A new line: the memo holds another line's values. */
+  if (g->memo != NULL && (v != g->v || comp == 0) && ++g->line == 0)
+    {
+      memset (g->memo, 0, MEMO_SLOTS * sizeof *g->memo);
+      g->line = 1;
+    }
   g->v = v;
   g->comp = comp;
   g->fail = DF_OK;
@@ -400,9 +583,30 @@ try_fit (graph_ctx *g, const double lo[2], const double hi[2], const double (*q)
   return DF_OK;
 }
 
-df_status
-df_green_graph (const df_curve *curve, double tol, df_green_result *out, df_diag *diag)
+/* Is the loop's box spanned by few enough pieces of the surface's defining function for the
+ * fast path (always, for an analytic one)? */
+static bool
+few_pieces (const df_surface *s, const double lo[2], const double hi[2])
 {
+  const df_fn *fn = df_surface_get_fn (s);
+
+  for (int k = 0; fn != NULL && k < 2; k++)
+    {
+      double w = df_fn_piece_width (fn, k);
+
+      if (w > 0 && (hi[k] - lo[k]) / w > FIT_MAX_PIECES)
+        return false;
+    }
+  return true;
+}
+
+df_status
+df_green_graph (const df_curve *curve, double tol, int threads, df_green_result *out,
+                df_diag *diag)
+{
+  graph_ctx extra[DF_GREEN_MAX_THREADS];
+  void *ctxs[DF_GREEN_MAX_THREADS];
+  size_t n_ctx = 1, n_made = 1;
   const df_surface *s = df_curve_get_surface (curve);
   double lo[2] = { INFINITY, INFINITY }, hi[2] = { -INFINITY, -INFINITY };
   double u_min, u_max, v_min, v_max, total_dv = 0.0, epsabs[2], disc[2] = { 0, 0 };
@@ -449,9 +653,11 @@ df_green_graph (const df_curve *curve, double tol, df_green_result *out, df_diag
   g.u_ref = 0.5 * (lo[0] + hi[0]);
   g.ws = gsl_integration_workspace_alloc (INNER_LIMIT);
   g.cq = gsl_integration_cquad_workspace_alloc (200);
-  if (g.ws == NULL || g.cq == NULL)
+  g.memo = calloc (MEMO_SLOTS, sizeof *g.memo);
+  if (g.ws == NULL || g.cq == NULL || g.memo == NULL)
     {
       free (q);
+      free (g.memo);
       gsl_integration_workspace_free (g.ws);
       if (g.cq)
         gsl_integration_cquad_workspace_free (g.cq);
@@ -461,16 +667,49 @@ df_green_graph (const df_curve *curve, double tol, df_green_result *out, df_diag
    * the budget for them, the rest for the line quadrature. */
   for (int c = 0; c < 2; c++)
     g.inner_epsabs[c] = 0.25 * epsabs[c] / total_dv;
-  if (hi[0] > lo[0] && hi[1] > lo[1])
+  if (hi[0] > lo[0] && hi[1] > lo[1] && few_pieces (s, lo, hi))
     st = try_fit (&g, lo, hi, (const double (*)[2]) q, m, total_dv, epsabs, disc, diag);
   else
     st = DF_OK;
   free (q);
+  /* The direct route costs some hundred surface evaluations a line point: its panels are
+   * shared among the threads asked for, each with its own workspaces and memo. The fast path
+   * is too cheap a point to be worth a thread. */
+  if (threads > DF_GREEN_MAX_THREADS)
+    threads = DF_GREEN_MAX_THREADS;
+  n_ctx = st == DF_OK && g.fit == NULL && threads > 1 ? (size_t) threads : 1;
+  ctxs[0] = &g;
+  for (size_t k = 1; k < n_ctx && st == DF_OK; k++)
+    {
+      extra[k] = g;
+      extra[k].ws = gsl_integration_workspace_alloc (INNER_LIMIT);
+      extra[k].cq = gsl_integration_cquad_workspace_alloc (200);
+      extra[k].memo = calloc (MEMO_SLOTS, sizeof *extra[k].memo);
+      extra[k].evals = 0;
+      extra[k].memo_hits = 0;
+      extra[k].line = 0;
+      ctxs[k] = &extra[k];
+      if (extra[k].ws == NULL || extra[k].cq == NULL || extra[k].memo == NULL)
+        st = DF_E_NOMEM;
+      n_made = k + 1;
+    }
   if (st == DF_OK)
-    st = df_green_line_integral (curve, graph_line_fn, &g,
-                                 (double[2]) { 0.75 * epsabs[0], 0.75 * epsabs[1] },
-                                 (double[2]) { tol, DF_GREEN_AREA_REL },
-                                 g.fit ? DF_GREEN_MAX_EVALS : DIRECT_MAX_EVALS, &lr, diag);
+    st = df_green_line_integral_shared (curve, graph_line_fn, ctxs, n_ctx,
+                                        (double[2]) { 0.75 * epsabs[0], 0.75 * epsabs[1] },
+                                        (double[2]) { tol, DF_GREEN_AREA_REL },
+                                        g.fit ? DF_GREEN_MAX_EVALS : DIRECT_MAX_EVALS, &lr, diag);
+  for (size_t k = 1; k < n_made; k++)
+    {
+      g.evals += extra[k].evals;
+      g.memo_hits += extra[k].memo_hits;
+      for (int c = 0; c < 2; c++)
+        g.inner_err[c] = fmax (g.inner_err[c], extra[k].inner_err[c]);
+      free (extra[k].memo);
+      if (extra[k].ws)
+        gsl_integration_workspace_free (extra[k].ws);
+      if (extra[k].cq)
+        gsl_integration_cquad_workspace_free (extra[k].cq);
+    }
   if (st == DF_OK)
     {
       out->curvature = lr.value[0];
@@ -484,6 +723,7 @@ df_green_graph (const df_curve *curve, double tol, df_green_result *out, df_diag
   out->surface_evals = g.evals;
   out->line_evals = st == DF_OK ? lr.evals : 0;
   df_cheb2_free (g.fit);
+  free (g.memo);
   gsl_integration_workspace_free (g.ws);
   gsl_integration_cquad_workspace_free (g.cq);
   return st;

@@ -48,6 +48,22 @@ df_status df_green_line_integral (const df_curve          *curve,
                                   df_green_line_result    *out,
                                   df_diag                 *diag);
 
+/* Threads a line integral may share its panels among. */
+#define DF_GREEN_MAX_THREADS 4
+
+/* The same with the start panels shared among n_users workers, users[k] the integrand context
+ * of worker k (each its own: the workers run at once on their own POSIX threads). The result
+ * does not depend on whether the threads could be started. */
+df_status df_green_line_integral_shared (const df_curve          *curve,
+                                         df_green_line_fn         fn,
+                                         void *const             *users,
+                                         size_t                   n_users,
+                                         const double            *epsabs,
+                                         const double            *epsrel,
+                                         size_t                   max_evals,
+                                         df_green_line_result    *out,
+                                         df_diag                 *diag);
+
 typedef struct
 {
   double curvature;        /* closed integral of H dv: +int K dA for a disc on the left */
@@ -66,8 +82,10 @@ typedef struct
 /* The enclosed curvature and signed area of a closed curve on a graph, aiming at an absolute
  * error of tol (radians) for the curvature and DF_GREEN_AREA_REL for the area. Fails only
  * when the surface cannot be evaluated inside the loop's box (the status, diag naming the
- * point) or out of memory; otherwise out holds the values with their error estimates. */
+ * point) or out of memory; otherwise out holds the values with their error estimates.
+ * threads (1 .. DF_GREEN_MAX_THREADS) share the direct route's line points. */
 df_status df_green_graph   (const df_curve  *curve,
                             double           tol,
+                            int              threads,
                             df_green_result *out,
                             df_diag         *diag);

@@ -64,6 +64,7 @@ df_loop_options_init (df_loop_options *o)
 {
   o->rel_tol = 1e-11;
   o->n_samples = 200;
+  o->threads = 2;
 }
 
 void
@@ -577,7 +578,7 @@ fail:
  * estimate goes with the value, and a note says when it is well above the aim or why there is
  * no value. */
 static df_status
-enclosed_by_green (line_ctx *ctx, double rel_tol, df_loop_result *out)
+enclosed_by_green (line_ctx *ctx, double rel_tol, int threads, df_loop_result *out)
 {
   double tol = 10 * rel_tol, size = df_surface_size (ctx->surface);
   double curvature = 0.0, area = 0.0, error = 0.0;
@@ -615,7 +616,7 @@ enclosed_by_green (line_ctx *ctx, double rel_tol, df_loop_result *out)
     {
       df_green_result gr;
 
-      st = df_green_graph (ctx->curve, tol, &gr, &d);
+      st = df_green_graph (ctx->curve, tol, threads, &gr, &d);
       curvature = gr.curvature;
       area = gr.area;
       error = gr.curvature_error;
@@ -707,7 +708,7 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
   max_abs_kg = tr.max_abs_kg;
   if (out->bounds_disc)
     {
-      if ((st = enclosed_by_green (&ctx, options->rel_tol, out)) != DF_OK)
+      if ((st = enclosed_by_green (&ctx, options->rel_tol, options->threads, out)) != DF_OK)
         goto done;
       if (out->enclosed_available)
         {

@@ -33,6 +33,9 @@ typedef struct
 {
   double rel_tol;       /* transport tolerance, default 1e-11 */
   size_t n_samples;     /* samples to report (>= 8), default 200 */
+  int    threads;       /* threads the enclosed curvature's quadrature may share on a graph
+                         * (default 2, the machines driftframe is built for; 1 where loops
+                         * are already measured in parallel) */
 } df_loop_options;
 
 void df_loop_options_init (df_loop_options *options);
