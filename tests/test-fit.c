@@ -2,9 +2,11 @@
  * profile points, a paraboloid given as a height grid (exact and with noise), and the
  * refusals of bad data with the row or place named. */
 #include <gsl/gsl_randist.h>
+#include <gsl/gsl_linalg.h>
 #include <gsl/gsl_rng.h>
 #include <math.h>
 
+#include "df-bspline.h"
 #include "df-fit.h"
 #include "df-test.h"
 
@@ -264,6 +266,46 @@ test_paraboloid_threads (void)
   df_assert_close (enclosed[1], enclosed[0], 0.0, 1e-12);
 }
 
+/* The smoothing trace tr(A^-1 G) from the band of A^-1 (the selected-inversion recursion)
+ * against GSL's dense Cholesky inverse (gsl_linalg_cholesky_invert, a reference library) on a
+ * band matrix of the smoother's shape: half-width 5, 60 rows, random entries, made positive
+ * definite by its diagonal. */
+static void
+test_band_trace (void)
+{
+  const size_t n = 60, p = 5;
+  gsl_matrix *ab = gsl_matrix_calloc (n, p + 1), *g = gsl_matrix_calloc (n, p + 1);
+  gsl_matrix *a = gsl_matrix_calloc (n, n);
+  gsl_rng *rng = gsl_rng_alloc (gsl_rng_mt19937);
+  double fast = 0.0, dense = 0.0;
+
+  gsl_rng_set (rng, 7);
+  for (size_t i = 0; i < n; i++)
+    for (size_t d = 0; d <= p && i + d < n; d++)
+      {
+        double av = d == 0 ? 8.0 + gsl_rng_uniform (rng) : gsl_rng_uniform (rng) - 0.5;
+        double gv = d == 0 ? 1.0 + gsl_rng_uniform (rng) : 0.3 * (gsl_rng_uniform (rng) - 0.5);
+
+        gsl_matrix_set (ab, i, d, av);
+        gsl_matrix_set (a, i, i + d, av);
+        gsl_matrix_set (a, i + d, i, av);
+        gsl_matrix_set (g, i, d, gv);
+      }
+  g_assert_cmpint (gsl_linalg_cholesky_band_decomp (ab), ==, GSL_SUCCESS);
+  g_assert_true (df_band_trace_inverse_product (ab, g, &fast));
+  g_assert_cmpint (gsl_linalg_cholesky_decomp1 (a), ==, GSL_SUCCESS);
+  g_assert_cmpint (gsl_linalg_cholesky_invert (a), ==, GSL_SUCCESS);
+  for (size_t i = 0; i < n; i++)
+    for (size_t d = 0; d <= p && i + d < n; d++)
+      dense += (d == 0 ? 1.0 : 2.0) * gsl_matrix_get (a, i, i + d) * gsl_matrix_get (g, i, d);
+  g_test_message ("band trace %.15g, dense %.15g", fast, dense);
+  df_assert_close (fast, dense, 1e-12, 0.0);
+  gsl_rng_free (rng);
+  gsl_matrix_free (ab);
+  gsl_matrix_free (g);
+  gsl_matrix_free (a);
+}
+
 static void
 test_paraboloid_noise (void)
 {
@@ -447,6 +489,7 @@ main (int argc, char **argv)
   g_test_add_func ("/core/fit/paraboloid-grid", test_paraboloid_grid);
   g_test_add_func ("/core/fit/paraboloid-noise", test_paraboloid_noise);
   g_test_add_func ("/core/fit/paraboloid-threads", test_paraboloid_threads);
+  g_test_add_func ("/core/fit/band-trace", test_band_trace);
   g_test_add_func ("/core/fit/paraboloid-gcv", test_paraboloid_gcv);
   g_test_add_func ("/core/fit/domain", test_domain);
   g_test_add_func ("/core/fit/paraboloid-scattered", test_paraboloid_scattered);

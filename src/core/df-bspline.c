@@ -263,23 +263,9 @@ df_bspline_smooth (const df_bspline *b, size_t n, const double *x, const double 
 
   if (st == DF_OK && trace_h)
     {
-      /* tr(A^-1 G), G = B^T B: column by column of A^-1 within G's band. */
-      double tr = 0.0;
-
-      for (int j = 0; j < count; j++)
-        {
-          gsl_vector_set_zero (rhs);
-          gsl_vector_set (rhs, (size_t) j, 1.0);
-          gsl_linalg_cholesky_band_svx (ab, rhs);
-          for (int i = (j - p > 0 ? j - p : 0); i <= j + p && i < count; i++)
-            {
-              int lo = i < j ? i : j, hi = i < j ? j : i;
-
-              tr += gsl_vector_get (rhs, (size_t) i) * gsl_matrix_get (g, (size_t) lo,
-                                                                        (size_t) (hi - lo));
-            }
-        }
-      *trace_h = tr;
+      /* tr(A^-1 G), G = B^T B, from the band of A^-1 alone. */
+      if (!df_band_trace_inverse_product (ab, g, trace_h))
+        st = df_diag_fail (diag, DF_E_NONFINITE, -1, "the fit's smoothing trace is not finite");
     }
   for (size_t i = 0; st == DF_OK && i < (size_t) count * (size_t) ncol; i++)
     if (!isfinite (coef[i]))
@@ -293,6 +279,47 @@ out:
   if (rhs)
     gsl_vector_free (rhs);
   return st;
+}
+
+bool
+df_band_trace_inverse_product (const gsl_matrix *l, const gsl_matrix *g, double *trace)
+{
+  /* The band of S = A^-1 from A = L L^T by the backward recursion from L^T S = L^-1 (lower
+   * triangular, diagonal 1/L_jj): for i >= j,
+   *   S_ji = (delta_ij / L_jj - sum_{k = j+1}^{j+p} L_kj S_ki) / L_jj,
+   * taking i from j + p down to j, so every S_ki it needs (k, i > j, |k - i| < p) is known
+   * (the selected-inversion recursion for banded smoothing-spline matrices; from memory).
+   * O(n p^2) where solving for each column of A^-1 was O(n^2 p): it was half the time of a
+   * 1000 x 1000 GCV fit. Only the band is needed: tr(S G) = sum over G's band. */
+  size_t n = l->size1, p = l->size2 - 1;
+  double *sb = calloc (n * (p + 1), sizeof *sb), tr = 0.0;
+
+  if (sb == NULL)
+    return false;
+#define L_AT(r, c) gsl_matrix_get (l, (c), (r) - (c))          /* r >= c, r - c <= p */
+#define S_AT(a, b) ((a) <= (b) ? sb[(a) * (p + 1) + ((b) - (a))] : sb[(b) * (p + 1) + ((a) - (b))])
+  for (size_t jj = n; jj-- > 0;)
+    {
+      double ljj = L_AT (jj, jj);
+      size_t top = jj + p < n - 1 ? jj + p : n - 1;
+
+      for (size_t i = top + 1; i-- > jj;)
+        {
+          double acc = i == jj ? 1.0 / ljj : 0.0;
+
+          for (size_t k = jj + 1; k <= top; k++)
+            acc -= L_AT (k, jj) * S_AT (k, i);
+          sb[jj * (p + 1) + (i - jj)] = acc / ljj;
+        }
+    }
+  for (size_t i = 0; i < n; i++)
+    for (size_t d = 0; d <= p && i + d < n; d++)
+      tr += (d == 0 ? 1.0 : 2.0) * sb[i * (p + 1) + d] * gsl_matrix_get (g, i, d);
+#undef L_AT
+#undef S_AT
+  free (sb);
+  *trace = tr;
+  return isfinite (tr);
 }
 
 gsl_matrix *
@@ -319,24 +346,8 @@ df_bspline_factor (const df_bspline *b, size_t n, const double *x, double lambda
   add_penalty (ab, count, lambda);
   if (gsl_linalg_cholesky_band_decomp (ab) != GSL_SUCCESS)
     goto fail;
-  if (trace_h)
-    {
-      double tr = 0.0;
-
-      for (int j = 0; j < count; j++)
-        {
-          gsl_vector_set_basis (e, (size_t) j);
-          gsl_linalg_cholesky_band_svx (ab, e);
-          for (int i = (j - p > 0 ? j - p : 0); i <= j + p && i < count; i++)
-            {
-              int lo = i < j ? i : j, hi = i < j ? j : i;
-
-              tr += gsl_vector_get (e, (size_t) i) * gsl_matrix_get (g, (size_t) lo,
-                                                                      (size_t) (hi - lo));
-            }
-        }
-      *trace_h = tr;
-    }
+  if (trace_h && !df_band_trace_inverse_product (ab, g, trace_h))
+    goto fail;
   gsl_matrix_free (g);
   gsl_vector_free (e);
   return ab;

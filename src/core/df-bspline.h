@@ -8,6 +8,7 @@
 #pragma once
 
 #include <gsl/gsl_matrix.h>
+#include <stdbool.h>
 #include <stddef.h>
 
 #include "df-status.h"
@@ -62,6 +63,12 @@ df_status df_bspline_smooth     (const df_bspline            *b,
                                  double                      *coef,
                                  double                      *trace_h,
                                  df_diag                     *diag);
+
+/* tr(A^-1 G) for A = L L^T given as its band Cholesky factor l in GSL's layout (l(c, d) =
+ * L(c + d, c)) and a symmetric band matrix g in the same layout of A's width (g(i, d) =
+ * G(i, i + d)). False when out of memory or not finite. */
+bool        df_band_trace_inverse_product (const gsl_matrix *l, const gsl_matrix *g,
+                                           double *trace);
 
 /* The banded normal matrix B^T B + lambda D^T D of points x[n], Cholesky-factored in GSL's
  * band layout (count x (degree + 1)), for solving many right-hand sides

@@ -152,7 +152,7 @@ typedef struct
   grid_data *g;
   size_t     nx, ny;
   double    *xs, *ys, *z;  /* nodes and heights z[i * ny + j] */
-  double    *w;            /* work: count_x x ny */
+  double    *w;            /* work: ny x count_x */
   double    *v;            /* work: count_x x count_y */
   double    *u;            /* work: nx x count_y */
   int       *by_first;     /* the y basis at each ys[j], computed once */
@@ -171,8 +171,6 @@ grid_solve (grid_ctx *c, double lambda, double *trace, df_diag *diag)
                                       trace ? &trx : NULL);
   gsl_matrix *ay = df_bspline_factor (&g->by, c->ny, c->ys, lambda * c->scale_y,
                                       trace ? &try_ : NULL);
-  gsl_matrix_view wv, tv;
-  gsl_matrix *t;
 
   if (ax == NULL || ay == NULL)
     {
@@ -180,55 +178,53 @@ grid_solve (grid_ctx *c, double lambda, double *trace, df_diag *diag)
       gsl_matrix_free (ay);
       return df_diag_fail (diag, DF_E_SINGULAR, -1, "the height fit is not determined");
     }
-  /* W = Bx^T Z, then Ax^-1 W. */
+  /* Both solves run on contiguous rows: GSL's band solve walks one vector, and a column of
+   * a row-major matrix (the earlier layout) put every element of it in another cache line:
+   * that strided walk was half the time of a 1000 x 1000 fit.
+   * W^T = Z^T Bx (ny x count_x), each row j then solved with Ax. */
   memset (c->w, 0, sizeof (double) * (size_t) mx * c->ny);
   for (size_t i = 0; i < c->nx; i++)
     {
       int f = df_bspline_eval_basis (&g->bx, c->xs[i], 0, v);
-
-      for (int m = 0; m <= g->bx.degree; m++)
-        {
-          double *wr = c->w + (size_t) (f + m) * c->ny;
-          const double *zr = c->z + i * c->ny;
-
-          for (size_t j = 0; j < c->ny; j++)
-            wr[j] += v[0][m] * zr[j];
-        }
-    }
-  wv = gsl_matrix_view_array (c->w, (size_t) mx, c->ny);
-  gsl_linalg_cholesky_band_svxm (ax, &wv.matrix);
-  /* V^T = By^T W^T (count_y x count_x), then Ay^-1 V^T; Theta = its transpose. */
-  t = gsl_matrix_calloc ((size_t) my, (size_t) mx);
-  if (t == NULL)
-    {
-      gsl_matrix_free (ax);
-      gsl_matrix_free (ay);
-      return DF_E_NOMEM;
-    }
-  /* V = W By row by row (contiguous in both), then transposed into t. */
-  memset (c->v, 0, sizeof (double) * (size_t) mx * (size_t) my);
-  for (int a = 0; a < mx; a++)
-    {
-      const double *wr = c->w + (size_t) a * c->ny;
-      double *vr = c->v + (size_t) a * my;
+      const double *zr = c->z + i * c->ny;
 
       for (size_t j = 0; j < c->ny; j++)
         {
-          const double *bv = c->by_val + j * (DF_BSPLINE_MAX_DEGREE + 1);
+          double *wr = c->w + j * (size_t) mx + f;
+
+          for (int m = 0; m <= g->bx.degree; m++)
+            wr[m] += v[0][m] * zr[j];
+        }
+    }
+  for (size_t j = 0; j < c->ny; j++)
+    {
+      gsl_vector_view row = gsl_vector_view_array (c->w + j * (size_t) mx, (size_t) mx);
+
+      gsl_linalg_cholesky_band_svx (ax, &row.vector);
+    }
+  /* V = (Ax^-1 W) By (count_x x count_y), each row a then solved with Ay: Theta itself. */
+  memset (c->v, 0, sizeof (double) * (size_t) mx * (size_t) my);
+  for (size_t j = 0; j < c->ny; j++)
+    {
+      const double *bv = c->by_val + j * (DF_BSPLINE_MAX_DEGREE + 1);
+      const double *wr = c->w + j * (size_t) mx;
+      int f = c->by_first[j];
+
+      for (int a = 0; a < mx; a++)
+        {
+          double *vr = c->v + (size_t) a * my + f, wa = wr[a];
 
           for (int m = 0; m <= g->by.degree; m++)
-            vr[c->by_first[j] + m] += bv[m] * wr[j];
+            vr[m] += bv[m] * wa;
         }
     }
   for (int a = 0; a < mx; a++)
-    for (int b = 0; b < my; b++)
-      gsl_matrix_set (t, (size_t) b, (size_t) a, c->v[(size_t) a * my + b]);
-  tv = gsl_matrix_submatrix (t, 0, 0, (size_t) my, (size_t) mx);
-  gsl_linalg_cholesky_band_svxm (ay, &tv.matrix);
-  for (int a = 0; a < mx; a++)
-    for (int b = 0; b < my; b++)
-      g->theta[(size_t) a * my + b] = gsl_matrix_get (t, (size_t) b, (size_t) a);
-  gsl_matrix_free (t);
+    {
+      gsl_vector_view row = gsl_vector_view_array (c->v + (size_t) a * my, (size_t) my);
+
+      gsl_linalg_cholesky_band_svx (ay, &row.vector);
+    }
+  memcpy (g->theta, c->v, sizeof (double) * (size_t) mx * (size_t) my);
   gsl_matrix_free (ax);
   gsl_matrix_free (ay);
   if (trace)
