@@ -145,6 +145,36 @@ test_compare_units (void)
   g_assert_cmpfloat (get_number (a, "angle_rad"), ==, get_number (b, "angle_rad"));
 }
 
+/* probe --units in on a sphere of R = 50 mm: the point R (sin theta, 0, cos theta) and
+ * K = 1/R^2, H = -1/R (N outward), all with R = 50 / 25.4 in (the inch is 25.4 mm exactly,
+ * by definition); the chart point stays in the chart's own coordinates. */
+static void
+test_probe_units (void)
+{
+  g_autoptr (JsonParser) parser = json_parser_new ();
+  g_auto (cli_run) r = { 0 };
+  g_auto (cli_run) bad = { 0 };
+  const double R = 50.0 / 25.4, theta = 0.9;
+  JsonObject *o;
+  JsonArray *pt;
+
+  run_cli (&r, "probe", "--preset", "sphere", "--param", "R=50", "--at", "0.9,0", "--units",
+           "in", "--json", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  o = parse_object (parser, r.out);
+  g_assert_cmpstr (json_object_get_string_member (o, "units"), ==, "in");
+  g_assert_cmpstr (json_object_get_string_member (o, "curvature_units"), ==, "1/in^2");
+  df_assert_close (get_number (o, "u"), theta, 1e-15, 0.0);
+  pt = json_object_get_array_member (o, "point");
+  df_assert_close (json_array_get_double_element (pt, 0), R * sin (theta), 1e-12, 0.0);
+  df_assert_close (json_array_get_double_element (pt, 2), R * cos (theta), 1e-12, 0.0);
+  df_assert_close (get_number (o, "gaussian_curvature"), 1 / (R * R), 1e-10, 0.0);
+  df_assert_close (fabs (get_number (o, "mean_curvature")), 1 / R, 1e-10, 0.0);
+  run_cli (&bad, "probe", "--preset", "sphere", "--at", "0.9,0", "--units", "yd", NULL);
+  g_assert_cmpint (bad.status, ==, 2);
+  g_assert_nonnull (strstr (bad.err, "--units: unknown unit 'yd'"));
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -825,6 +855,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/measure/units", test_measure_units);
   g_test_add_func ("/cli/geodesic/units", test_geodesic_units);
   g_test_add_func ("/cli/compare/units", test_compare_units);
+  g_test_add_func ("/cli/probe/units", test_probe_units);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);

@@ -2,6 +2,9 @@
  * metric, Christoffel symbols, Riemann tensor, curvatures) from df_surface_geometry, as text
  * or JSON. */
 #include <stdio.h>
+#include <string.h>
+
+#include "df-units-convert.h"
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
@@ -13,11 +16,12 @@ typedef struct
 {
   DfCliSurfaceOptions surface;
   char    *at_text;
+  char    *units_text;
   gboolean json;
 } probe_options;
 
 static void
-print_json (const probe_options *o, const df_surface_spec *spec, const df_surface *surface,
+print_json (const probe_options *o, const char *units, const df_surface *surface,
             const df_point_geometry *g)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
@@ -29,20 +33,32 @@ print_json (const probe_options *o, const df_surface_spec *spec, const df_surfac
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
   json_builder_set_member_name (b, "units");
-  json_builder_add_string_value (b, spec->units);
+  json_builder_add_string_value (b, units);
+  /* Curvature follows the length unit, as in measure (df-units-convert.h). */
+  json_builder_set_member_name (b, "curvature_units");
+  {
+    g_autofree char *cu = g_strdup_printf ("1/%s^2", units);
+
+    json_builder_add_string_value (b, cu);
+  }
   json_builder_end_object (b);
   df_cli_print_json (b);
 }
 
 static void
-print_text (const probe_options *o, const df_surface_spec *spec, const df_surface *surface,
-            const df_point_geometry *g)
+print_text (const probe_options *o, const df_surface_spec *spec, const char *units,
+            const df_surface *surface, const df_point_geometry *g)
 {
-  const char *un = spec->units, *names[2];
+  const char *un = units, *names[2];
   char a[40], b[40], c[40], d[40];
 
   df_cli_chart_names (surface, &names[0], &names[1]);
-  printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface), un);
+  printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface),
+          spec->units);
+  if (strcmp (un, spec->units) != 0)
+    printf ("Shown in: %s (the point and the curvatures; the chart point, metric, Christoffel "
+            "symbols and Riemann tensor stay in the chart's own coordinates, in %s)\n", un,
+            spec->units);
   printf ("Chart point: %s = %s, %s = %s\n", names[0], df_cli_num (a, sizeof a, g->u, 12),
           names[1], df_cli_num (b, sizeof b, g->v, 12));
   printf ("Point:   (%s, %s, %s) %s\n", df_cli_num (a, sizeof a, g->point[0], 10),
@@ -124,10 +140,22 @@ run (probe_options *o)
       g_prefix_error (&error, "--at %s: ", o->at_text);
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
-  if (o->json)
-    print_json (o, spec, surface, &g);
-  else
-    print_text (o, spec, surface, &g);
+  {
+    const char *units = spec->units;
+    int model, display;
+
+    if (o->units_text != NULL)
+      {
+        if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
+          return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+        df_point_geometry_convert (&g, (df_unit) model, (df_unit) display);
+        units = df_unit_name ((df_unit) display);
+      }
+    if (o->json)
+      print_json (o, units, surface, &g);
+    else
+      print_text (o, spec, units, surface, &g);
+  }
   return DF_CLI_EXIT_OK;
 }
 
@@ -141,6 +169,10 @@ df_cli_probe (int argc, char **argv)
     { "at", 'a', 0, G_OPTION_ARG_STRING, &o.at_text,
       "Chart point: t,phi on a surface of revolution, x,y on a graph", "U,V" },
     { "json", 'j', 0, G_OPTION_ARG_NONE, &o.json, "Print the result as JSON", NULL },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Show the point in mm, cm, m or in and the curvatures per that unit (default: the "
+      "surface's units); the chart point and the tensors stay in the chart's coordinates",
+      "UNIT" },
     { NULL },
   };
 
@@ -158,5 +190,6 @@ df_cli_probe (int argc, char **argv)
 
   df_cli_surface_options_clear (&o.surface);
   g_free (o.at_text);
+  g_free (o.units_text);
   return code;
 }

@@ -1,4 +1,4 @@
-/* df-units-convert.c: a loop's measured figures in other length units (see
+/* df-units-convert.c: a loop's, a geodesic's and a probe's figures in other length units (see
  * df-units-convert.h). Plain C; no GLib. */
 #include "df-units-convert.h"
 
@@ -36,4 +36,17 @@ df_geodesic_result_convert (df_geodesic_result *r, df_unit from, df_unit to)
       for (int c = 0; c < 3; c++)
         r->samples[i].point[c] = df_unit_length (r->samples[i].point[c], from, to);
     }
+}
+
+void
+df_point_geometry_convert (df_point_geometry *g, df_unit from, df_unit to)
+{
+  if (g == NULL || from == to)
+    return;
+  for (int c = 0; c < 3; c++)
+    g->point[c] = df_unit_length (g->point[c], from, to);
+  g->K = df_unit_gaussian (g->K, from, to);
+  g->H = df_unit_curvature (g->H, from, to);
+  g->k1 = df_unit_curvature (g->k1, from, to);
+  g->k2 = df_unit_curvature (g->k2, from, to);
 }

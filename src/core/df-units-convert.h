@@ -7,10 +7,14 @@
 #pragma once
 
 #include "df-geodesic.h"
+#include "df-geometry.h"
 #include "df-loop.h"
 #include "df-units.h"
 
 /* In place; from == to changes nothing (bit for bit). */
 void df_loop_result_convert (df_loop_result *r, df_unit from, df_unit to);
+/* A probe's point and curvatures (K per square unit, H, k1, k2 per unit); the metric,
+ * Christoffel symbols and Riemann tensor stay in the chart's own coordinates. */
+void df_point_geometry_convert (df_point_geometry *g, df_unit from, df_unit to);
 /* A geodesic's length, its samples' s and points. */
 void df_geodesic_result_convert (df_geodesic_result *r, df_unit from, df_unit to);
