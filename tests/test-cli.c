@@ -175,6 +175,45 @@ test_probe_units (void)
   g_assert_nonnull (strstr (bad.err, "--units: unknown unit 'yd'"));
 }
 
+/* report --units m on the demo project: every loop's length and steering radius a thousandth
+ * and its area a millionth of the report in mm (1 m = 1000 mm, by definition), the holonomy
+ * the same; the summary CSV names the unit in its header. */
+static void
+test_report_units (void)
+{
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  g_auto (cli_run) mm = { 0 };
+  g_auto (cli_run) m = { 0 };
+  g_autofree char *csv = write_tmp ("report-units.csv", "");
+  g_autofree char *text = NULL;
+  JsonArray *la, *lb;
+
+  run_cli (&mm, "report", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--json", "--units", "mm",
+           NULL);
+  run_cli (&m, "report", "--project", DF_EXAMPLES_DIR "/demo.dfproj", "--json", "--units", "m",
+           "--summary", csv, NULL);
+  g_assert_cmpint (mm.status, ==, 0);
+  g_assert_cmpint (m.status, ==, 0);
+  g_assert_cmpstr (json_object_get_string_member (parse_object (p2, m.out), "units"), ==, "m");
+  la = json_object_get_array_member (parse_object (p1, mm.out), "loops");
+  lb = json_object_get_array_member (json_node_get_object (json_parser_get_root (p2)), "loops");
+  g_assert_cmpuint (json_array_get_length (la), ==, json_array_get_length (lb));
+  for (guint i = 0; i < json_array_get_length (la); i++)
+    {
+      JsonObject *a = json_array_get_object_element (la, i), *b = json_array_get_object_element (lb, i);
+
+      df_assert_close (get_number (b, "length"), get_number (a, "length") / 1000, 1e-14, 0.0);
+      df_assert_close (get_number (b, "min_steering_radius"),
+                       get_number (a, "min_steering_radius") / 1000, 1e-14, 0.0);
+      if (json_object_get_boolean_member (a, "bounds_disc"))
+        df_assert_close (get_number (b, "area"), get_number (a, "area") / 1e6, 1e-14, 0.0);
+      g_assert_cmpfloat (get_number (a, "holonomy_rad"), ==, get_number (b, "holonomy_rad"));
+    }
+  g_assert_true (g_file_get_contents (csv, &text, NULL, NULL));
+  g_assert_nonnull (strstr (text, ",length_m,min_steering_radius_m,"));
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -856,6 +895,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/geodesic/units", test_geodesic_units);
   g_test_add_func ("/cli/compare/units", test_compare_units);
   g_test_add_func ("/cli/probe/units", test_probe_units);
+  g_test_add_func ("/cli/report/units", test_report_units);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);

@@ -11,6 +11,7 @@
 #include "df-io-error.h"
 #include "df-report.h"
 #include "df-report-verdicts.h"
+#include "df-units-convert.h"
 #include "df-verdict-curves.h"
 
 /* Strings and arrays that the report points into, freed together. */
@@ -78,8 +79,10 @@ verdict_fields (extras_out *x, GArray *fields, const df_verdict_list *list, df_s
 
 static void
 geodesic_sections (extras_out *x, const df_project *project, const df_surface *surface,
-                   const char *u)
+                   df_unit model, df_unit display)
 {
+  const char *u = df_unit_name (display);
+
   for (guint i = 0; i < project->extras.geodesics->len; i++)
     {
       const df_project_geodesic *g = g_ptr_array_index (project->extras.geodesics, i);
@@ -95,7 +98,9 @@ geodesic_sections (extras_out *x, const df_project *project, const df_surface *s
                                                                   num (x, g->v, 10))));
       field (fields, "Heading", keep (x, g_strdup_printf ("%s\xc2\xb0 from +u, anticlockwise "
                                                           "about N", num (x, g->heading_deg, 8))));
-      field (fields, "Length asked", keep (x, g_strdup_printf ("%s %s", num (x, g->length, 8), u)));
+      field (fields, "Length asked",
+             keep (x, g_strdup_printf ("%s %s", num (x, df_unit_length (g->length, model,
+                                                                         display), 8), u)));
       if (st != DF_OK)
         {
           g_autoptr (GError) error = NULL;
@@ -111,6 +116,8 @@ geodesic_sections (extras_out *x, const df_project *project, const df_surface *s
           for (gsize k = 0; k < res.n_samples; k++)
             memcpy (xyz[k], res.samples[k].point, sizeof xyz[k]);
           add_curve (x, g->name, 0.35, 0.2, 0.55, xyz, res.n_samples);
+          /* The picture keeps the surface's unit (xyz above); the figures are converted. */
+          df_geodesic_result_convert (&res, model, display);
           field (fields, "Length traced", keep (x, g_strdup_printf ("%s %s", num (x, res.length, 8),
                                                                     u)));
           field (fields, "End (chart)", keep (x, g_strdup_printf ("(%s, %s)", num (x, end->u, 10),
@@ -152,8 +159,10 @@ open_curve (const df_surface *surface, const double (*uv)[2], gsize n, df_curve 
 
 static void
 paths_sections (extras_out *x, const df_project *project, const df_surface *surface,
-                const char *u)
+                df_unit model, df_unit display)
 {
+  const char *u = df_unit_name (display);
+
   for (guint i = 0; i < project->extras.paths->len; i++)
     {
       const df_project_paths *p = g_ptr_array_index (project->extras.paths, i);
@@ -200,9 +209,11 @@ paths_sections (extras_out *x, const df_project *project, const df_surface *surf
                  keep (x, g_strdup_printf ("%s\xc2\xb0 at the common end, anticlockwise about N "
                                            "(the start vector carried along each)",
                                            num (x, angle * 180 / G_PI, 8))));
-          field (fields, "Length of A", keep (x, g_strdup_printf ("%s %s", num (x, ra.length, 8),
+          field (fields, "Length of A", keep (x, g_strdup_printf ("%s %s", num (x, df_unit_length (
+                                                                    ra.length, model, display), 8),
                                                                   u)));
-          field (fields, "Length of B", keep (x, g_strdup_printf ("%s %s", num (x, rb.length, 8),
+          field (fields, "Length of B", keep (x, g_strdup_printf ("%s %s", num (x, df_unit_length (
+                                                                    rb.length, model, display), 8),
                                                                   u)));
           for (int k = 0; k < 2; k++)
             {
@@ -223,8 +234,10 @@ paths_sections (extras_out *x, const df_project *project, const df_surface *surf
 
 static void
 probe_sections (extras_out *x, const df_project *project, const df_surface *surface,
-                const char *u)
+                df_unit model, df_unit display)
 {
+  const char *u = df_unit_name (display);
+
   for (guint i = 0; i < project->extras.probes->len; i++)
     {
       const df_project_probe *p = g_ptr_array_index (project->extras.probes, i);
@@ -246,6 +259,7 @@ probe_sections (extras_out *x, const df_project *project, const df_surface *surf
         }
       else
         {
+          df_point_geometry_convert (&geo, model, display);
           field (fields, "Point (space)",
                  keep (x, g_strdup_printf ("(%s, %s, %s) %s", num (x, geo.point[0], 8),
                                            num (x, geo.point[1], 8), num (x, geo.point[2], 8),
@@ -265,8 +279,8 @@ probe_sections (extras_out *x, const df_project *project, const df_surface *surf
 gboolean
 df_cli_report_write_pdf (const char *project_path, const df_project *project,
                          const df_surface *surface, const df_loop_result *results,
-                         const char *const *failures, const char *paper, const char *out_path,
-                         GError **error)
+                         const char *const *failures, const char *paper, df_unit model,
+                         df_unit display, const char *out_path, GError **error)
 {
   df_report report = { 0 };
   df_report_fields fields;
@@ -322,7 +336,8 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   report.version = DF_VERSION;
   report.inputs = (const df_report_field *) fields.fields->data;
   report.n_inputs = fields.fields->len;
-  report.units = project->spec->units;
+  report.units = model == display ? project->spec->units : df_unit_name (display);
+  report.model_units = project->spec->units;
   report.surface = surface;
   report.loops = loops;
   report.n_loops = project->loops->len;
@@ -331,9 +346,9 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
                                                  : DF_REPORT_DEFAULT_YAW_DEG;
   report.view_pitch_deg = project->extras.view.set ? project->extras.view.pitch_deg
                                                    : DF_REPORT_DEFAULT_PITCH_DEG;
-  geodesic_sections (&x, project, surface, report.units);
-  paths_sections (&x, project, surface, report.units);
-  probe_sections (&x, project, surface, report.units);
+  geodesic_sections (&x, project, surface, model, display);
+  paths_sections (&x, project, surface, model, display);
+  probe_sections (&x, project, surface, model, display);
   report.curves = (const df_report_curve *) x.curves->data;
   report.n_curves = x.curves->len;
   report.sections = (const df_report_section *) x.sections->data;

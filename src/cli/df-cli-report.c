@@ -5,11 +5,14 @@
  * globals and a surface is read-only once built); each result goes to its loop's slot, so the
  * output keeps the project's order whatever order the threads finish in. */
 #include <stdio.h>
+#include <string.h>
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
 #include "df-cli-report-pdf.h"
 #include "df-json-out.h"
+#include "df-limits.h"
+#include "df-units-convert.h"
 
 #define NAME "report"
 /* The development machine's two cores; more threads would only queue. */
@@ -22,6 +25,7 @@ typedef struct
   char    *summary_path;
   char    *pdf_path;
   char    *paper;
+  char    *units_text;
   gboolean json;
 } report_options;
 
@@ -103,11 +107,12 @@ measure_all (const df_project *project, const df_surface *surface, df_loop_resul
 
 static void
 print_text (const report_options *o, const df_project *project, const df_surface *surface,
-            const df_loop_result *results, const char *const *failures)
+            const char *un, const df_loop_result *results, const char *const *failures)
 {
-  const char *un = project->spec->units;
-
-  printf ("Project: %s (%s, lengths in %s)\n", o->project_path, df_cli_kind_text (surface), un);
+  printf ("Project: %s (%s, lengths in %s)\n", o->project_path, df_cli_kind_text (surface),
+          project->spec->units);
+  if (strcmp (un, project->spec->units) != 0)
+    printf ("Shown in: %s\n", un);
   printf ("Normal:  %s\n\n", df_surface_normal_side (surface));
   printf ("%-24s %14s %14s %12s %12s %14s\n", "Loop", "holonomy deg", "enclosed deg",
           "residual rad", "length", "min radius");
@@ -140,7 +145,7 @@ print_text (const report_options *o, const df_project *project, const df_surface
 
 static void
 print_json (const report_options *o, const df_project *project, const df_surface *surface,
-            const df_loop_result *results, const char *const *failures)
+            const char *units, const df_loop_result *results, const char *const *failures)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -148,7 +153,13 @@ print_json (const report_options *o, const df_project *project, const df_surface
   json_builder_set_member_name (b, "project");
   json_builder_add_string_value (b, o->project_path);
   json_builder_set_member_name (b, "units");
-  json_builder_add_string_value (b, project->spec->units);
+  json_builder_add_string_value (b, units);
+  json_builder_set_member_name (b, "curvature_units");
+  {
+    g_autofree char *cu = g_strdup_printf ("1/%s^2", units);
+
+    json_builder_add_string_value (b, cu);
+  }
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
   json_builder_set_member_name (b, "loops");
@@ -192,6 +203,7 @@ run (report_options *o)
   g_auto (GStrv) failures = NULL;
   int code = DF_CLI_EXIT_OK;
   guint n, n_failed = 0;
+  df_unit model, display;
 
   if (!df_cli_require ("--project", o->project_path, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
@@ -214,6 +226,25 @@ run (report_options *o)
   if (n == 0)
     return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: the project has no loops",
                             o->project_path);
+  if (!df_unit_from_name (project->spec->units, &model))
+    {
+      if (o->units_text != NULL)
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
+                                "are not mm, cm, m or in, so nothing can be converted",
+                                project->spec->units);
+      model = display = DF_UNIT_MM;
+    }
+  else
+    {
+      df_display_units du;
+
+      if (!df_limits_display_units (project->limits, project->spec->units, &du))
+        du.length = model;
+      display = du.length;
+      if (o->units_text != NULL && !df_unit_from_name (o->units_text, &display))
+        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: "
+                                "mm, cm, m, in)", o->units_text);
+    }
 
   results = g_new0 (df_loop_result, n);
   names = g_new0 (const char *, n);
@@ -230,15 +261,23 @@ run (report_options *o)
       ptrs[i] = &results[i];
     }
   n_failed = measure_all (project, surface, results, failures);
+  /* Every figure in the display unit from here on (the project's [units] length unless
+   * --units says otherwise); a surface whose label is no known unit stays as it is. */
+  for (guint i = 0; i < n; i++)
+    if (failures[i] == NULL)
+      df_loop_result_convert (&results[i], model, display);
 
   if (code == DF_CLI_EXIT_OK && o->pdf_path != NULL
       && !df_cli_report_write_pdf (o->project_path, project, surface, results,
-                                   (const char *const *) failures, o->paper, o->pdf_path, &error))
+                                   (const char *const *) failures, o->paper, model, display,
+                                   o->pdf_path, &error))
     code = df_cli_fail (NAME, error,
                         error->code == DF_IO_ERROR_VALUE ? DF_CLI_EXIT_INPUT : DF_CLI_EXIT_OUTPUT);
   if (code == DF_CLI_EXIT_OK && o->summary_path != NULL)
     {
       df_csv_context csv = df_cli_csv_context (project->spec, surface, o->project_path);
+
+      csv.units = df_unit_name (display);
 
       for (guint i = 0; i < n; i++)
         if (failures[i] != NULL)
@@ -250,9 +289,11 @@ run (report_options *o)
   if (code == DF_CLI_EXIT_OK)
     {
       if (o->json)
-        print_json (o, project, surface, results, (const char *const *) failures);
+        print_json (o, project, surface, df_unit_name (display), results,
+                    (const char *const *) failures);
       else
-        print_text (o, project, surface, results, (const char *const *) failures);
+        print_text (o, project, surface, df_unit_name (display), results,
+                    (const char *const *) failures);
     }
   for (guint i = 0; n_failed > 0 && i < n; i++)
     if (failures[i] != NULL)
@@ -288,6 +329,9 @@ df_cli_report (int argc, char **argv)
       "k_g plots, caution)", "OUT.pdf" },
     { "paper", 0, 0, G_OPTION_ARG_STRING, &o.paper, "Paper size of the PDF: a4 (default) or "
       "letter", "SIZE" },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Show lengths, areas and curvatures in mm, cm, m or in (default: the project's [units] "
+      "length, else the surface's)", "UNIT" },
     { "summary", 'o', 0, G_OPTION_ARG_FILENAME, &o.summary_path,
       "Write one CSV row per loop (name, holonomy, enclosed curvature, residual, ...)",
       "OUT.csv" },
@@ -312,5 +356,6 @@ df_cli_report (int argc, char **argv)
   g_free (o.summary_path);
   g_free (o.pdf_path);
   g_free (o.paper);
+  g_free (o.units_text);
   return code;
 }

@@ -396,6 +396,12 @@ static void
 conventions (flow *f)
 {
   const char *u = f->report->units ? f->report->units : "units";
+  const char *mu = f->report->model_units;
+  g_autofree char *units_note = mu != NULL && strcmp (mu, u) != 0
+    ? g_strdup_printf (" The surface is defined in %s: its inputs above and the picture's "
+                       "curvature scale (1/%s\xc2\xb2) are in %s; every figure below is "
+                       "converted to %s.", mu, mu, mu, u)
+    : g_strdup ("");
   g_autofree char *text = g_strdup_printf (
     "Lengths are in %s, areas in %s\xc2\xb2, curvature K in 1/%s\xc2\xb2 and geodesic "
     "curvature k_g in 1/%s. The unit normal is N = X_u \xc3\x97 X_v / |X_u \xc3\x97 X_v| "
@@ -408,8 +414,8 @@ conventions (flow *f)
     "by Gauss\xe2\x80\x93" "Bonnet the holonomy equals it modulo 360\xc2\xb0, and the residual "
     "(their difference, wrapped) measures the numerical agreement. A cone apex contributes "
     "its concentrated curvature 2\xcf\x80(1 \xe2\x88\x92 sin \xce\xb1) when the disc contains "
-    "it. The steering radius is 1/|k_g|.",
-    u, u, u, u);
+    "it. The steering radius is 1/|k_g|.%s",
+    u, u, u, u, units_note);
 
   heading (f, "Conventions");
   paragraph (f, BODY_FONT, text, FALSE, 6);
@@ -503,7 +509,7 @@ picture (flow *f)
           g_array_append_val (curves, c);
         }
       if (!df_report_draw_picture (f->cr, MARGIN, f->y, w, h, r->view_yaw_deg, r->view_pitch_deg,
-                                   r->surface, r->units,
+                                   r->surface, r->model_units ? r->model_units : r->units,
                                    (const df_picture_curve *) curves->data, curves->len, &error)
           && f->error == NULL)
         f->error = g_steal_pointer (&error);

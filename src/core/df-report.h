@@ -80,7 +80,9 @@ typedef struct
   const char            *version;      /* driftframe version */
   const df_report_field *inputs;       /* the surface definition, files, hashes */
   gsize                  n_inputs;
-  const char            *units;        /* length unit of the surface */
+  const char            *units;        /* length unit of the figures (the display unit) */
+  const char            *model_units;  /* the surface's own unit, where the picture's scale
+                                        * and the inputs are; NULL: the same as units */
   const df_surface      *surface;
   const df_report_loop  *loops;
   gsize                  n_loops;
