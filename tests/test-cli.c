@@ -214,6 +214,47 @@ test_report_units (void)
   g_assert_nonnull (strstr (text, ",length_m,min_steering_radius_m,"));
 }
 
+/* A data surface's fit is reported by probe and report as measure reports it: the JSON
+ * object fit with points = the data rows of the file (counted here from the file itself), an
+ * RMS no larger than the largest distance, and the text line "Fit:". */
+static void
+test_fit_in_probe_and_report (void)
+{
+  g_autofree char *text = NULL;
+  g_auto (GStrv) lines = NULL;
+  gint64 rows = 0;
+  g_autoptr (JsonParser) p1 = json_parser_new ();
+  g_autoptr (JsonParser) p2 = json_parser_new ();
+  g_auto (cli_run) probe = { 0 };
+  g_auto (cli_run) report = { 0 };
+  g_auto (cli_run) probe_text = { 0 };
+  JsonObject *fits[2];
+
+  g_assert_true (g_file_get_contents (DF_EXAMPLES_DIR "/panel-scan.csv", &text, NULL, NULL));
+  lines = g_strsplit (text, "\n", -1);
+  for (guint i = 0; lines[i] != NULL; i++)
+    if (g_ascii_isdigit (lines[i][0]) || lines[i][0] == '-')
+      rows++;
+  run_cli (&probe, "probe", "--surface", DF_EXAMPLES_DIR "/panel-scan.surface", "--at", "0,0",
+           "--json", NULL);
+  run_cli (&report, "report", "--project", DF_EXAMPLES_DIR "/panel-scan.dfproj", "--json", NULL);
+  run_cli (&probe_text, "probe", "--surface", DF_EXAMPLES_DIR "/panel-scan.surface", "--at",
+           "0,0", NULL);
+  g_assert_cmpint (probe.status, ==, 0);
+  g_assert_cmpint (report.status, ==, 0);
+  g_assert_cmpint (probe_text.status, ==, 0);
+  fits[0] = json_object_get_object_member (parse_object (p1, probe.out), "fit");
+  fits[1] = json_object_get_object_member (parse_object (p2, report.out), "fit");
+  for (int k = 0; k < 2; k++)
+    {
+      g_assert_nonnull (fits[k]);
+      g_assert_cmpint (json_object_get_int_member (fits[k], "points"), ==, rows);
+      g_assert_cmpfloat (get_number (fits[k], "rms"), >, 0.0);
+      g_assert_cmpfloat (get_number (fits[k], "rms"), <=, get_number (fits[k], "max"));
+    }
+  g_assert_nonnull (strstr (probe_text.out, "\nFit:     "));
+}
+
 static void
 test_measure_sphere (void)
 {
@@ -896,6 +937,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/compare/units", test_compare_units);
   g_test_add_func ("/cli/probe/units", test_probe_units);
   g_test_add_func ("/cli/report/units", test_report_units);
+  g_test_add_func ("/cli/fit-in-probe-and-report", test_fit_in_probe_and_report);
   g_test_add_func ("/cli/measure/text", test_measure_text);
   g_test_add_func ("/cli/measure/examples", test_measure_examples);
   g_test_add_func ("/cli/measure/fair", test_measure_fair);

@@ -32,6 +32,8 @@ print_json (const probe_options *o, const char *units, const df_surface *surface
   df_json_add_point_geometry (b, g);
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
+  /* The fit a data surface's curvature rests on (in the surface's own units). */
+  df_json_add_fit (b, surface);
   json_builder_set_member_name (b, "units");
   json_builder_add_string_value (b, units);
   /* Curvature follows the length unit, as in measure (df-units-convert.h). */
@@ -59,6 +61,8 @@ print_text (const probe_options *o, const df_surface_spec *spec, const char *uni
     printf ("Shown in: %s (the point and the curvatures; the chart point, metric, Christoffel "
             "symbols and Riemann tensor stay in the chart's own coordinates, in %s)\n", un,
             spec->units);
+  /* A data surface's K is a second derivative of a fit: its quality goes first. */
+  df_cli_print_fit (surface, spec->units);
   printf ("Chart point: %s = %s, %s = %s\n", names[0], df_cli_num (a, sizeof a, g->u, 12),
           names[1], df_cli_num (b, sizeof b, g->v, 12));
   printf ("Point:   (%s, %s, %s) %s\n", df_cli_num (a, sizeof a, g->point[0], 10),

@@ -113,6 +113,7 @@ print_text (const report_options *o, const df_project *project, const df_surface
           project->spec->units);
   if (strcmp (un, project->spec->units) != 0)
     printf ("Shown in: %s\n", un);
+  df_cli_print_fit (surface, project->spec->units);
   printf ("Normal:  %s\n\n", df_surface_normal_side (surface));
   printf ("%-24s %14s %14s %12s %12s %14s\n", "Loop", "holonomy deg", "enclosed deg",
           "residual rad", "length", "min radius");
@@ -162,6 +163,7 @@ print_json (const report_options *o, const df_project *project, const df_surface
   }
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
+  df_json_add_fit (b, surface);
   json_builder_set_member_name (b, "loops");
   json_builder_begin_array (b);
   for (guint i = 0; i < project->loops->len; i++)
