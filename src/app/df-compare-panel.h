@@ -23,4 +23,7 @@ void       df_compare_panel_show_error (DfComparePanel *self, const char *messag
 void       df_compare_panel_set_lengths (DfComparePanel *self, double length_a,
                                          double length_b, const char *units);
 
+/* The curve against the project's limits (df-curve-verdicts.h), or NULL to hide. */
+void       df_compare_panel_show_verdicts (DfComparePanel *self, const char *text);
+
 G_END_DECLS

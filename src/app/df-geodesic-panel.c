@@ -15,6 +15,7 @@ struct _DfGeodesicPanel
   GtkLabel *end_value;
   GtkLabel *note_label;
   GtkLabel *error_label;
+  GtkLabel *verdict_label;  /* made in init, below the note: the curve against the limits */
   GtkEntry *start_entry;
   GtkEntry *heading_entry;
   GtkEntry *length_entry;
@@ -116,7 +117,27 @@ df_geodesic_panel_class_init (DfGeodesicPanelClass *klass)
 static void
 df_geodesic_panel_init (DfGeodesicPanel *self)
 {
+  GtkWidget *box;
+
   gtk_widget_init_template (GTK_WIDGET (self));
+  /* Not in the template: the verdicts came later, and the panel's layout stays as it was. */
+  self->verdict_label = GTK_LABEL (gtk_label_new (NULL));
+  gtk_label_set_wrap (self->verdict_label, TRUE);
+  gtk_label_set_xalign (self->verdict_label, 0);
+  gtk_label_set_selectable (self->verdict_label, TRUE);
+  gtk_widget_set_focusable (GTK_WIDGET (self->verdict_label), FALSE);
+  gtk_widget_add_css_class (GTK_WIDGET (self->verdict_label), "df-note");
+  gtk_widget_set_visible (GTK_WIDGET (self->verdict_label), FALSE);
+  box = gtk_widget_get_parent (GTK_WIDGET (self->note_label));
+  if (GTK_IS_BOX (box))
+    gtk_box_insert_child_after (GTK_BOX (box), GTK_WIDGET (self->verdict_label),
+                                GTK_WIDGET (self->note_label));
+  else
+    {
+      /* A template without a box there: no verdict line rather than a stray widget. */
+      g_object_unref (g_object_ref_sink (self->verdict_label));
+      self->verdict_label = NULL;
+    }
 }
 
 GtkWidget *
@@ -182,6 +203,8 @@ df_geodesic_panel_clear (DfGeodesicPanel *self)
     gtk_label_set_text (values[i], "\u2014");
   show_text (self->note_label, NULL);
   show_text (self->error_label, NULL);
+  if (self->verdict_label != NULL)
+    show_text (self->verdict_label, NULL);
 }
 
 void
@@ -202,4 +225,12 @@ df_geodesic_panel_focus_entry (DfGeodesicPanel *self)
 {
   g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
   gtk_widget_grab_focus (GTK_WIDGET (self->start_entry));
+}
+
+void
+df_geodesic_panel_show_verdicts (DfGeodesicPanel *self, const char *text)
+{
+  g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
+  if (self->verdict_label != NULL)
+    show_text (self->verdict_label, text);
 }

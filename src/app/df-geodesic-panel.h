@@ -27,4 +27,7 @@ void       df_geodesic_panel_set_chart  (DfGeodesicPanel *self, const char *star
                                          const char *reference, const char *units);
 void       df_geodesic_panel_focus_entry (DfGeodesicPanel *self);
 
+/* The curve against the project's limits (df-curve-verdicts.h), or NULL to hide. */
+void       df_geodesic_panel_show_verdicts (DfGeodesicPanel *self, const char *text);
+
 G_END_DECLS

@@ -78,7 +78,7 @@ df_verdict_describe (const df_verdict *v,
                             v->signed_value >= 0 ? "its rim must shrink" : "its rim must stretch",
                             threshold);
   else if (v->within || !v->has_where)
-    g_string_append_printf (t, "%s along the whole loop: worst %s, limit %s",
+    g_string_append_printf (t, "%s along the whole curve: worst %s, limit %s",
                             v->within ? "Within" : "Exceeded", value, threshold);
   else
     {
@@ -117,6 +117,6 @@ df_verdict_summary (const df_verdict_list *list)
     return g_strdup_printf ("%zu stretch%s beyond the limits", list->n_exceeded,
                             list->n_exceeded == 1 ? "" : "es");
   if (list->n == 0)
-    return g_strdup ("no limit applies to this loop");
+    return g_strdup ("no limit applies here");
   return g_strdup ("within the limits");
 }

@@ -4,6 +4,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "df-curve-verdicts.h"
 #include "df-project.h"
 
 #include "df-format.h"
@@ -107,6 +108,7 @@ _df_window_geodesic_shoot (DfWindow *self,
     {
       df_status_to_gerror (status, &diag, &error);
       df_geodesic_panel_show_error (self->geodesic_panel, error->message);
+      df_geodesic_panel_show_verdicts (self->geodesic_panel, NULL);
       return;
     }
   if (!_df_window_surface_point (self, self->geodesic_start[0], self->geodesic_start[1], a)
@@ -168,6 +170,18 @@ _df_window_shoot_from (DfWindow *self,
       df_surface_view_set_arrow (self->view, DF_ARROW_GEODESIC, result.samples[0].point,
                                  result.samples[0].tangent, &colour);
     df_geodesic_panel_show (self->geodesic_panel, surface, heading, length, &result, units);
+    {
+      /* Against the project's limits, as `check` reports a geodesic (a few ms: synchronous,
+       * like the shot itself). */
+      g_autofree char *verdicts = df_curve_verdicts_geodesic_text (
+        surface, df_document_get_limits (self->document), self->geodesic_start[0],
+        self->geodesic_start[1], heading, length, units);
+
+      g_autofree char *shown = verdicts ? g_strdup_printf ("%s\n%s", verdicts,
+                                                           DF_CURVE_VERDICTS_CAUTION) : NULL;
+
+      df_geodesic_panel_show_verdicts (self->geodesic_panel, shown);
+    }
     if (record)
       df_document_set_geodesic (self->document, "Geodesic", self->geodesic_start[0],
                                 self->geodesic_start[1], heading * 180 / G_PI, length);

@@ -4,6 +4,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "df-curve-verdicts.h"
 #include "df-project.h"
 
 #include "df-format.h"
@@ -51,6 +52,7 @@ _df_window_clear_paths (DfWindow *self)
   df_surface_view_remove_arrow (self->view, DF_ARROW_PATH_B);
   df_compare_panel_set_paths (self->compare_panel, 0, 0);
   df_compare_panel_set_angle (self->compare_panel, NAN);
+  df_compare_panel_show_verdicts (self->compare_panel, NULL);
   _df_window_paths_set_stage (self, DF_PATHS_WANT_A);
 }
 
@@ -92,6 +94,7 @@ compare_done_cb (GObject      *source,
   if (comparison == NULL)
     {
       df_compare_panel_show_error (self->compare_panel, error->message);
+      df_compare_panel_show_verdicts (self->compare_panel, NULL);
       _df_window_status (self, TRUE, "Paths not compared: %s", error->message);
       _df_window_paths_set_stage (self, DF_PATHS_DONE);
       g_object_unref (self);
@@ -119,6 +122,24 @@ compare_done_cb (GObject      *source,
     }
   df_compare_panel_set_lengths (self->compare_panel, comparison->a.length, comparison->b.length,
                                 df_document_get_units (self->document));
+  {
+    /* Both routes against the project's limits, as `check` reports a path pair. */
+    const df_surface *surface = df_document_get_surface (self->document);
+    const df_limits *limits = df_document_get_limits (self->document);
+    const char *units = df_document_get_units (self->document);
+    g_autofree double (*uv_a)[2] = _df_window_stroke_uv (self->path_a);
+    g_autofree double (*uv_b)[2] = _df_window_stroke_uv (self->path_b);
+    g_autofree char *va = df_curve_verdicts_path_text (surface, limits, (const double (*)[2]) uv_a,
+                                                       self->path_a->len, "route A", units);
+    g_autofree char *vb = df_curve_verdicts_path_text (surface, limits, (const double (*)[2]) uv_b,
+                                                       self->path_b->len, "route B", units);
+    g_autofree char *both = va || vb ? g_strdup_printf ("%s%s%s\n%s", va ? va : "",
+                                                        va && vb ? "\n" : "", vb ? vb : "",
+                                                        DF_CURVE_VERDICTS_CAUTION)
+                                     : NULL;
+
+    df_compare_panel_show_verdicts (self->compare_panel, both);
+  }
   {
     g_autofree char *angle = df_format_angle (comparison->angle_rad);
     _df_window_status (self, self->paths_long_legs, "Carried along B, the direction ends %s "
