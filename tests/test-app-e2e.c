@@ -759,7 +759,7 @@ test_data_import (void)
 
   /* A bad table through the dialog: refused with its line, the fitted surface kept. */
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+d", NULL);
+  xdotool_va (&x, "key", "ctrl+shift+p", NULL);
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Surface from Measured Data",
               "windowfocus", "sleep", "1", "type", "--delay", "20", bad_path, NULL);
   xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);

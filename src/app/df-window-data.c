@@ -1,5 +1,5 @@
 /* df-window-data.c: the window's side of surfaces from data: the "From measured data" action
- * (surface panel button, File menu, Ctrl+Shift+D), files dropped on the window (a data file, a
+ * (surface panel button, File menu, Ctrl+Shift+P), files dropped on the window (a data file, a
  * loop CSV, a project or surface file), the question a mesh or an x,y,z table raises, the fit
  * on a worker thread (df-data-import.c) handed to the document, the fit summary in the
  * surface panel and the data points drawn over the surface. A failed fit keeps the surface
@@ -654,10 +654,10 @@ void
 _df_window_data_class_init (GtkWidgetClass *widget_class)
 {
   gtk_widget_class_install_action (widget_class, "win.import-data", NULL, import_data_action);
-  /* Ctrl+Shift+D ("data"): Ctrl+Shift+I, the natural pair of Ctrl+I (import a loop), is
+  /* Ctrl+Shift+P ("points"): Ctrl+Shift+I, the natural pair of Ctrl+I (import a loop), is
    * GTK's inspector key and never reaches the window, and Ctrl+Shift+M is the developability
    * map's. */
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_d,
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_p,
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.import-data",
                                        NULL);
 }

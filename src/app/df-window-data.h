@@ -6,7 +6,7 @@
 
 G_BEGIN_DECLS
 
-/* The action win.import-data and its key (Ctrl+Shift+D). */
+/* The action win.import-data and its key (Ctrl+Shift+P). */
 void     _df_window_data_class_init (GtkWidgetClass        *widget_class);
 /* The drop target and the fit summary's signals; after the template is set up. */
 void     _df_window_data_init       (DfWindow              *self);
