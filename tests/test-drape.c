@@ -733,6 +733,66 @@ test_cli_boundary (void)
   g_rmdir (dir);
 }
 
+/* drape --units cm with a 0.4 cm cell is the 4 mm drape shown in cm (1 cm = 10 mm, by
+ * definition): the same net (cells, enclosed curvature bit for bit), the flat area a hundredth
+ * and the flat size and cell a tenth of the figures in mm. */
+static void
+test_cli_units (void)
+{
+  g_autofree char *dir = g_dir_make_tmp ("drape-XXXXXX", NULL);
+  g_autofree char *loop = g_build_filename (dir, "ply.csv", NULL);
+  g_autoptr (GString) csv = g_string_new ("u,v\n");
+  g_autoptr (JsonParser) p_mm = json_parser_new ();
+  g_autoptr (JsonParser) p_cm = json_parser_new ();
+  g_autofree char *out_mm = NULL, *err_mm = NULL, *out_cm = NULL, *err_cm = NULL;
+  JsonObject *mm, *cm;
+  JsonArray *size_mm, *size_cm;
+  int status;
+
+  for (int k = 0; k < 30; k++)
+    {
+      double a = 2 * G_PI * k / 30;
+
+      g_string_append_printf (csv, "%.12f,%.12f\n", 1.2 + 0.5 * cos (a), 0.35 * sin (a));
+    }
+  g_assert_true (g_file_set_contents (loop, csv->str, -1, NULL));
+  {
+    const char *args[] = { "drape", "--preset", "sphere", "--param", "R=100", "--loop", loop,
+                           "--start", "1.25,0.05", "--warp-deg", "25", "--cell", "4", "--json",
+                           NULL };
+
+    run_cli (args, &out_mm, &err_mm, &status);
+    g_assert_cmpint (status, ==, 0);
+  }
+  {
+    const char *args[] = { "drape", "--preset", "sphere", "--param", "R=100", "--loop", loop,
+                           "--start", "1.25,0.05", "--warp-deg", "25", "--cell", "0.4",
+                           "--units", "cm", "--json", NULL };
+
+    run_cli (args, &out_cm, &err_cm, &status);
+    g_assert_cmpint (status, ==, 0);
+  }
+  g_assert_true (json_parser_load_from_data (p_mm, out_mm, -1, NULL));
+  g_assert_true (json_parser_load_from_data (p_cm, out_cm, -1, NULL));
+  mm = json_node_get_object (json_parser_get_root (p_mm));
+  cm = json_node_get_object (json_parser_get_root (p_cm));
+  g_assert_cmpstr (json_object_get_string_member (cm, "units"), ==, "cm");
+  g_assert_cmpint (json_object_get_int_member (cm, "cells"), ==,
+                   json_object_get_int_member (mm, "cells"));
+  df_assert_close (json_object_get_double_member (cm, "enclosed_curvature_rad"),
+                   json_object_get_double_member (mm, "enclosed_curvature_rad"), 0, 1e-14);
+  df_assert_close (json_object_get_double_member (cm, "flat_area"),
+                   json_object_get_double_member (mm, "flat_area") / 100, 1e-12, 0);
+  df_assert_close (json_object_get_double_member (cm, "cell"), 0.4, 1e-14, 0);
+  size_mm = json_object_get_array_member (mm, "flat_size");
+  size_cm = json_object_get_array_member (cm, "flat_size");
+  for (guint k = 0; k < 2; k++)
+    df_assert_close (json_array_get_double_element (size_cm, k),
+                     json_array_get_double_element (size_mm, k) / 10, 1e-12, 0);
+  g_remove (loop);
+  g_rmdir (dir);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -749,5 +809,6 @@ main (int argc, char **argv)
   g_test_add_func ("/core/drape/sphere-boundary-loop", test_sphere_boundary_loop);
   g_test_add_func ("/core/drape/cli", test_cli);
   g_test_add_func ("/core/drape/cli-boundary", test_cli_boundary);
+  g_test_add_func ("/core/drape/cli-units", test_cli_units);
   return g_test_run ();
 }

@@ -5,10 +5,12 @@
  * the whole cells' boundary as a loop (CSV) that `measure` reads.
  * CLI layer: parses, calls the core, prints; computes no geometry. */
 #include <math.h>
+#include <string.h>
 #include <stdio.h>
 
 #include "df-cli-commands.h"
 #include "df-cli-common.h"
+#include "df-units.h"
 #include "df-drape-out.h"
 #include "df-json-out.h"
 
@@ -28,6 +30,7 @@ typedef struct
   char    *start_text;
   char    *warp_text;
   char    *cell_text;
+  char    *units_text;
   char    *project_path;
   char    *max_shear_text;
   char    *max_dev_text;
@@ -148,22 +151,25 @@ read_outline (drape_options *o, const df_surface *surface, double (**poly)[2], g
 static void
 print_text (const drape_options *o, const df_surface *surface, const df_surface_spec *spec,
             const df_drape *d, double u, double v, double warp_deg,
-            const df_drape_boundary_info *bi)
+            const df_drape_boundary_info *bi, const char *units, double f)
 {
   const df_drape_summary *s = df_drape_get_summary (d);
   const df_drape_options *opt = df_drape_get_options (d);
-  const char *un, *vn, *units = spec->units;
+  const char *un, *vn;
   const double deg = 180 / G_PI;
   char a[40], b[40], c[40], e[40];
 
   df_cli_chart_names (surface, &un, &vn);
   printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface),
-          units);
+          spec->units);
+  if (strcmp (units, spec->units) != 0)
+    printf ("Shown in: %s (the cell and the flat pattern; the chart point stays in the chart's "
+            "own coordinates)\n", units);
   printf ("Normal:  %s\n", df_surface_normal_side (surface));
   printf ("Start:   %s = %s, %s = %s; warp %s deg from the %s direction (anticlockwise about "
           "N), weft at +90 deg; cell %s %s\n\n", un, df_cli_num (a, sizeof a, u, 10), vn,
           df_cli_num (b, sizeof b, v, 10), df_cli_num (c, sizeof c, warp_deg, 10), un,
-          df_cli_num (e, sizeof e, opt->cell, 10), units);
+          df_cli_num (e, sizeof e, f * opt->cell, 10), units);
   printf ("Cells over the ply:            %zu (%zu whole), %zu pins placed\n", s->n_cells,
           s->n_whole_cells, s->n_nodes);
   printf ("Max shear (90 - crossing):     %s deg at %s = %s, %s = %s (cells: %s deg)\n",
@@ -192,9 +198,9 @@ print_text (const drape_options *o, const df_surface *surface, const df_surface_
           df_cli_num (a, sizeof a, s->closure_max_residual_rad, 3));
   if (isfinite (s->flat_area))
     printf ("Flat pattern:                  area %s %s^2, %s x %s %s (warp x weft)\n",
-            df_cli_num (a, sizeof a, s->flat_area, 8), units,
-            df_cli_num (b, sizeof b, s->flat_hi[0] - s->flat_lo[0], 8),
-            df_cli_num (c, sizeof c, s->flat_hi[1] - s->flat_lo[1], 8), units);
+            df_cli_num (a, sizeof a, f * f * s->flat_area, 8), units,
+            df_cli_num (b, sizeof b, f * (s->flat_hi[0] - s->flat_lo[0]), 8),
+            df_cli_num (c, sizeof c, f * (s->flat_hi[1] - s->flat_lo[1]), 8), units);
   else
     printf ("Flat pattern:                  incomplete: %zu of %zu outline points lie in no "
             "cell (the net does not reach them)\n", s->n_outline_unmapped, s->n_outline);
@@ -220,7 +226,8 @@ run (drape_options *o)
   g_autoptr (df_surface) surface = NULL;
   g_autoptr (df_drape) drape = NULL;
   g_autofree double (*poly)[2] = NULL;
-  double u, v, warp_deg, cell, max_shear_deg = NAN, max_dev_deg = NAN;
+  double u, v, warp_deg, cell, max_shear_deg = NAN, max_dev_deg = NAN, f = 1.0;
+  const char *units;
   gsize n_poly = 0;
   df_drape_options opt;
   df_drape_boundary_info bi = { 0 };
@@ -243,7 +250,19 @@ run (drape_options *o)
   if (!df_cli_surface_load (&o->surface, &spec, &surface, &error)
       || !read_outline (o, surface, &poly, &n_poly, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  units = spec->units;
 
+  if (o->units_text != NULL)
+    {
+      int model, display;
+
+      if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
+        return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+      units = df_unit_name ((df_unit) display);
+      /* --cell is given in the display unit; the net is built in the surface's. */
+      f = df_unit_length (1.0, (df_unit) model, (df_unit) display);
+      cell /= f;
+    }
   df_drape_options_init (&opt);
   opt.warp_rad = warp_deg * G_PI / 180.0;
   opt.cell = cell;
@@ -258,8 +277,10 @@ run (drape_options *o)
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
 
-  if ((o->nodes_path != NULL && !df_drape_nodes_write (o->nodes_path, drape, &error))
-      || (o->flat_path != NULL && !df_drape_flat_write (o->flat_path, drape, &error))
+  /* The SVG is at true scale in the surface's unit whatever --units says (its width and
+   * height carry the unit, so the drawing is the same physical size either way). */
+  if ((o->nodes_path != NULL && !df_drape_nodes_write_scaled (o->nodes_path, drape, f, &error))
+      || (o->flat_path != NULL && !df_drape_flat_write_scaled (o->flat_path, drape, f, &error))
       || (o->svg_path != NULL && !df_drape_svg_write (o->svg_path, drape, spec->units, &error))
       || (o->boundary_path != NULL
           && !df_drape_boundary_write (o->boundary_path, drape, BOUNDARY_POINTS_PER_SEGMENT,
@@ -274,7 +295,7 @@ run (drape_options *o)
       json_builder_set_member_name (j, "surface");
       json_builder_add_string_value (j, o->surface.label);
       df_json_add_vector (j, "start", (double[2]) { u, v }, 2);
-      df_json_add_drape (j, drape);
+      df_json_add_drape_scaled (j, drape, f);
       if (o->boundary_path != NULL)
         {
           json_builder_set_member_name (j, "boundary");
@@ -297,12 +318,12 @@ run (drape_options *o)
       json_builder_set_member_name (j, "normal_side");
       json_builder_add_string_value (j, df_surface_normal_side (surface));
       json_builder_set_member_name (j, "units");
-      json_builder_add_string_value (j, spec->units);
+      json_builder_add_string_value (j, units);
       json_builder_end_object (j);
       df_cli_print_json (j);
     }
   else
-    print_text (o, surface, spec, drape, u, v, warp_deg, &bi);
+    print_text (o, surface, spec, drape, u, v, warp_deg, &bi, units, f);
   return DF_CLI_EXIT_OK;
 }
 
@@ -321,7 +342,10 @@ df_cli_drape (int argc, char **argv)
       "Warp direction at the start, degrees from the first chart direction (t or x), "
       "anticlockwise about N; the weft starts at +90", "A" },
     { "cell", 'c', 0, G_OPTION_ARG_STRING, &o.cell_text,
-      "Thread length between pins, in the surface's units", "H" },
+      "Thread length between pins, in the surface's units (in --units when given)", "H" },
+    { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
+      "Show and export lengths (the cell, the flat pattern, the pins' CSV) in mm, cm, m or in "
+      "(default: the surface's units); the SVG stays at true scale in the surface's", "UNIT" },
     { "project", 0, 0, G_OPTION_ARG_FILENAME, &o.project_path,
       "Project whose [limits] max-shear-deg and max-fibre-deviation-deg apply (and whose "
       "surface, unless --surface or --preset is given)", "FILE.dfproj" },
@@ -365,6 +389,7 @@ df_cli_drape (int argc, char **argv)
   g_free (o.start_text);
   g_free (o.warp_text);
   g_free (o.cell_text);
+  g_free (o.units_text);
   g_free (o.project_path);
   g_free (o.max_shear_text);
   g_free (o.max_dev_text);

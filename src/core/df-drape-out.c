@@ -35,6 +35,12 @@ append_row (GString *out, const double *values, gsize n)
 char *
 df_drape_nodes_to_csv (const df_drape *d)
 {
+  return df_drape_nodes_to_csv_scaled (d, 1.0);
+}
+
+char *
+df_drape_nodes_to_csv_scaled (const df_drape *d, double f)
+{
   const df_drape_summary *s = df_drape_get_summary (d);
   GString *out = g_string_new ("i,j,u,v,x,y,z,inside,shear_deg,warp_deviation_deg,flat_x,"
                                "flat_y" CSV_EOL);
@@ -47,9 +53,9 @@ df_drape_nodes_to_csv (const df_drape *d)
         if (!df_drape_get_node (d, i, j, &n))
           continue;
         {
-          double row[12] = { i, j, n.u, n.v, n.point[0], n.point[1], n.point[2], n.inside,
-                             n.shear_rad * 180 / G_PI, n.warp_deviation_rad * 180 / G_PI,
-                             n.flat[0], n.flat[1] };
+          double row[12] = { i, j, n.u, n.v, f * n.point[0], f * n.point[1], f * n.point[2],
+                             n.inside, n.shear_rad * 180 / G_PI,
+                             n.warp_deviation_rad * 180 / G_PI, f * n.flat[0], f * n.flat[1] };
 
           append_row (out, row, G_N_ELEMENTS (row));
         }
@@ -60,13 +66,25 @@ df_drape_nodes_to_csv (const df_drape *d)
 gboolean
 df_drape_nodes_write (const char *path, const df_drape *d, GError **error)
 {
-  g_autofree char *text = df_drape_nodes_to_csv (d);
+  return df_drape_nodes_write_scaled (path, d, 1.0, error);
+}
+
+gboolean
+df_drape_nodes_write_scaled (const char *path, const df_drape *d, double f, GError **error)
+{
+  g_autofree char *text = df_drape_nodes_to_csv_scaled (d, f);
 
   return df_write_file_atomic (path, text, -1, error);
 }
 
 char *
 df_drape_flat_to_csv (const df_drape *d)
+{
+  return df_drape_flat_to_csv_scaled (d, 1.0);
+}
+
+char *
+df_drape_flat_to_csv_scaled (const df_drape *d, double f)
 {
   const df_drape_summary *s = df_drape_get_summary (d);
   const double (*uv)[2] = df_drape_get_outline (d), (*flat)[2] = df_drape_get_flat_outline (d);
@@ -75,8 +93,8 @@ df_drape_flat_to_csv (const df_drape *d)
 
   for (gsize k = 0; k < s->n_outline; k++)
     {
-      double row[4] = { uv[k][0], uv[k][1], mapped[k] ? flat[k][0] : NAN,
-                        mapped[k] ? flat[k][1] : NAN };
+      double row[4] = { uv[k][0], uv[k][1], mapped[k] ? f * flat[k][0] : NAN,
+                        mapped[k] ? f * flat[k][1] : NAN };
 
       append_row (out, row, 4);
     }
@@ -86,7 +104,13 @@ df_drape_flat_to_csv (const df_drape *d)
 gboolean
 df_drape_flat_write (const char *path, const df_drape *d, GError **error)
 {
-  g_autofree char *text = df_drape_flat_to_csv (d);
+  return df_drape_flat_write_scaled (path, d, 1.0, error);
+}
+
+gboolean
+df_drape_flat_write_scaled (const char *path, const df_drape *d, double f, GError **error)
+{
+  g_autofree char *text = df_drape_flat_to_csv_scaled (d, f);
 
   return df_write_file_atomic (path, text, -1, error);
 }
@@ -258,6 +282,12 @@ df_drape_svg_write (const char *path, const df_drape *d, const char *units, GErr
 void
 df_json_add_drape (JsonBuilder *j, const df_drape *d)
 {
+  df_json_add_drape_scaled (j, d, 1.0);
+}
+
+void
+df_json_add_drape_scaled (JsonBuilder *j, const df_drape *d, double f)
+{
   const df_drape_summary *s = df_drape_get_summary (d);
   const df_drape_options *o = df_drape_get_options (d);
   const double deg = 180 / G_PI;
@@ -295,9 +325,10 @@ df_json_add_drape (JsonBuilder *j, const df_drape *d)
   df_json_add_double (j, "max_fibre_deviation_limit_deg", o->max_fibre_deviation_rad * deg);
   json_builder_set_member_name (j, "pins_over_deviation");
   json_builder_add_int_value (j, (gint64) s->n_nodes_over_deviation);
-  df_json_add_double (j, "flat_area", s->flat_area);
+  df_json_add_double (j, "flat_area", f * f * s->flat_area);
   df_json_add_vector (j, "flat_size",
-                      (double[2]) { s->flat_hi[0] - s->flat_lo[0], s->flat_hi[1] - s->flat_lo[1] },
+                      (double[2]) { f * (s->flat_hi[0] - s->flat_lo[0]),
+                                    f * (s->flat_hi[1] - s->flat_lo[1]) },
                       2);
   json_builder_set_member_name (j, "outline_points_unmapped");
   json_builder_add_int_value (j, (gint64) s->n_outline_unmapped);
@@ -313,7 +344,7 @@ df_json_add_drape (JsonBuilder *j, const df_drape *d)
     json_builder_add_string_value (j, s->lost_note);
   else
     json_builder_add_null_value (j);
-  df_json_add_double (j, "cell", o->cell);
+  df_json_add_double (j, "cell", f * o->cell);
   df_json_add_double (j, "warp_deg", o->warp_rad * deg);
   json_builder_set_member_name (j, "stepper");
   json_builder_add_string_value (j, s->stepper);

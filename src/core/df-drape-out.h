@@ -21,11 +21,20 @@ G_DEFINE_AUTOPTR_CLEANUP_FUNC (df_drape_block, df_drape_block_free)
 /* One row per placed pin: i,j,u,v,x,y,z,inside,shear_deg,warp_deviation_deg,flat_x,flat_y. */
 char    *df_drape_nodes_to_csv (const df_drape *drape);
 gboolean df_drape_nodes_write  (const char *path, const df_drape *drape, GError **error);
+/* The _scaled forms multiply every length (x, y, z, flat_x, flat_y, the cell, the flat size;
+ * the area by f^2) by f: a unit conversion (df_unit_length (1, model, display)). Chart
+ * coordinates and angles stay as they are. */
+char    *df_drape_nodes_to_csv_scaled (const df_drape *drape, double f);
+gboolean df_drape_nodes_write_scaled  (const char *path, const df_drape *drape, double f,
+                                       GError **error);
 
 /* The ply outline on the flat fabric, one row per outline point:
  * u,v,flat_x,flat_y (flat fields empty for a point that lies in no cell). */
 char    *df_drape_flat_to_csv  (const df_drape *drape);
 gboolean df_drape_flat_write   (const char *path, const df_drape *drape, GError **error);
+char    *df_drape_flat_to_csv_scaled (const df_drape *drape, double f);
+gboolean df_drape_flat_write_scaled  (const char *path, const df_drape *drape, double f,
+                                      GError **error);
 
 /* The boundary of the whole cells (df_drape_whole_boundary) as a loop CSV `u,v` that
  * `measure` reads, per_segment points a thread segment, '#' lines saying what it bounds;
@@ -47,3 +56,4 @@ gboolean df_drape_svg_write    (const char *path, const df_drape *drape, const c
  * cells_over_limit, flat_area, enclosed_curvature_rad, cell_closure_max_residual_rad,
  * caution, and more (see the README). */
 void     df_json_add_drape     (JsonBuilder *builder, const df_drape *drape);
+void     df_json_add_drape_scaled (JsonBuilder *builder, const df_drape *drape, double f);
