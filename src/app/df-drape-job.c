@@ -83,9 +83,10 @@ shear_colour (double shear_rad,
   double rgb[3];
 
   df_colour_ramp (shear_rad * 180 / G_PI / range_deg, rgb);
-  /* A little darker than the surface's own ramp, so threads read against a shaded mesh. */
+  /* Darker than the surface's own ramp, so that threads near zero shear (the ramp's white)
+   * still read against the plain mesh. */
   for (int k = 0; k < 3; k++)
-    rgba[k] = (float) (0.8 * rgb[k]);
+    rgba[k] = (float) (0.62 * rgb[k]);
   rgba[3] = 1.0f;
 }
 

@@ -217,6 +217,7 @@ show_result (DfDrapeWindow *self,
               FALSE);
   if (final && self->report_events)
     {
+      printf ("drape-start %.17g %.17g\n", self->start[0], self->start[1]);
       printf ("draped %zu %.17g %.17g %zu\n", s->n_cells, s->max_shear_rad * DEG,
               s->enclosed_curvature_rad, s->n_cells_over_limit);
       if (has_limit)

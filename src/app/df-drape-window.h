@@ -19,7 +19,7 @@ G_BEGIN_DECLS
 G_DECLARE_FINAL_TYPE (DfDrapeWindow, df_drape_window, DF, DRAPE_WINDOW, GtkWindow)
 
 /* view_legend: the view's own legend; its parent overlay takes the drape's legend.
- * report_events: print "draped CELLS MAX_SHEAR_DEG ENCLOSED_RAD CELLS_OVER_LIMIT" for every
+ * report_events: print "drape-start U V" (chart, radians) and "draped CELLS MAX_SHEAR_DEG ENCLOSED_RAD CELLS_OVER_LIMIT" for every
  * finished (not dragging) drape, "drape-flags COUNT WORST_DEG" when a locking angle is set,
  * "drape-failed MESSAGE" and "drape-exported svg|csv|flat PATH". */
 GtkWidget *df_drape_window_new         (GtkWindow     *parent,

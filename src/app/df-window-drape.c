@@ -1,5 +1,6 @@
 /* df-window-drape.c: the main window's side of the woven-ply drape (issue 12): the action and
- * its key (Ctrl+Shift+D, "drape"; Ctrl+Shift+I is GTK's inspector, M, L, G and T are taken),
+ * its key (Ctrl+Shift+W, "woven": Ctrl+Shift+D and Ctrl+Shift+I open GTK's inspector; M, L, G
+ * and T are taken),
  * the menu item, the view's picks forwarded to the drape window while its "Pick the start"
  * is on and the Look tool is chosen, --drape (drape as typed once open) and --bench-drape (the
  * drag-to-redraw figure). The drape window itself is df-drape-window.c. */
@@ -25,6 +26,9 @@ typedef struct
   GArray    *bench_total_ms, *bench_worker_ms;
   double     bench_final_ms;
   gulong     render_handler;
+  /* The colouring before the drape window showed, given back when it hides. */
+  gboolean   shading_saved;
+  DfShading  shading_before;
 } DrapeState;
 
 static DrapeState *
@@ -59,6 +63,32 @@ picking_cb (gboolean on,
                                                     : DF_INTERACTION_ORBIT);
 }
 
+/* The net is coloured by shear on the same blue-orange scale as the curvature: while the
+ * drape window shows, the surface is drawn plain so that one scale means one thing. */
+static void
+drape_visible_cb (GObject    *object,
+                  GParamSpec *pspec,
+                  DfWindow   *self)
+{
+  DrapeState *st = state_of (self);
+
+  if (gtk_widget_get_visible (GTK_WIDGET (object)))
+    {
+      if (!st->shading_saved)
+        {
+          st->shading_saved = TRUE;
+          st->shading_before = self->shading;
+        }
+      g_object_set (self, "shading", _df_shading_to_string (DF_SHADING_PLAIN), NULL);
+    }
+  else if (st->shading_saved)
+    {
+      st->shading_saved = FALSE;
+      if (self->shading == DF_SHADING_PLAIN)
+        g_object_set (self, "shading", _df_shading_to_string (st->shading_before), NULL);
+    }
+}
+
 static DfDrapeWindow *
 drape_window (DfWindow *self)
 {
@@ -69,6 +99,7 @@ drape_window (DfWindow *self)
       st->drape = df_drape_window_new (GTK_WINDOW (self), self->document, self->view,
                                        GTK_WIDGET (self->legend), self->startup.report_events);
       df_drape_window_set_picking_cb (DF_DRAPE_WINDOW (st->drape), picking_cb, self);
+      g_signal_connect (st->drape, "notify::visible", G_CALLBACK (drape_visible_cb), self);
     }
   return DF_DRAPE_WINDOW (st->drape);
 }
@@ -325,7 +356,7 @@ add_menu_item (DfWindow *self)
 
   if (!G_IS_MENU (model))
     return;
-  g_menu_item_set_attribute (item, "accel", "s", "<Control><Shift>d");
+  g_menu_item_set_attribute (item, "accel", "s", "<Control><Shift>w");
   g_menu_append_item (section, item);
   g_menu_insert_section (G_MENU (model), MIN (4, g_menu_model_get_n_items (model)), NULL,
                          G_MENU_MODEL (section));
@@ -345,7 +376,7 @@ _df_window_drape_init (DfWindow *self)
                                      GTK_SHORTCUT_SCOPE_GLOBAL);
   gtk_shortcut_controller_add_shortcut (GTK_SHORTCUT_CONTROLLER (shortcuts),
                                         gtk_shortcut_new (gtk_shortcut_trigger_parse_string
-                                                            ("<Control><Shift>d"),
+                                                            ("<Control><Shift>w"),
                                                           gtk_named_action_new ("win.drape")));
   gtk_widget_add_controller (GTK_WIDGET (self), shortcuts);
   add_menu_item (self);

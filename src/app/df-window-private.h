@@ -168,7 +168,7 @@ void     _df_window_type_loop_dialog   (DfWindow *self);
 gboolean _df_window_import_path        (DfWindow *self, const char *path, gboolean path_b,
                                         GError **error);
 
-/* df-window-drape.c: the Woven-Ply Drape window (Ctrl+Shift+D), the view's picks forwarded
+/* df-window-drape.c: the Woven-Ply Drape window (Ctrl+Shift+W), the view's picks forwarded
  * to it, --drape and --bench-drape. */
 void     _df_window_drape_init         (DfWindow *self);
 void     _df_window_drape_start        (DfWindow *self);
