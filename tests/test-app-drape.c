@@ -223,7 +223,7 @@ test_key_and_pick (void)
   out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
   geometry = read_view_geometry (out);
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+d", NULL);
+  xdotool_va (&x, "key", "ctrl+shift+w", NULL);
   /* The window shows (search --sync waits for it); moved off the view (no window manager). */
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Woven-Ply Drape",
               "windowmove", "1000", "0", "windowfocus", "sleep", "0.5", NULL);
