@@ -241,6 +241,7 @@ drape_guarded (gpointer data)
       return;
     }
   r = g_new0 (DfDrapeResult, 1);
+  r->drape_ms = (g_get_monotonic_time () - t0) / 1000.0;
   r->drape = drape;
   r->range_deg = colour_range_deg (drape);
   r->net = build_net (job->surface, drape, r->range_deg, r, &r->n_net);

@@ -24,6 +24,7 @@ typedef struct
   int       worst_i, worst_j;
   double    worst_shear_rad, worst_u, worst_v;
   double    elapsed_ms;     /* on the worker: the drape and the vertices */
+  double    drape_ms;       /* of which the core's df_drape_new */
 } DfDrapeResult;
 
 void           df_drape_result_free (DfDrapeResult *result);

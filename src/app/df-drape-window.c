@@ -46,7 +46,7 @@ struct _DfDrapeWindow
   /* What the shown (or running) drape was asked with, for re-running on a limits change. */
   double         start[2];
   gboolean       have_start;
-  void         (*shown_cb) (gboolean final, double ms, gpointer user);
+  void         (*shown_cb) (gboolean final, double drape_ms, double ms, gpointer user);
   void         (*picking_cb) (gboolean on, gpointer user);
   gpointer       picking_user;
   gpointer       shown_user;
@@ -226,7 +226,7 @@ show_result (DfDrapeWindow *self,
       fflush (stdout);
     }
   if (self->shown_cb != NULL)
-    self->shown_cb (final, r->elapsed_ms, self->shown_user);
+    self->shown_cb (final, r->drape_ms, r->elapsed_ms, self->shown_user);
 }
 
 static void start_job (DfDrapeWindow *self, double u, double v, gboolean final);
@@ -893,7 +893,8 @@ df_drape_window_set_typed (DfDrapeWindow *self,
 
 void
 df_drape_window_set_shown_cb (DfDrapeWindow *self,
-                              void         (*cb) (gboolean final, double ms, gpointer user),
+                              void         (*cb) (gboolean final, double drape_ms, double ms,
+                                                  gpointer user),
                               gpointer       user)
 {
   g_return_if_fail (DF_IS_DRAPE_WINDOW (self));

@@ -47,10 +47,10 @@ gboolean   df_drape_window_set_typed   (DfDrapeWindow *self,
                                         const char    *warp_deg,
                                         const char    *cell);
 /* Called on the main thread each time a net lands in the view (for the drag benchmark):
- * final as requested, ms the worker's time. */
+ * final as requested, drape_ms the core's time, ms the worker's (drape and vertices). */
 void       df_drape_window_set_shown_cb (DfDrapeWindow *self,
-                                         void         (*cb) (gboolean final, double ms,
-                                                             gpointer user),
+                                         void         (*cb) (gboolean final, double drape_ms,
+                                                             double ms, gpointer user),
                                          gpointer       user);
 
 /* Called when "Pick the start on the surface" is switched on or off. */
