@@ -106,7 +106,10 @@ build_net (const df_surface *surface,
   /* Chords are enough once cells are a few pixels wide; fewer vertices keep a drag fluid. */
   int pieces = across > 80 ? 1 : across > 30 ? 2 : 4;
   float width = across > 80 ? 1.0f : 1.6f;
-  static const float ink[4] = { 0.07f, 0.07f, 0.09f, 1.0f };
+  /* Crosses in ink; on a fine net thinner and half transparent, or a block of flagged cells
+   * turns solid black and hides its shear colour. */
+  const float ink[4] = { 0.07f, 0.07f, 0.09f, across > 80 ? 0.5f : 1.0f };
+  float cross = across > 80 ? 1.0f : 2.0f;
 
   for (int i = s->i_min; i <= s->i_max; i++)
     for (int j = s->j_min; j <= s->j_max; j++)
@@ -152,10 +155,10 @@ build_net (const df_surface *surface,
         df_drape_get_node (d, i + 1, j, &n10);
         df_drape_get_node (d, i, j + 1, &n01);
         df_drape_get_node (d, i + 1, j + 1, &n11);
-        push (out, n00.point, ink, 2.0f);
-        push (out, n11.point, ink, 2.0f);
-        push (out, n10.point, ink, 2.0f);
-        push (out, n01.point, ink, 2.0f);
+        push (out, n00.point, ink, cross);
+        push (out, n11.point, ink, cross);
+        push (out, n10.point, ink, cross);
+        push (out, n01.point, ink, cross);
         if (!r->has_worst || fabs (c.shear_rad) > fabs (r->worst_shear_rad))
           {
             r->has_worst = TRUE;

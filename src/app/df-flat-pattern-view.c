@@ -148,9 +148,11 @@ draw_cb (GtkDrawingArea *area,
     g_autofree char *w = df_format_length (hi[0] - lo[0], self->units);
     g_autofree char *ht = df_format_length (hi[1] - lo[1], self->units);
     g_autofree char *cell = df_format_length (h, self->units);
-    g_autofree char *title = g_strdup_printf ("Flat pattern %s × %s (warp → × weft ↑), cells "
-                                              "%s%s", w, ht, cell,
-                                              step > 1 ? " (lattice every few)" : "");
+    g_autofree char *title = step > 1
+                             ? g_strdup_printf ("Flat %s × %s (warp → × weft ↑), cells %s, "
+                                                "every %d drawn", w, ht, cell, step)
+                             : g_strdup_printf ("Flat %s × %s (warp → × weft ↑), cells %s", w,
+                                                ht, cell);
     g_autofree char *bar_text = NULL;
 
     cairo_set_source_rgb (cr, 0.1, 0.1, 0.1);
