@@ -90,6 +90,7 @@ cli_drape (const char *project,
            double      v,
            const char *warp,
            const char *cell,
+           const char *svg,
            Drape      *d)
 {
   g_autoptr(GSubprocess) cli = NULL;
@@ -104,7 +105,8 @@ cli_drape (const char *project,
                            g_ascii_dtostr (b, sizeof b, v));
   cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "drape",
                           "--project", project, "--loop", loop_csv, "--start", start,
-                          "--warp-deg", warp, "--cell", cell, "--json", NULL);
+                          "--warp-deg", warp, "--cell", cell, "--json",
+                          svg != NULL ? "--svg" : NULL, svg, NULL);
   g_assert_no_error (error);
   g_subprocess_communicate (cli, NULL, NULL, &bytes, NULL, &error);
   g_assert_no_error (error);
@@ -168,7 +170,7 @@ test_typed (void)
       parse_draped (line, &a);
       flags = read_until (out, "drape-flags ");
       g_assert_nonnull (flags);
-      cli_drape (project, loop_csv, 90, 5 * G_PI / 180, "10", "4", &c);
+      cli_drape (project, loop_csv, 90, 5 * G_PI / 180, "10", "4", NULL, &c);
       assert_same (&a, &c);
       g_assert_cmpfloat (a.cells, >, 100);
       if (k == 0)
@@ -211,6 +213,11 @@ test_key_and_pick (void)
   g_autofree char *line = NULL;
   g_autofree char *cx = NULL;
   g_autofree char *cy = NULL;
+  g_autofree char *app_svg = g_build_filename (dir, "app.svg", NULL);
+  g_autofree char *cli_svg = g_build_filename (dir, "cli.svg", NULL);
+  g_autofree char *exported = NULL;
+  g_autofree char *svg_a = NULL;
+  g_autofree char *svg_c = NULL;
   Drape a, c;
 
   if (!xserver_start (&x))
@@ -244,15 +251,33 @@ test_key_and_pick (void)
   g_assert_nonnull (line);
   parse_draped (line, &a);
   cli_drape (project, loop_csv, g_ascii_strtod (start[1], NULL),
-             g_ascii_strtod (start[2], NULL), "0", "4", &c);
+             g_ascii_strtod (start[2], NULL), "0", "4", cli_svg, &c);
   assert_same (&a, &c);
   g_assert_cmpfloat (a.over, >, 0);
+
+  /* The flat pattern exported through the file chooser is the CLI's --svg of the same drape
+   * (one writer, df-drape-out.c), byte for byte. */
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Woven-Ply Drape",
+              "windowfocus", "sleep", "0.5", "key", "alt+s", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Export Flat Pattern",
+              "windowfocus", "sleep", "0.5", NULL);
+  type_field (&x, app_svg);
+  xdotool_va (&x, "key", "Return", NULL);
+  exported = read_until (out, "drape-exported svg ");
+  g_assert_nonnull (exported);
+  g_assert_cmpstr (exported + strlen ("drape-exported svg "), ==, app_svg);
+  g_assert_true (g_file_get_contents (app_svg, &svg_a, NULL, NULL));
+  g_assert_true (g_file_get_contents (cli_svg, &svg_c, NULL, NULL));
+  g_assert_cmpstr (svg_a, ==, svg_c);
+  g_assert_nonnull (strstr (svg_a, "<svg"));
 
   g_subprocess_force_exit (app);
   g_subprocess_wait (app, NULL, NULL);
   xserver_stop (&x);
   g_remove (loop_csv);
   g_remove (project);
+  g_remove (app_svg);
+  g_remove (cli_svg);
   g_rmdir (dir);
 }
 
