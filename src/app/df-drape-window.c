@@ -230,6 +230,7 @@ show_result (DfDrapeWindow *self,
 }
 
 static void start_job (DfDrapeWindow *self, double u, double v, gboolean final);
+static void prefer_drapable (DfDrapeWindow *self);
 
 static void
 job_done_cb (GObject      *source,
@@ -805,6 +806,7 @@ df_drape_window_new (GtkWindow     *parent,
     gtk_overlay_add_overlay (GTK_OVERLAY (overlay), self->legend);
   g_signal_handlers_block_by_func (self->loop, loop_selected_cb, self);
   refresh_names (self);
+  prefer_drapable (self);
   g_signal_handlers_unblock_by_func (self->loop, loop_selected_cb, self);
   update_labels (self);
   guess_values (self);
@@ -813,6 +815,26 @@ df_drape_window_new (GtkWindow     *parent,
   g_signal_connect_after (df_document_get_loops (document), "items-changed",
                           G_CALLBACK (loops_changed_cb), self);
   return GTK_WIDGET (self);
+}
+
+/* The first loop that bounds a disc and does not wind round the axis (a band round a shade
+ * cannot be draped), when the loops are measured already. */
+static void
+prefer_drapable (DfDrapeWindow *self)
+{
+  GListModel *loops = df_document_get_loops (self->document);
+
+  for (guint k = 0; k < g_list_model_get_n_items (loops); k++)
+    {
+      g_autoptr(DfLoopItem) item = g_list_model_get_item (loops, k);
+      const df_loop_result *r = df_loop_item_get_result (item);
+
+      if (r != NULL && r->bounds_disc && r->axis_winding == 0)
+        {
+          gtk_drop_down_set_selected (GTK_DROP_DOWN (self->loop), k);
+          return;
+        }
+    }
 }
 
 gboolean
