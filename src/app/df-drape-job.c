@@ -169,6 +169,32 @@ build_net (const df_surface *surface,
             r->worst_v = 0.25 * (n00.v + n10.v + n01.v + n11.v);
           }
       }
+  /* Pins whose warp deviates past max-fibre-deviation-deg: a short thick magenta dash along
+   * the warp there (a hue the shear scale does not use), so that flag too is a mark. */
+  if (isfinite (df_drape_get_options (d)->max_fibre_deviation_rad))
+    {
+      static const float magenta[4] = { 0.80f, 0.05f, 0.55f, 1.0f };
+      double h = df_drape_get_options (d)->cell;
+      double lim = df_drape_get_options (d)->max_fibre_deviation_rad;
+
+      for (int i = s->i_min; i <= s->i_max; i++)
+        for (int j = s->j_min; j <= s->j_max; j++)
+          {
+            df_drape_node nd;
+            double a[3], b[3];
+
+            if (!df_drape_get_node (d, i, j, &nd) || !nd.inside
+                || !(fabs (nd.warp_deviation_rad) > lim))
+              continue;
+            for (int k = 0; k < 3; k++)
+              {
+                a[k] = nd.point[k] - 0.3 * h * nd.warp[k];
+                b[k] = nd.point[k] + 0.3 * h * nd.warp[k];
+              }
+            push (out, a, magenta, 3.0f);
+            push (out, b, magenta, 3.0f);
+          }
+    }
   *n_out = out->len / NET_STRIDE;
   return (float *) g_array_free (out, FALSE);
 }

@@ -133,9 +133,11 @@ df_drape_text_flags (const DfDrapeResult *r,
       g_autofree char *lim = df_format_number (dev->model_value);
 
       g_string_append_printf (t, "\nFibre deviation: [limits] max-fibre-deviation-deg = %s° "
-                              "(%s): %zu pin%s past it.", lim, source_of (dev),
+                              "(%s): %zu pin%s past it%s.", lim, source_of (dev),
                               s->n_nodes_over_deviation,
-                              s->n_nodes_over_deviation == 1 ? "" : "s");
+                              s->n_nodes_over_deviation == 1 ? "" : "s",
+                              s->n_nodes_over_deviation > 0
+                              ? " (a magenta dash along the warp in the view)" : "");
     }
   else
     g_string_append (t, "\nFibre deviation: no max-fibre-deviation-deg in the limits.");

@@ -206,7 +206,9 @@ show_result (DfDrapeWindow *self,
   gtk_label_set_text (GTK_LABEL (self->figures), figures);
   gtk_label_set_text (GTK_LABEL (self->flags), flags);
   df_devmap_legend_set (DF_DEVMAP_LEGEND (self->legend),
-                        "Drape shear, 90° − thread crossing angle (+ closes)", "°",
+                        has_limit ? "Drape shear, 90° − crossing angle (+ closes); × past "
+                                    "the limit" : "Drape shear, 90° − crossing angle (+ closes)",
+                        "°",
                         r->range_deg, has_limit ? shear->model_value : 0,
                         has_limit ? shear->source : NULL);
   show_legend (self, TRUE);
@@ -547,6 +549,10 @@ document_changed_cb (DfDocument    *document,
   if (g_list_model_get_n_items (G_LIST_MODEL (self->names))
       != g_list_model_get_n_items (df_document_get_loops (document)))
     return;   /* items-changed refreshes the list and clears */
+  /* A renamed loop: the names again, the choice kept. */
+  g_signal_handlers_block_by_func (self->loop, loop_selected_cb, self);
+  refresh_names (self);
+  g_signal_handlers_unblock_by_func (self->loop, loop_selected_cb, self);
   if (self->result != NULL && self->have_start && self->result_final)
     start_job (self, self->start[0], self->start[1], TRUE);
 }
