@@ -195,6 +195,27 @@ build_net (const df_surface *surface,
             push (out, b, magenta, 3.0f);
           }
     }
+  /* The start pin: a bold ink cross along its warp and weft, so a dragged pin is seen. */
+  {
+    static const float pin_ink[4] = { 0.05f, 0.05f, 0.07f, 1.0f };
+    double h = df_drape_get_options (d)->cell;
+    df_drape_node nd;
+
+    if (df_drape_get_node (d, 0, 0, &nd))
+      for (int t = 0; t < 2; t++)
+        {
+          const double *dir = t == 0 ? nd.warp : nd.weft;
+          double a[3], b[3];
+
+          for (int k = 0; k < 3; k++)
+            {
+              a[k] = nd.point[k] - 0.8 * h * dir[k];
+              b[k] = nd.point[k] + 0.8 * h * dir[k];
+            }
+          push (out, a, pin_ink, 4.0f);
+          push (out, b, pin_ink, 4.0f);
+        }
+  }
   *n_out = out->len / NET_STRIDE;
   return (float *) g_array_free (out, FALSE);
 }
