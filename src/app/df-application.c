@@ -38,6 +38,13 @@ static const GOptionEntry option_entries[] = {
   { "bench-mesh", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Build the display mesh of the surface (after --import-data: of the fitted one) a few "
     "times, print the times and quit", NULL },
+  { "drape", 0, 0, G_OPTION_ARG_STRING, NULL,
+    "Open the Woven-Ply Drape window and drape the loop named LOOP from the start U;V (phi in "
+    "degrees on a surface of revolution), warp WARP degrees, cell CELL, as if typed",
+    "LOOP;U;V;WARP;CELL" },
+  { "bench-drape", 0, 0, G_OPTION_ARG_NONE, NULL,
+    "Drag a drape's start pin across the first loop (or the one --drape names), print the "
+    "drag-to-redraw times and quit", NULL },
   { "report-view-geometry", 0, 0, G_OPTION_ARG_NONE, NULL,
     "Print where the 3D view lies in the window (for test drivers)", NULL },
   { "import-data", 0, 0, G_OPTION_ARG_FILENAME, NULL,
@@ -222,6 +229,8 @@ df_application_command_line (GApplication            *application,
   startup.bench_mesh = g_variant_dict_contains (options, "bench-mesh");
   startup.report_view = g_variant_dict_contains (options, "report-view-geometry");
   startup.report_events = g_variant_dict_contains (options, "report-events");
+  g_variant_dict_lookup (options, "drape", "s", &startup.drape);
+  startup.bench_drape = g_variant_dict_contains (options, "bench-drape");
 
   if (startup.preset != NULL)
     {

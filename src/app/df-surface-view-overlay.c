@@ -248,6 +248,8 @@ _df_surface_view_rebuild_overlay (DfSurfaceView *self)
       push_arrow (self, a->origin, a->dir, HIGHLIGHT_LENGTH * size, &a->colour, 3.5f);
     }
 
+  _df_surface_view_net_append (self);
+
   if (self->has_marker)
     push_ball (self, self->marker, MARKER_RADIUS * size, &self->marker_colour);
 

@@ -153,6 +153,10 @@ struct _DfSurfaceView
   float        *field;
   const MeshData *field_mesh;
   double        field_range;
+
+  /* A drape's net (df-surface-view-net.c): line vertices, LINE_STRIDE floats each, in pairs;
+   * NULL when none is shown. */
+  GArray       *net;
 };
 
 enum
@@ -208,6 +212,9 @@ void     _df_surface_view_benchmark_free   (Benchmark     *bench);
  * marker, marks them dirty and queues a render. */
 void     _df_surface_view_rebuild_overlay  (DfSurfaceView *self);
 void     _df_surface_view_curve_free       (Curve         *curve);
+
+/* df-surface-view-net.c: appends the net's segments to line_data (rebuild_overlay calls it). */
+void     _df_surface_view_net_append       (DfSurfaceView *self);
 
 /* df-surface-view-gl.c; all need the area's context current. */
 gboolean _df_surface_view_gl_create        (ViewGl        *gl,

@@ -157,6 +157,7 @@ df_surface_view_finalize (GObject *object)
   g_clear_pointer (&self->frames, g_free);
   _df_surface_view_field_free (self);
   g_clear_pointer (&self->line_data, g_array_unref);
+  g_clear_pointer (&self->net, g_array_unref);
   g_clear_pointer (&self->solid_data, g_array_unref);
   _df_surface_view_points_clear (&self->points);
   G_OBJECT_CLASS (df_surface_view_parent_class)->finalize (object);

@@ -95,6 +95,12 @@ void        df_surface_view_set_arrow           (DfSurfaceView    *self,
 void        df_surface_view_remove_arrow        (DfSurfaceView    *self,
                                                  guint             id);
 
+/* A woven ply's net (df-drape-job.c): n vertices of 8 floats each (x, y, z, r, g, b, a, width
+ * in px), in pairs, one segment a pair; copied. NULL or 0 removes it. */
+void        df_surface_view_set_net             (DfSurfaceView    *self,
+                                                 const float      *vertices,
+                                                 gsize             n);
+
 void        df_surface_view_set_marker          (DfSurfaceView    *self,
                                                  const double     *xyz,
                                                  const GdkRGBA    *colour);

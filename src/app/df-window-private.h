@@ -168,6 +168,11 @@ void     _df_window_type_loop_dialog   (DfWindow *self);
 gboolean _df_window_import_path        (DfWindow *self, const char *path, gboolean path_b,
                                         GError **error);
 
+/* df-window-drape.c: the Woven-Ply Drape window (Ctrl+Shift+W), the view's picks forwarded
+ * to it, --drape and --bench-drape. */
+void     _df_window_drape_init         (DfWindow *self);
+void     _df_window_drape_start        (DfWindow *self);
+
 /* df-window-state.c */
 void     _df_window_state_load         (DfWindow *self, gboolean *first_run, char **last_project);
 void     _df_window_state_save         (DfWindow *self);

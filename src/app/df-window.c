@@ -42,6 +42,7 @@ df_startup_clear (DfStartup *startup)
   g_clear_pointer (&startup->export_summary, g_free);
   g_clear_pointer (&startup->export_png, g_free);
   g_clear_pointer (&startup->export_report, g_free);
+  g_clear_pointer (&startup->drape, g_free);
   startup->demo = FALSE;
   startup->bench_orbit = FALSE;
   startup->report_view = FALSE;
@@ -292,6 +293,7 @@ df_window_init (DfWindow *self)
   _df_window_tools_init (self);
   _df_window_data_init (self);
   _df_window_decide_init (self);
+  _df_window_drape_init (self);
   _df_window_actions_update (self);
   /* The menus read these actions' states while the template was built, before the fields
    * above were set: tell them, or the colouring radio and the iso-lines check start wrong. */
@@ -437,6 +439,8 @@ df_window_start (DfWindow        *self,
   self->startup.bench_mesh = startup->bench_mesh;
   self->startup.report_view = startup->report_view;
   self->startup.report_events = startup->report_events;
+  self->startup.drape = g_strdup (startup->drape);
+  self->startup.bench_drape = startup->bench_drape;
   self->exports_pending = is_one_shot (self) && !startup->bench_orbit;
 
   g_signal_connect (self->view, "mesh-ready", G_CALLBACK (mesh_ready_cb), self);
@@ -529,6 +533,7 @@ df_window_start (DfWindow        *self,
     g_signal_connect (self->document, "loop-changed", G_CALLBACK (report_loop_cb), self);
   if (!is_one_shot (self))
     _df_window_autosave_init (self);
+  _df_window_drape_start (self);
   _df_window_actions_update (self);
   return TRUE;
 }

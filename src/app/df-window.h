@@ -25,6 +25,8 @@ typedef struct
   gboolean bench_mesh;      /* print display-mesh build times (after --import-data), then quit */
   gboolean report_view;     /* print the view's place in the window (for test drivers) */
   gboolean report_events;   /* print measurements, autosaves and restores (for test drivers) */
+  char    *drape;           /* "LOOP;U;V;WARP_DEG;CELL": drape as typed once open (df-window-drape.c) */
+  gboolean bench_drape;     /* print drape drag-to-redraw times, then quit */
 } DfStartup;
 
 void df_startup_clear (DfStartup *startup);
