@@ -78,8 +78,8 @@ df_verdict_describe (const df_verdict *v,
                             v->signed_value >= 0 ? "its rim must shrink" : "its rim must stretch",
                             threshold);
   else if (v->within || !v->has_where)
-    g_string_append_printf (t, "%s along the whole curve: worst %s, limit %s",
-                            v->within ? "Within" : "Exceeded", value, threshold);
+    g_string_append_printf (t, "%s all along: worst %s, limit %s",
+                            v->within ? "Within the limit" : "Exceeded", value, threshold);
   else
     {
       g_autofree char *s0 = df_format_number (v->s0);
