@@ -206,7 +206,7 @@ show_result (DfDrapeWindow *self,
   gtk_label_set_text (GTK_LABEL (self->figures), figures);
   gtk_label_set_text (GTK_LABEL (self->flags), flags);
   df_devmap_legend_set (DF_DEVMAP_LEGEND (self->legend),
-                        has_limit ? "Drape shear, 90° − crossing angle (+ closes); × past "
+                        has_limit ? "Drape shear, 90° − crossing angle\n(+ closes); × past "
                                     "the limit" : "Drape shear, 90° − crossing angle (+ closes)",
                         "°",
                         r->range_deg, has_limit ? shear->model_value : 0,
