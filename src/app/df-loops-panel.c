@@ -153,7 +153,10 @@ update_details (DfLoopsPanel *self)
     }
   else
     {
-      gtk_label_set_text (self->enclosed_value, "none: bounds no disc");
+      /* The core's note says why (crossing itself, round the axis or the tube); the table
+       * and the note then tell one story. */
+      gtk_label_set_text (self->enclosed_value, r->simple ? "none: bounds no disc"
+                                                          : "none: the loop crosses itself");
       gtk_label_set_text (self->residual_value, "\u2014");
       gtk_label_set_text (self->area_value, "\u2014");
       if (r->disc_note[0] == '\0')
@@ -175,9 +178,6 @@ update_details (DfLoopsPanel *self)
       g_string_append (notes, r->enclosed_note + 1);
       g_string_append (notes, ". ");
     }
-  if (!r->simple)
-    g_string_append (notes, "The loop crosses itself: the enclosed curvature counts regions "
-                            "with their winding number. ");
   /* Set by the Sketch tool (df-window-tools.c): which fairing the stroke got. */
   if (g_object_get_data (G_OBJECT (item), "df-fairing") != NULL)
     g_string_append_printf (notes, "%s ",
