@@ -485,8 +485,13 @@ df_document_get_title (DfDocument *self)
 {
   g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
 
+  /* A name the project was given (the demo's, a new project's) stays its title through Save
+   * As; the file's name is in the window's subtitle (df-window-sync.c). An opened file has no
+   * such name (set_project clears it) and is called by its file. */
+  if (self->display_name != NULL)
+    return g_strdup (self->display_name);
   if (self->path == NULL)
-    return g_strdup (self->display_name != NULL ? self->display_name : "Untitled project");
+    return g_strdup ("Untitled project");
   return g_path_get_basename (self->path);
 }
 
