@@ -375,6 +375,8 @@ df_document_set_project (DfDocument  *self,
   g_clear_pointer (&self->display_name, g_free);
   g_clear_pointer (&self->load_skipped, g_free);
   set_path (self, path);
+  /* The name went too: titles refresh on "path" even when the path stayed NULL. */
+  g_object_notify_by_pspec (G_OBJECT (self), _df_document_properties[PROP_PATH]);
   g_free (self->saved_snapshot);
   /* An unsaved project (from a preset or a .surface) counts as modified only once edited. */
   self->saved_snapshot = snapshot (self);
