@@ -425,7 +425,7 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        "win.type-values", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK,
                                        "win.import-loop", NULL);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_I,
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_T,
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.type-loop", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_a, GDK_CONTROL_MASK | GDK_ALT_MASK,
                                        "win.import-path-a", NULL);
