@@ -154,8 +154,10 @@ df_legend_bar_snapshot (GtkWidget   *widget,
   }
 
   {
-    g_autofree char *lo_value = format_value (self->lo);
-    g_autofree char *hi_value = format_value (self->hi);
+    g_autofree char *lo_value = self->lo == 0 ? g_strdup ("0")
+                                : df_format_number_as (self->lo, self->hi);
+    g_autofree char *hi_value = self->hi == 0 ? g_strdup ("0")
+                                : df_format_number_as (self->hi, self->lo);
     g_autofree char *lo = g_strconcat (self->below ? "\u2264 " : "", lo_value, NULL);
     g_autofree char *hi = g_strconcat (self->above ? "\u2265 " : "", hi_value, NULL);
     g_autoptr (PangoLayout) lo_layout = make_layout (self, lo);
