@@ -2,7 +2,8 @@
  * from outside under Xvfb with xdotool (harness in df-test-app.c): undo and redo of a geodesic
  * and of a surface change that removed it; a path pair read from CSV files and compared; a
  * project with one bad loop opening the rest and naming it; a loop typed into the typed-loop
- * dialog against a sphere cap's closed form; the colour scale of a one-signed quantity. Skips
+ * dialog against a sphere cap's closed form; the colour scale of a one-signed quantity; Save
+ * As keeping the project's name. Skips
  * (with the reason) when Xvfb or xdotool is missing. */
 #include <gio/gio.h>
 #include <glib/gstdio.h>
@@ -371,6 +372,39 @@ test_one_signed_range (void)
   g_rmdir (dir);
 }
 
+/* Save As keeps a project's given name as its title (it became the file's name): the saved
+ * event names the typed path, and a window titled with the demo's name is still there. */
+static void
+test_save_as_title (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *path = g_build_filename (dir, "shade-copy.dfproj", NULL);
+  g_autofree char *expect = g_strdup_printf ("saved %s", path);
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--demo", NULL);
+  g_strfreev (read_view_geometry (out));
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+shift+s", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
+              "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", path, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  line = read_until (out, "saved ");
+  g_assert_cmpstr (line, ==, expect);
+  g_assert_true (g_file_test (path, G_FILE_TEST_IS_REGULAR));
+  /* Fails (xdotool exits 1) when no window has this title. */
+  xdotool_va (&x, "sleep", "0.5", "search", "--onlyvisible", "--name",
+              "^Lamp-shade demo — driftframe$", NULL);
+  stop_app (app, &x);
+  g_remove (path);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -386,5 +420,6 @@ main (int   argc,
   g_test_add_func ("/app/edits/bad-loop-project", test_bad_loop_project);
   g_test_add_func ("/app/edits/typed-loop-latitude", test_typed_loop_latitude);
   g_test_add_func ("/app/edits/one-signed-range", test_one_signed_range);
+  g_test_add_func ("/app/edits/save-as-title", test_save_as_title);
   return g_test_run ();
 }
