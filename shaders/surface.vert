@@ -11,7 +11,8 @@ layout (location = 3) in vec2 a_curvature;   // (K, H)
 uniform mat4 u_view;
 uniform mat4 u_proj;
 uniform int u_shading;          // 0 plain, 1 Gaussian, 2 mean
-uniform float u_inv_range;      // 1 / max |value| (0 when the range is empty)
+uniform float u_inv_range;      // 1 / max |value| (0 when the range is empty), or 1 / (hi - lo)
+uniform float u_offset;         // 0, or the end of a one-signed span nearer zero (df-surface-view-gl.c)
 
 out vec3 v_position;
 out vec3 v_normal;
@@ -28,6 +29,6 @@ main ()
   // The view matrix is a rotation plus translation, so its 3x3 part maps normals too.
   v_normal = mat3 (u_view) * a_normal;
   v_uv = a_uv;
-  v_value = clamp (raw * u_inv_range, -1.0, 1.0);
+  v_value = clamp ((raw - u_offset) * u_inv_range, -1.0, 1.0);
   gl_Position = u_proj * p;
 }

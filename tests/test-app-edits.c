@@ -1,7 +1,9 @@
 /* test-app-edits.c: end-to-end tests of the app's edits beyond sketching (issue 11), driven
  * from outside under Xvfb with xdotool (harness in df-test-app.c): undo and redo of a geodesic
  * and of a surface change that removed it; a path pair read from CSV files and compared; a
- * project with one bad loop opening the rest and naming it. Skips
+ * project with one bad loop opening the rest and naming it; a loop typed into the typed-loop
+ * dialog against a sphere cap's closed form; the colour scale of a one-signed quantity; Save
+ * As keeping the project's name. Skips
  * (with the reason) when Xvfb or xdotool is missing. */
 #include <gio/gio.h>
 #include <glib/gstdio.h>
@@ -271,6 +273,138 @@ test_bad_loop_project (void)
   g_rmdir (dir);
 }
 
+/* A loop typed into the Ctrl+Shift+T dialog: the latitude circle t = theta of the sphere
+ * preset, typed as (t, phi) rows with phi increasing, so the north cap (polar angle < theta)
+ * lies on its left. Gauss-Bonnet for a cap of a sphere (K = 1/R^2, area 2 pi R^2 (1 - cos
+ * theta); do Carmo sec. 4-5, from memory): enclosed curvature 2 pi (1 - cos theta), and the
+ * holonomy that angle wrapped to (-pi, pi]. theta = 1.2 makes the cap's 4.006 rad wrap to
+ * -2.277 rad, so the test also sees the wrapping. */
+static void
+test_typed_loop_latitude (void)
+{
+  const double theta = 1.2;
+  const int n = 16;
+  Xserver x;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_auto(GStrv) geometry = NULL;
+  g_autofree char *line = NULL;
+  double holonomy, enclosed, cap = 2 * G_PI * (1 - cos (theta)), wrapped = cap;
+
+  while (wrapped > G_PI)
+    wrapped -= 2 * G_PI;
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--preset", "sphere", NULL);
+  geometry = read_view_geometry (out);
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+shift+t", NULL);
+  /* The dialog opens with the header "u,v" and the cursor on the next row. */
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Loop from Typed Points",
+              "windowfocus", "sleep", "1", NULL);
+  /* Row by row: xdotool types no line breaks; Return makes each new row. */
+  for (int k = 0; k < n; k++)
+    {
+      char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE];
+      g_autofree char *row = g_strdup_printf ("%s,%s",
+                                              g_ascii_formatd (a, sizeof a, "%.3f", theta),
+                                              g_ascii_formatd (b, sizeof b, "%.12f",
+                                                               2 * G_PI * k / n));
+
+      xdotool_va (&x, "type", "--delay", "30", row, NULL);
+      xdotool_va (&x, "key", "Return", NULL);
+    }
+  xdotool_va (&x, "sleep", "0.5", "key", "ctrl+Return", NULL);
+  line = read_until (out, "loop-measured ");
+  g_assert_nonnull (line);
+  parse_measured (line, &holonomy, &enclosed);
+  df_assert_close (holonomy, wrapped, 1e-7, 1e-7);
+  df_assert_close (enclosed, cap, 1e-7, 1e-7);
+  stop_app (app, &x);
+}
+
+/* The colour scale of a quantity of one sign: the mean curvature of the paraboloid
+ * z = c (x^2 + y^2) over [-50, 50]^2 with N up is H = c (2 + 4c^2 r^2) / (1 + 4c^2 r^2)^(3/2)
+ * (the graph formula for H, do Carmo sec. 3-3 ex. 5, from memory): 2c at the centre, least at
+ * the corners. The legend's span must lie within these (the scale runs over 1 % to 99 % of
+ * the vertices) and no longer be forced symmetric about zero, which left one arm of the ramp
+ * unused and the shape almost one colour. */
+static void
+test_one_signed_range (void)
+{
+  const double c = 0.005, corner = 50 * G_SQRT2;
+  const double h_max = 2 * c;
+  const double h_min = c * (2 + 4 * c * c * corner * corner)
+                       / pow (1 + 4 * c * c * corner * corner, 1.5);
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *surface = g_build_filename (dir, "dish.surface", NULL);
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(GError) error = NULL;
+  double lo = 0, hi = 0;
+
+  g_file_set_contents (surface, "[surface]\nkind=graph\nz=c*(x^2 + y^2)\nx-min=-50\n"
+                                "x-max=50\ny-min=-50\ny-max=50\n[parameters]\nc=0.005\n", -1,
+                       &error);
+  g_assert_no_error (error);
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, surface, "--colouring", "mean", NULL);
+  /* The first report may come before the mesh (an empty range). */
+  while (hi == 0)
+    {
+      g_autofree char *line = read_until (out, "shading-range ");
+      g_auto(GStrv) parts = NULL;
+
+      g_assert_nonnull (line);
+      parts = g_strsplit (line, " ", -1);
+      lo = g_ascii_strtod (parts[1], NULL);
+      hi = g_ascii_strtod (parts[2], NULL);
+    }
+  g_assert_cmpfloat (lo, >, 0);
+  g_assert_cmpfloat (lo, >=, h_min * (1 - 1e-9));
+  g_assert_cmpfloat (hi, <=, h_max * (1 + 1e-9));
+  /* Most of the span shows: the 1 % tails are small corners and the centre. */
+  g_assert_cmpfloat (hi - lo, >, 0.5 * (h_max - h_min));
+  stop_app (app, &x);
+  g_remove (surface);
+  g_rmdir (dir);
+}
+
+/* Save As keeps a project's given name as its title (it became the file's name): the saved
+ * event names the typed path, and a window titled with the demo's name is still there. */
+static void
+test_save_as_title (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *path = g_build_filename (dir, "shade-copy.dfproj", NULL);
+  g_autofree char *expect = g_strdup_printf ("saved %s", path);
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--demo", NULL);
+  g_strfreev (read_view_geometry (out));
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+shift+s", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
+              "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", path, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  line = read_until (out, "saved ");
+  g_assert_cmpstr (line, ==, expect);
+  g_assert_true (g_file_test (path, G_FILE_TEST_IS_REGULAR));
+  /* Fails (xdotool exits 1) when no window has this title. */
+  xdotool_va (&x, "sleep", "0.5", "search", "--onlyvisible", "--name",
+              "^Lamp-shade demo — driftframe$", NULL);
+  stop_app (app, &x);
+  g_remove (path);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -284,5 +418,8 @@ main (int   argc,
   g_test_add_func ("/app/edits/undo-geodesic", test_undo_geodesic);
   g_test_add_func ("/app/edits/paths-from-csv", test_paths_from_csv);
   g_test_add_func ("/app/edits/bad-loop-project", test_bad_loop_project);
+  g_test_add_func ("/app/edits/typed-loop-latitude", test_typed_loop_latitude);
+  g_test_add_func ("/app/edits/one-signed-range", test_one_signed_range);
+  g_test_add_func ("/app/edits/save-as-title", test_save_as_title);
   return g_test_run ();
 }

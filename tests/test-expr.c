@@ -579,6 +579,48 @@ test_parse_errors (void)
 
 /* ---- parameters ---- */
 
+/* Removing a parameter (the surface panel's delete button): refused, naming the user, while a
+ * later one is defined through it; allowed once that one is gone, the rest re-evaluated from
+ * their texts (values by hand: R/4 = 30, 30^2 = 900). */
+static void
+test_params_remove (void)
+{
+  g_autoptr (df_params) params = df_params_new ();
+  g_autoptr (GError) error = NULL;
+  double value = 0;
+
+  g_assert_true (df_params_set (params, "R", "120", &error));
+  g_assert_true (df_params_set (params, "a", "R/4", &error));
+  g_assert_true (df_params_set (params, "h", "40", &error));
+  g_assert_true (df_params_set (params, "b", "a^2", &error));
+  g_assert_no_error (error);
+
+  g_assert_false (df_params_remove (params, "a", &error));
+  g_assert_error (error, DF_IO_ERROR, DF_IO_ERROR_UNKNOWN_NAME);
+  g_assert_nonnull (strstr (error->message, "'a' is used by 'b'"));
+  g_clear_error (&error);
+  g_assert_cmpuint (df_params_count (params), ==, 4);
+  df_assert_close (df_params_value (params, 3), 900.0, 0, 0);
+
+  g_assert_false (df_params_remove (params, "nope", &error));
+  g_assert_error (error, DF_IO_ERROR, DF_IO_ERROR_UNKNOWN_NAME);
+  g_clear_error (&error);
+
+  g_assert_true (df_params_remove (params, "h", &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (df_params_count (params), ==, 3);
+  g_assert_false (df_params_lookup (params, "h", &value));
+  g_assert_cmpstr (df_params_name (params, 2), ==, "b");
+  df_assert_close (df_params_value (params, 2), 900.0, 0, 0);
+
+  g_assert_true (df_params_remove (params, "b", &error));
+  g_assert_true (df_params_remove (params, "a", &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (df_params_count (params), ==, 1);
+  g_assert_true (df_params_lookup (params, "R", &value));
+  df_assert_close (value, 120.0, 0, 0);
+}
+
 static void
 test_params (void)
 {
@@ -713,6 +755,7 @@ main (int argc, char *argv[])
   g_test_add_func ("/core/expr/domain-errors", test_domain_errors);
   g_test_add_func ("/core/expr/parse-errors", test_parse_errors);
   g_test_add_func ("/core/expr/params", test_params);
+  g_test_add_func ("/core/expr/params-remove", test_params_remove);
   g_test_add_func ("/core/expr/parse-value", test_parse_value);
   g_test_add_func ("/core/expr/copy", test_copy);
   return g_test_run ();

@@ -144,6 +144,25 @@ df_document_rename_loop (DfDocument *self,
 }
 
 void
+df_document_set_loop_colour (DfDocument *self,
+                             DfLoopItem *item,
+                             const char *colour)
+{
+  GdkRGBA rgba;
+
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  g_return_if_fail (DF_IS_LOOP_ITEM (item));
+
+  if (colour == NULL || !gdk_rgba_parse (&rgba, colour)
+      || g_ascii_strcasecmp (colour, df_loop_item_get_colour (item)) == 0)
+    return;
+  _df_document_push_history (self, "loop colour");
+  df_loop_item_set_colour (item, colour);
+  g_signal_emit (self, _df_document_signals[LOOP_CHANGED], 0, item);
+  _df_document_update_modified (self);
+}
+
+void
 df_document_set_loop_frames (DfDocument *self,
                              DfLoopItem *item,
                              gboolean    show)

@@ -375,6 +375,8 @@ df_document_set_project (DfDocument  *self,
   g_clear_pointer (&self->display_name, g_free);
   g_clear_pointer (&self->load_skipped, g_free);
   set_path (self, path);
+  /* The name went too: titles refresh on "path" even when the path stayed NULL. */
+  g_object_notify_by_pspec (G_OBJECT (self), _df_document_properties[PROP_PATH]);
   g_free (self->saved_snapshot);
   /* An unsaved project (from a preset or a .surface) counts as modified only once edited. */
   self->saved_snapshot = snapshot (self);
@@ -485,8 +487,13 @@ df_document_get_title (DfDocument *self)
 {
   g_return_val_if_fail (DF_IS_DOCUMENT (self), NULL);
 
+  /* A name the project was given (the demo's, a new project's) stays its title through Save
+   * As; the file's name is in the window's subtitle (df-window-sync.c). An opened file has no
+   * such name (set_project clears it) and is called by its file. */
+  if (self->display_name != NULL)
+    return g_strdup (self->display_name);
   if (self->path == NULL)
-    return g_strdup (self->display_name != NULL ? self->display_name : "Untitled project");
+    return g_strdup ("Untitled project");
   return g_path_get_basename (self->path);
 }
 

@@ -129,6 +129,9 @@ DfLoopItem           *df_document_add_loop         (DfDocument    *self,
 void                  df_document_remove_loop      (DfDocument *self, DfLoopItem *item);
 void                  df_document_rename_loop      (DfDocument *self, DfLoopItem *item,
                                                     const char *name);
+/* "#rrggbb"; an undoable edit. */
+void                  df_document_set_loop_colour  (DfDocument *self, DfLoopItem *item,
+                                                    const char *colour);
 void                  df_document_set_loop_frames  (DfDocument *self, DfLoopItem *item,
                                                     gboolean show);
 /* Reads a loop CSV (df-loop-csv.h) and adds it named after the file. */

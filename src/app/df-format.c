@@ -54,7 +54,21 @@ df_format_number (double x)
   /* Four significant digits in fixed notation: 1234, 123.4, 12.34, 1.234, 0.1234, 0.01234. */
   decimals = 3 - (int) floor (log10 (ax));
   decimals = CLAMP (decimals, 0, 6);
-  return g_strdup_printf ("%.*f", decimals, x);
+  /* The true minus of the scientific form, so "−0.003096" sits beside "−1.047×10⁻⁴". */
+  return g_strdup_printf ("%s%.*f", x < 0 ? "\u2212" : "", decimals, ax);
+}
+
+char *
+df_format_number_as (double x,
+                     double other)
+{
+  double ax = fabs (x), ao = fabs (other);
+  gboolean sci_x = ax != 0 && (ax < 1e-3 || ax >= 1e6);
+  gboolean sci_o = ao != 0 && (ao < 1e-3 || ao >= 1e6);
+
+  if (isfinite (x) && x != 0 && !sci_x && sci_o && isfinite (other))
+    return scientific (x);
+  return df_format_number (x);
 }
 
 char *

@@ -8,6 +8,8 @@ G_BEGIN_DECLS
 
 /* Four significant digits; fixed notation between 1e-3 and 1e6, scientific outside. */
 char *df_format_number       (double x);
+/* As df_format_number, but scientific when other is: the two ends of one scale in one form. */
+char *df_format_number_as    (double x, double other);
 /* "12.35° (0.2155 rad)" */
 char *df_format_angle        (double rad);
 /* "123.4 mm" */

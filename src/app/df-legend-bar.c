@@ -130,8 +130,11 @@ df_legend_bar_snapshot (GtkWidget   *widget,
    * between them. */
   for (int i = 0; i < (int) G_N_ELEMENTS (stops); i++)
     {
+      /* A one-signed span (df-surface-view-mesh.c) is drawn on one arm of the ramp. */
+      double s_lo = self->lo > 0 ? 0 : -1, s_hi = self->hi < 0 ? 0 : 1;
+
       stops[i].offset = (float) i / (G_N_ELEMENTS (stops) - 1);
-      df_shading_ramp_colour (2.0 * stops[i].offset - 1, &stops[i].color);
+      df_shading_ramp_colour (s_lo + (s_hi - s_lo) * stops[i].offset, &stops[i].color);
     }
   bar_y = th + GAP;
   gtk_snapshot_append_linear_gradient (snapshot,
@@ -151,8 +154,10 @@ df_legend_bar_snapshot (GtkWidget   *widget,
   }
 
   {
-    g_autofree char *lo_value = format_value (self->lo);
-    g_autofree char *hi_value = format_value (self->hi);
+    g_autofree char *lo_value = self->lo == 0 ? g_strdup ("0")
+                                : df_format_number_as (self->lo, self->hi);
+    g_autofree char *hi_value = self->hi == 0 ? g_strdup ("0")
+                                : df_format_number_as (self->hi, self->lo);
     g_autofree char *lo = g_strconcat (self->below ? "\u2264 " : "", lo_value, NULL);
     g_autofree char *hi = g_strconcat (self->above ? "\u2265 " : "", hi_value, NULL);
     g_autoptr (PangoLayout) lo_layout = make_layout (self, lo);
@@ -173,7 +178,7 @@ df_legend_bar_snapshot (GtkWidget   *widget,
       }
     append_text (snapshot, lo_layout, 0, label_y, &fg);
     pango_layout_get_pixel_size (zero_layout, &w, &h);
-    if (self->hi > 0)
+    if (self->hi > 0 && self->lo < 0)
       append_text (snapshot, zero_layout, 0.5f * (width - w), label_y, &fg);
     pango_layout_get_pixel_size (hi_layout, &w, &h);
     append_text (snapshot, hi_layout, width - w, label_y, &fg);

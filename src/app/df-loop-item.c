@@ -164,7 +164,7 @@ df_loop_item_new (const char    *name,
   DfLoopItem *self = g_object_new (DF_TYPE_LOOP_ITEM, NULL);
 
   self->name = g_strdup (name != NULL ? name : "Loop");
-  self->colour = g_strdup (colour != NULL ? colour : "#d0563b");
+  self->colour = g_strdup (colour != NULL ? colour : "#7b3fc4");
   self->show_frames = show_frames;
   self->uv = g_memdup2 (uv, n * sizeof *uv);
   self->n = n;
@@ -212,7 +212,7 @@ df_loop_item_get_rgba (DfLoopItem *self,
   g_return_if_fail (DF_IS_LOOP_ITEM (self));
 
   if (!gdk_rgba_parse (rgba, self->colour))
-    gdk_rgba_parse (rgba, "#d0563b");
+    gdk_rgba_parse (rgba, "#7b3fc4");
 }
 
 gboolean

@@ -32,8 +32,14 @@ draw_swatch (GtkDrawingArea *area,
   cairo_arc (cr, width / 2.0, height / 2.0, MIN (width, height) / 2.0 - 0.5, 0, 2 * G_PI);
   gdk_cairo_set_source_rgba (cr, &rgba);
   cairo_fill_preserve (cr);
-  cairo_set_source_rgba (cr, 0, 0, 0, 0.4);
+  /* A light ring inside a dark one: the dot stays apart from a selected row's blue as well as
+   * from the plain background. */
+  cairo_set_source_rgba (cr, 0, 0, 0, 0.55);
   cairo_set_line_width (cr, 1.0);
+  cairo_stroke (cr);
+  cairo_arc (cr, width / 2.0, height / 2.0, MIN (width, height) / 2.0 - 1.75, 0, 2 * G_PI);
+  cairo_set_source_rgba (cr, 1, 1, 1, 0.9);
+  cairo_set_line_width (cr, 1.5);
   cairo_stroke (cr);
 }
 
@@ -109,6 +115,8 @@ df_loop_row_new (DfLoopItem *item)
   self->item = g_object_ref (item);
   g_signal_connect (item, "notify::name", G_CALLBACK (item_notify_cb), self);
   g_signal_connect (item, "notify::summary", G_CALLBACK (item_notify_cb), self);
+  g_signal_connect_swapped (item, "notify::colour", G_CALLBACK (gtk_widget_queue_draw),
+                            self->swatch);
   /* Under the summary: the loop against the user's limits. */
   gtk_box_append (GTK_BOX (gtk_widget_get_parent (GTK_WIDGET (self->summary_label))),
                   df_verdict_badge_new (item));

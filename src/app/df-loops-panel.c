@@ -17,6 +17,8 @@ struct _DfLoopsPanel
   GtkLabel    *empty_label;
   GtkListBox  *list_box;
   GtkEditableLabel *details_title;
+  GtkWidget   *colour_button;  /* the selected loop's colour, changeable (built in code) */
+  GtkWidget   *rename_button;  /* a visible cue that the name is editable */
   GtkGrid     *details_grid;
   GtkLabel    *holonomy_value;
   GtkLabel    *enclosed_value;
@@ -32,6 +34,7 @@ struct _DfLoopsPanel
   /* owned */
   DfDocument *document;
   GtkWidget  *verdict_details;   /* child of the details box, after the notes */
+  gboolean    syncing_colour;    /* the colour button set from the item, not by the user */
 };
 
 G_DEFINE_FINAL_TYPE (DfLoopsPanel, df_loops_panel, GTK_TYPE_WIDGET)
@@ -83,6 +86,17 @@ update_details (DfLoopsPanel *self)
   show_text (self->error_label, NULL);
   df_verdict_details_set_item (DF_VERDICT_DETAILS (self->verdict_details), self->document, item);
   gtk_widget_set_sensitive (GTK_WIDGET (self->details_title), item != NULL);
+  gtk_widget_set_visible (self->colour_button, item != NULL);
+  gtk_widget_set_visible (self->rename_button, item != NULL);
+  if (item != NULL)
+    {
+      GdkRGBA rgba;
+
+      df_loop_item_get_rgba (item, &rgba);
+      self->syncing_colour = TRUE;
+      gtk_color_chooser_set_rgba (GTK_COLOR_CHOOSER (self->colour_button), &rgba);
+      self->syncing_colour = FALSE;
+    }
   if (item == NULL)
     {
       gtk_editable_set_text (GTK_EDITABLE (self->details_title), "No loop selected");
@@ -153,7 +167,10 @@ update_details (DfLoopsPanel *self)
     }
   else
     {
-      gtk_label_set_text (self->enclosed_value, "none: bounds no disc");
+      /* The core's note says why (crossing itself, round the axis or the tube); the table
+       * and the note then tell one story. */
+      gtk_label_set_text (self->enclosed_value, r->simple ? "none: bounds no disc"
+                                                          : "none: the loop crosses itself");
       gtk_label_set_text (self->residual_value, "\u2014");
       gtk_label_set_text (self->area_value, "\u2014");
       if (r->disc_note[0] == '\0')
@@ -175,9 +192,6 @@ update_details (DfLoopsPanel *self)
       g_string_append (notes, r->enclosed_note + 1);
       g_string_append (notes, ". ");
     }
-  if (!r->simple)
-    g_string_append (notes, "The loop crosses itself: the enclosed curvature counts regions "
-                            "with their winding number. ");
   /* Set by the Sketch tool (df-window-tools.c): which fairing the stroke got. */
   if (g_object_get_data (G_OBJECT (item), "df-fairing") != NULL)
     g_string_append_printf (notes, "%s ",
@@ -222,6 +236,77 @@ title_editing_cb (GtkEditableLabel *label,
       return;
     }
   df_document_rename_loop (self->document, item, name);
+}
+
+static void
+colour_set_cb (GtkColorButton *button,
+               DfLoopsPanel   *self)
+{
+  DfLoopItem *item = df_loops_panel_get_selected (self);
+  GdkRGBA rgba;
+  g_autofree char *hex = NULL;
+
+  if (item == NULL || self->document == NULL || self->syncing_colour)
+    return;
+  gtk_color_chooser_get_rgba (GTK_COLOR_CHOOSER (button), &rgba);
+  hex = g_strdup_printf ("#%02x%02x%02x", (int) lround (CLAMP (rgba.red, 0, 1) * 255),
+                         (int) lround (CLAMP (rgba.green, 0, 1) * 255),
+                         (int) lround (CLAMP (rgba.blue, 0, 1) * 255));
+  df_document_set_loop_colour (self->document, item, hex);
+}
+
+void
+df_loops_panel_start_rename (DfLoopsPanel *self)
+{
+  g_return_if_fail (DF_IS_LOOPS_PANEL (self));
+
+  if (df_loops_panel_get_selected (self) == NULL)
+    return;
+  gtk_editable_label_start_editing (self->details_title);
+  gtk_widget_grab_focus (GTK_WIDGET (self->details_title));
+}
+
+static void
+rename_clicked_cb (GtkButton    *button,
+                   DfLoopsPanel *self)
+{
+  df_loops_panel_start_rename (self);
+}
+
+/* The heading row: colour button, the editable name, a pencil that starts renaming. The
+ * template has the name alone; the row is put round it here. */
+static void
+build_heading (DfLoopsPanel *self)
+{
+  GtkWidget *title = GTK_WIDGET (self->details_title);
+  GtkWidget *parent = gtk_widget_get_parent (title);
+  GtkWidget *row = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 6);
+  GdkRGBA black = { 0, 0, 0, 1 };
+
+  self->colour_button = gtk_color_button_new_with_rgba (&black);
+  gtk_color_chooser_set_use_alpha (GTK_COLOR_CHOOSER (self->colour_button), FALSE);
+  gtk_color_button_set_title (GTK_COLOR_BUTTON (self->colour_button), "Loop Colour");
+  gtk_widget_set_tooltip_text (self->colour_button, "Colour of the selected loop");
+  gtk_widget_set_valign (self->colour_button, GTK_ALIGN_CENTER);
+  self->rename_button = gtk_button_new_from_icon_name ("document-edit-symbolic");
+  gtk_widget_add_css_class (self->rename_button, "flat");
+  gtk_widget_set_valign (self->rename_button, GTK_ALIGN_CENTER);
+  gtk_widget_set_tooltip_text (self->rename_button, "Rename the selected loop (F2)");
+  gtk_accessible_update_property (GTK_ACCESSIBLE (self->rename_button),
+                                  GTK_ACCESSIBLE_PROPERTY_LABEL, "Rename loop", -1);
+  gtk_widget_set_margin_top (row, gtk_widget_get_margin_top (title));
+  gtk_widget_set_margin_top (title, 0);
+  gtk_widget_set_hexpand (title, TRUE);
+  gtk_widget_set_valign (title, GTK_ALIGN_CENTER);
+  gtk_widget_insert_after (row, parent, title);
+  g_object_ref (title);
+  gtk_box_remove (GTK_BOX (parent), title);
+  gtk_box_append (GTK_BOX (row), self->colour_button);
+  gtk_box_append (GTK_BOX (row), title);
+  gtk_box_append (GTK_BOX (row), self->rename_button);
+  g_object_unref (title);
+  g_signal_connect (self->colour_button, "color-set", G_CALLBACK (colour_set_cb), self);
+  g_signal_connect (self->rename_button, "clicked", G_CALLBACK (rename_clicked_cb), self);
 }
 
 static GtkWidget *
@@ -318,6 +403,7 @@ df_loops_panel_init (DfLoopsPanel *self)
                            GTK_WIDGET (self->error_label));
   g_signal_connect (self->list_box, "row-selected", G_CALLBACK (row_selected_cb), self);
   g_signal_connect (self->details_title, "notify::editing", G_CALLBACK (title_editing_cb), self);
+  build_heading (self);
   update_empty (self);
   update_details (self);
 }

@@ -17,6 +17,8 @@ GtkWidget  *df_loops_panel_new           (void);
 void        df_loops_panel_set_document  (DfLoopsPanel *self, DfDocument *document);
 /* The selected loop (borrowed) or NULL. */
 DfLoopItem *df_loops_panel_get_selected  (DfLoopsPanel *self);
+/* Puts the selected loop's name into editing (F2). */
+void        df_loops_panel_start_rename  (DfLoopsPanel *self);
 void        df_loops_panel_select        (DfLoopsPanel *self, DfLoopItem *item);
 /* Text above the list while a loop is being sketched; NULL hides it. */
 void        df_loops_panel_set_live_text (DfLoopsPanel *self, const char *text);

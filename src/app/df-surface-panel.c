@@ -31,6 +31,7 @@ typedef struct
   int         range_slot; /* index into range_text, or -1 for r_text / z_text */
   GtkEntry   *entry;
   GtkLabel   *error;
+  GtkLabel   *full;      /* the whole formula, wrapped, when the one-line entry cuts it */
 } FormulaField;
 
 /* One row of the parameter grid. */
@@ -81,19 +82,19 @@ enum
 static guint signals[N_SIGNALS];
 
 static const FormulaField rev_template[4] = {
-  { "r", "r(t)", "r(t) =", "Distance from the axis as a function of t", TRUE, -1, NULL, NULL },
-  { "z", "z(t)", "z(t) =", "Height along the axis as a function of t", TRUE, -1, NULL, NULL },
+  { "r", "r(t)", "r(t) =", "Distance from the axis as a function of t", TRUE, -1, NULL, NULL, NULL },
+  { "z", "z(t)", "z(t) =", "Height along the axis as a function of t", TRUE, -1, NULL, NULL, NULL },
   { "t-min", "t-min", "t-min", "Start of the profile parameter t (a number or expression)",
-    FALSE, 0, NULL, NULL },
-  { "t-max", "t-max", "t-max", "End of the profile parameter t", FALSE, 1, NULL, NULL },
+    FALSE, 0, NULL, NULL, NULL },
+  { "t-max", "t-max", "t-max", "End of the profile parameter t", FALSE, 1, NULL, NULL, NULL },
 };
 
 static const FormulaField graph_template[5] = {
-  { "z", "z(x, y)", "z(x, y) =", "Height as a function of x and y", TRUE, -1, NULL, NULL },
-  { "x-min", "x-min", "x-min", "Smallest x of the panel", FALSE, 0, NULL, NULL },
-  { "x-max", "x-max", "x-max", "Largest x of the panel", FALSE, 1, NULL, NULL },
-  { "y-min", "y-min", "y-min", "Smallest y of the panel", FALSE, 2, NULL, NULL },
-  { "y-max", "y-max", "y-max", "Largest y of the panel", FALSE, 3, NULL, NULL },
+  { "z", "z(x, y)", "z(x, y) =", "Height as a function of x and y", TRUE, -1, NULL, NULL, NULL },
+  { "x-min", "x-min", "x-min", "Smallest x of the panel", FALSE, 0, NULL, NULL, NULL },
+  { "x-max", "x-max", "x-max", "Largest x of the panel", FALSE, 1, NULL, NULL, NULL },
+  { "y-min", "y-min", "y-min", "Smallest y of the panel", FALSE, 2, NULL, NULL, NULL },
+  { "y-max", "y-max", "y-max", "Largest y of the panel", FALSE, 3, NULL, NULL, NULL },
 };
 
 static void rebuild_params (DfSurfacePanel *self);
@@ -206,6 +207,20 @@ validate_fields (DfSurfacePanel *self)
   return ok;
 }
 
+/* A formula longer than its entry shows (about 28 characters at the panel's width) is
+ * repeated in full below it, wrapped, so it can be read without scrolling the entry. */
+#define DF_FORMULA_SHOWN_CHARS 28
+
+static void
+show_full_formula (FormulaField *field)
+{
+  const char *text = gtk_editable_get_text (GTK_EDITABLE (field->entry));
+  gboolean long_text = field->is_formula && g_utf8_strlen (text, -1) > DF_FORMULA_SHOWN_CHARS;
+
+  gtk_label_set_text (field->full, long_text ? text : "");
+  gtk_widget_set_visible (GTK_WIDGET (field->full), long_text);
+}
+
 static void
 formula_changed_cb (GtkEditable    *editable,
                     DfSurfacePanel *self)
@@ -213,6 +228,12 @@ formula_changed_cb (GtkEditable    *editable,
   FormulaField *fields;
   guint n;
 
+  for (guint i = 0; i < G_N_ELEMENTS (self->rev_fields); i++)
+    if (GTK_EDITABLE (self->rev_fields[i].entry) == editable)
+      show_full_formula (&self->rev_fields[i]);
+  for (guint i = 0; i < G_N_ELEMENTS (self->graph_fields); i++)
+    if (GTK_EDITABLE (self->graph_fields[i].entry) == editable)
+      show_full_formula (&self->graph_fields[i]);
   if (self->updating)
     return;
   fields = current_fields (self, &n);
@@ -257,8 +278,17 @@ build_fields (DfSurfacePanel *self,
       GtkWidget *label = gtk_label_new (fields[i].label);
       GtkWidget *entry = gtk_entry_new ();
       GtkWidget *error = gtk_label_new (NULL);
+      GtkWidget *full = gtk_label_new (NULL);
+      GtkWidget *below = gtk_box_new (GTK_ORIENTATION_VERTICAL, 2);
 
       gtk_label_set_xalign (GTK_LABEL (label), 1.0);
+      gtk_label_set_wrap (GTK_LABEL (full), TRUE);
+      gtk_label_set_wrap_mode (GTK_LABEL (full), PANGO_WRAP_WORD_CHAR);
+      gtk_label_set_selectable (GTK_LABEL (full), FALSE);
+      gtk_label_set_xalign (GTK_LABEL (full), 0.0);
+      gtk_label_set_max_width_chars (GTK_LABEL (full), 30);
+      gtk_widget_add_css_class (full, "dim-label");
+      gtk_widget_set_visible (full, FALSE);
       gtk_widget_set_hexpand (entry, TRUE);
       gtk_widget_set_tooltip_text (entry, fields[i].tooltip);
       gtk_accessible_update_property (GTK_ACCESSIBLE (entry), GTK_ACCESSIBLE_PROPERTY_LABEL,
@@ -270,9 +300,12 @@ build_fields (DfSurfacePanel *self,
       gtk_widget_set_visible (error, FALSE);
       gtk_grid_attach (grid, label, 0, (int) (2 * i), 1, 1);
       gtk_grid_attach (grid, entry, 1, (int) (2 * i), 1, 1);
-      gtk_grid_attach (grid, error, 1, (int) (2 * i + 1), 1, 1);
+      gtk_box_append (GTK_BOX (below), full);
+      gtk_box_append (GTK_BOX (below), error);
+      gtk_grid_attach (grid, below, 1, (int) (2 * i + 1), 1, 1);
       fields[i].entry = GTK_ENTRY (entry);
       fields[i].error = GTK_LABEL (error);
+      fields[i].full = GTK_LABEL (full);
       g_signal_connect (entry, "changed", G_CALLBACK (formula_changed_cb), self);
     }
 }
@@ -361,11 +394,63 @@ is_plain_number (const char *text)
   return end != text && end != NULL && *g_strchug (end) == '\0';
 }
 
+/* Decimals a spin button needs for its step (a tenth of the value's magnitude) and for the
+ * value as typed ("12.75" needs two). */
+static int
+param_decimals (const char *text,
+                double      step)
+{
+  const char *dot = strchr (text, '.');
+  int typed = 0, for_step = step < 1 ? (int) ceil (-log10 (step) - 1e-9) : 0;
+
+  if (dot != NULL && strpbrk (text, "eE") == NULL)
+    for (const char *p = dot + 1; g_ascii_isdigit (*p); p++)
+      typed++;
+  return CLAMP (MAX (typed, for_step), 0, 6);
+}
+
+static double
+param_step (double value)
+{
+  double magnitude = fabs (value) > 0 ? fabs (value) : 1.0;
+
+  return pow (10.0, floor (log10 (magnitude)) - 1.0);
+}
+
+static void
+remove_param_clicked_cb (GtkButton      *button,
+                         DfSurfacePanel *self)
+{
+  const char *name = g_object_get_data (G_OBJECT (button), "df-param");
+  g_autoptr(GError) error = NULL;
+  g_autofree char *owned = g_strdup (name);
+
+  if (!df_params_remove (self->spec->params, owned, &error))
+    {
+      set_error_label (self->add_param_error, NULL, error->message);
+      return;
+    }
+  set_error_label (self->add_param_error, NULL, NULL);
+  rebuild_params (self);
+  /* A formula that still uses it says so beside its field (validate_fields). */
+  if (validate_fields (self))
+    schedule_changed (self);
+}
+
 static void
 rebuild_params (DfSurfacePanel *self)
 {
   GtkWidget *child;
   guint n = df_params_count (self->spec->params);
+  gboolean removable = self->spec->preset == NULL && self->spec->data_key == NULL;
+  int digits = 0;
+
+  /* One number of decimals for the whole grid (5.0 beside 40.0, not 5.0000 beside 40.00). */
+  for (guint i = 0; i < n; i++)
+    if (is_plain_number (df_params_text (self->spec->params, i)))
+      digits = MAX (digits, param_decimals (df_params_text (self->spec->params, i),
+                                            param_step (df_params_value (self->spec->params,
+                                                                         i))));
 
   while ((child = gtk_widget_get_first_child (GTK_WIDGET (self->params_grid))) != NULL)
     gtk_grid_remove (self->params_grid, child);
@@ -386,13 +471,12 @@ rebuild_params (DfSurfacePanel *self)
       gtk_grid_attach (self->params_grid, label, 0, (int) i, 1, 1);
       if (is_plain_number (plain))
         {
-          double magnitude = fabs (value) > 0 ? fabs (value) : 1.0;
-          double step = pow (10.0, floor (log10 (magnitude)) - 1.0);
+          double step = param_step (value);
           GtkAdjustment *adjustment = gtk_adjustment_new (value, -1e9, 1e9, step, step * 10, 0);
-          GtkWidget *spin = gtk_spin_button_new (adjustment, step, 4);
+          GtkWidget *spin = gtk_spin_button_new (adjustment, step, (guint) digits);
           g_autofree char *tooltip = g_strdup_printf ("Parameter %s of the formulas", name);
 
-          gtk_spin_button_set_digits (GTK_SPIN_BUTTON (spin), step < 1 ? 4 : 2);
+          gtk_spin_button_set_digits (GTK_SPIN_BUTTON (spin), (guint) digits);
           gtk_widget_set_hexpand (spin, TRUE);
           gtk_widget_set_tooltip_text (spin, tooltip);
           gtk_accessible_update_property (GTK_ACCESSIBLE (spin), GTK_ACCESSIBLE_PROPERTY_LABEL,
@@ -414,6 +498,19 @@ rebuild_params (DfSurfacePanel *self)
           row.value = GTK_LABEL (derived);
         }
       gtk_grid_attach (self->params_grid, unit, 2, (int) i, 1, 1);
+      if (removable)
+        {
+          GtkWidget *remove = gtk_button_new_from_icon_name ("user-trash-symbolic");
+          g_autofree char *what = g_strdup_printf ("Remove the parameter %s", name);
+
+          gtk_widget_add_css_class (remove, "flat");
+          gtk_widget_set_tooltip_text (remove, what);
+          gtk_accessible_update_property (GTK_ACCESSIBLE (remove),
+                                          GTK_ACCESSIBLE_PROPERTY_LABEL, what, -1);
+          g_object_set_data_full (G_OBJECT (remove), "df-param", g_strdup (name), g_free);
+          g_signal_connect (remove, "clicked", G_CALLBACK (remove_param_clicked_cb), self);
+          gtk_grid_attach (self->params_grid, remove, 3, (int) i, 1, 1);
+        }
       g_array_append_val (self->param_rows, row);
     }
   if (n == 0)
@@ -584,6 +681,15 @@ units_changed_cb (GtkEditable    *editable,
   schedule_changed (self);
 }
 
+/* An error under the add-parameter field goes when the field is cleared. */
+static void
+add_param_changed_cb (GtkEditable    *editable,
+                      DfSurfacePanel *self)
+{
+  if (gtk_editable_get_text (editable)[0] == '\0')
+    set_error_label (self->add_param_error, GTK_WIDGET (editable), NULL);
+}
+
 /* "name = value" adds (or redefines) a parameter of a formula surface. */
 static void
 add_param_activate_cb (GtkEntry       *entry,
@@ -697,6 +803,7 @@ df_surface_panel_init (DfSurfacePanel *self)
                     G_CALLBACK (preset_selected_cb), self);
   g_signal_connect (self->units_entry, "changed", G_CALLBACK (units_changed_cb), self);
   g_signal_connect (self->add_param_entry, "activate", G_CALLBACK (add_param_activate_cb), self);
+  g_signal_connect (self->add_param_entry, "changed", G_CALLBACK (add_param_changed_cb), self);
   fill_all (self);
 }
 

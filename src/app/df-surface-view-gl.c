@@ -109,6 +109,7 @@ build_programs (ViewGl  *gl,
   gl->su.proj = glGetUniformLocation (gl->surface_program, "u_proj");
   gl->su.shading = glGetUniformLocation (gl->surface_program, "u_shading");
   gl->su.inv_range = glGetUniformLocation (gl->surface_program, "u_inv_range");
+  gl->su.offset = glGetUniformLocation (gl->surface_program, "u_offset");
   gl->su.ramp = glGetUniformLocation (gl->surface_program, "u_ramp");
   gl->su.plain = glGetUniformLocation (gl->surface_program, "u_plain");
   gl->su.iso = glGetUniformLocation (gl->surface_program, "u_iso");
@@ -288,11 +289,31 @@ _df_surface_view_gl_draw (DfSurfaceView *self,
           /* The field rides in the K slot of the vertices. */
           glUniform1i (gl->su.shading, DF_SHADING_GAUSSIAN);
           glUniform1f (gl->su.inv_range, self->field_range > 0 ? 1 / self->field_range : 0);
+          glUniform1f (gl->su.offset, 0);
         }
       else
         {
+          double lo, hi;
+
+          /* Symmetric: s = value / range. One sign: the span [lo, hi] onto one arm, its end
+           * nearer zero at s = 0 (white). */
+          _df_surface_view_mesh_shade_range (self, &lo, &hi);
           glUniform1i (gl->su.shading, self->shading);
-          glUniform1f (gl->su.inv_range, range > 0 ? 1 / range : 0);
+          if (range > 0 && lo > 0)
+            {
+              glUniform1f (gl->su.offset, (float) lo);
+              glUniform1f (gl->su.inv_range, (float) (1 / (hi - lo)));
+            }
+          else if (range > 0 && hi < 0)
+            {
+              glUniform1f (gl->su.offset, (float) hi);
+              glUniform1f (gl->su.inv_range, (float) (1 / (hi - lo)));
+            }
+          else
+            {
+              glUniform1f (gl->su.offset, 0);
+              glUniform1f (gl->su.inv_range, range > 0 ? 1 / range : 0);
+            }
         }
       glUniform3fv (gl->su.ramp, DF_SHADING_RAMP_STOPS, (const float *) ramp_stops);
       glUniform3fv (gl->su.plain, 1, plain_colour);

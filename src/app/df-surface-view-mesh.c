@@ -24,6 +24,48 @@ _df_surface_view_mesh_data_free (MeshData *data)
   g_free (data);
 }
 
+static int
+compare_doubles (const void *a,
+                 const void *b)
+{
+  double x = *(const double *) a, y = *(const double *) b;
+
+  return (x > y) - (x < y);
+}
+
+/* A quantity of one sign everywhere (the mean curvature of a convex shade, K of a dome) on the
+ * symmetric scale uses one arm only, and a narrow spread of it: nearly one solid colour. Its
+ * own span (1 % to 99 % of the vertices, like the symmetric scale's quantile) shows the
+ * variation instead, white at the end nearer zero; the legend names both ends. A spread under
+ * a millionth of the values (a sphere's H) keeps the symmetric scale: the colour is constant. */
+static void
+one_signed_span (const df_mesh   *mesh,
+                 const double    *values,
+                 const uint8_t   *valid,
+                 double          *lo,
+                 double          *hi)
+{
+  gsize count = df_mesh_n_vertices (mesh), n = 0;
+  g_autofree double *sorted = g_new (double, MAX (count, 1));
+  double a, b;
+
+  for (gsize i = 0; i < count; i++)
+    if (valid[i] && isfinite (values[i]))
+      sorted[n++] = values[i];
+  if (n < 2)
+    return;
+  qsort (sorted, n, sizeof *sorted, compare_doubles);
+  a = sorted[(gsize) (0.01 * (n - 1))];
+  b = sorted[(gsize) ceil (0.99 * (n - 1))];
+  if (!(b - a > 1e-6 * MAX (fabs (a), fabs (b))))
+    return;
+  if (a > 0 || b < 0)
+    {
+      *lo = a;
+      *hi = b;
+    }
+}
+
 /* 1, 2 or 5 times a power of ten, near range / 10: iso-line spacing a reader can count in. */
 static double
 nice_step (double range)
@@ -89,11 +131,16 @@ mesh_data_build (const df_surface *surface)
       if (!(range * scale > 1e-9))
         range = max * scale > 1e-9 ? max : 0;
       data->range[q] = range;
+      data->shade_lo[q] = -range;
+      data->shade_hi[q] = range;
+      if (range > 0)
+        one_signed_span (data->mesh, values, valid, &data->shade_lo[q], &data->shade_hi[q]);
       for (gsize i = 0; range > 0 && i < df_mesh_n_vertices (data->mesh); i++)
         if (valid[i])
           {
-            data->below[q] |= values[i] < -range * (1 + 1e-6);
-            data->above[q] |= values[i] > range * (1 + 1e-6);
+            double tol = 1e-6 * range;
+            data->below[q] |= values[i] < data->shade_lo[q] - tol;
+            data->above[q] |= values[i] > data->shade_hi[q] + tol;
           }
     }
 
@@ -188,11 +235,29 @@ _df_surface_view_mesh_range (DfSurfaceView *self)
 }
 
 void
-_df_surface_view_emit_range_changed (DfSurfaceView *self)
+_df_surface_view_mesh_shade_range (DfSurfaceView *self,
+                                   double        *lo,
+                                   double        *hi)
 {
   double m = _df_surface_view_mesh_range (self);
+  int q = self->shading == DF_SHADING_MEAN;
 
-  g_signal_emit (self, _df_surface_view_signals[SHADING_RANGE_CHANGED], 0, -m, m);
+  *lo = -m;
+  *hi = m;
+  if (m > 0)
+    {
+      *lo = self->mesh->shade_lo[q];
+      *hi = self->mesh->shade_hi[q];
+    }
+}
+
+void
+_df_surface_view_emit_range_changed (DfSurfaceView *self)
+{
+  double lo, hi;
+
+  _df_surface_view_mesh_shade_range (self, &lo, &hi);
+  g_signal_emit (self, _df_surface_view_signals[SHADING_RANGE_CHANGED], 0, lo, hi);
 }
 
 void

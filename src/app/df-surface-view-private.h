@@ -46,6 +46,8 @@ typedef struct
   double   range[2];    /* colour range of |K|, |H| (area quantile; 0 if the value is nil) */
   gboolean below[2];    /* some K, H lie below -range */
   gboolean above[2];    /* some K, H lie above +range */
+  double   shade_lo[2]; /* the colour scale's ends: -range, +range, or for a quantity of one */
+  double   shade_hi[2]; /* sign its own 1 %..99 % span (white at the end nearer zero) */
 } MeshData;
 
 typedef struct
@@ -77,7 +79,7 @@ typedef struct
   GLuint lines_vao, lines_vbo;
   GLuint solid_vao, solid_vbo;
   GLuint fbo, fbo_colour, fbo_depth;
-  struct { GLint view, proj, shading, inv_range, ramp, plain, iso, iso_step, back_shade; } su;
+  struct { GLint view, proj, shading, inv_range, offset, ramp, plain, iso, iso_step, back_shade; } su;
   struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
   struct { GLint view, proj, bias, alpha; } ou;
   GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
@@ -186,6 +188,7 @@ extern guint _df_surface_view_signals[DF_SURFACE_VIEW_N_SIGNALS];
 
 /* df-surface-view-mesh.c */
 double   _df_surface_view_mesh_range       (DfSurfaceView *self);
+void     _df_surface_view_mesh_shade_range (DfSurfaceView *self, double *lo, double *hi);
 void     _df_surface_view_mesh_data_free   (MeshData      *data);
 void     _df_surface_view_emit_range_changed (DfSurfaceView *self);
 /* Takes data (may be NULL: nothing to draw), refits if asked, rebuilds the overlay. */

@@ -584,14 +584,14 @@ df_surface_view_get_shading_range (DfSurfaceView *self,
                                    double        *lo,
                                    double        *hi)
 {
-  double m;
+  double a, b;
 
   g_return_if_fail (DF_IS_SURFACE_VIEW (self));
-  m = _df_surface_view_mesh_range (self);
+  _df_surface_view_mesh_shade_range (self, &a, &b);
   if (lo != NULL)
-    *lo = -m;
+    *lo = a;
   if (hi != NULL)
-    *hi = m;
+    *hi = b;
 }
 
 void

@@ -315,6 +315,17 @@ delete_loop_action (GtkWidget  *widget,
 }
 
 static void
+rename_loop_action (GtkWidget  *widget,
+                    const char *name,
+                    GVariant   *parameter)
+{
+  DfWindow *self = DF_WINDOW (widget);
+
+  gtk_stack_set_visible_child_name (self->panel_stack, "loops");
+  df_loops_panel_start_rename (self->loops_panel);
+}
+
+static void
 import_path_action (GtkWidget  *widget,
                     const char *name,
                     GVariant   *parameter)
@@ -390,6 +401,7 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
   gtk_widget_class_install_action (widget_class, "win.standard-view", "s", standard_view_action);
   gtk_widget_class_install_action (widget_class, "win.fit-all", NULL, fit_all_action);
   gtk_widget_class_install_action (widget_class, "win.delete-loop", NULL, delete_loop_action);
+  gtk_widget_class_install_action (widget_class, "win.rename-loop", NULL, rename_loop_action);
   gtk_widget_class_install_action (widget_class, "win.clear-geodesic", NULL,
                                    clear_geodesic_action);
   gtk_widget_class_install_action (widget_class, "win.clear-paths", NULL, clear_paths_action);
@@ -413,7 +425,7 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        "win.type-values", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK,
                                        "win.import-loop", NULL);
-  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_I,
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_T,
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.type-loop", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_a, GDK_CONTROL_MASK | GDK_ALT_MASK,
                                        "win.import-path-a", NULL);
@@ -427,6 +439,7 @@ _df_window_actions_class_init (GtkWidgetClass *widget_class)
                                        GDK_CONTROL_MASK | GDK_SHIFT_MASK, "win.redo", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Delete, GDK_CONTROL_MASK,
                                        "win.delete-loop", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_F2, 0, "win.rename-loop", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_l, GDK_CONTROL_MASK,
                                        "win.iso-lines", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_0, GDK_ALT_MASK, "win.fit-all",
@@ -470,6 +483,7 @@ _df_window_actions_update (DfWindow *self)
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.redo",
                                  df_document_can_redo (self->document));
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.delete-loop", selected != NULL);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.rename-loop", selected != NULL);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.loop-frames", selected != NULL);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.fit-all", has_surface);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.standard-view", has_surface);

@@ -601,7 +601,6 @@ import_data_action (GtkWidget  *widget,
   DfWindow *self = DF_WINDOW (widget);
   GtkFileChooserNative *chooser;
   g_autoptr(GtkFileFilter) all = gtk_file_filter_new ();
-  const char *path = df_document_get_path (self->document);
 
   chooser = gtk_file_chooser_native_new ("Surface from Measured Data", GTK_WINDOW (self),
                                          GTK_FILE_CHOOSER_ACTION_OPEN, "_Fit", "_Cancel");
@@ -611,13 +610,8 @@ import_data_action (GtkWidget  *widget,
   gtk_file_filter_add_pattern (all, "*.[oO][bB][jJ]");
   gtk_file_filter_add_pattern (all, "*.[pP][lL][yY]");
   gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (chooser), all);
-  if (path != NULL)
-    {
-      g_autofree char *dir = g_path_get_dirname (path);
-      g_autoptr(GFile) folder = g_file_new_for_path (dir);
-
-      gtk_file_chooser_set_current_folder (GTK_FILE_CHOOSER (chooser), folder, NULL);
-    }
+  /* The project's folder, else the last project's or the working folder: never "Recent". */
+  _df_window_start_in_project_folder (self, GTK_FILE_CHOOSER (chooser));
   gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
   g_signal_connect (chooser, "response", G_CALLBACK (import_response_cb), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));

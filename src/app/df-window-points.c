@@ -263,6 +263,8 @@ _df_window_type_loop_dialog (DfWindow *self)
   /* Return belongs to the text (a new row); Ctrl+Return adds, Escape cancels. */
   keys = GTK_SHORTCUT_CONTROLLER (gtk_shortcut_controller_new ());
   gtk_shortcut_controller_set_scope (keys, GTK_SHORTCUT_SCOPE_GLOBAL);
+  /* Before the text view: in the bubble phase it took Ctrl+Return as a new row. */
+  gtk_event_controller_set_propagation_phase (GTK_EVENT_CONTROLLER (keys), GTK_PHASE_CAPTURE);
   gtk_shortcut_controller_add_shortcut (keys, gtk_shortcut_new (
       gtk_keyval_trigger_new (GDK_KEY_Return, GDK_CONTROL_MASK),
       gtk_callback_action_new (typed_loop_shortcut_cb, t, NULL)));

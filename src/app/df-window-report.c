@@ -3,6 +3,7 @@
  * df-report, with the view rendered by the app as its picture); and the dialog that edits the
  * record's title block. Computes no geometry. */
 #include "df-window-private.h"
+#include "df-format.h"
 
 #include <math.h>
 #include <pango/pangocairo.h>
@@ -59,7 +60,12 @@ number_text (char *buf, gsize len, double v)
   else if (v == 0)
     g_strlcpy (buf, "0", len);
   else
-    g_snprintf (buf, len, "%.3g", v);
+    {
+      /* The legend's and the details' format (x10^n with a true minus), not printf's e-05. */
+      g_autofree char *text = df_format_number (v);
+
+      g_strlcpy (buf, text, len);
+    }
 }
 
 /* The legend on a backdrop, bottom left: always readable over the surface. */
@@ -90,9 +96,10 @@ draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
   grad = cairo_pattern_create_linear (x, 0, x + bw, 0);
   for (int i = 0; i <= 8; i++)
     {
-      double rgb[3];
+      /* A one-signed span is drawn on one arm, as in the window's legend (df-legend-bar.c). */
+      double rgb[3], s_lo = lo > 0 ? 0 : -1, s_hi = hi < 0 ? 0 : 1;
 
-      df_colour_ramp (i / 4.0 - 1, rgb);
+      df_colour_ramp (s_lo + (s_hi - s_lo) * i / 8.0, rgb);
       cairo_pattern_add_color_stop_rgb (grad, i / 8.0, rgb[0], rgb[1], rgb[2]);
     }
   cairo_rectangle (cr, x, y, bw, bh);
@@ -107,8 +114,9 @@ draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
       number_text (a, sizeof a, lo);
       number_text (b, sizeof b, hi);
       show_text (cr, x, y + bh + fs * 0.1, a, fs * 0.85, FALSE, FALSE, NULL, NULL);
-      show_text (cr, x + bw / 2 - fs * 0.25, y + bh + fs * 0.1, "0", fs * 0.85, FALSE, FALSE,
-                 NULL, NULL);
+      if (lo < 0 && hi > 0)
+        show_text (cr, x + bw / 2 - fs * 0.25, y + bh + fs * 0.1, "0", fs * 0.85, FALSE, FALSE,
+                   NULL, NULL);
       /* Right-aligned: measure first, then draw. */
       cairo_save (cr);
       cairo_set_source_rgba (cr, 0, 0, 0, 0);

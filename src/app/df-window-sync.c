@@ -59,10 +59,16 @@ sync_title (DfWindow *self)
       for (guint i = 0; spec->preset != NULL && presets[i].name != NULL; i++)
         if (g_str_equal (presets[i].name, spec->preset))
           what = presets[i].title;
+      const char *path = df_document_get_path (self->document);
+      const char *name = df_document_get_display_name (self->document);
+      g_autofree char *base = path != NULL ? g_path_get_basename (path) : NULL;
+      /* The file's name where the title is the project's own (kept through Save As). */
+      g_autofree char *file = path == NULL ? g_strdup (", no file yet")
+                              : name != NULL ? g_strdup_printf (", %s", base)
+                              : g_strdup ("");
+
       subtitle = g_strdup_printf ("%s, lengths in %s%s", what,
-                                  df_document_get_units (self->document),
-                                  df_document_get_path (self->document) == NULL
-                                    ? ", no file yet" : "");
+                                  df_document_get_units (self->document), file);
     }
   gtk_label_set_text (self->subtitle_label, subtitle != NULL ? subtitle : "");
 }

@@ -376,6 +376,20 @@ mesh_ready_cb (DfSurfaceView *view,
   _df_window_check_exports (self);
 }
 
+/* "shading-range LO HI": the colour scale's ends as the legend shows them. */
+static void
+report_range_cb (DfSurfaceView *view,
+                 double         lo,
+                 double         hi,
+                 gpointer       user_data)
+{
+  char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE];
+
+  printf ("shading-range %s %s\n", g_ascii_dtostr (a, sizeof a, lo),
+          g_ascii_dtostr (b, sizeof b, hi));
+  fflush (stdout);
+}
+
 /* "loop-measured NAME-WITHOUT-SPACES HOLONOMY ENCLOSED" with all digits, for test drivers. */
 static void
 report_loop_cb (DfDocument *document,
@@ -530,7 +544,11 @@ df_window_start (DfWindow        *self,
                     startup->view);
     }
   if (startup->report_events)
-    g_signal_connect (self->document, "loop-changed", G_CALLBACK (report_loop_cb), self);
+    {
+      g_signal_connect (self->document, "loop-changed", G_CALLBACK (report_loop_cb), self);
+      g_signal_connect (self->view, "shading-range-changed", G_CALLBACK (report_range_cb),
+                        NULL);
+    }
   if (!is_one_shot (self))
     _df_window_autosave_init (self);
   _df_window_drape_start (self);

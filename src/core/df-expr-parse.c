@@ -867,6 +867,48 @@ df_params_set (df_params *params, const char *name, const char *text, GError **e
 }
 
 gboolean
+df_params_remove (df_params *params, const char *name, GError **error)
+{
+  g_autoptr (GError) local = NULL;
+  df_params *trial;
+  int index;
+
+  g_return_val_if_fail (params != NULL && name != NULL, FALSE);
+  g_return_val_if_fail (error == NULL || *error == NULL, FALSE);
+
+  index = find_param (params, params->items->len, name, strlen (name));
+  if (index < 0)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_UNKNOWN_NAME, "no parameter '%s'", name);
+      return FALSE;
+    }
+  /* The ones after it are re-evaluated on a trial copy without it, as df_params_set does. */
+  trial = df_params_copy (params);
+  g_ptr_array_remove_index (trial->items, (guint) index);
+  for (guint j = (guint) index; j < trial->items->len; j++)
+    {
+      df_param *later = g_ptr_array_index (trial->items, j);
+
+      if (!parse_value_with (later->text, trial, j, &later->value, NULL, &local))
+        {
+          g_set_error (error, DF_IO_ERROR, local->code,
+                       "parameter '%s' is used by '%s' (%s = %s): change or remove that one "
+                       "first", name, later->name, later->name, later->text);
+          df_params_free (trial);
+          return FALSE;
+        }
+    }
+  {
+    GPtrArray *old = params->items;
+
+    params->items = trial->items;
+    trial->items = old;
+  }
+  df_params_free (trial);
+  return TRUE;
+}
+
+gboolean
 df_params_lookup (const df_params *params, const char *name, double *value)
 {
   int index;

@@ -29,6 +29,11 @@ gboolean    df_params_set      (df_params  *params,
                                 const char *name,
                                 const char *text,
                                 GError    **error);
+/* Removes `name`; refused (params unchanged) when a later parameter no longer evaluates
+ * without it, naming that parameter. Removing an unknown name is an error too. */
+gboolean    df_params_remove   (df_params  *params,
+                                const char *name,
+                                GError    **error);
 gboolean    df_params_lookup   (const df_params *params, const char *name, double *value);
 guint       df_params_count    (const df_params *params);
 const char *df_params_name     (const df_params *params, guint i);

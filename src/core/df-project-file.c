@@ -11,7 +11,7 @@
 #include "df-surface-spec-private.h"
 
 #define LOOP_PREFIX "loop "
-#define DEFAULT_COLOUR "#d0563b"
+#define DEFAULT_COLOUR "#7b3fc4"
 #define RECORD_GROUP "record"
 
 df_project *
