@@ -93,3 +93,21 @@ df_curve_verdicts_path_text (const df_surface *surface, const df_limits *limits,
   df_verdict_list_clear (&list);
   return text;
 }
+
+GtkLabel *
+df_curve_verdicts_label_after (GtkWidget *sibling)
+{
+  GtkWidget *box = gtk_widget_get_parent (sibling), *label;
+
+  if (!GTK_IS_BOX (box))
+    return NULL;
+  label = gtk_label_new (NULL);
+  gtk_label_set_wrap (GTK_LABEL (label), TRUE);
+  gtk_label_set_xalign (GTK_LABEL (label), 0);
+  gtk_label_set_selectable (GTK_LABEL (label), TRUE);
+  gtk_widget_set_focusable (label, FALSE);
+  gtk_widget_add_css_class (label, "df-note");
+  gtk_widget_set_visible (label, FALSE);
+  gtk_box_insert_child_after (GTK_BOX (box), label, sibling);
+  return GTK_LABEL (label);
+}

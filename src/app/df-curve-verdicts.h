@@ -4,7 +4,7 @@
  * df-verdict-text, with the caution. Computes nothing itself. */
 #pragma once
 
-#include <glib.h>
+#include <gtk/gtk.h>
 
 #include "df-decide-out.h"
 #include "df-glib.h"
@@ -24,5 +24,9 @@ char *df_curve_verdicts_geodesic_text (const df_surface *surface, const df_limit
 char *df_curve_verdicts_path_text     (const df_surface *surface, const df_limits *limits,
                                        const double (*uv)[2], gsize n, const char *label,
                                        const char *units);
+
+/* A hidden, wrapping, selectable note label put in the box right after sibling, for a panel
+ * to show the text above in; NULL when sibling's parent is no GtkBox. */
+GtkLabel *df_curve_verdicts_label_after (GtkWidget *sibling);
 
 G_END_DECLS

@@ -1,4 +1,5 @@
 /* df-geodesic-panel.c: the Geodesic tool's readout (see df-geodesic-panel.h). */
+#include "df-curve-verdicts.h"
 #include "df-format.h"
 #include "df-geodesic-panel.h"
 
@@ -117,27 +118,9 @@ df_geodesic_panel_class_init (DfGeodesicPanelClass *klass)
 static void
 df_geodesic_panel_init (DfGeodesicPanel *self)
 {
-  GtkWidget *box;
-
   gtk_widget_init_template (GTK_WIDGET (self));
   /* Not in the template: the verdicts came later, and the panel's layout stays as it was. */
-  self->verdict_label = GTK_LABEL (gtk_label_new (NULL));
-  gtk_label_set_wrap (self->verdict_label, TRUE);
-  gtk_label_set_xalign (self->verdict_label, 0);
-  gtk_label_set_selectable (self->verdict_label, TRUE);
-  gtk_widget_set_focusable (GTK_WIDGET (self->verdict_label), FALSE);
-  gtk_widget_add_css_class (GTK_WIDGET (self->verdict_label), "df-note");
-  gtk_widget_set_visible (GTK_WIDGET (self->verdict_label), FALSE);
-  box = gtk_widget_get_parent (GTK_WIDGET (self->note_label));
-  if (GTK_IS_BOX (box))
-    gtk_box_insert_child_after (GTK_BOX (box), GTK_WIDGET (self->verdict_label),
-                                GTK_WIDGET (self->note_label));
-  else
-    {
-      /* A template without a box there: no verdict line rather than a stray widget. */
-      g_object_unref (g_object_ref_sink (self->verdict_label));
-      self->verdict_label = NULL;
-    }
+  self->verdict_label = df_curve_verdicts_label_after (GTK_WIDGET (self->note_label));
 }
 
 GtkWidget *
