@@ -1,32 +1,49 @@
-/* df-curve-verdicts.h: a geodesic's or an open path's verdicts against the project's limits, as
- * the text the Geodesic and Paths panels show: the core's df_verdicts_geodesic /
+/* df-curve-verdicts.h: a geodesic's or an open path's verdicts against the project's limits for
+ * the Geodesic and Paths panels and the marks in the view: the core's df_verdicts_geodesic /
  * df_verdicts_path on a fine sampling (the one `check` uses, so both agree), worded by
- * df-verdict-text, with the caution. Computes nothing itself. */
+ * df-verdict-text, with the curve's samples in space for the marks. Computes nothing itself. */
 #pragma once
 
 #include <gtk/gtk.h>
 
 #include "df-decide-out.h"
 #include "df-glib.h"
+#include "df-verdict.h"
 
 G_BEGIN_DECLS
 
 /* Samples the verdicts are taken on (as `driftframe-cli check`). */
 #define DF_CURVE_VERDICT_SAMPLES 2000
+/* The caller shows it once below all the verdict texts it shows. */
+#define DF_CURVE_VERDICTS_CAUTION DF_DECIDE_CAUTION
+
+typedef struct
+{
+  char            *text;     /* "Against your limits (geodesic): ..." or why not checked */
+  gboolean         checked;  /* list holds the verdicts */
+  df_verdict_list  list;
+  /* The curve in space for marking its stretches: arc length, points, unit normals. */
+  gsize            n;
+  double          *s;
+  double         (*xyz)[3];
+  double         (*normal)[3];
+  double           length;
+} DfCurveVerdicts;
+
+void df_curve_verdicts_free (DfCurveVerdicts *v);
+G_DEFINE_AUTOPTR_CLEANUP_FUNC (DfCurveVerdicts, df_curve_verdicts_free)
 
 /* NULL when the project sets no limit that applies to a curve (steering radius, fibre
- * deviation, friction); else the text, or why the curve could not be checked. The caller adds
- * the caution (DF_CURVE_VERDICTS_CAUTION) once below all of it. */
-#define DF_CURVE_VERDICTS_CAUTION DF_DECIDE_CAUTION
-char *df_curve_verdicts_geodesic_text (const df_surface *surface, const df_limits *limits,
-                                       double u, double v, double heading_rad, double length,
-                                       const char *units);
-char *df_curve_verdicts_path_text     (const df_surface *surface, const df_limits *limits,
-                                       const double (*uv)[2], gsize n, const char *label,
-                                       const char *units);
+ * deviation, friction). */
+DfCurveVerdicts *df_curve_verdicts_geodesic (const df_surface *surface, const df_limits *limits,
+                                             double u, double v, double heading_rad,
+                                             double length, const char *units);
+DfCurveVerdicts *df_curve_verdicts_path     (const df_surface *surface, const df_limits *limits,
+                                             const double (*uv)[2], gsize n, const char *label,
+                                             const char *units);
 
 /* A hidden, wrapping, selectable note label put in the box right after sibling, for a panel
- * to show the text above in; NULL when sibling's parent is no GtkBox. */
+ * to show the text in; NULL when sibling's parent is no GtkBox. */
 GtkLabel *df_curve_verdicts_label_after (GtkWidget *sibling);
 
 G_END_DECLS

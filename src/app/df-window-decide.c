@@ -266,6 +266,48 @@ draw_marks (DfWindow   *self,
   g_hash_table_insert (st->mark_counts, GUINT_TO_POINTER (id), GUINT_TO_POINTER (used));
 }
 
+/* The open curves' marks use the blocks of pseudo loop ids from here on, far above any real
+ * loop's id (the ids stay within a guint: MARK_BASE + id * MARKS_PER_LOOP). */
+#define OPEN_MARKS_ID 4000000u
+
+void
+_df_window_decide_mark_open_curve (DfWindow               *self,
+                                   DfOpenMarks             which,
+                                   const double           *s,
+                                   const double          (*xyz)[3],
+                                   const double          (*normal)[3],
+                                   gsize                   n,
+                                   double                  length,
+                                   const df_verdict_list  *list)
+{
+  DecideState *st = state_of (self);
+  guint id = OPEN_MARKS_ID + (guint) which, used = 0;
+  /* A check of the loops' shape over the caller's arrays (borrowed, never freed here). */
+  DfLoopCheck c = { 0 };
+
+  if (st == NULL)
+    return;
+  remove_marks (self, st, id);
+  if (list == NULL || list->n_exceeded == 0 || n < 2 || !(length > 0))
+    return;
+  c.n = n;
+  c.length = length;
+  c.s = (double *) s;
+  c.xyz = (double (*)[3]) xyz;
+  c.normal = (double (*)[3]) normal;
+  for (gsize k = 0; k < list->n; k++)
+    {
+      const df_verdict *v = &list->items[k];
+
+      if (v->within || v->region)
+        continue;
+      used += mark_stretch (self, &c, v->has_where ? v->s0 : 0, v->has_where ? v->s1 : length,
+                            style_of (v->limit), MARK_BASE + id * MARKS_PER_LOOP + used,
+                            MARKS_PER_LOOP - used);
+    }
+  g_hash_table_insert (st->mark_counts, GUINT_TO_POINTER (id), GUINT_TO_POINTER (used));
+}
+
 /* One line per limit checked: exceeded when any of its stretches is. */
 static void
 report_verdicts (DfWindow   *self,

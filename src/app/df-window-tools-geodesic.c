@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "df-curve-verdicts.h"
+#include "df-window-decide.h"
 #include "df-project.h"
 
 #include "df-format.h"
@@ -109,6 +110,8 @@ _df_window_geodesic_shoot (DfWindow *self,
       df_status_to_gerror (status, &diag, &error);
       df_geodesic_panel_show_error (self->geodesic_panel, error->message);
       df_geodesic_panel_show_verdicts (self->geodesic_panel, NULL);
+      _df_window_decide_mark_open_curve (self, DF_OPEN_MARKS_GEODESIC, NULL, NULL, NULL, 0, 0,
+                                         NULL);
       return;
     }
   if (!_df_window_surface_point (self, self->geodesic_start[0], self->geodesic_start[1], a)
@@ -173,14 +176,20 @@ _df_window_shoot_from (DfWindow *self,
     {
       /* Against the project's limits, as `check` reports a geodesic (a few ms: synchronous,
        * like the shot itself). */
-      g_autofree char *verdicts = df_curve_verdicts_geodesic_text (
+      g_autoptr (DfCurveVerdicts) verdicts = df_curve_verdicts_geodesic (
         surface, df_document_get_limits (self->document), self->geodesic_start[0],
         self->geodesic_start[1], heading, length, units);
-
-      g_autofree char *shown = verdicts ? g_strdup_printf ("%s\n%s", verdicts,
+      g_autofree char *shown = verdicts ? g_strdup_printf ("%s\n%s", verdicts->text,
                                                            DF_CURVE_VERDICTS_CAUTION) : NULL;
 
       df_geodesic_panel_show_verdicts (self->geodesic_panel, shown);
+      _df_window_decide_mark_open_curve (self, DF_OPEN_MARKS_GEODESIC,
+                                         verdicts ? verdicts->s : NULL,
+                                         verdicts ? (const double (*)[3]) verdicts->xyz : NULL,
+                                         verdicts ? (const double (*)[3]) verdicts->normal : NULL,
+                                         verdicts ? verdicts->n : 0,
+                                         verdicts ? verdicts->length : 0,
+                                         verdicts && verdicts->checked ? &verdicts->list : NULL);
     }
     if (record)
       df_document_set_geodesic (self->document, "Geodesic", self->geodesic_start[0],

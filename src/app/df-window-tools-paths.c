@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "df-curve-verdicts.h"
+#include "df-window-decide.h"
 #include "df-project.h"
 
 #include "df-format.h"
@@ -12,6 +13,13 @@
 #include "df-window-tools-private.h"
 
 /* ---- Two paths ---------------------------------------------------------------------------- */
+
+static void
+clear_route_marks (DfWindow *self)
+{
+  _df_window_decide_mark_open_curve (self, DF_OPEN_MARKS_ROUTE_A, NULL, NULL, NULL, 0, 0, NULL);
+  _df_window_decide_mark_open_curve (self, DF_OPEN_MARKS_ROUTE_B, NULL, NULL, NULL, 0, 0, NULL);
+}
 
 static const char *
 paths_hint (DfPathsStage stage)
@@ -53,6 +61,7 @@ _df_window_clear_paths (DfWindow *self)
   df_compare_panel_set_paths (self->compare_panel, 0, 0);
   df_compare_panel_set_angle (self->compare_panel, NAN);
   df_compare_panel_show_verdicts (self->compare_panel, NULL);
+  clear_route_marks (self);
   _df_window_paths_set_stage (self, DF_PATHS_WANT_A);
 }
 
@@ -95,6 +104,7 @@ compare_done_cb (GObject      *source,
     {
       df_compare_panel_show_error (self->compare_panel, error->message);
       df_compare_panel_show_verdicts (self->compare_panel, NULL);
+      clear_route_marks (self);
       _df_window_status (self, TRUE, "Paths not compared: %s", error->message);
       _df_window_paths_set_stage (self, DF_PATHS_DONE);
       g_object_unref (self);
@@ -129,16 +139,26 @@ compare_done_cb (GObject      *source,
     const char *units = df_document_get_units (self->document);
     g_autofree double (*uv_a)[2] = _df_window_stroke_uv (self->path_a);
     g_autofree double (*uv_b)[2] = _df_window_stroke_uv (self->path_b);
-    g_autofree char *va = df_curve_verdicts_path_text (surface, limits, (const double (*)[2]) uv_a,
-                                                       self->path_a->len, "route A", units);
-    g_autofree char *vb = df_curve_verdicts_path_text (surface, limits, (const double (*)[2]) uv_b,
-                                                       self->path_b->len, "route B", units);
-    g_autofree char *both = va || vb ? g_strdup_printf ("%s%s%s\n%s", va ? va : "",
-                                                        va && vb ? "\n" : "", vb ? vb : "",
+    g_autoptr (DfCurveVerdicts) va = df_curve_verdicts_path (
+      surface, limits, (const double (*)[2]) uv_a, self->path_a->len, "route A", units);
+    g_autoptr (DfCurveVerdicts) vb = df_curve_verdicts_path (
+      surface, limits, (const double (*)[2]) uv_b, self->path_b->len, "route B", units);
+    g_autofree char *both = va || vb ? g_strdup_printf ("%s%s%s\n%s", va ? va->text : "",
+                                                        va && vb ? "\n" : "",
+                                                        vb ? vb->text : "",
                                                         DF_CURVE_VERDICTS_CAUTION)
                                      : NULL;
+    DfCurveVerdicts *routes[2] = { va, vb };
 
     df_compare_panel_show_verdicts (self->compare_panel, both);
+    for (int k = 0; k < 2; k++)
+      _df_window_decide_mark_open_curve (
+        self, k ? DF_OPEN_MARKS_ROUTE_B : DF_OPEN_MARKS_ROUTE_A,
+        routes[k] ? routes[k]->s : NULL,
+        routes[k] ? (const double (*)[3]) routes[k]->xyz : NULL,
+        routes[k] ? (const double (*)[3]) routes[k]->normal : NULL, routes[k] ? routes[k]->n : 0,
+        routes[k] ? routes[k]->length : 0,
+        routes[k] && routes[k]->checked ? &routes[k]->list : NULL);
   }
   {
     g_autofree char *angle = df_format_angle (comparison->angle_rad);
