@@ -1065,6 +1065,89 @@ test_limit_verdict_gores (void)
   g_rmdir (dir);
 }
 
+/* The demo's seam-line geodesic against a fibre deviation limit of 2 degrees: the app's
+ * Geodesic panel gives the same exceeded stretch as `driftframe-cli check` on the same project
+ * (another front end over the same core, whose geodesic verdicts are tested against closed
+ * forms in test-decide), to 1e-6 mm at both ends. */
+static void
+test_geodesic_verdicts (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *project = g_build_filename (dir, "demo-2deg.dfproj", NULL);
+  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *demo = NULL, *edited = NULL, *line = NULL;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GBytes) stdout_bytes = NULL;
+  g_autoptr(JsonParser) parser = json_parser_new ();
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_auto(GStrv) parts = NULL;
+  JsonArray *verdicts;
+  double app_s0, app_s1, cli_s0 = -1, cli_s1 = -1;
+
+  g_file_get_contents (demo_path, &demo, NULL, &error);
+  g_assert_no_error (error);
+  g_assert_nonnull (strstr (demo, "max-fibre-deviation-deg=30\n"));
+  {
+    g_auto(GStrv) halves = g_strsplit (demo, "max-fibre-deviation-deg=30\n", 2);
+
+    edited = g_strconcat (halves[0], "max-fibre-deviation-deg=2\n", halves[1], NULL);
+  }
+  g_file_set_contents (project, edited, -1, &error);
+  g_assert_no_error (error);
+
+  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "check",
+                          "--project", project, "--json", NULL);
+  g_assert_no_error (error);
+  g_subprocess_communicate (cli, NULL, NULL, &stdout_bytes, NULL, &error);
+  g_assert_no_error (error);
+  json_parser_load_from_data (parser, g_bytes_get_data (stdout_bytes, NULL),
+                              (gssize) g_bytes_get_size (stdout_bytes), &error);
+  g_assert_no_error (error);
+  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
+                                           "verdicts");
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+      JsonArray *where;
+
+      if (!g_str_equal (json_object_get_string_member (v, "kind"), "geodesic")
+          || !g_str_equal (json_object_get_string_member (v, "limit"), "max-fibre-deviation-deg"))
+        continue;
+      g_assert_false (json_object_get_boolean_member (v, "within"));
+      where = json_object_get_array_member (v, "where");
+      cli_s0 = json_array_get_double_element (where, 0);
+      cli_s1 = json_array_get_double_element (where, 1);
+    }
+  g_assert_cmpfloat (cli_s1, >, cli_s0);
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
+                                     NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  /* The project's geodesic is traced, and checked, as the project opens. */
+  line = read_until (out, "geodesic-verdict max-fibre-deviation-deg ");
+  g_assert_nonnull (line);
+  parts = g_strsplit (line, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 5);
+  g_assert_cmpstr (parts[2], ==, "exceeded");
+  app_s0 = g_ascii_strtod (parts[3], NULL);
+  app_s1 = g_ascii_strtod (parts[4], NULL);
+  df_assert_close (app_s0, cli_s0, 0, 1e-6);
+  df_assert_close (app_s1, cli_s1, 0, 1e-6);
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+  g_remove (project);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -1084,5 +1167,6 @@ main (int   argc,
   g_test_add_func ("/app/e2e/failed-job-keeps-window", test_failed_job_keeps_window);
   g_test_add_func ("/app/e2e/data-import", test_data_import);
   g_test_add_func ("/app/e2e/limit-verdict-gores", test_limit_verdict_gores);
+  g_test_add_func ("/app/e2e/geodesic-verdicts", test_geodesic_verdicts);
   return g_test_run ();
 }

@@ -190,6 +190,19 @@ _df_window_shoot_from (DfWindow *self,
                                          verdicts ? verdicts->n : 0,
                                          verdicts ? verdicts->length : 0,
                                          verdicts && verdicts->checked ? &verdicts->list : NULL);
+      /* "geodesic-verdict LIMIT within|exceeded S0 S1" per verdict, for test drivers. */
+      for (gsize k = 0; self->startup.report_events && verdicts && verdicts->checked
+                        && k < verdicts->list.n; k++)
+        {
+          const df_verdict *v = &verdicts->list.items[k];
+          char s0[G_ASCII_DTOSTR_BUF_SIZE], s1[G_ASCII_DTOSTR_BUF_SIZE];
+
+          printf ("geodesic-verdict %s %s %s %s\n", df_limit_key (v->limit),
+                  v->within ? "within" : "exceeded",
+                  g_ascii_dtostr (s0, sizeof s0, v->has_where ? v->s0 : 0),
+                  g_ascii_dtostr (s1, sizeof s1, v->has_where ? v->s1 : 0));
+          fflush (stdout);
+        }
     }
     if (record)
       df_document_set_geodesic (self->document, "Geodesic", self->geodesic_start[0],
