@@ -90,7 +90,13 @@ mesh_data_build (const df_surface *surface)
   df_diag diag;
   gsize count;
 
-  status = df_mesh_build (surface, NULL, &data->mesh, &diag);
+  /* Edges up to 1/60 of the surface's size where it is flat (the core's default is 1/120, for
+   * the record's picture): the normal-turn rule still refines wherever the surface bends, and
+   * on Mesa's software driver the vertex stage runs on one thread, so the triangle count set
+   * the orbit's frame time (the demo: 45 582 triangles, 20 ms of scene; at 1/60 about half,
+   * 13 ms; DEVELOPERS.md, "Benchmark"). */
+  df_mesh_options mesh_options = { .max_edge = 1.0 / 60 };
+  status = df_mesh_build (surface, &mesh_options, &data->mesh, &diag);
   if (status != DF_OK)
     {
       g_autoptr (GError) error = NULL;
