@@ -485,22 +485,8 @@ run (check_options *o)
       g_prefix_error (&error, "%s: ", o->project_path);
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
-  if (!df_limits_display_units (project->limits, project->spec->units, &du))
-    return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: [units]: the surface's units '%s' "
-                            "are not mm, cm, m or in, so nothing can be converted",
-                            o->project_path, project->spec->units);
-  if (o->units_text != NULL)
-    {
-      df_unit model;
-
-      if (!df_unit_from_name (project->spec->units, &model))
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
-                                "are not mm, cm, m or in, so nothing can be converted",
-                                project->spec->units);
-      if (!df_unit_from_name (o->units_text, &du.length))
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: "
-                                "mm, cm, m, in)", o->units_text);
-    }
+  if (!df_cli_project_units (project, o->project_path, o->units_text, &du, &error))
+    return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
   for (int i = 0; i < DF_N_LIMITS; i++)
     any_limit = any_limit || project->limits->item[i].set;
   n = project->loops->len;

@@ -9,6 +9,7 @@
 #include <string.h>
 
 #include "df-json-out.h"
+#include "df-limits.h"
 
 void
 df_cli_add_surface_options (GOptionContext *context, DfCliSurfaceOptions *o)
@@ -241,6 +242,38 @@ df_cli_csv_context (const df_surface_spec *spec, const df_surface *surface, cons
                        df_surface_normal_side (surface) };
 
   return c;
+}
+
+gboolean
+df_cli_project_units (const df_project *project, const char *project_path,
+                      const char *units_text, df_display_units *out, GError **error)
+{
+  if (!df_limits_display_units (project->limits, project->spec->units, out))
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "%s: [units]: the surface's units "
+                   "'%s' are not mm, cm, m or in, so nothing can be converted", project_path,
+                   project->spec->units);
+      return FALSE;
+    }
+  if (units_text != NULL)
+    {
+      df_unit model;
+
+      if (!df_unit_from_name (project->spec->units, &model))
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "--units: the surface's units "
+                       "'%s' are not mm, cm, m or in, so nothing can be converted",
+                       project->spec->units);
+          return FALSE;
+        }
+      if (!df_unit_from_name (units_text, &out->length))
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                       "--units: unknown unit '%s' (known: mm, cm, m, in)", units_text);
+          return FALSE;
+        }
+    }
+  return TRUE;
 }
 
 void

@@ -8,6 +8,7 @@
 #include <json-glib/json-glib.h>
 
 #include "df-glib.h"
+#include "df-units.h"
 
 /* Exit codes: 0 success, 2 bad input (options, files, geometry the core refuses),
  * 1 failure to write an output file. */
@@ -92,6 +93,13 @@ void      df_cli_print_fit           (const df_surface *surface, const char *uni
  * option: an unknown unit, or a conversion asked of a surface whose label is no known unit. */
 gboolean  df_cli_units               (const char *units_text, const char *surface_units,
                                       int *model, int *display, GError **error);
+
+/* A project's display units for check and report: its [units] group, the length overridden by
+ * units_text (--units) when given. Errors name the project file or the option: a conversion
+ * asked of a surface whose label is no known unit, or an unknown unit. */
+gboolean  df_cli_project_units       (const df_project *project, const char *project_path,
+                                      const char *units_text, df_display_units *out,
+                                      GError **error);
 
 /* Prints a finished JSON document (builder's root) on stdout. */
 void      df_cli_print_json          (JsonBuilder *builder);

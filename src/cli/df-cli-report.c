@@ -11,7 +11,6 @@
 #include "df-cli-common.h"
 #include "df-cli-report-pdf.h"
 #include "df-json-out.h"
-#include "df-limits.h"
 #include "df-units-convert.h"
 
 #define NAME "report"
@@ -206,6 +205,7 @@ run (report_options *o)
   int code = DF_CLI_EXIT_OK;
   guint n, n_failed = 0;
   df_unit model, display;
+  df_display_units du;
 
   if (!df_cli_require ("--project", o->project_path, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
@@ -228,25 +228,11 @@ run (report_options *o)
   if (n == 0)
     return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: the project has no loops",
                             o->project_path);
-  if (!df_unit_from_name (project->spec->units, &model))
-    {
-      if (o->units_text != NULL)
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: the surface's units '%s' "
-                                "are not mm, cm, m or in, so nothing can be converted",
-                                project->spec->units);
-      model = display = DF_UNIT_MM;
-    }
-  else
-    {
-      df_display_units du;
-
-      if (!df_limits_display_units (project->limits, project->spec->units, &du))
-        du.length = model;
-      display = du.length;
-      if (o->units_text != NULL && !df_unit_from_name (o->units_text, &display))
-        return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "--units: unknown unit '%s' (known: "
-                                "mm, cm, m, in)", o->units_text);
-    }
+  /* As `check` reads them; a surface whose label is no known unit converts nothing. */
+  if (!df_cli_project_units (project, o->project_path, o->units_text, &du, &error))
+    return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+  model = du.model;
+  display = du.length;
 
   results = g_new0 (df_loop_result, n);
   names = g_new0 (const char *, n);
