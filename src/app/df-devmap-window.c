@@ -3,6 +3,7 @@
  * for the view by bilinear interpolation between grid points (display only: the numbers shown
  * and exported are the grid's), its legend is placed over the view, and the exports go through
  * the view's PNG writer and the core's CSV writer. */
+#include "df-labels.h"
 #include "df-devmap-window.h"
 
 #include <math.h>
@@ -454,31 +455,6 @@ df_devmap_window_class_init (DfDevmapWindowClass *klass)
   object_class->finalize = df_devmap_window_finalize;
 }
 
-static GtkWidget *
-wrapped (const char *text,
-         const char *css)
-{
-  GtkWidget *label = gtk_label_new (text);
-
-  gtk_label_set_wrap (GTK_LABEL (label), TRUE);
-  gtk_label_set_xalign (GTK_LABEL (label), 0);
-  gtk_label_set_max_width_chars (GTK_LABEL (label), 56);
-  if (css != NULL)
-    gtk_widget_add_css_class (label, css);
-  return label;
-}
-
-static GtkWidget *
-field_label (const char *mnemonic,
-             GtkWidget  *target)
-{
-  GtkWidget *label = gtk_label_new_with_mnemonic (mnemonic);
-
-  gtk_label_set_xalign (GTK_LABEL (label), 0);
-  gtk_label_set_mnemonic_widget (GTK_LABEL (label), target);
-  return label;
-}
-
 static void
 df_devmap_window_init (DfDevmapWindow *self)
 {
@@ -497,12 +473,12 @@ df_devmap_window_init (DfDevmapWindow *self)
   gtk_widget_set_margin_bottom (box, 12);
   gtk_widget_set_margin_start (box, 12);
   gtk_widget_set_margin_end (box, 12);
-  gtk_box_append (GTK_BOX (box), wrapped ("Colours the surface by what a flat patch of radius "
-                                          "a suffers there: the geodesic disc's enclosed "
-                                          "curvature, or the strain its rim must take for a "
-                                          "flat disc to lie on it (about K a² / 6 when a is "
-                                          "small). The discs are built point by point; this "
-                                          "takes a while.", NULL));
+  gtk_box_append (GTK_BOX (box),
+                  df_label_wrapped ("Colours the surface by what a flat patch of radius a "
+                                    "suffers there: the geodesic disc's enclosed curvature, or "
+                                    "the strain its rim must take for a flat disc to lie on it "
+                                    "(about K a² / 6 when a is small). The discs are built "
+                                    "point by point; this takes a while.", NULL, 56));
   self->radius = gtk_entry_new ();
   gtk_editable_set_width_chars (GTK_EDITABLE (self->radius), 10);
   gtk_entry_set_activates_default (GTK_ENTRY (self->radius), TRUE);
@@ -511,11 +487,11 @@ df_devmap_window_init (DfDevmapWindow *self)
   gtk_spin_button_set_value (GTK_SPIN_BUTTON (self->grid), 24);
   gtk_grid_set_row_spacing (GTK_GRID (grid), 6);
   gtk_grid_set_column_spacing (GTK_GRID (grid), 8);
-  gtk_grid_attach (GTK_GRID (grid), field_label ("Patch _radius a", self->radius), 0, 0, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), df_label_field ("Patch _radius a", self->radius), 0, 0, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->radius, 1, 0, 1, 1);
-  gtk_grid_attach (GTK_GRID (grid), field_label ("S_how", self->show), 0, 1, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), df_label_field ("S_how", self->show), 0, 1, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->show, 1, 1, 2, 1);
-  gtk_grid_attach (GTK_GRID (grid), field_label ("_Grid points a side", self->grid), 0, 2, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), df_label_field ("_Grid points a side", self->grid), 0, 2, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->grid, 1, 2, 1, 1);
   gtk_box_append (GTK_BOX (box), grid);
   self->compute = gtk_button_new_with_mnemonic ("_Compute");
@@ -528,7 +504,7 @@ df_devmap_window_init (DfDevmapWindow *self)
   gtk_box_append (GTK_BOX (box), buttons);
   self->progress = gtk_progress_bar_new ();
   gtk_box_append (GTK_BOX (box), self->progress);
-  self->status = wrapped ("", NULL);
+  self->status = df_label_wrapped ("", NULL, 56);
   gtk_label_set_selectable (GTK_LABEL (self->status), TRUE);
   gtk_box_append (GTK_BOX (box), self->status);
   self->png = gtk_button_new_with_mnemonic ("Export _PNG…");
@@ -539,7 +515,7 @@ df_devmap_window_init (DfDevmapWindow *self)
   gtk_box_append (GTK_BOX (exports), self->png);
   gtk_box_append (GTK_BOX (exports), self->csv);
   gtk_box_append (GTK_BOX (box), exports);
-  gtk_box_append (GTK_BOX (box), wrapped (DF_DECIDE_CAUTION, "df-caution"));
+  gtk_box_append (GTK_BOX (box), df_label_wrapped (DF_DECIDE_CAUTION, "df-caution", 56));
   gtk_window_set_child (GTK_WINDOW (self), box);
   gtk_window_set_default_widget (GTK_WINDOW (self), self->compute);
 

@@ -4,6 +4,7 @@
  * start pin is dragged at most one job runs: a pick that comes meanwhile waits, replaced by
  * any later one, and starts when the running job lands (the core call cannot be stopped
  * half-way, and its result is still worth showing: the net follows the pointer). */
+#include "df-labels.h"
 #include "df-drape-window.h"
 
 #include <math.h>
@@ -636,30 +637,15 @@ df_drape_window_class_init (DfDrapeWindowClass *klass)
   object_class->finalize = df_drape_window_finalize;
 }
 
+/* A wrapping note that also keeps its width (the window's column stays put as texts change). */
 static GtkWidget *
 wrapped (const char *text,
          const char *css,
          int         chars)
 {
-  GtkWidget *label = gtk_label_new (text);
+  GtkWidget *label = df_label_wrapped (text, css, chars);
 
-  gtk_label_set_wrap (GTK_LABEL (label), TRUE);
-  gtk_label_set_xalign (GTK_LABEL (label), 0);
-  gtk_label_set_max_width_chars (GTK_LABEL (label), chars);
   gtk_label_set_width_chars (GTK_LABEL (label), chars);
-  if (css != NULL)
-    gtk_widget_add_css_class (label, css);
-  return label;
-}
-
-static GtkWidget *
-field_label (const char *mnemonic,
-             GtkWidget  *target)
-{
-  GtkWidget *label = gtk_label_new_with_mnemonic (mnemonic);
-
-  gtk_label_set_xalign (GTK_LABEL (label), 0);
-  gtk_label_set_mnemonic_widget (GTK_LABEL (label), target);
   return label;
 }
 
@@ -704,8 +690,8 @@ df_drape_window_init (DfDrapeWindow *self)
   self->warp = number_entry ();
   gtk_editable_set_text (GTK_EDITABLE (self->warp), "0");
   self->cell = number_entry ();
-  self->u_label = field_label ("Start _u", self->start_u);
-  self->v_label = field_label ("Start _v", self->start_v);
+  self->u_label = df_label_field ("Start _u", self->start_u);
+  self->v_label = df_label_field ("Start _v", self->start_v);
   self->warp_hint = gtk_label_new ("");
   gtk_label_set_xalign (GTK_LABEL (self->warp_hint), 0);
   gtk_widget_add_css_class (self->warp_hint, "dim-label");
@@ -713,16 +699,16 @@ df_drape_window_init (DfDrapeWindow *self)
   gtk_label_set_xalign (GTK_LABEL (self->cell_units), 0);
   gtk_grid_set_row_spacing (GTK_GRID (grid), 6);
   gtk_grid_set_column_spacing (GTK_GRID (grid), 8);
-  gtk_grid_attach (GTK_GRID (grid), field_label ("_Ply (loop)", self->loop), 0, 0, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), df_label_field ("_Ply (loop)", self->loop), 0, 0, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->loop, 1, 0, 2, 1);
   gtk_grid_attach (GTK_GRID (grid), self->u_label, 0, 1, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->start_u, 1, 1, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->v_label, 0, 2, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->start_v, 1, 2, 1, 1);
-  gtk_grid_attach (GTK_GRID (grid), field_label ("_Warp angle (°)", self->warp), 0, 3, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), df_label_field ("_Warp angle (°)", self->warp), 0, 3, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->warp, 1, 3, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->warp_hint, 0, 4, 3, 1);
-  gtk_grid_attach (GTK_GRID (grid), field_label ("_Cell size h", self->cell), 0, 5, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), df_label_field ("_Cell size h", self->cell), 0, 5, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->cell, 1, 5, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->cell_units, 2, 5, 1, 1);
   gtk_box_append (GTK_BOX (box), grid);

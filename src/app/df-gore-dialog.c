@@ -2,6 +2,7 @@
  * the flat outline are the core's (df-gores); the SVG and CSV are the core's writers
  * (df-decide-out), the same the CLI's `gores` uses. Here: the inputs, a preview to fit and
  * the file choosers. */
+#include "df-labels.h"
 #include "df-gore-dialog.h"
 
 #include <math.h>
@@ -385,31 +386,6 @@ export_cb (GtkButton  *button,
 }
 
 static GtkWidget *
-field_label (const char *mnemonic,
-             GtkWidget  *target)
-{
-  GtkWidget *label = gtk_label_new_with_mnemonic (mnemonic);
-
-  gtk_label_set_xalign (GTK_LABEL (label), 0);
-  gtk_label_set_mnemonic_widget (GTK_LABEL (label), target);
-  return label;
-}
-
-static GtkWidget *
-wrapped (const char *text,
-         const char *css)
-{
-  GtkWidget *label = gtk_label_new (text);
-
-  gtk_label_set_wrap (GTK_LABEL (label), TRUE);
-  gtk_label_set_xalign (GTK_LABEL (label), 0);
-  gtk_label_set_max_width_chars (GTK_LABEL (label), 60);
-  if (css != NULL)
-    gtk_widget_add_css_class (label, css);
-  return label;
-}
-
-static GtkWidget *
 number_entry (double value)
 {
   GtkWidget *entry = gtk_entry_new ();
@@ -491,9 +467,10 @@ df_gore_dialog_present (GtkWindow  *parent,
 
   side = gtk_box_new (GTK_ORIENTATION_VERTICAL, 8);
   gtk_widget_set_size_request (side, 340, -1);
-  gtk_box_append (GTK_BOX (side), wrapped ("Cut the band of the surface between two parallels "
-                                           "into gores bounded by meridians. Each flat gore is "
-                                           "as wide as its share of the parallel.", NULL));
+  gtk_box_append (GTK_BOX (side),
+                  df_label_wrapped ("Cut the band of the surface between two parallels into "
+                                    "gores bounded by meridians. Each flat gore is as wide as "
+                                    "its share of the parallel.", NULL, 60));
   grid = gtk_grid_new ();
   gtk_grid_set_row_spacing (GTK_GRID (grid), 6);
   gtk_grid_set_column_spacing (GTK_GRID (grid), 8);
@@ -509,27 +486,28 @@ df_gore_dialog_present (GtkWindow  *parent,
     g_autofree char *seam_units = g_strdup_printf ("%s (0: none)", df_unit_name (d->display));
 
     g_snprintf (range, sizeof range, "profile t from %s to %s", a, b);
-    gtk_grid_attach (GTK_GRID (grid), field_label ("_From t", d->t0), 0, row, 1, 1);
+    gtk_grid_attach (GTK_GRID (grid), df_label_field ("_From t", d->t0), 0, row, 1, 1);
     gtk_grid_attach (GTK_GRID (grid), d->t0, 1, row, 1, 1);
-    gtk_grid_attach (GTK_GRID (grid), wrapped (range, "dim-label"), 2, row++, 1, 2);
-    gtk_grid_attach (GTK_GRID (grid), field_label ("_To t", d->t1), 0, row, 1, 1);
+    gtk_grid_attach (GTK_GRID (grid), df_label_wrapped (range, "dim-label", 60), 2, row++, 1, 2);
+    gtk_grid_attach (GTK_GRID (grid), df_label_field ("_To t", d->t1), 0, row, 1, 1);
     gtk_grid_attach (GTK_GRID (grid), d->t1, 1, row++, 1, 1);
-    gtk_grid_attach (GTK_GRID (grid), field_label ("_Number of gores", d->count), 0, row, 1, 1);
+    gtk_grid_attach (GTK_GRID (grid), df_label_field ("_Number of gores", d->count), 0, row, 1, 1);
     gtk_grid_attach (GTK_GRID (grid), d->count, 1, row++, 1, 1);
-    gtk_grid_attach (GTK_GRID (grid), field_label ("Seam _allowance", d->seam), 0, row, 1, 1);
+    gtk_grid_attach (GTK_GRID (grid), df_label_field ("Seam _allowance", d->seam), 0, row, 1, 1);
     gtk_grid_attach (GTK_GRID (grid), d->seam, 1, row, 1, 1);
-    gtk_grid_attach (GTK_GRID (grid), wrapped (seam_units, "dim-label"), 2, row++, 1, 1);
+    gtk_grid_attach (GTK_GRID (grid), df_label_wrapped (seam_units, "dim-label", 60), 2, row++,
+                     1, 1);
   }
   gtk_box_append (GTK_BOX (side), grid);
-  d->least_label = wrapped ("", NULL);
+  d->least_label = df_label_wrapped ("", NULL, 60);
   gtk_box_append (GTK_BOX (side), d->least_label);
   d->least_button = gtk_button_new_with_mnemonic ("Use the _least count");
   gtk_widget_set_halign (d->least_button, GTK_ALIGN_START);
   gtk_box_append (GTK_BOX (side), d->least_button);
-  d->numbers_label = wrapped ("", NULL);
+  d->numbers_label = df_label_wrapped ("", NULL, 60);
   gtk_label_set_selectable (GTK_LABEL (d->numbers_label), TRUE);
   gtk_box_append (GTK_BOX (side), d->numbers_label);
-  d->error_label = wrapped ("", "df-error");
+  d->error_label = df_label_wrapped ("", "df-error", 60);
   gtk_widget_set_visible (d->error_label, FALSE);
   gtk_box_append (GTK_BOX (side), d->error_label);
   buttons = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 6);
@@ -541,7 +519,7 @@ df_gore_dialog_present (GtkWindow  *parent,
   gtk_box_append (GTK_BOX (buttons), d->svg_button);
   gtk_box_append (GTK_BOX (buttons), d->csv_button);
   gtk_box_append (GTK_BOX (side), buttons);
-  gtk_box_append (GTK_BOX (side), wrapped (DF_DECIDE_CAUTION, "df-caution"));
+  gtk_box_append (GTK_BOX (side), df_label_wrapped (DF_DECIDE_CAUTION, "df-caution", 60));
 
   d->preview = gtk_drawing_area_new ();
   gtk_widget_set_hexpand (d->preview, TRUE);
