@@ -872,19 +872,14 @@ read_two_verdicts (GDataInputStream *out,
     }
 }
 
-/* The CLI's `check --json` on a project: is limit within for the loop named name (all its
- * stretches)? */
-static gboolean
-cli_within (const char *project,
-            const char *name,
-            const char *limit)
+/* The CLI's `check --json` on a project: its "verdicts" array, owned by parser. */
+static JsonArray *
+cli_check_verdicts (const char *project,
+                    JsonParser *parser)
 {
   g_autoptr(GSubprocess) cli = NULL;
   g_autoptr(GError) error = NULL;
   g_autoptr(GBytes) stdout_bytes = NULL;
-  g_autoptr(JsonParser) parser = json_parser_new ();
-  JsonArray *verdicts;
-  gboolean within = TRUE, seen = FALSE;
 
   cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "check",
                           "--project", project, "--json", NULL);
@@ -894,8 +889,21 @@ cli_within (const char *project,
   json_parser_load_from_data (parser, g_bytes_get_data (stdout_bytes, NULL),
                               (gssize) g_bytes_get_size (stdout_bytes), &error);
   g_assert_no_error (error);
-  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
-                                           "verdicts");
+  return json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
+                                       "verdicts");
+}
+
+/* The CLI's `check --json` on a project: is limit within for the loop named name (all its
+ * stretches)? */
+static gboolean
+cli_within (const char *project,
+            const char *name,
+            const char *limit)
+{
+  g_autoptr(JsonParser) parser = json_parser_new ();
+  JsonArray *verdicts = cli_check_verdicts (project, parser);
+  gboolean within = TRUE, seen = FALSE;
+
   for (guint i = 0; i < json_array_get_length (verdicts); i++)
     {
       JsonObject *v = json_array_get_object_element (verdicts, i);
@@ -1079,8 +1087,6 @@ test_geodesic_verdicts (void)
   g_autofree char *demo = NULL, *edited = NULL, *line = NULL;
   g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
-  g_autoptr(GSubprocess) cli = NULL;
-  g_autoptr(GBytes) stdout_bytes = NULL;
   g_autoptr(JsonParser) parser = json_parser_new ();
   g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
@@ -1099,16 +1105,7 @@ test_geodesic_verdicts (void)
   g_file_set_contents (project, edited, -1, &error);
   g_assert_no_error (error);
 
-  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "check",
-                          "--project", project, "--json", NULL);
-  g_assert_no_error (error);
-  g_subprocess_communicate (cli, NULL, NULL, &stdout_bytes, NULL, &error);
-  g_assert_no_error (error);
-  json_parser_load_from_data (parser, g_bytes_get_data (stdout_bytes, NULL),
-                              (gssize) g_bytes_get_size (stdout_bytes), &error);
-  g_assert_no_error (error);
-  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
-                                           "verdicts");
+  verdicts = cli_check_verdicts (project, parser);
   for (guint i = 0; i < json_array_get_length (verdicts); i++)
     {
       JsonObject *v = json_array_get_object_element (verdicts, i);
