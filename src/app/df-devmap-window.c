@@ -3,6 +3,7 @@
  * for the view by bilinear interpolation between grid points (display only: the numbers shown
  * and exported are the grid's), its legend is placed over the view, and the exports go through
  * the view's PNG writer and the core's CSV writer. */
+#include "df-export-chooser.h"
 #include "df-labels.h"
 #include "df-devmap-window.h"
 
@@ -355,18 +356,14 @@ export_cb (GtkButton      *button,
 {
   gboolean png = GTK_WIDGET (button) == self->png;
   GtkFileChooserNative *chooser;
-  g_autoptr(GtkFileFilter) filter = gtk_file_filter_new ();
   ExportChoice *choice = g_new0 (ExportChoice, 1);
 
-  chooser = gtk_file_chooser_native_new (png ? "Export Map as PNG" : "Export Map Grid (CSV)",
-                                         GTK_WINDOW (self), GTK_FILE_CHOOSER_ACTION_SAVE,
-                                         "_Export", "_Cancel");
-  gtk_file_filter_set_name (filter, png ? "PNG image (*.png)" : "CSV (*.csv)");
-  gtk_file_filter_add_pattern (filter, png ? "*.png" : "*.csv");
-  gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (chooser), filter);
-  gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser),
-                                     png ? "developability-map.png" : "developability-map.csv");
-  gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
+  chooser = df_export_chooser_new (GTK_WINDOW (self),
+                                   png ? "Export Map as PNG" : "Export Map Grid (CSV)",
+                                   png ? "PNG image (*.png)" : "CSV (*.csv)",
+                                   png ? "*.png" : "*.csv",
+                                   png ? "developability-map.png" : "developability-map.csv",
+                                   df_document_get_path (self->document));
   choice->self = g_object_ref (self);
   choice->png = png;
   g_signal_connect (chooser, "response", G_CALLBACK (export_response_cb), choice);

@@ -4,6 +4,7 @@
  * start pin is dragged at most one job runs: a pick that comes meanwhile waits, replaced by
  * any later one, and starts when the running job lands (the core call cannot be stopped
  * half-way, and its result is still worth showing: the net follows the pointer). */
+#include "df-export-chooser.h"
 #include "df-labels.h"
 #include "df-drape-window.h"
 
@@ -506,21 +507,17 @@ export_cb (GtkButton     *button,
   const char *what = w == self->svg ? "svg" : w == self->pins ? "csv" : "flat";
   gboolean svg = w == self->svg;
   GtkFileChooserNative *chooser;
-  g_autoptr(GtkFileFilter) filter = gtk_file_filter_new ();
   ExportChoice *choice = g_new0 (ExportChoice, 1);
 
-  chooser = gtk_file_chooser_native_new (svg ? "Export Flat Pattern (SVG)"
-                                         : w == self->pins ? "Export Drape Pins (CSV)"
-                                         : "Export Flat Outline (CSV)",
-                                         GTK_WINDOW (self), GTK_FILE_CHOOSER_ACTION_SAVE,
-                                         "_Export", "_Cancel");
-  gtk_file_filter_set_name (filter, svg ? "SVG image (*.svg)" : "CSV (*.csv)");
-  gtk_file_filter_add_pattern (filter, svg ? "*.svg" : "*.csv");
-  gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (chooser), filter);
-  gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser),
-                                     svg ? "flat-pattern.svg" : w == self->pins
-                                     ? "drape-pins.csv" : "flat-outline.csv");
-  gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
+  chooser = df_export_chooser_new (GTK_WINDOW (self),
+                                   svg ? "Export Flat Pattern (SVG)"
+                                   : w == self->pins ? "Export Drape Pins (CSV)"
+                                   : "Export Flat Outline (CSV)",
+                                   svg ? "SVG image (*.svg)" : "CSV (*.csv)",
+                                   svg ? "*.svg" : "*.csv",
+                                   svg ? "flat-pattern.svg" : w == self->pins
+                                   ? "drape-pins.csv" : "flat-outline.csv",
+                                   df_document_get_path (self->document));
   choice->self = g_object_ref (self);
   choice->what = what;
   g_signal_connect (chooser, "response", G_CALLBACK (export_response_cb), choice);

@@ -2,6 +2,7 @@
  * the flat outline are the core's (df-gores); the SVG and CSV are the core's writers
  * (df-decide-out), the same the CLI's `gores` uses. Here: the inputs, a preview to fit and
  * the file choosers. */
+#include "df-export-chooser.h"
 #include "df-labels.h"
 #include "df-gore-dialog.h"
 
@@ -351,7 +352,6 @@ export_cb (GtkButton  *button,
 {
   gboolean svg = GTK_WIDGET (button) == d->svg_button;
   GtkFileChooserNative *chooser;
-  g_autoptr(GtkFileFilter) filter = gtk_file_filter_new ();
   g_autofree char *title = df_document_get_title (d->document);
   g_autofree char *name = NULL;
   const char *path = df_document_get_path (d->document);
@@ -360,23 +360,11 @@ export_cb (GtkButton  *button,
 
   if (dot != NULL && dot != title)
     *dot = '\0';
-  chooser = gtk_file_chooser_native_new (svg ? "Export Gore Pattern (SVG)"
-                                             : "Export Gore Outline (CSV)",
-                                         GTK_WINDOW (d->dialog), GTK_FILE_CHOOSER_ACTION_SAVE,
-                                         "_Export", "_Cancel");
-  gtk_file_filter_set_name (filter, svg ? "SVG drawing (*.svg)" : "CSV (*.csv)");
-  gtk_file_filter_add_pattern (filter, svg ? "*.svg" : "*.csv");
-  gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (chooser), filter);
   name = g_strdup_printf ("%s-gores.%s", title, svg ? "svg" : "csv");
-  gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (chooser), name);
-  if (path != NULL)
-    {
-      g_autofree char *folder = g_path_get_dirname (path);
-      g_autoptr(GFile) dir = g_file_new_for_path (folder);
-
-      gtk_file_chooser_set_current_folder (GTK_FILE_CHOOSER (chooser), dir, NULL);
-    }
-  gtk_native_dialog_set_modal (GTK_NATIVE_DIALOG (chooser), TRUE);
+  chooser = df_export_chooser_new (GTK_WINDOW (d->dialog),
+                                   svg ? "Export Gore Pattern (SVG)" : "Export Gore Outline (CSV)",
+                                   svg ? "SVG drawing (*.svg)" : "CSV (*.csv)",
+                                   svg ? "*.svg" : "*.csv", name, path);
   choice = g_new0 (ExportChoice, 1);
   choice->d = d;
   choice->svg = svg;
