@@ -2,6 +2,7 @@
 #include "df-curve-verdicts.h"
 
 #include "df-verdict-curves.h"
+#include "df-vec3.h"
 #include "df-verdict-text.h"
 
 #include <math.h>
@@ -105,10 +106,8 @@ df_curve_verdicts_geodesic (const df_surface *surface, const df_limits *limits, 
        * zero normal, so its marks lie on the curve itself. */
       if (df_surface_eval (surface, g->u, g->v, 1, &j, NULL) != DF_OK)
         continue;
-      nrm[0] = j.d1[0][1] * j.d1[1][2] - j.d1[0][2] * j.d1[1][1];
-      nrm[1] = j.d1[0][2] * j.d1[1][0] - j.d1[0][0] * j.d1[1][2];
-      nrm[2] = j.d1[0][0] * j.d1[1][1] - j.d1[0][1] * j.d1[1][0];
-      len = sqrt (nrm[0] * nrm[0] + nrm[1] * nrm[1] + nrm[2] * nrm[2]);
+      df_cross3 (j.d1[0], j.d1[1], nrm);
+      len = sqrt (df_dot3 (nrm, nrm));
       if (len > 0 && isfinite (len))
         for (int k = 0; k < 3; k++)
           r->normal[i][k] = nrm[k] / len;
@@ -166,9 +165,12 @@ df_curve_verdicts_path (const df_surface *surface, const df_limits *limits,
       memcpy (r->xyz[i], cp.x, sizeof r->xyz[i]);
       memcpy (r->normal[i], cp.normal, sizeof r->normal[i]);
       if (i > 0)
-        r->s[i] = r->s[i - 1] + sqrt ((cp.x[0] - r->xyz[i - 1][0]) * (cp.x[0] - r->xyz[i - 1][0])
-                                      + (cp.x[1] - r->xyz[i - 1][1]) * (cp.x[1] - r->xyz[i - 1][1])
-                                      + (cp.x[2] - r->xyz[i - 1][2]) * (cp.x[2] - r->xyz[i - 1][2]));
+        {
+          double d[3] = { cp.x[0] - r->xyz[i - 1][0], cp.x[1] - r->xyz[i - 1][1],
+                          cp.x[2] - r->xyz[i - 1][2] };
+
+          r->s[i] = r->s[i - 1] + sqrt (df_dot3 (d, d));
+        }
     }
   /* The chords' sum scaled onto the exact length, so the verdicts' s ranges land right. */
   if (r->n > 1 && r->s[r->n - 1] > 0 && length > 0)

@@ -383,7 +383,6 @@ typedef struct
   df_diag           fail_diag;
   memo_slot        *memo;           /* values along the line at v, or NULL */
   unsigned          line;           /* numbers the lines, from 1 */
-  size_t            memo_hits;
 } graph_ctx;
 
 static memo_slot *
@@ -424,10 +423,7 @@ inner_integrand (double u, void *data)
     {
       m = memo_find (g, u);
       if (m->line == g->line && m->u == u)
-        {
-          g->memo_hits++;
-          return g->comp == 0 ? m->ksg : m->sg;
-        }
+        return g->comp == 0 ? m->ksg : m->sg;
     }
   g->evals++;
   st = df_surface_k_area (g->surface, u, g->v, &ksg, &sg, &g->fail_diag);
@@ -686,7 +682,6 @@ df_green_graph (const df_curve *curve, double tol, int threads, df_green_result 
       extra[k].cq = gsl_integration_cquad_workspace_alloc (200);
       extra[k].memo = calloc (MEMO_SLOTS, sizeof *extra[k].memo);
       extra[k].evals = 0;
-      extra[k].memo_hits = 0;
       extra[k].line = 0;
       ctxs[k] = &extra[k];
       if (extra[k].ws == NULL || extra[k].cq == NULL || extra[k].memo == NULL)
@@ -701,7 +696,6 @@ df_green_graph (const df_curve *curve, double tol, int threads, df_green_result 
   for (size_t k = 1; k < n_made; k++)
     {
       g.evals += extra[k].evals;
-      g.memo_hits += extra[k].memo_hits;
       for (int c = 0; c < 2; c++)
         g.inner_err[c] = fmax (g.inner_err[c], extra[k].inner_err[c]);
       free (extra[k].memo);
