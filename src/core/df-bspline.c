@@ -74,7 +74,6 @@ df_bspline_eval_basis (const df_bspline *b, double x, int nder,
        * of every fitted surface's evaluation. */
       double inv_h = 1.0 / b->h, scale = 1.0 / 120.0;
 
-      (void) hk;
       for (int k = 0; k <= nder && k <= 3; k++)
         {
           for (int m = 0; m <= 5; m++)
