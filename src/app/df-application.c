@@ -24,6 +24,9 @@ static const GOptionEntry option_entries[] = {
     "Start with a standard view: iso, top, front or side", "VIEW" },
   { "colouring", 0, 0, G_OPTION_ARG_STRING, NULL,
     "Colour the surface by: plain, gaussian or mean", "WHAT" },
+  { "units", 0, 0, G_OPTION_ARG_STRING, NULL,
+    "Show lengths in UNIT (mm, cm, m or in) and Gaussian curvature per square of CURV (default "
+    "UNIT), as if chosen in Display Units", "UNIT[,CURV]" },
   { "export-samples", 0, 0, G_OPTION_ARG_FILENAME, NULL,
     "Once the selected (or first) loop is measured, write its samples CSV and quit", "PATH" },
   { "export-summary", 0, 0, G_OPTION_ARG_FILENAME, NULL,
@@ -212,6 +215,7 @@ df_application_command_line (GApplication            *application,
   g_variant_dict_lookup (options, "tool", "s", &startup.tool);
   g_variant_dict_lookup (options, "view", "s", &startup.view);
   g_variant_dict_lookup (options, "colouring", "s", &startup.shading);
+  g_variant_dict_lookup (options, "units", "s", &startup.units);
   g_variant_dict_lookup (options, "export-samples", "^ay", &startup.export_samples);
   g_variant_dict_lookup (options, "export-summary", "^ay", &startup.export_summary);
   g_variant_dict_lookup (options, "export-png", "^ay", &startup.export_png);

@@ -141,10 +141,10 @@ void
 df_compare_panel_set_lengths (DfComparePanel *self,
                               double          length_a,
                               double          length_b,
-                              const char     *units)
+                              const DfDisplayUnits *du)
 {
-  g_autofree char *a = df_format_length (length_a, units);
-  g_autofree char *b = df_format_length (length_b, units);
+  g_autofree char *a = df_du_format_length (du, length_a);
+  g_autofree char *b = df_du_format_length (du, length_b);
 
   g_return_if_fail (DF_IS_COMPARE_PANEL (self));
   gtk_label_set_text (self->a_value, a);

@@ -5,6 +5,8 @@
 
 #include <gtk/gtk.h>
 
+#include "df-display-units.h"
+
 G_BEGIN_DECLS
 
 #define DF_TYPE_COMPARE_PANEL (df_compare_panel_get_type ())
@@ -21,7 +23,7 @@ void       df_compare_panel_show_error (DfComparePanel *self, const char *messag
 
 /* Once compared: the paths described by their lengths in space. */
 void       df_compare_panel_set_lengths (DfComparePanel *self, double length_a,
-                                         double length_b, const char *units);
+                                         double length_b, const DfDisplayUnits *du);
 
 /* The curve against the project's limits (df-curve-verdicts.h), or NULL to hide. */
 void       df_compare_panel_show_verdicts (DfComparePanel *self, const char *text);

@@ -19,7 +19,7 @@ any_curve_limit (const df_limits *limits)
 
 /* "Against your limits (route A): 1 stretch beyond limits" and one line per verdict. */
 static char *
-describe (const df_verdict_list *list, const df_limits *limits, const char *units,
+describe (const df_verdict_list *list, const df_limits *limits, const DfDisplayUnits *du,
           gboolean revolution, const char *label)
 {
   g_autofree char *summary = df_verdict_summary (list);
@@ -28,7 +28,7 @@ describe (const df_verdict_list *list, const df_limits *limits, const char *unit
   g_string_append_printf (text, "Against your limits (%s): %s", label, summary);
   for (size_t i = 0; i < list->n; i++)
     {
-      g_autofree char *line = df_verdict_describe (&list->items[i], limits, units, revolution);
+      g_autofree char *line = df_verdict_describe (&list->items[i], limits, du, revolution);
 
       g_string_append_printf (text, "\n• %s: %s", df_verdict_limit_title (list->items[i].limit),
                               line);
@@ -69,7 +69,7 @@ alloc_samples (DfCurveVerdicts *r, gsize n)
 
 DfCurveVerdicts *
 df_curve_verdicts_geodesic (const df_surface *surface, const df_limits *limits, double u,
-                            double v, double heading_rad, double length, const char *units)
+                            double v, double heading_rad, double length, const DfDisplayUnits *du)
 {
   g_auto (df_geodesic_result) fine = { 0 };
   DfCurveVerdicts *r;
@@ -90,7 +90,7 @@ df_curve_verdicts_geodesic (const df_surface *surface, const df_limits *limits, 
       return r;
     }
   r->checked = TRUE;
-  r->text = describe (&r->list, limits, units,
+  r->text = describe (&r->list, limits, du,
                       df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION, "geodesic");
   r->length = fine.length;
   alloc_samples (r, fine.n_samples);
@@ -122,7 +122,7 @@ df_curve_verdicts_geodesic (const df_surface *surface, const df_limits *limits, 
 
 DfCurveVerdicts *
 df_curve_verdicts_path (const df_surface *surface, const df_limits *limits,
-                        const double (*uv)[2], gsize n, const char *label, const char *units)
+                        const double (*uv)[2], gsize n, const char *label, const DfDisplayUnits *du)
 {
   g_autoptr (df_curve) curve = NULL;
   DfCurveVerdicts *r;
@@ -146,7 +146,7 @@ df_curve_verdicts_path (const df_surface *surface, const df_limits *limits,
       return r;
     }
   r->checked = TRUE;
-  r->text = describe (&r->list, limits, units,
+  r->text = describe (&r->list, limits, du,
                       df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION, label);
   r->length = length;
   df_curve_get_range (curve, &tau0, &tau1);

@@ -7,6 +7,7 @@
 #include <gtk/gtk.h>
 
 #include "df-decide-out.h"
+#include "df-display-units.h"
 #include "df-glib.h"
 #include "df-verdict.h"
 
@@ -37,10 +38,10 @@ G_DEFINE_AUTOPTR_CLEANUP_FUNC (DfCurveVerdicts, df_curve_verdicts_free)
  * deviation, friction). */
 DfCurveVerdicts *df_curve_verdicts_geodesic (const df_surface *surface, const df_limits *limits,
                                              double u, double v, double heading_rad,
-                                             double length, const char *units);
+                                             double length, const DfDisplayUnits *du);
 DfCurveVerdicts *df_curve_verdicts_path     (const df_surface *surface, const df_limits *limits,
                                              const double (*uv)[2], gsize n, const char *label,
-                                             const char *units);
+                                             const DfDisplayUnits *du);
 
 /* A hidden, wrapping, selectable note label put in the box right after sibling, for a panel
  * to show the text in; NULL when sibling's parent is no GtkBox. */

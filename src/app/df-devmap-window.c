@@ -14,6 +14,7 @@
 #include "df-decide-out.h"
 #include "df-devmap-job.h"
 #include "df-devmap-legend.h"
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-io-error.h"
 #include "df-surface-view-field.h"
@@ -27,6 +28,7 @@ struct _DfDevmapWindow
   /* children */
   GtkWidget *radius, *show, *grid, *compute, *cancel, *progress, *status, *off;
   GtkWidget *png, *csv;
+  GtkWidget *radius_unit;     /* the display unit the radius is typed in */
 
   /* owned */
   DfDocument   *document;
@@ -36,6 +38,7 @@ struct _DfDevmapWindow
   GCancellable *cancellable;
   df_devmap    *map;
   gboolean      report_events;
+  DfDisplayUnits du;          /* the radius field's and the legend's units */
 };
 
 G_DEFINE_FINAL_TYPE (DfDevmapWindow, df_devmap_window, GTK_TYPE_WINDOW)
@@ -163,7 +166,7 @@ apply_map (DfDevmapWindow *self)
       source = limits->item[DF_LIMIT_MAX_STRAIN].source;
     }
   {
-    g_autofree char *a = df_format_length (self->map->a, df_document_get_units (self->document));
+    g_autofree char *a = df_du_format_length (&self->du, self->map->a);
     g_autofree char *title = g_strdup_printf (show == SHOW_STRAIN
                                               ? "Rim strain, flat disc of radius %s "
                                                 "(+ shrink)"
@@ -251,11 +254,11 @@ compute_cb (GtkButton      *button,
   if (surface == NULL || end == text || *end != '\0' || !isfinite (a) || !(a > 0))
     {
       g_autofree char *msg = g_strdup_printf ("Patch radius: '%s' is not a positive number "
-                                              "(in %s)", text,
-                                              df_document_get_units (self->document));
+                                              "(in %s)", text, df_du_length_unit (&self->du));
       set_status (self, msg, TRUE);
       return;
     }
+  a = df_du_to_model (&self->du, a);
   if (self->cancellable != NULL)
     g_cancellable_cancel (self->cancellable);
   g_clear_object (&self->cancellable);
@@ -318,18 +321,13 @@ export_response_cb (GtkNativeDialog *chooser,
         ok = df_surface_view_save_png (self->view, path, &error);
       else if (self->map != NULL)
         {
-          const df_limits *limits = df_document_get_limits (self->document);
-          const char *su = df_document_get_units (self->document);
-          df_unit model = DF_UNIT_MM;
-          df_display_units du;
+          DfDisplayUnits du;
 
-          /* A surface label that is no known unit: written as it is, unconverted. */
-          if (!df_unit_from_name (su, &model))
-            model = DF_UNIT_MM;
-          if (!df_limits_display_units (limits, su, &du))
-            du.length = model;
+          /* In the display unit, as `devmap --units`; a surface label that is no known unit
+           * is written as it is, unconverted (model and length the same). */
+          df_document_get_display_units (self->document, &du);
           ok = df_devmap_csv_write (path, df_document_get_surface (self->document), self->map,
-                                    model, du.length, &error);
+                                    du.units.model, du.units.length, &error);
         }
       if (ok)
         {
@@ -383,6 +381,31 @@ surface_changed_cb (DfDocument     *document,
   show_legend (self, FALSE);
   gtk_widget_set_sensitive (self->csv, FALSE);
   set_status (self, "The surface changed: compute the map again.", FALSE);
+}
+
+/* The radius typed stays the same length, now written in the new unit; a shown map's legend
+ * says its radius in it. */
+static void
+units_changed_cb (DfDocument     *document,
+                  DfDevmapWindow *self)
+{
+  const char *text = gtk_editable_get_text (GTK_EDITABLE (self->radius));
+  char *end = NULL;
+  double a = g_ascii_strtod (text, &end);
+  DfDisplayUnits old = self->du;
+
+  df_document_get_display_units (document, &self->du);
+  gtk_label_set_text (GTK_LABEL (self->radius_unit), df_du_length_unit (&self->du));
+  if (end != text && *end == '\0' && isfinite (a) && a > 0)
+    {
+      char buf[G_ASCII_DTOSTR_BUF_SIZE];
+
+      a = df_du_length (&self->du, df_du_to_model (&old, a));
+      gtk_editable_set_text (GTK_EDITABLE (self->radius),
+                             g_ascii_formatd (buf, sizeof buf, "%.6g", a));
+    }
+  if (self->map != NULL && gtk_widget_get_visible (self->legend))
+    apply_map (self);
 }
 
 static void
@@ -486,6 +509,9 @@ df_devmap_window_init (DfDevmapWindow *self)
   gtk_grid_set_column_spacing (GTK_GRID (grid), 8);
   gtk_grid_attach (GTK_GRID (grid), df_label_field ("Patch _radius a", self->radius), 0, 0, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->radius, 1, 0, 1, 1);
+  self->radius_unit = gtk_label_new (NULL);
+  gtk_label_set_xalign (GTK_LABEL (self->radius_unit), 0);
+  gtk_grid_attach (GTK_GRID (grid), self->radius_unit, 2, 0, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), df_label_field ("S_how", self->show), 0, 1, 1, 1);
   gtk_grid_attach (GTK_GRID (grid), self->show, 1, 1, 2, 1);
   gtk_grid_attach (GTK_GRID (grid), df_label_field ("_Grid points a side", self->grid), 0, 2, 1, 1);
@@ -557,8 +583,11 @@ df_devmap_window_new (GtkWindow     *parent,
 
       a = size > 0 ? pow (10, floor (log10 (size / 20))) : 1;
     }
+  df_document_get_display_units (document, &self->du);
+  gtk_label_set_text (GTK_LABEL (self->radius_unit), df_du_length_unit (&self->du));
   gtk_editable_set_text (GTK_EDITABLE (self->radius),
-                         g_ascii_formatd (buf, sizeof buf, "%.6g", a > 0 ? a : 1));
+                         g_ascii_formatd (buf, sizeof buf, "%.6g",
+                                          df_du_length (&self->du, a > 0 ? a : 1)));
   self->legend = g_object_ref_sink (df_devmap_legend_new ());
   gtk_widget_set_halign (self->legend, GTK_ALIGN_END);
   gtk_widget_set_valign (self->legend, GTK_ALIGN_END);
@@ -568,6 +597,7 @@ df_devmap_window_new (GtkWindow     *parent,
   if (GTK_IS_OVERLAY (overlay))
     gtk_overlay_add_overlay (GTK_OVERLAY (overlay), self->legend);
   g_signal_connect (document, "surface-changed", G_CALLBACK (surface_changed_cb), self);
+  g_signal_connect (document, "units-changed", G_CALLBACK (units_changed_cb), self);
   g_signal_connect (view, "mesh-ready", G_CALLBACK (mesh_ready_cb), self);
   g_signal_connect (view, "notify::shading", G_CALLBACK (view_shading_cb), self);
   return GTK_WIDGET (self);

@@ -226,6 +226,7 @@ df_document_set_spec_built (DfDocument            *self,
   g_free (job.out);
   g_free (job.out_paths);
   g_signal_emit (self, _df_document_signals[SURFACE_CHANGED], 0);
+  g_signal_emit (self, _df_document_signals[UNITS_CHANGED], 0);
   _df_document_measure_all (self);
   _df_document_update_modified (self);
   return TRUE;

@@ -106,6 +106,11 @@ df_document_class_init (DfDocumentClass *klass)
   _df_document_signals[CHANGED] =
     g_signal_new ("changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
                   NULL, NULL, NULL, G_TYPE_NONE, 0);
+  /* The display units may differ (their edit, load, undo, a surface change): every readout
+   * shows its values again; nothing is re-measured (results stay in the surface's units). */
+  _df_document_signals[UNITS_CHANGED] =
+    g_signal_new ("units-changed", G_TYPE_FROM_CLASS (klass), G_SIGNAL_RUN_LAST, 0,
+                  NULL, NULL, NULL, G_TYPE_NONE, 0);
 }
 
 static void
@@ -342,6 +347,7 @@ replace_state (DfDocument  *self,
                        items->pdata, items->len);
   apply_marks (self, data);
   g_signal_emit (self, _df_document_signals[SURFACE_CHANGED], 0);
+  g_signal_emit (self, _df_document_signals[UNITS_CHANGED], 0);
   _df_document_measure_all (self);
   return TRUE;
 }

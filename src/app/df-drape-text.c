@@ -41,7 +41,7 @@ df_drape_text_point (const df_surface *surface,
 char *
 df_drape_text_figures (const DfDrapeResult *r,
                        const df_surface    *surface,
-                       const char          *units,
+                       const DfDisplayUnits *du,
                        gboolean             final)
 {
   const df_drape_summary *s = df_drape_get_summary (r->drape);
@@ -73,9 +73,9 @@ df_drape_text_figures (const DfDrapeResult *r,
     g_string_append (t, "Cell closure: checked when the start pin is released\n");
   if (isfinite (s->flat_area))
     {
-      g_autofree char *area = df_format_area (s->flat_area, units);
-      g_autofree char *w = df_format_length (s->flat_hi[0] - s->flat_lo[0], units);
-      g_autofree char *h = df_format_length (s->flat_hi[1] - s->flat_lo[1], units);
+      g_autofree char *area = df_du_format_area (du, s->flat_area);
+      g_autofree char *w = df_du_format_length (du, s->flat_hi[0] - s->flat_lo[0]);
+      g_autofree char *h = df_du_format_length (du, s->flat_hi[1] - s->flat_lo[1]);
 
       g_string_append_printf (t, "Flat pattern: area %s, %s × %s (warp × weft)", area, w, h);
     }

@@ -5,6 +5,7 @@
 
 #include <glib.h>
 
+#include "df-display-units.h"
 #include "df-drape-job.h"
 #include "df-limits.h"
 
@@ -16,7 +17,7 @@ void  df_drape_text_chart_names (const df_surface *surface, const char **u, cons
 char *df_drape_text_point       (const df_surface *surface, double u, double v);
 /* The figures, one a line. final: the closure check was run (FALSE while dragging). */
 char *df_drape_text_figures     (const DfDrapeResult *r, const df_surface *surface,
-                                 const char *units, gboolean final);
+                                 const DfDisplayUnits *du, gboolean final);
 /* The flags against max-shear-deg and max-fibre-deviation-deg, with the limits' sources, or
  * what to set when they are absent. */
 char *df_drape_text_flags       (const DfDrapeResult *r, const df_surface *surface,

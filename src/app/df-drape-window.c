@@ -4,6 +4,7 @@
  * start pin is dragged at most one job runs: a pick that comes meanwhile waits, replaced by
  * any later one, and starts when the running job lands (the core call cannot be stopped
  * half-way, and its result is still worth showing: the net follows the pointer). */
+#include "df-document-units.h"
 #include "df-export-chooser.h"
 #include "df-labels.h"
 #include "df-drape-window.h"
@@ -39,6 +40,7 @@ struct _DfDrapeWindow
   DfDrapeResult *result;       /* shown */
   gboolean       result_final;
   gboolean       report_events;
+  DfDisplayUnits du;           /* what the cell field is typed in */
   /* The running job and the one waiting (a drag's newest pick). */
   gboolean       running;
   gboolean       pending;
@@ -93,7 +95,13 @@ update_labels (DfDrapeWindow *self)
   gtk_label_set_text (GTK_LABEL (self->u_label), u);
   gtk_label_set_text (GTK_LABEL (self->v_label), v);
   gtk_label_set_text (GTK_LABEL (self->warp_hint), hint);
-  gtk_label_set_text (GTK_LABEL (self->cell_units), df_document_get_units (self->document));
+  {
+    DfDisplayUnits du;
+
+    /* The cell is typed in the display unit, as `drape --units` takes --cell. */
+    df_document_get_display_units (self->document, &du);
+    gtk_label_set_text (GTK_LABEL (self->cell_units), df_du_length_unit (&du));
+  }
 }
 
 static DfLoopItem *
@@ -192,16 +200,16 @@ show_result (DfDrapeWindow *self,
   const df_limits *limits = df_document_get_limits (self->document);
   const df_limit *shear = limits != NULL ? &limits->item[DF_LIMIT_MAX_SHEAR] : NULL;
   const df_drape_summary *s = df_drape_get_summary (r->drape);
-  g_autofree char *figures = df_drape_text_figures (r, surface,
-                                                    df_document_get_units (self->document),
-                                                    final);
+  DfDisplayUnits du;
+  g_autofree char *figures = NULL;
   g_autofree char *flags = df_drape_text_flags (r, surface, limits);
   gboolean has_limit = shear != NULL && shear->set;
 
+  df_document_get_display_units (self->document, &du);
+  figures = df_drape_text_figures (r, surface, &du, final);
   /* The flat view borrows the drape: hand it the new one before freeing the old. */
   df_surface_view_set_net (self->view, r->net, r->n_net);
-  df_flat_pattern_view_set (DF_FLAT_PATTERN_VIEW (self->flat), r->drape,
-                            df_document_get_units (self->document));
+  df_flat_pattern_view_set (DF_FLAT_PATTERN_VIEW (self->flat), r->drape, &du);
   df_drape_result_free (self->result);
   self->result = r;
   self->result_final = final;
@@ -289,6 +297,7 @@ start_job (DfDrapeWindow *self,
   double warp = 0, cell = 0;
   df_drape_options opt;
   gsize n = 0;
+  DfDisplayUnits du;
 
   if (self->running)
     {
@@ -304,10 +313,12 @@ start_job (DfDrapeWindow *self,
                   "(sketch or import one first).", TRUE);
       return;
     }
+  df_document_get_display_units (self->document, &du);
   parse_field (self->warp, "Warp angle", &warp, problems);
   if (parse_field (self->cell, "Cell size", &cell, problems) && !(cell > 0))
     g_string_append_printf (problems, "%sCell size: must be positive (in %s)",
-                            problems->len ? "; " : "", df_document_get_units (self->document));
+                            problems->len ? "; " : "", df_du_length_unit (&du));
+  cell = df_du_to_model (&du, cell);
   if (problems->len > 0)
     {
       set_status (self, problems->str, TRUE);
@@ -422,7 +433,13 @@ guess_values (DfDrapeWindow *self)
     length = df_surface_size (df_document_get_surface (self->document));
   if (length > 0 && isfinite (length))
     {
-      double target = length / 40, p = pow (10, floor (log10 (target)));
+      DfDisplayUnits du;
+      double target, p;
+
+      /* Rounded in the unit the field is typed in. */
+      df_document_get_display_units (self->document, &du);
+      target = df_du_length (&du, length / 40);
+      p = pow (10, floor (log10 (target)));
 
       set_number (self->cell, target >= 5 * p ? 5 * p : target >= 2 * p ? 2 * p : p);
     }
@@ -536,6 +553,27 @@ surface_changed_cb (DfDocument    *document,
   clear_result (self);
   update_labels (self);
   set_status (self, "The surface changed: drape again.", FALSE);
+}
+
+/* The cell typed stays the same length, written in the new unit (the "changed" that follows
+ * re-runs a shown drape, whose figures then read in it). */
+static void
+units_changed_cb (DfDocument    *document,
+                  DfDrapeWindow *self)
+{
+  g_autoptr(GString) problems = g_string_new (NULL);
+  DfDisplayUnits du;
+  double cell = 0;
+
+  if (parse_field (self->cell, "Cell size", &cell, problems) && cell > 0)
+    {
+      double model = df_du_to_model (&self->du, cell);
+
+      df_document_get_display_units (document, &du);
+      set_number (self->cell, df_du_length (&du, model));
+    }
+  df_document_get_display_units (document, &self->du);
+  update_labels (self);
 }
 
 /* Any edit (the limits, the loop's points, its name): the list again, and a shown drape is
@@ -782,6 +820,7 @@ df_drape_window_new (GtkWindow     *parent,
   self = g_object_new (DF_TYPE_DRAPE_WINDOW, "transient-for", parent,
                        "destroy-with-parent", TRUE, NULL);
   self->document = g_object_ref (document);
+  df_document_get_display_units (document, &self->du);
   self->view = g_object_ref (view);
   self->report_events = report_events;
   self->legend = g_object_ref_sink (df_devmap_legend_new ());
@@ -801,6 +840,7 @@ df_drape_window_new (GtkWindow     *parent,
   guess_values (self);
   g_signal_connect (document, "surface-changed", G_CALLBACK (surface_changed_cb), self);
   g_signal_connect (document, "changed", G_CALLBACK (document_changed_cb), self);
+  g_signal_connect (document, "units-changed", G_CALLBACK (units_changed_cb), self);
   g_signal_connect_after (df_document_get_loops (document), "items-changed",
                           G_CALLBACK (loops_changed_cb), self);
   return GTK_WIDGET (self);

@@ -43,7 +43,7 @@ struct _DfFitSummary
   GtkLabel        *values[N_ROWS];
 
   /* owned */
-  char            *units;
+  DfDisplayUnits   du;   /* residuals and the legend in the display units */
   double           range;
   gboolean         clamped;
   gboolean         updating;
@@ -112,7 +112,7 @@ void
 df_fit_summary_set_fit (DfFitSummary          *self,
                         const df_surface_spec *spec,
                         const df_fit_info     *info,
-                        const char            *units)
+                        const DfDisplayUnits  *du)
 {
   g_autofree char *base = NULL;
   const char *what;
@@ -120,8 +120,7 @@ df_fit_summary_set_fit (DfFitSummary          *self,
   g_return_if_fail (DF_IS_FIT_SUMMARY (self));
   g_return_if_fail (spec != NULL);
 
-  g_free (self->units);
-  self->units = g_strdup (units != NULL ? units : "mm");
+  self->du = *du;
   base = spec->data_path != NULL ? g_path_get_basename (spec->data_path) : g_strdup ("");
   what = g_strcmp0 (spec->data_key, "profile") == 0 ? "profile points, turned about the z axis"
          : g_strcmp0 (spec->data_key, "mesh") == 0
@@ -149,20 +148,21 @@ df_fit_summary_set_fit (DfFitSummary          *self,
     }
   {
     g_autofree char *points = g_strdup_printf ("%zu", info->points);
-    g_autofree char *rms = df_format_length (info->rms, self->units);
-    g_autofree char *max = df_format_length (info->max, self->units);
-    g_autofree char *x = df_format_number (info->max_at[0]);
-    g_autofree char *y = df_format_number (info->max_at[1]);
-    g_autofree char *z = df_format_number (info->max_at[2]);
+    g_autofree char *rms = df_du_format_length (&self->du, info->rms);
+    g_autofree char *max = df_du_format_length (&self->du, info->max);
+    g_autofree char *x = df_format_number (df_du_length (&self->du, info->max_at[0]));
+    g_autofree char *y = df_format_number (df_du_length (&self->du, info->max_at[1]));
+    g_autofree char *z = df_format_number (df_du_length (&self->du, info->max_at[2]));
     g_autofree char *at = NULL;
-    g_autofree char *tol_len = df_format_length (info->tolerance, self->units);
+    /* The tolerance as the field above takes it: in the surface's own units. */
+    g_autofree char *tol_len = df_format_length (info->tolerance, self->du.label);
     g_autofree char *tol = NULL;
 
     /* A profile's point lies in its half-plane: (r, z) is what the file says. */
     if (g_strcmp0 (spec->data_key, "profile") == 0)
-      at = g_strdup_printf ("r = %s, z = %s", x, z);
+      at = g_strdup_printf ("r = %s, z = %s %s", x, z, df_du_length_unit (&self->du));
     else
-      at = g_strdup_printf ("(%s, %s, %s)", x, y, z);
+      at = g_strdup_printf ("(%s, %s, %s) %s", x, y, z, df_du_length_unit (&self->du));
     if (info->chosen)
       tol = g_strdup_printf ("%s, chosen from the data (generalised cross-validation)", tol_len);
     else if (info->tolerance == 0)
@@ -186,8 +186,8 @@ df_fit_summary_set_fit (DfFitSummary          *self,
     set_row (self, ROW_POLES, NULL);
   if (info->has_symmetry)
     {
-      g_autofree char *rms = df_format_length (info->symmetry_rms, self->units);
-      g_autofree char *max = df_format_length (info->symmetry_max, self->units);
+      g_autofree char *rms = df_du_format_length (&self->du, info->symmetry_rms);
+      g_autofree char *max = df_du_format_length (&self->du, info->symmetry_max);
       g_autofree char *text = g_strdup_printf ("RMS %s, largest %s", rms, max);
       set_row (self, ROW_SYMMETRY, text);
     }
@@ -219,15 +219,14 @@ df_fit_summary_set_deviation (DfFitSummary *self,
                               gboolean      clamped,
                               gsize         n_shown,
                               gsize         n_data,
-                              const char   *units)
+                              const DfDisplayUnits *du)
 {
   g_autofree char *text = NULL;
 
   g_return_if_fail (DF_IS_FIT_SUMMARY (self));
   self->range = isfinite (range) ? range : 0;
   self->clamped = clamped;
-  g_free (self->units);
-  self->units = g_strdup (units != NULL ? units : "mm");
+  self->du = *du;
   if (n_shown == 0)
     text = g_strdup ("No data points to draw.");
   else if (n_shown < n_data)
@@ -277,8 +276,8 @@ draw_legend (GtkDrawingArea *area,
       cairo_fill (cr);
     }
   {
-    g_autofree char *a = df_format_length (-self->range, self->units);
-    g_autofree char *b = df_format_length (self->range, self->units);
+    g_autofree char *a = df_du_format_length (&self->du, -self->range);
+    g_autofree char *b = df_du_format_length (&self->du, self->range);
 
     lo = self->clamped ? g_strdup_printf ("≤ %s", a) : g_steal_pointer (&a);
     hi = self->clamped ? g_strdup_printf ("≥ %s", b) : g_steal_pointer (&b);
@@ -376,7 +375,6 @@ df_fit_summary_dispose (GObject *object)
 static void
 df_fit_summary_finalize (GObject *object)
 {
-  g_free (DF_FIT_SUMMARY (object)->units);
   G_OBJECT_CLASS (df_fit_summary_parent_class)->finalize (object);
 }
 
@@ -420,7 +418,7 @@ static void
 df_fit_summary_init (DfFitSummary *self)
 {
   gtk_widget_init_template (GTK_WIDGET (self));
-  self->units = g_strdup ("mm");
+  df_du_identity (&self->du, NULL);
   for (int r = 0; r < N_ROWS; r++)
     {
       self->titles[r] = GTK_LABEL (gtk_label_new (row_titles[r]));
@@ -440,7 +438,7 @@ df_fit_summary_init (DfFitSummary *self)
   gtk_drawing_area_set_draw_func (self->legend, draw_legend, self, NULL);
   g_signal_connect (self->tolerance_entry, "activate", G_CALLBACK (tolerance_activate_cb), self);
   g_signal_connect (self->points_check, "toggled", G_CALLBACK (points_toggled_cb), self);
-  df_fit_summary_set_deviation (self, 0, FALSE, 0, 0, "mm");
+  df_fit_summary_set_deviation (self, 0, FALSE, 0, 0, &self->du);
 }
 
 GtkWidget *

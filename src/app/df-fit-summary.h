@@ -7,6 +7,7 @@
 
 #include <gtk/gtk.h>
 
+#include "df-display-units.h"
 #include "df-glib.h"
 
 G_BEGIN_DECLS
@@ -19,21 +20,21 @@ GtkWidget *df_fit_summary_new            (void);
 void       df_fit_summary_set_fit        (DfFitSummary          *self,
                                           const df_surface_spec *spec,
                                           const df_fit_info     *info,
-                                          const char            *units);
+                                          const DfDisplayUnits  *du);
 /* A refit is running (spinner, "Fitting…") or not. */
 void       df_fit_summary_set_busy       (DfFitSummary *self,
                                           gboolean      busy);
 /* Why the last refit or import failed (shown in the panel), NULL clears. */
 void       df_fit_summary_set_error      (DfFitSummary *self,
                                           const char   *message);
-/* The deviation scale of the drawn points, +/- range in units (0: no points); clamped: some
+/* The deviation scale of the drawn points, +/- range in the surface's units, shown in du's (0: no points); clamped: some
  * points lie beyond it (the legend's ends then read "≤" and "≥"). */
 void       df_fit_summary_set_deviation  (DfFitSummary *self,
                                           double        range,
                                           gboolean      clamped,
                                           gsize         n_shown,
                                           gsize         n_data,
-                                          const char   *units);
+                                          const DfDisplayUnits *du);
 gboolean   df_fit_summary_get_show_points (DfFitSummary *self);
 
 /* The colour of a deviation s in [-1, 1] (clamped) for the data points and their legend:

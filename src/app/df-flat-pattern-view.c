@@ -14,7 +14,7 @@ struct _DfFlatPatternView
   /* borrowed */
   const df_drape *drape;
   /* owned */
-  char           *units;
+  DfDisplayUnits  du;      /* the sizes' and the scale bar's units */
 };
 
 G_DEFINE_FINAL_TYPE (DfFlatPatternView, df_flat_pattern_view, GTK_TYPE_DRAWING_AREA)
@@ -145,9 +145,9 @@ draw_cb (GtkDrawingArea *area,
 
   /* Title, size and a scale bar. */
   {
-    g_autofree char *w = df_format_length (hi[0] - lo[0], self->units);
-    g_autofree char *ht = df_format_length (hi[1] - lo[1], self->units);
-    g_autofree char *cell = df_format_length (h, self->units);
+    g_autofree char *w = df_du_format_length (&self->du, hi[0] - lo[0]);
+    g_autofree char *ht = df_du_format_length (&self->du, hi[1] - lo[1]);
+    g_autofree char *cell = df_du_format_length (&self->du, h);
     g_autofree char *title = step > 1
                              ? g_strdup_printf ("Flat %s × %s (warp → × weft ↑), cells %s, "
                                                 "every %d drawn", w, ht, cell, step)
@@ -159,8 +159,10 @@ draw_cb (GtkDrawingArea *area,
     cairo_set_font_size (cr, 12);
     cairo_move_to (cr, margin, 15);
     cairo_show_text (cr, title);
-    bar = nice_length ((width - 2.0 * margin) / 4 / scale);
-    bar_text = df_format_length (bar, self->units);
+    /* A round length in the unit it is labelled in. */
+    bar = df_du_to_model (&self->du,
+                          nice_length (df_du_length (&self->du, (width - 2.0 * margin) / 4 / scale)));
+    bar_text = df_du_format_length (&self->du, bar);
     cairo_set_line_width (cr, 2);
     cairo_move_to (cr, margin, height - 10);
     cairo_line_to (cr, margin + bar * scale, height - 10);
@@ -177,23 +179,15 @@ draw_cb (GtkDrawingArea *area,
 }
 
 static void
-df_flat_pattern_view_finalize (GObject *object)
-{
-  DfFlatPatternView *self = DF_FLAT_PATTERN_VIEW (object);
-
-  g_free (self->units);
-  G_OBJECT_CLASS (df_flat_pattern_view_parent_class)->finalize (object);
-}
-
-static void
 df_flat_pattern_view_class_init (DfFlatPatternViewClass *klass)
 {
-  G_OBJECT_CLASS (klass)->finalize = df_flat_pattern_view_finalize;
+  (void) klass;  /* nothing owned to free */
 }
 
 static void
 df_flat_pattern_view_init (DfFlatPatternView *self)
 {
+  df_du_identity (&self->du, NULL);
   gtk_drawing_area_set_content_width (GTK_DRAWING_AREA (self), 360);
   gtk_drawing_area_set_content_height (GTK_DRAWING_AREA (self), 300);
   gtk_drawing_area_set_draw_func (GTK_DRAWING_AREA (self), draw_cb, NULL, NULL);
@@ -208,12 +202,12 @@ df_flat_pattern_view_new (void)
 void
 df_flat_pattern_view_set (DfFlatPatternView *self,
                           const df_drape    *drape,
-                          const char        *units)
+                          const DfDisplayUnits *du)
 {
   g_return_if_fail (DF_IS_FLAT_PATTERN_VIEW (self));
 
   self->drape = drape;
-  g_free (self->units);
-  self->units = g_strdup (units != NULL ? units : "");
+  if (du != NULL)
+    self->du = *du;
   gtk_widget_queue_draw (GTK_WIDGET (self));
 }

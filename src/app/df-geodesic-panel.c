@@ -20,6 +20,7 @@ struct _DfGeodesicPanel
   GtkEntry *start_entry;
   GtkEntry *heading_entry;
   GtkEntry *length_entry;
+  GtkLabel *length_label;   /* "Length (mm)": the unit a typed length is read in */
   GtkLabel *reference_label;
 };
 
@@ -53,12 +54,14 @@ show_text (GtkLabel   *label,
 static char *
 describe_point (const df_surface         *surface,
                 const df_geodesic_sample *sample,
-                const char               *units)
+                const DfDisplayUnits     *du)
 {
+  /* The chart point as the surface defines it; the point in space in the display units. */
+  const char *units = df_du_length_unit (du);
   g_autofree char *a = df_format_number (sample->u);
-  g_autofree char *x = df_format_number (sample->point[0]);
-  g_autofree char *y = df_format_number (sample->point[1]);
-  g_autofree char *z = df_format_number (sample->point[2]);
+  g_autofree char *x = df_format_number (df_du_length (du, sample->point[0]));
+  g_autofree char *y = df_format_number (df_du_length (du, sample->point[1]));
+  g_autofree char *z = df_format_number (df_du_length (du, sample->point[2]));
 
   if (df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
     {
@@ -104,6 +107,7 @@ df_geodesic_panel_class_init (DfGeodesicPanelClass *klass)
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, start_entry);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, heading_entry);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, length_entry);
+  gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, length_label);
   gtk_widget_class_bind_template_child (widget_class, DfGeodesicPanel, reference_label);
   gtk_widget_class_bind_template_callback (widget_class, shoot_activate_cb);
 
@@ -135,7 +139,7 @@ df_geodesic_panel_show (DfGeodesicPanel          *self,
                         double                    heading_rad,
                         double                    requested,
                         const df_geodesic_result *result,
-                        const char               *units)
+                        const DfDisplayUnits     *du)
 {
   g_autofree char *start = NULL;
   g_autofree char *end = NULL;
@@ -146,11 +150,11 @@ df_geodesic_panel_show (DfGeodesicPanel          *self,
   g_return_if_fail (DF_IS_GEODESIC_PANEL (self));
   g_return_if_fail (result != NULL && result->n_samples >= 1);
 
-  start = describe_point (surface, &result->samples[0], units);
-  end = describe_point (surface, &result->samples[result->n_samples - 1], units);
+  start = describe_point (surface, &result->samples[0], du);
+  end = describe_point (surface, &result->samples[result->n_samples - 1], du);
   heading = df_format_angle (heading_rad);
-  asked = df_format_length (requested, units);
-  reached = df_format_length (result->length, units);
+  asked = df_du_format_length (du, requested);
+  reached = df_du_format_length (du, result->length);
   gtk_label_set_text (self->start_value, start);
   gtk_label_set_text (self->heading_value, heading);
   gtk_label_set_text (self->requested_value, asked);
@@ -200,7 +204,13 @@ df_geodesic_panel_set_chart (DfGeodesicPanel *self,
 
   gtk_entry_set_placeholder_text (self->start_entry, start_hint);
   gtk_label_set_text (self->reference_label, reference);
+  g_autofree char *label = g_strdup_printf ("_Length (%s)", units);
+  g_autofree char *tip = g_strdup_printf ("Length of the geodesic in %s (the display unit); a "
+                                          "point in space in From is in %s too", units, units);
+
   gtk_entry_set_placeholder_text (self->length_entry, units);
+  gtk_widget_set_tooltip_text (GTK_WIDGET (self->length_entry), tip);
+  gtk_label_set_text_with_mnemonic (self->length_label, label);
 }
 
 void

@@ -4,6 +4,7 @@
 
 #include <gtk/gtk.h>
 
+#include "df-display-units.h"
 #include "df-glib.h"
 
 G_BEGIN_DECLS
@@ -17,11 +18,11 @@ void       df_geodesic_panel_show       (DfGeodesicPanel          *self,
                                          double                    heading_rad,
                                          double                    requested,
                                          const df_geodesic_result *result,
-                                         const char               *units);
+                                         const DfDisplayUnits     *du);
 void       df_geodesic_panel_show_error (DfGeodesicPanel *self, const char *message);
 void       df_geodesic_panel_clear      (DfGeodesicPanel *self);
 /* The typed-shot entries: what the start asks for, the heading's reference ("0° = along +t,
- * anticlockwise about N") and the length unit. Texts come back in "shoot-requested" (start,
+ * anticlockwise about N") and the display unit lengths are typed in. Texts come back in "shoot-requested" (start,
  * heading, length strings). */
 void       df_geodesic_panel_set_chart  (DfGeodesicPanel *self, const char *start_hint,
                                          const char *reference, const char *units);

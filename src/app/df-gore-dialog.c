@@ -2,6 +2,7 @@
  * the flat outline are the core's (df-gores); the SVG and CSV are the core's writers
  * (df-decide-out), the same the CLI's `gores` uses. Here: the inputs, a preview to fit and
  * the file choosers. */
+#include "df-document-units.h"
 #include "df-export-chooser.h"
 #include "df-labels.h"
 #include "df-gore-dialog.h"
@@ -399,8 +400,7 @@ df_gore_dialog_present (GtkWindow  *parent,
                         gboolean    report_events)
 {
   const df_surface *surface;
-  const df_limits *limits;
-  df_display_units du;
+  DfDisplayUnits du;
   GoreDialog *d;
   GtkWidget *dialog, *content, *grid, *side, *hbox, *buttons;
   double u0, u1, v0, v1;
@@ -425,18 +425,16 @@ df_gore_dialog_present (GtkWindow  *parent,
       gtk_window_present (GTK_WINDOW (msg));
       return msg;
     }
-  limits = df_document_get_limits (document);
 
   d = g_new0 (GoreDialog, 1);
   d->document = g_object_ref (document);
   d->report_events = report_events;
-  d->units_known = df_unit_from_name (df_document_get_units (document), &d->model);
-  if (!d->units_known)
-    d->model = DF_UNIT_MM;
-  if (d->units_known && df_limits_display_units (limits, df_document_get_units (document), &du))
-    d->display = du.length;
-  else
-    d->display = d->model;
+  /* The figures and the seam allowance in the display unit; the SVG at true scale either way
+   * (its width and height carry the unit), as `gores --units` writes it. */
+  df_document_get_display_units (document, &du);
+  d->units_known = du.known;
+  d->model = du.units.model;
+  d->display = du.units.length;
   df_surface_get_domain (surface, &u0, &u1, &v0, &v1);
 
   dialog = gtk_dialog_new_with_buttons ("Gore Pattern", parent,

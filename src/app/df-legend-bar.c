@@ -25,6 +25,7 @@ struct _DfLegendBar
 
   /* owned */
   char          *units;
+  DfDisplayUnits du;            /* what the end values and the title are shown in */
   /* borrowed (weak pointer) */
   DfSurfaceView *view;
   /* state */
@@ -47,14 +48,13 @@ format_value (double value)
 static char *
 title_text (DfLegendBar *self)
 {
-  const char *u = self->units != NULL ? self->units : "mm";
-
   switch (self->shading)
     {
     case DF_SHADING_GAUSSIAN:
-      return g_strdup_printf ("Gaussian curvature K (1/%s\u00b2)", u);
+      return g_strdup_printf ("Gaussian curvature K (1/%s\u00b2)",
+                              df_du_curvature_unit (&self->du));
     case DF_SHADING_MEAN:
-      return g_strdup_printf ("Mean curvature H (1/%s)", u);
+      return g_strdup_printf ("Mean curvature H (1/%s)", df_du_length_unit (&self->du));
     case DF_SHADING_PLAIN:
     default:
       return g_strdup ("Plain shading: no curvature scale");
@@ -154,10 +154,15 @@ df_legend_bar_snapshot (GtkWidget   *widget,
   }
 
   {
+    /* The view's range is in the surface's units; shown in the display units. */
+    double shown_lo = self->shading == DF_SHADING_GAUSSIAN ? df_du_gaussian (&self->du, self->lo)
+                                                           : df_du_per_length (&self->du, self->lo);
+    double shown_hi = self->shading == DF_SHADING_GAUSSIAN ? df_du_gaussian (&self->du, self->hi)
+                                                           : df_du_per_length (&self->du, self->hi);
     g_autofree char *lo_value = self->lo == 0 ? g_strdup ("0")
-                                : df_format_number_as (self->lo, self->hi);
+                                : df_format_number_as (shown_lo, shown_hi);
     g_autofree char *hi_value = self->hi == 0 ? g_strdup ("0")
-                                : df_format_number_as (self->hi, self->lo);
+                                : df_format_number_as (shown_hi, shown_lo);
     g_autofree char *lo = g_strconcat (self->below ? "\u2264 " : "", lo_value, NULL);
     g_autofree char *hi = g_strconcat (self->above ? "\u2265 " : "", hi_value, NULL);
     g_autoptr (PangoLayout) lo_layout = make_layout (self, lo);
@@ -275,6 +280,7 @@ static void
 df_legend_bar_init (DfLegendBar *self)
 {
   self->units = g_strdup ("mm");
+  df_du_identity (&self->du, "mm");
   self->shading = DF_SHADING_GAUSSIAN;
 }
 
@@ -318,9 +324,21 @@ df_legend_bar_set_units (DfLegendBar *self,
     {
       g_free (self->units);
       self->units = g_strdup (units);
+      df_du_identity (&self->du, units);
       g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_UNITS]);
       gtk_widget_queue_resize (GTK_WIDGET (self));
     }
+}
+
+void
+df_legend_bar_set_display_units (DfLegendBar          *self,
+                                 const DfDisplayUnits *du)
+{
+  g_return_if_fail (DF_IS_LEGEND_BAR (self));
+
+  df_legend_bar_set_units (self, du->label);
+  self->du = *du;
+  gtk_widget_queue_resize (GTK_WIDGET (self));
 }
 
 const char *

@@ -1,8 +1,10 @@
 /* df-loops-panel.c: the loops list and the selected loop's readout (see df-loops-panel.h).
  * Numbers come from the loop's df_loop_result; here they are only formatted with units. */
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-loop-row.h"
 #include "df-loops-panel.h"
@@ -35,6 +37,7 @@ struct _DfLoopsPanel
   DfDocument *document;
   GtkWidget  *verdict_details;   /* child of the details box, after the notes */
   gboolean    syncing_colour;    /* the colour button set from the item, not by the user */
+  gboolean    report_events;     /* print "loop-shown" lines (--report-events) */
 };
 
 G_DEFINE_FINAL_TYPE (DfLoopsPanel, df_loops_panel, GTK_TYPE_WIDGET)
@@ -79,10 +82,14 @@ static void
 update_details (DfLoopsPanel *self)
 {
   DfLoopItem *item = df_loops_panel_get_selected (self);
-  const char *units = self->document != NULL ? df_document_get_units (self->document) : "mm";
+  DfDisplayUnits du;
   const df_loop_result *r;
   g_autoptr(GString) notes = g_string_new (NULL);
 
+  if (self->document != NULL)
+    df_document_get_display_units (self->document, &du);
+  else
+    df_du_identity (&du, NULL);
   show_text (self->error_label, NULL);
   df_verdict_details_set_item (DF_VERDICT_DETAILS (self->verdict_details), self->document, item);
   gtk_widget_set_sensitive (GTK_WIDGET (self->details_title), item != NULL);
@@ -144,7 +151,7 @@ update_details (DfLoopsPanel *self)
     {
       set_value (self->enclosed_value, df_format_angle (r->enclosed_curvature_rad));
       set_value (self->residual_value, df_format_angle (r->residual_rad));
-      set_value (self->area_value, df_format_area (r->area, units));
+      set_value (self->area_value, df_du_format_area (&du, r->area));
       if (r->concentrated_rad != 0.0)
         {
           g_autofree char *apex = df_format_angle (r->concentrated_rad);
@@ -159,7 +166,7 @@ update_details (DfLoopsPanel *self)
           /* On a closed surface the loop also bounds the cap on its other side; a designer
            * who drew a small loop round a pole usually means that one. */
           g_autofree char *other = df_format_angle (r->other_enclosed_curvature_rad);
-          g_autofree char *other_area = df_format_area (r->other_area, units);
+          g_autofree char *other_area = df_du_format_area (&du, r->other_area);
 
           g_string_append_printf (notes, "The cap on the other side of the loop: enclosed "
                                   "curvature %s, area %s. ", other, other_area);
@@ -196,14 +203,25 @@ update_details (DfLoopsPanel *self)
   if (g_object_get_data (G_OBJECT (item), "df-fairing") != NULL)
     g_string_append_printf (notes, "%s ",
                             (const char *) g_object_get_data (G_OBJECT (item), "df-fairing"));
-  set_value (self->length_value, df_format_length (r->length, units));
+  set_value (self->length_value, df_du_format_length (&du, r->length));
   set_value (self->kg_value, df_format_angle (r->total_geodesic_curvature_rad));
   if (r->has_steering_radius)
-    set_value (self->steering_value, df_format_length (r->min_steering_radius, units));
+    set_value (self->steering_value, df_du_format_length (&du, r->min_steering_radius));
   else
     gtk_label_set_text (self->steering_value, "none: the loop is a geodesic (k_g = 0)");
   set_value (self->winding_value, g_strdup_printf ("%d", r->axis_winding));
   show_text (self->note_label, g_strstrip (notes->str));
+  if (self->report_events)
+    {
+      /* The numbers the labels above were made from, in full, for test drivers. */
+      g_autofree char *name = g_strdelimit (g_strdup (df_loop_item_get_name (item)), " ", '_');
+
+      printf ("loop-shown %s %s %.17g %.17g %.17g\n", name, df_du_length_unit (&du),
+              df_du_length (&du, r->length),
+              r->bounds_disc && r->enclosed_available ? df_du_area (&du, r->area) : NAN,
+              r->has_steering_radius ? df_du_length (&du, r->min_steering_radius) : NAN);
+      fflush (stdout);
+    }
 }
 
 static void
@@ -434,6 +452,7 @@ df_loops_panel_set_document (DfLoopsPanel *self,
       gtk_list_box_bind_model (self->list_box, df_document_get_loops (document), create_row,
                                self, NULL);
       g_signal_connect (document, "loop-changed", G_CALLBACK (loop_changed_cb), self);
+      g_signal_connect_swapped (document, "units-changed", G_CALLBACK (update_details), self);
       g_signal_connect (df_document_get_loops (document), "items-changed",
                         G_CALLBACK (items_changed_cb), self);
     }
@@ -481,4 +500,12 @@ df_loops_panel_set_live_text (DfLoopsPanel *self,
 {
   g_return_if_fail (DF_IS_LOOPS_PANEL (self));
   show_text (self->live_label, text);
+}
+
+void
+df_loops_panel_set_report_events (DfLoopsPanel *self,
+                                  gboolean      report)
+{
+  g_return_if_fail (DF_IS_LOOPS_PANEL (self));
+  self->report_events = report;
 }

@@ -179,8 +179,12 @@ void
 df_probe_panel_show (DfProbePanel            *self,
                      const df_surface        *surface,
                      const df_point_geometry *g,
-                     const char              *units)
+                     const DfDisplayUnits    *du)
 {
+  /* Chart coordinates and the chart's tensors stay in the surface's own units (as the CLI's
+   * probe --units leaves them); the point and the curvatures are shown in the display units. */
+  const char *units = du->label;
+  const char *shown = df_du_length_unit (du);
   gboolean rev;
   const char *idx[2];
   GtkWidget *table;
@@ -205,10 +209,10 @@ df_probe_panel_show (DfProbePanel            *self,
     g_autofree char *chart = NULL;
     g_autofree char *a = df_format_number (g->u);
     g_autofree char *b = df_format_number (g->v);
-    g_autofree char *x = df_format_number (g->point[0]);
-    g_autofree char *y = df_format_number (g->point[1]);
-    g_autofree char *z = df_format_number (g->point[2]);
-    g_autofree char *space = g_strdup_printf ("(%s, %s, %s) %s", x, y, z, units);
+    g_autofree char *x = df_format_number (df_du_length (du, g->point[0]));
+    g_autofree char *y = df_format_number (df_du_length (du, g->point[1]));
+    g_autofree char *z = df_format_number (df_du_length (du, g->point[2]));
+    g_autofree char *space = g_strdup_printf ("(%s, %s, %s) %s", x, y, z, shown);
     g_autofree char *nx = df_format_number (g->normal[0]);
     g_autofree char *ny = df_format_number (g->normal[1]);
     g_autofree char *nz = df_format_number (g->normal[2]);
@@ -222,6 +226,11 @@ df_probe_panel_show (DfProbePanel            *self,
     else
       chart = g_strdup_printf ("x = %s %s, y = %s %s", a, units, b, units);
     table_add (table, row++, "Chart", chart);
+    if (df_du_converts (du))
+      gtk_widget_set_tooltip_text (gtk_widget_get_last_child (table),
+                                   "Chart coordinates are the surface's own parameters, in its "
+                                   "own units, as the project file and the command line take "
+                                   "them.");
     table_add (table, row++, "Position", space);
     table_add (table, row++, "Unit normal N", normal);
   }
@@ -233,8 +242,8 @@ df_probe_panel_show (DfProbePanel            *self,
   table = table_new ();
   row = 0;
   {
-    g_autofree char *per_area = g_strdup_printf ("1/%s²", units);
-    g_autofree char *per_length = g_strdup_printf ("1/%s", units);
+    g_autofree char *per_area = g_strdup_printf ("1/%s²", df_du_curvature_unit (du));
+    g_autofree char *per_length = g_strdup_printf ("1/%s", shown);
 
     if (!g->curvature_defined)
       {
@@ -244,14 +253,18 @@ df_probe_panel_show (DfProbePanel            *self,
         gtk_box_append (self->content_box, note (g->note));
         return;
       }
-    table_add_number (table, row++, "Gaussian K", g->K, per_area);
-    table_add_number (table, row++, "Mean H", g->H, per_length);
-    table_add_number (table, row++, "Principal k<sub>1</sub>", g->k1, per_length);
-    table_add_number (table, row++, "Principal k<sub>2</sub>", g->k2, per_length);
+    table_add_number (table, row++, "Gaussian K", df_du_gaussian (du, g->K), per_area);
+    table_add_number (table, row++, "Mean H", df_du_per_length (du, g->H), per_length);
+    table_add_number (table, row++, "Principal k<sub>1</sub>", df_du_per_length (du, g->k1),
+                      per_length);
+    table_add_number (table, row++, "Principal k<sub>2</sub>", df_du_per_length (du, g->k2),
+                      per_length);
     if (g->k1 != 0.0)
-      table_add_number (table, row++, "Radius 1/k<sub>1</sub>", 1.0 / g->k1, units);
+      table_add_number (table, row++, "Radius 1/k<sub>1</sub>", df_du_length (du, 1.0 / g->k1),
+                        shown);
     if (g->k2 != 0.0)
-      table_add_number (table, row++, "Radius 1/k<sub>2</sub>", 1.0 / g->k2, units);
+      table_add_number (table, row++, "Radius 1/k<sub>2</sub>", df_du_length (du, 1.0 / g->k2),
+                        shown);
   }
   gtk_box_append (self->content_box, table);
   gtk_box_append (self->content_box,
@@ -344,12 +357,13 @@ df_probe_panel_show (DfProbePanel            *self,
     if (rev)
       text = g_strdup_printf (
         "Components in the chart (t, φ): φ in radians, t as it appears in the profile formula, "
-        "lengths in %s (g in %s² per coordinate unit squared). Swapping the last two indices "
-        "of R changes its sign; R with equal last indices is zero.", units, units);
+        "lengths in %s, the surface's own units (g in %s² per coordinate unit squared). "
+        "Swapping the last two indices of R changes its sign; R with equal last indices is "
+        "zero.", units, units);
     else
       text = g_strdup_printf (
-        "Components in the chart (x, y), both in %s: g is dimensionless, Γ in 1/%s, R in 1/%s². "
-        "Swapping the last two indices of R changes its sign; R with equal last indices is "
+        "Components in the chart (x, y), both in %s, the surface's own units: g is "
+        "dimensionless, Γ in 1/%s, R in 1/%s². Swapping the last two indices of R changes its sign; R with equal last indices is "
         "zero.", units, units, units);
     gtk_box_append (self->content_box, note (text));
   }

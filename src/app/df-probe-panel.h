@@ -5,6 +5,7 @@
 
 #include <gtk/gtk.h>
 
+#include "df-display-units.h"
 #include "df-glib.h"
 
 G_BEGIN_DECLS
@@ -13,11 +14,12 @@ G_BEGIN_DECLS
 G_DECLARE_FINAL_TYPE (DfProbePanel, df_probe_panel, DF, PROBE_PANEL, GtkWidget)
 
 GtkWidget *df_probe_panel_new        (void);
-/* Shows the geometry at a point of surface; units is the length unit. */
+/* Shows the geometry at a point of surface: the point and curvatures in the display units,
+ * chart coordinates and tensors in the surface's own. */
 void       df_probe_panel_show       (DfProbePanel            *self,
                                       const df_surface        *surface,
                                       const df_point_geometry *geometry,
-                                      const char              *units);
+                                      const DfDisplayUnits    *du);
 /* Shows a failure (e.g. the point is outside the domain) instead of the tables. */
 void       df_probe_panel_show_error (DfProbePanel *self, const char *message);
 void       df_probe_panel_clear      (DfProbePanel *self);

@@ -3,6 +3,7 @@
 #include "df-verdict-details.h"
 
 #include "df-decide-out.h"
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-loop-verdicts.h"
 #include "df-verdict-plot.h"
@@ -67,12 +68,16 @@ sync_details (DfVerdictDetails *self)
                              ? df_loop_verdicts_get_check (self->verdicts) : NULL;
   const df_limits *limits = self->document != NULL ? df_document_get_limits (self->document)
                                                    : NULL;
-  const char *units = self->document != NULL ? df_document_get_units (self->document) : "mm";
+  DfDisplayUnits du;
   const df_surface *surface = self->document != NULL ? df_document_get_surface (self->document)
                                                      : NULL;
   gboolean revolution = surface != NULL
                         && g_str_equal (df_surface_kind_name (surface), "revolution");
 
+  if (self->document != NULL)
+    df_document_get_display_units (self->document, &du);
+  else
+    df_du_identity (&du, NULL);
   clear_list (self);
   gtk_widget_set_visible (GTK_WIDGET (self), state != DF_VERDICTS_NONE);
   switch (state)
@@ -105,7 +110,7 @@ sync_details (DfVerdictDetails *self)
 
               if (v->within != (pass == 1))
                 continue;
-              text = df_verdict_describe (v, limits, units, revolution);
+              text = df_verdict_describe (v, limits, &du, revolution);
               gtk_box_append (GTK_BOX (self->list),
                               verdict_line (v->within ? "object-select-symbolic"
                                                       : "dialog-warning-symbolic",
@@ -116,7 +121,7 @@ sync_details (DfVerdictDetails *self)
           {
             const df_darts *d = &check->darts;
             g_autofree char *angle = df_format_angle (d->angle_each_rad);
-            g_autofree char *len = df_format_length (d->length, units);
+            g_autofree char *len = df_du_format_length (&du, d->length);
             g_autofree char *text = NULL;
 
             if (check->darts_least > 0)
@@ -153,7 +158,7 @@ sync_details (DfVerdictDetails *self)
     default:
       break;
     }
-  df_verdict_plot_set (DF_VERDICT_PLOT (self->plot), self->verdicts, limits, units);
+  df_verdict_plot_set (DF_VERDICT_PLOT (self->plot), self->verdicts, limits, &du);
 }
 
 static void

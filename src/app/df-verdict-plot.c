@@ -20,7 +20,7 @@ struct _DfVerdictPlot
   /* owned */
   DfLoopVerdicts *verdicts;
   df_limits      *limits;
-  char           *units;
+  DfDisplayUnits  du;        /* the axis labels' units (the curves are drawn as measured) */
 };
 
 G_DEFINE_FINAL_TYPE (DfVerdictPlot, df_verdict_plot, GTK_TYPE_DRAWING_AREA)
@@ -78,6 +78,7 @@ typedef struct
   double        limit;       /* <= 0: none set */
   df_limit_id   id;
   const char   *y_units;
+  gboolean      per_length;  /* y is a curvature (1/length): its labels convert */
 } PlotSpec;
 
 static void
@@ -195,7 +196,9 @@ draw_one (DfVerdictPlot     *self,
   gdk_cairo_set_source_rgba (cr, &fg);
   if (spec->limit > 0)
     {
-      g_autofree char *l = df_format_number (spec->limit);
+      g_autofree char *l = df_format_number (spec->per_length
+                                             ? df_du_per_length (&self->du, spec->limit)
+                                             : spec->limit);
 
       title = g_strdup_printf ("%s: limit %s%s%s dashed%s", spec->title,
                                spec->symmetric ? "±" : "", l, spec->y_units,
@@ -207,9 +210,10 @@ draw_one (DfVerdictPlot     *self,
   if (clipped)
     text_at (cr, px + pw - 3, py + 2, "↑ higher values cut off", 1, 0);
   {
-    g_autofree char *hi = df_format_number (ymax);
+    g_autofree char *hi = df_format_number (spec->per_length
+                                            ? df_du_per_length (&self->du, ymax) : ymax);
     g_autofree char *lo = spec->symmetric ? g_strdup_printf ("−%s", hi) : g_strdup ("0");
-    g_autofree char *s_end = df_format_length (len, self->units);
+    g_autofree char *s_end = df_du_format_length (&self->du, len);
 
     text_at (cr, px - 4, py, hi, 1, 0);
     text_at (cr, px - 4, py + ph, lo, 1, 1);
@@ -237,19 +241,19 @@ draw_cb (GtkDrawingArea *area,
 
   if (check == NULL || check->n < 2 || l == NULL)
     return;
-  kg_title = g_strdup_printf ("k_g (1/%s)", self->units);
+  kg_title = g_strdup_printf ("k_g (1/%s)", df_du_length_unit (&self->du));
   specs[0] = (PlotSpec) { kg_title, check->kg, TRUE,
                           l->item[DF_LIMIT_MIN_STEERING_RADIUS].set
                             ? 1 / l->item[DF_LIMIT_MIN_STEERING_RADIUS].model_value : 0,
-                          DF_LIMIT_MIN_STEERING_RADIUS, "" };
+                          DF_LIMIT_MIN_STEERING_RADIUS, "", TRUE };
   specs[1] = (PlotSpec) { "|k_g / k_n|", check->ratio, FALSE,
                           l->item[DF_LIMIT_FRICTION].set
                             ? l->item[DF_LIMIT_FRICTION].model_value : 0,
-                          DF_LIMIT_FRICTION, "" };
+                          DF_LIMIT_FRICTION, "", FALSE };
   specs[2] = (PlotSpec) { "Fibre deviation", check->deviation_deg, FALSE,
                           l->item[DF_LIMIT_MAX_FIBRE_DEVIATION].set
                             ? l->item[DF_LIMIT_MAX_FIBRE_DEVIATION].model_value : 0,
-                          DF_LIMIT_MAX_FIBRE_DEVIATION, "°" };
+                          DF_LIMIT_MAX_FIBRE_DEVIATION, "°", FALSE };
   for (int i = 0; i < N_PLOTS; i++)
     draw_one (self, cr, check, &specs[i], i * (double) height / N_PLOTS, width,
               (double) height / N_PLOTS - 6);
@@ -282,7 +286,6 @@ df_verdict_plot_finalize (GObject *object)
   DfVerdictPlot *self = DF_VERDICT_PLOT (object);
 
   df_limits_free (self->limits);
-  g_free (self->units);
   G_OBJECT_CLASS (df_verdict_plot_parent_class)->finalize (object);
 }
 
@@ -298,7 +301,7 @@ df_verdict_plot_class_init (DfVerdictPlotClass *klass)
 static void
 df_verdict_plot_init (DfVerdictPlot *self)
 {
-  self->units = g_strdup ("mm");
+  df_du_identity (&self->du, "mm");
   gtk_drawing_area_set_content_height (GTK_DRAWING_AREA (self), N_PLOTS * PLOT_HEIGHT);
   gtk_drawing_area_set_draw_func (GTK_DRAWING_AREA (self), draw_cb, NULL, NULL);
   gtk_accessible_update_property (GTK_ACCESSIBLE (self), GTK_ACCESSIBLE_PROPERTY_LABEL,
@@ -316,7 +319,7 @@ void
 df_verdict_plot_set (DfVerdictPlot   *self,
                      DfLoopVerdicts  *verdicts,
                      const df_limits *limits,
-                     const char      *units)
+                     const DfDisplayUnits *du)
 {
   g_return_if_fail (DF_IS_VERDICT_PLOT (self));
 
@@ -330,8 +333,7 @@ df_verdict_plot_set (DfVerdictPlot   *self,
     }
   df_limits_free (self->limits);
   self->limits = df_limits_copy (limits);
-  g_free (self->units);
-  self->units = g_strdup (units != NULL ? units : "mm");
+  self->du = *du;
   gtk_widget_set_visible (GTK_WIDGET (self),
                           verdicts != NULL && df_loop_verdicts_get_check (verdicts) != NULL);
   gtk_widget_queue_draw (GTK_WIDGET (self));

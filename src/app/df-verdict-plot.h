@@ -7,6 +7,7 @@
 #include <gtk/gtk.h>
 
 #include "df-limits.h"
+#include "df-display-units.h"
 #include "df-loop-verdicts.h"
 
 G_BEGIN_DECLS
@@ -15,10 +16,11 @@ G_BEGIN_DECLS
 G_DECLARE_FINAL_TYPE (DfVerdictPlot, df_verdict_plot, DF, VERDICT_PLOT, GtkDrawingArea)
 
 GtkWidget *df_verdict_plot_new (void);
-/* verdicts (may be NULL: nothing to plot) is observed; limits copied; units names lengths. */
+/* verdicts (may be NULL: nothing to plot) is observed; limits copied; du: the units
+ * its axis labels are shown in. */
 void       df_verdict_plot_set (DfVerdictPlot   *self,
                                 DfLoopVerdicts  *verdicts,
                                 const df_limits *limits,
-                                const char      *units);
+                                const DfDisplayUnits *du);
 
 G_END_DECLS

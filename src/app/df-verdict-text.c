@@ -29,13 +29,13 @@ df_verdict_limit_title (df_limit_id id)
 }
 
 const char *
-df_verdict_units (df_limit_id id,
-                  const char *surface_units)
+df_verdict_units (df_limit_id           id,
+                  const DfDisplayUnits *du)
 {
   switch (df_limit_kind_of (id))
     {
     case DF_LIMIT_KIND_LENGTH:
-      return surface_units;
+      return df_du_length_unit (du);
     case DF_LIMIT_KIND_DEGREES:
       return "°";
     case DF_LIMIT_KIND_PERCENT:
@@ -44,6 +44,14 @@ df_verdict_units (df_limit_id id,
     default:
       return "";
     }
+}
+
+double
+df_verdict_shown (df_limit_id           id,
+                  const DfDisplayUnits *du,
+                  double                model)
+{
+  return df_limit_kind_of (id) == DF_LIMIT_KIND_LENGTH ? df_du_length (du, model) : model;
 }
 
 static char *
@@ -62,13 +70,15 @@ with_units (double value,
 char *
 df_verdict_describe (const df_verdict *v,
                      const df_limits  *limits,
-                     const char       *su,
+                     const DfDisplayUnits *du,
                      gboolean          revolution)
 {
-  const char *u = df_verdict_units (v->limit, su);
+  const char *u = df_verdict_units (v->limit, du);
+  const char *su = df_du_length_unit (du);
   const df_limit *l = limits != NULL ? &limits->item[v->limit] : NULL;
-  g_autofree char *value = v->has_value ? with_units (v->value, u) : g_strdup ("unbounded");
-  g_autofree char *threshold = with_units (v->threshold, u);
+  g_autofree char *value = v->has_value ? with_units (df_verdict_shown (v->limit, du, v->value), u)
+                                        : g_strdup ("unbounded");
+  g_autofree char *threshold = with_units (df_verdict_shown (v->limit, du, v->threshold), u);
   GString *t = g_string_new (NULL);
 
   if (v->region)
@@ -82,9 +92,9 @@ df_verdict_describe (const df_verdict *v,
                             v->within ? "Within the limit" : "Exceeded", value, threshold);
   else
     {
-      g_autofree char *s0 = df_format_number (v->s0);
-      g_autofree char *s1 = df_format_number (v->s1);
-      g_autofree char *sw = df_format_number (v->s_worst);
+      g_autofree char *s0 = df_format_number (df_du_length (du, v->s0));
+      g_autofree char *s1 = df_format_number (df_du_length (du, v->s1));
+      g_autofree char *sw = df_format_number (df_du_length (du, v->s_worst));
 
       g_string_append_printf (t, "Exceeded from s = %s to %s %s%s: worst %s at s = %s %s, "
                               "limit %s", s0, s1, su,

@@ -8,6 +8,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "df-document-units.h"
 #include "df-data-import.h"
 #include "df-fit-summary.h"
 #include "df-format.h"
@@ -75,11 +76,12 @@ static void
 show_points (DfWindow *self)
 {
   DfWindowData *d = self->data;
-  const char *units = df_document_get_units (self->document);
+  DfDisplayUnits du;
   g_autofree float *xyz_rgb = NULL;
 
+  df_document_get_display_units (self->document, &du);
   df_fit_summary_set_deviation (summary (self), d->range, d->range < d->max_abs, d->n_points,
-                                d->n_data, units);
+                                d->n_data, &du);
   if (d->n_points == 0 || !df_fit_summary_get_show_points (summary (self)))
     {
       df_surface_view_set_points (self->view, NULL, 0);
@@ -158,6 +160,7 @@ _df_window_data_sync (DfWindow *self)
   const df_surface *surface = df_document_get_surface (self->document);
   g_autofree char *key = fit_key (spec);
   df_fit_info info;
+  DfDisplayUnits du;
 
   if (key == NULL || surface == NULL)
     {
@@ -167,9 +170,10 @@ _df_window_data_sync (DfWindow *self)
       df_surface_view_set_points (self->view, NULL, 0);
       return;
     }
+  df_document_get_display_units (self->document, &du);
   df_fit_summary_set_fit (summary (self), spec,
                           df_fit_get_info (df_surface_get_fn (surface), &info) ? &info : NULL,
-                          df_document_get_units (self->document));
+                          &du);
   if (g_strcmp0 (key, d->points_key) == 0)
     {
       show_points (self);
@@ -296,9 +300,12 @@ fit_done_cb (GObject      *source,
       gtk_stack_set_visible_child_name (self->panel_stack, "surface");
       if (fit->has_info)
         {
-          const char *units = df_document_get_units (self->document);
-          g_autofree char *rms = df_format_length (fit->info.rms, units);
-          g_autofree char *max = df_format_length (fit->info.max, units);
+          DfDisplayUnits du;
+          g_autofree char *rms = NULL, *max = NULL;
+
+          df_document_get_display_units (self->document, &du);
+          rms = df_du_format_length (&du, fit->info.rms);
+          max = df_du_format_length (&du, fit->info.max);
 
           _df_window_status (self, FALSE, "Fitted %s: %zu points, RMS distance %s, largest %s.",
                              base, fit->info.points, rms, max);

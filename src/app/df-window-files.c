@@ -5,6 +5,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "df-document-units.h"
 #include "df-window-private.h"
 
 typedef void (*DfThen) (DfWindow *self);
@@ -497,7 +498,12 @@ export_csv_context (DfWindow   *self,
                     const char *label)
 {
   const df_surface *surface = df_document_get_surface (self->document);
-  df_csv_context c = { df_document_get_units (self->document),
+  DfDisplayUnits du;
+  df_csv_context c;
+
+  /* In the display unit, as `report --summary` and `measure --samples` write with --units. */
+  df_document_get_display_units (self->document, &du);
+  c = (df_csv_context) { df_du_length_unit (&du),
                        surface != NULL ? df_surface_get_kind (surface) : DF_SURFACE_GRAPH,
                        label, surface != NULL ? df_surface_normal_side (surface) : NULL };
 
@@ -529,8 +535,15 @@ _df_window_export_samples (DfWindow    *self,
   {
     g_autofree char *title = df_document_get_title (self->document);
     df_csv_context csv = export_csv_context (self, title);
+    DfDisplayUnits du;
+    df_loop_result *shown;
+    gboolean ok;
 
-    return df_loop_samples_write (path, result, &csv, error);
+    df_document_get_display_units (self->document, &du);
+    shown = df_du_loop_result_copy (&du, result);
+    ok = df_loop_samples_write (path, shown, &csv, error);
+    df_du_loop_result_free (shown);
+    return ok;
   }
 }
 
@@ -542,13 +555,15 @@ _df_window_export_summary (DfWindow    *self,
   GListModel *loops = df_document_get_loops (self->document);
   guint n = g_list_model_get_n_items (loops);
   g_autoptr(GPtrArray) names = g_ptr_array_new ();
-  g_autoptr(GPtrArray) results = g_ptr_array_new ();
+  g_autoptr(GPtrArray) results = g_ptr_array_new_with_free_func ((GDestroyNotify) df_du_loop_result_free);
   g_autoptr(GPtrArray) failures = g_ptr_array_new ();
   g_autofree char *title = df_document_get_title (self->document);
   df_csv_context csv = export_csv_context (self, title);
   guint unmeasured = 0;
   gboolean ok;
+  DfDisplayUnits du;
 
+  df_document_get_display_units (self->document, &du);
   /* A loop that is not measured keeps its row, with the reason, so the record is complete. */
   for (guint i = 0; i < n; i++)
     {
@@ -556,7 +571,7 @@ _df_window_export_summary (DfWindow    *self,
       const df_loop_result *result = df_loop_item_get_result (item);
 
       g_ptr_array_add (names, (gpointer) df_loop_item_get_name (item));
-      g_ptr_array_add (results, (gpointer) result);
+      g_ptr_array_add (results, result != NULL ? df_du_loop_result_copy (&du, result) : NULL);
       g_ptr_array_add (failures, (gpointer) (result != NULL ? NULL
                                              : df_loop_item_get_error (item) != NULL
                                                ? df_loop_item_get_error (item)

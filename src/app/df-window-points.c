@@ -216,7 +216,7 @@ _df_window_type_loop_dialog (DfWindow *self)
   gtk_widget_set_margin_top (box, 12);
   gtk_widget_set_margin_bottom (box, 12);
   hint_text = g_strdup_printf ("One point a row, as in a loop CSV file: first the header "
-                               "“u,v” (chart: %s) or “x,y,z” (a point in space, %s, placed "
+                               "“u,v” (chart: %s) or “x,y,z” (a point in space in the surface's own units, %s, placed "
                                "at its closest surface point), then the rows. The loop closes "
                                "itself. Ctrl+Return adds it.",
                                revolution ? "t, then φ in radians" : "x, y",

@@ -117,6 +117,10 @@ struct _DfWindow
   gboolean      paths_long_legs;    /* B's ends were far from A's and were joined to them */
   gboolean      paths_record;       /* the running comparison goes into the document */
 
+  /* Probe: the point shown, shown again when the display units change */
+  gboolean      probe_shown;
+  double        probe_uv[2];
+
   /* Geodesic */
   gboolean      geodesic_pressed;
   double        geodesic_start[2];
@@ -173,6 +177,10 @@ gboolean _df_window_import_path        (DfWindow *self, const char *path, gboole
 void     _df_window_drape_init         (DfWindow *self);
 void     _df_window_drape_start        (DfWindow *self);
 
+/* df-window-units.c: the Display Units action and --units (after the project is open). */
+void     _df_window_units_init         (DfWindow *self);
+void     _df_window_units_start        (DfWindow *self);
+
 /* df-window-state.c */
 void     _df_window_state_load         (DfWindow *self, gboolean *first_run, char **last_project);
 void     _df_window_state_save         (DfWindow *self);
@@ -184,6 +192,7 @@ void     _df_window_sync_all           (DfWindow *self);
 void     _df_window_sync_loop          (DfWindow *self, DfLoopItem *item);
 void     _df_window_sync_frames        (DfWindow *self);
 void     _df_window_sync_legend        (DfWindow *self);
+void     _df_window_sync_title         (DfWindow *self);
 /* After a surface change: " The geodesic was removed: ..." for what it dropped, or "". */
 char    *_df_window_dropped_note       (DfWindow *self);
 void     _df_window_status             (DfWindow *self, gboolean is_error, const char *format,

@@ -2,6 +2,7 @@
  * loop names and a caption line at a size the user chooses; the PDF record (the core's
  * df-report, with the view rendered by the app as its picture); and the dialog that edits the
  * record's title block. Computes no geometry. */
+#include "df-document-units.h"
 #include "df-window-private.h"
 #include "df-format.h"
 
@@ -73,7 +74,8 @@ static void
 draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
 {
   DfShading shading = df_surface_view_get_shading (self->view);
-  const char *u = df_document_get_units (self->document);
+  DfDisplayUnits du;
+  const char *u;
   double lo, hi, bw = MIN (w * 0.35, 36 * fs), bh = fs * 0.9, x = fs, y;
   g_autofree char *title = NULL;
   char a[32], b[32];
@@ -82,6 +84,20 @@ draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
   if (shading == DF_SHADING_PLAIN)
     return;
   df_surface_view_get_shading_range (self->view, &lo, &hi);
+  /* The window legend's numbers (df-legend-bar.c): the range shown in the display units. */
+  df_document_get_display_units (self->document, &du);
+  if (shading == DF_SHADING_GAUSSIAN)
+    {
+      lo = df_du_gaussian (&du, lo);
+      hi = df_du_gaussian (&du, hi);
+      u = df_du_curvature_unit (&du);
+    }
+  else
+    {
+      lo = df_du_per_length (&du, lo);
+      hi = df_du_per_length (&du, hi);
+      u = df_du_length_unit (&du);
+    }
   title = g_strdup_printf ("%s, 1/%s%s",
                            shading == DF_SHADING_GAUSSIAN ? "Gaussian curvature K"
                                                           : "Mean curvature H",
@@ -190,11 +206,15 @@ draw_caption (DfWindow *self, cairo_t *cr, int w, double fs)
   g_autoptr (GDateTime) now = g_date_time_new_now_local ();
   g_autofree char *date = g_date_time_format (now, "%Y-%m-%d");
   const df_surface *s = df_document_get_surface (self->document);
-  g_autofree char *text = g_strdup_printf (
+  DfDisplayUnits du;
+  g_autofree char *text = NULL;
+
+  df_document_get_display_units (self->document, &du);
+  text = g_strdup_printf (
     "%s \xe2\x80\x94 %s \xe2\x80\x94 lengths in %s \xe2\x80\x94 %s", title,
     s != NULL && df_surface_get_kind (s) == DF_SURFACE_REVOLUTION ? "surface of revolution"
                                                                   : "graph z = f(x, y)",
-    df_document_get_units (self->document), date);
+    df_du_length_unit (&du), date);
 
   cairo_set_source_rgba (cr, 1, 1, 1, 0.85);
   cairo_rectangle (cr, 0, 0, w, fs * 1.9);
@@ -272,10 +292,12 @@ _df_window_export_report (DfWindow    *self,
   g_autofree df_report_loop *rl = g_new0 (df_report_loop, MAX (n, 1));
   g_autoptr (GPtrArray) items = g_ptr_array_new_with_free_func (g_object_unref);
   g_autoptr (GPtrArray) lines = g_ptr_array_new_with_free_func ((GDestroyNotify) g_strfreev);
+  g_autoptr (GPtrArray) shown = g_ptr_array_new_with_free_func ((GDestroyNotify) df_du_loop_result_free);
   df_report report = { 0 };
   df_report_fields fields;
   cairo_surface_t *picture;
   gboolean ok;
+  DfDisplayUnits du;
 
   if (surface == NULL)
     {
@@ -299,6 +321,9 @@ _df_window_export_report (DfWindow    *self,
     df_report_fields_add (&fields, "Project file", "not saved yet");
   df_report_fields_add_spec (&fields, df_document_get_spec (self->document), surface);
 
+  /* The figures in the display units, the picture and the inputs in the surface's, as
+   * `report --pdf` writes them. */
+  df_document_get_display_units (self->document, &du);
   for (guint i = 0; i < n; i++)
     {
       DfLoopItem *item = g_list_model_get_item (loops, i);
@@ -313,7 +338,12 @@ _df_window_export_report (DfWindow    *self,
                                                               : "not measured yet";
       if (rl[i].result != NULL)
         {
-          char **v = df_report_verdict_lines (surface, rl[i].uv, rl[i].n,
+          df_loop_result *converted = df_du_loop_result_copy (&du, rl[i].result);
+          char **v;
+
+          g_ptr_array_add (shown, converted);
+          rl[i].result = converted;
+          v = df_report_verdict_lines (surface, rl[i].uv, rl[i].n,
                                               df_document_get_limits (self->document),
                                               df_document_get_units (self->document),
                                               &rl[i].kg_limit, &rl[i].checked,
@@ -331,7 +361,8 @@ _df_window_export_report (DfWindow    *self,
   report.version = DF_VERSION;
   report.inputs = (const df_report_field *) fields.fields->data;
   report.n_inputs = fields.fields->len;
-  report.units = df_document_get_units (self->document);
+  report.units = df_du_length_unit (&du);
+  report.model_units = du.label;
   report.surface = surface;
   report.loops = rl;
   report.n_loops = n;

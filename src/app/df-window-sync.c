@@ -4,6 +4,7 @@
 #include <math.h>
 #include <stdio.h>
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-window-data.h"
 #include "df-window-private.h"
@@ -35,8 +36,8 @@ _df_window_status (DfWindow   *self,
     gtk_widget_remove_css_class (GTK_WIDGET (self->status_label), "df-error");
 }
 
-static void
-sync_title (DfWindow *self)
+void
+_df_window_sync_title (DfWindow *self)
 {
   g_autofree char *title = df_document_get_title (self->document);
   g_autofree char *window_title = NULL;
@@ -67,8 +68,14 @@ sync_title (DfWindow *self)
                               : name != NULL ? g_strdup_printf (", %s", base)
                               : g_strdup ("");
 
-      subtitle = g_strdup_printf ("%s, lengths in %s%s", what,
-                                  df_document_get_units (self->document), file);
+      DfDisplayUnits du;
+
+      df_document_get_display_units (self->document, &du);
+      if (df_du_converts (&du))
+        subtitle = g_strdup_printf ("%s in %s, shown in %s%s", what, du.label,
+                                    df_du_length_unit (&du), file);
+      else
+        subtitle = g_strdup_printf ("%s, lengths in %s%s", what, du.label, file);
     }
   gtk_label_set_text (self->subtitle_label, subtitle != NULL ? subtitle : "");
 }
@@ -76,7 +83,10 @@ sync_title (DfWindow *self)
 void
 _df_window_sync_legend (DfWindow *self)
 {
-  df_legend_bar_set_units (self->legend, df_document_get_units (self->document));
+  DfDisplayUnits du;
+
+  df_document_get_display_units (self->document, &du);
+  df_legend_bar_set_display_units (self->legend, &du);
   gtk_widget_set_visible (GTK_WIDGET (self->legend), self->shading != DF_SHADING_PLAIN);
 }
 
@@ -240,7 +250,7 @@ _df_window_sync_all (DfWindow *self)
   sync_surface (self);
   sync_all_loops (self);
   _df_window_sync_frames (self);
-  sync_title (self);
+  _df_window_sync_title (self);
   _df_window_actions_update (self);
 }
 
@@ -253,7 +263,7 @@ surface_changed_cb (DfDocument *document,
   sync_surface (self);
   sync_all_loops (self);
   _df_window_sync_frames (self);
-  sync_title (self);
+  _df_window_sync_title (self);
   _df_window_actions_update (self);
 }
 
@@ -330,7 +340,7 @@ title_notify_cb (DfDocument *document,
                  GParamSpec *pspec,
                  DfWindow   *self)
 {
-  sync_title (self);
+  _df_window_sync_title (self);
 }
 
 static void
@@ -457,5 +467,5 @@ _df_window_sync_init (DfWindow *self)
   g_signal_connect (self->surface_panel, "spec-changed", G_CALLBACK (spec_changed_cb), self);
   g_signal_connect (self->view, "mesh-ready", G_CALLBACK (mesh_ready_cb), self);
   g_signal_connect (self->view, "gl-failed", G_CALLBACK (gl_failed_cb), self);
-  sync_title (self);
+  _df_window_sync_title (self);
 }

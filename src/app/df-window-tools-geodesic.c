@@ -8,6 +8,7 @@
 #include "df-window-decide.h"
 #include "df-project.h"
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-window-private.h"
 #include "df-window-tools-private.h"
@@ -24,7 +25,12 @@ _df_window_probe_at (DfWindow *self,
   df_diag diag;
   df_status status;
   GdkRGBA colour = _df_window_rgba (colour_marker);
+  DfDisplayUnits du;
 
+  df_document_get_display_units (self->document, &du);
+  self->probe_shown = TRUE;
+  self->probe_uv[0] = u;
+  self->probe_uv[1] = v;
   df_diag_clear (&diag);
   status = df_surface_geometry (surface, u, v, &geometry, &diag);
   if (status != DF_OK)
@@ -36,8 +42,7 @@ _df_window_probe_at (DfWindow *self,
       df_surface_view_set_marker (self->view, NULL, NULL);
       return;
     }
-  df_probe_panel_show (self->probe_panel, surface, &geometry,
-                       df_document_get_units (self->document));
+  df_probe_panel_show (self->probe_panel, surface, &geometry, &du);
   df_surface_view_set_marker (self->view, geometry.point, &colour);
   if (self->startup.report_events)
     {
@@ -45,6 +50,12 @@ _df_window_probe_at (DfWindow *self,
 
       printf ("probed %s %s %s\n", g_ascii_dtostr (a, sizeof a, u),
               g_ascii_dtostr (b, sizeof b, v), g_ascii_dtostr (k, sizeof k, geometry.K));
+      /* What the panel shows, in the display units. */
+      printf ("probe-shown %s %s %.17g %.17g %.17g %.17g %.17g\n", df_du_length_unit (&du),
+              df_du_curvature_unit (&du), df_du_length (&du, geometry.point[0]),
+              df_du_length (&du, geometry.point[1]), df_du_length (&du, geometry.point[2]),
+              geometry.curvature_defined ? df_du_gaussian (&du, geometry.K) : NAN,
+              geometry.curvature_defined ? df_du_per_length (&du, geometry.H) : NAN);
       fflush (stdout);
     }
 }
@@ -144,12 +155,13 @@ _df_window_shoot_from (DfWindow *self,
                        gboolean  record)
 {
   const df_surface *surface = df_document_get_surface (self->document);
-  const char *units = df_document_get_units (self->document);
+  DfDisplayUnits du;
   g_auto(df_geodesic_result) result = { 0 };
   df_diag diag;
   df_status status;
   g_autoptr(GError) error = NULL;
 
+  df_document_get_display_units (self->document, &du);
   df_diag_clear (&diag);
   status = df_geodesic_shoot (surface, self->geodesic_start[0], self->geodesic_start[1],
                               heading, length, DF_GEODESIC_SAMPLES, &result, &diag);
@@ -163,7 +175,7 @@ _df_window_shoot_from (DfWindow *self,
   {
     g_autofree double (*xyz)[3] = g_malloc_n (MAX (result.n_samples, 1), sizeof (double[3]));
     GdkRGBA colour = _df_window_rgba (colour_geodesic);
-    g_autofree char *reached = df_format_length (result.length, units);
+    g_autofree char *reached = df_du_format_length (&du, result.length);
 
     for (gsize i = 0; i < result.n_samples; i++)
       memcpy (xyz[i], result.samples[i].point, sizeof xyz[i]);
@@ -172,13 +184,13 @@ _df_window_shoot_from (DfWindow *self,
     if (result.n_samples > 0)
       df_surface_view_set_arrow (self->view, DF_ARROW_GEODESIC, result.samples[0].point,
                                  result.samples[0].tangent, &colour);
-    df_geodesic_panel_show (self->geodesic_panel, surface, heading, length, &result, units);
+    df_geodesic_panel_show (self->geodesic_panel, surface, heading, length, &result, &du);
     {
       /* Against the project's limits, as `check` reports a geodesic (a few ms: synchronous,
        * like the shot itself). */
       g_autoptr (DfCurveVerdicts) verdicts = df_curve_verdicts_geodesic (
         surface, df_document_get_limits (self->document), self->geodesic_start[0],
-        self->geodesic_start[1], heading, length, units);
+        self->geodesic_start[1], heading, length, &du);
       g_autofree char *shown = verdicts ? g_strdup_printf ("%s\n%s", verdicts->text,
                                                            DF_CURVE_VERDICTS_CAUTION) : NULL;
 

@@ -8,6 +8,7 @@
 #include "df-window-decide.h"
 #include "df-project.h"
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-window-private.h"
 #include "df-window-tools-private.h"
@@ -130,25 +131,35 @@ compare_done_cb (GObject      *source,
       df_document_set_paths (self->document, "Path pair", (const double (*)[2]) uv_a,
                              self->path_a->len, (const double (*)[2]) uv_b, self->path_b->len);
     }
-  df_compare_panel_set_lengths (self->compare_panel, comparison->a.length, comparison->b.length,
-                                df_document_get_units (self->document));
+  {
+    DfDisplayUnits du;
+
+    df_document_get_display_units (self->document, &du);
+    df_compare_panel_set_lengths (self->compare_panel, comparison->a.length,
+                                  comparison->b.length, &du);
+  }
   {
     /* Both routes against the project's limits, as `check` reports a path pair. */
     const df_surface *surface = df_document_get_surface (self->document);
     const df_limits *limits = df_document_get_limits (self->document);
-    const char *units = df_document_get_units (self->document);
+    DfDisplayUnits du;
     g_autofree double (*uv_a)[2] = _df_window_stroke_uv (self->path_a);
     g_autofree double (*uv_b)[2] = _df_window_stroke_uv (self->path_b);
-    g_autoptr (DfCurveVerdicts) va = df_curve_verdicts_path (
-      surface, limits, (const double (*)[2]) uv_a, self->path_a->len, "route A", units);
-    g_autoptr (DfCurveVerdicts) vb = df_curve_verdicts_path (
-      surface, limits, (const double (*)[2]) uv_b, self->path_b->len, "route B", units);
-    g_autofree char *both = va || vb ? g_strdup_printf ("%s%s%s\n%s", va ? va->text : "",
-                                                        va && vb ? "\n" : "",
-                                                        vb ? vb->text : "",
-                                                        DF_CURVE_VERDICTS_CAUTION)
-                                     : NULL;
-    DfCurveVerdicts *routes[2] = { va, vb };
+    g_autoptr (DfCurveVerdicts) va = NULL;
+    g_autoptr (DfCurveVerdicts) vb = NULL;
+    g_autofree char *both = NULL;
+    DfCurveVerdicts *routes[2];
+
+    df_document_get_display_units (self->document, &du);
+    va = df_curve_verdicts_path (surface, limits, (const double (*)[2]) uv_a, self->path_a->len,
+                                 "route A", &du);
+    vb = df_curve_verdicts_path (surface, limits, (const double (*)[2]) uv_b, self->path_b->len,
+                                 "route B", &du);
+    both = va || vb ? g_strdup_printf ("%s%s%s\n%s", va ? va->text : "", va && vb ? "\n" : "",
+                                       vb ? vb->text : "", DF_CURVE_VERDICTS_CAUTION)
+                    : NULL;
+    routes[0] = va;
+    routes[1] = vb;
 
     df_compare_panel_show_verdicts (self->compare_panel, both);
     for (int k = 0; k < 2; k++)

@@ -7,6 +7,7 @@
 
 #include "df-project.h"
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-window-private.h"
 #include "df-window-tools-private.h"
@@ -188,7 +189,7 @@ sketch_fair (DfWindow   *self,
              const char **why)
 {
   const df_surface *surface = df_document_get_surface (self->document);
-  const char *units = df_document_get_units (self->document);
+  DfDisplayUnits du;
   double tol = DF_SKETCH_FAIR_PX * stroke_pixel_size (self);
   double (*faired)[2] = NULL;
   df_fair_info info;
@@ -206,8 +207,9 @@ sketch_fair (DfWindow   *self,
     }
   g_free (*uv);
   *uv = faired;
-  t = df_format_length (info.tolerance, units);
-  d = df_format_length (info.max_deviation, units);
+  df_document_get_display_units (self->document, &du);
+  t = df_du_format_length (&du, info.tolerance);
+  d = df_du_format_length (&du, info.max_deviation);
   return g_strdup_printf ("Faired as drawn: %s within %s (%g px at the stroke's depth), largest "
                           "deviation from the stroke %s%s.", df_fair_method_name (), t,
                           DF_SKETCH_FAIR_PX, d, info.met ? "" : ", more than the tolerance");

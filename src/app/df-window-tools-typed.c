@@ -6,6 +6,7 @@
 
 #include "df-project.h"
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-window-private.h"
 #include "df-window-tools-private.h"
@@ -78,7 +79,9 @@ typed_point (DfWindow    *self,
   int n = 0;
   df_diag diag;
   df_status status;
+  DfDisplayUnits du;
 
+  df_document_get_display_units (self->document, &du);
   if (surface == NULL || !parse_numbers (text, field, 2, 3, x, &n, error))
     return FALSE;
   if (n == 2)
@@ -87,6 +90,9 @@ typed_point (DfWindow    *self,
       *v = df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION ? x[1] * G_PI / 180.0 : x[1];
       return TRUE;
     }
+  /* A point in space is typed in the display unit (chart coordinates are the chart's). */
+  for (int k = 0; k < 3; k++)
+    x[k] = df_du_to_model (&du, x[k]);
   df_diag_clear (&diag);
   status = df_surface_project (surface, x, 0.05 * df_surface_size (surface), u, v, &dist, &diag);
   if (status != DF_OK)
@@ -98,7 +104,7 @@ typed_point (DfWindow    *self,
     }
   if (dist > 1e-6 * df_surface_size (surface))
     {
-      g_autofree char *d = df_format_length (dist, df_document_get_units (self->document));
+      g_autofree char *d = df_du_format_length (&du, dist);
       _df_window_status (self, FALSE, "%s: the typed point is %s from the surface; its closest "
                          "surface point is used.", field, d);
     }
@@ -154,6 +160,13 @@ _df_window_shoot_requested_cb (DfGeodesicPanel *panel,
     }
   self->geodesic_start[0] = u;
   self->geodesic_start[1] = v;
+  {
+    /* Typed in the display unit (the field says which). */
+    DfDisplayUnits du;
+
+    df_document_get_display_units (self->document, &du);
+    length = df_du_to_model (&du, length);
+  }
   _df_window_shoot_from (self, heading * G_PI / 180.0, length, TRUE);
 }
 
@@ -163,10 +176,14 @@ _df_window_update_typed_hints (DfWindow *self)
 {
   const df_surface *surface = df_document_get_surface (self->document);
   gboolean revolution = surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION;
+  DfDisplayUnits du;
+  g_autofree char *hint = NULL;
 
-  df_probe_panel_set_placeholder (self->probe_panel,
-                                  revolution ? "t, φ° on the surface or x, y, z in space"
-                                             : "x, y on the surface or x, y, z in space");
+  df_document_get_display_units (self->document, &du);
+  hint = g_strdup_printf (revolution ? "t, φ° on the surface or x, y, z in %s"
+                                     : "x, y on the surface or x, y, z in %s",
+                          df_du_length_unit (&du));
+  df_probe_panel_set_placeholder (self->probe_panel, hint);
   df_geodesic_panel_set_chart (self->geodesic_panel, revolution ? "t, φ°  or  x, y, z" :
                                                                   "x, y  or  x, y, z",
                                revolution ? "Heading 0° = along +t (X_t, the way t grows "
@@ -174,7 +191,7 @@ _df_window_update_typed_hints (DfWindow *self)
                                             "N (see the Surface panel's orientation)."
                                           : "Heading 0° = along +x, 90° = along +y; "
                                             "anticlockwise about N.",
-                               df_document_get_units (self->document));
+                               df_du_length_unit (&du));
 }
 
 void

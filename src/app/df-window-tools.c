@@ -17,6 +17,7 @@
 
 #include "df-project.h"
 
+#include "df-document-units.h"
 #include "df-format.h"
 #include "df-window-private.h"
 #include "df-window-tools-private.h"
@@ -53,19 +54,23 @@ show_coords (DfWindow *self,
              double    v)
 {
   const df_surface *surface = df_document_get_surface (self->document);
-  const char *units = df_document_get_units (self->document);
   g_autofree char *a = df_format_number (u);
   g_autofree char *text = NULL;
   g_autofree char *where = NULL;
   double xyz[3];
+  DfDisplayUnits du;
+  const char *units;
+
+  df_document_get_display_units (self->document, &du);
+  units = df_du_length_unit (&du);
 
   /* The point in space too: t is the profile's own parameter (an angle, a length...), so the
    * position is what carries the units. */
   if (_df_window_surface_point (self, u, v, xyz))
     {
-      g_autofree char *x = df_format_number (xyz[0]);
-      g_autofree char *y = df_format_number (xyz[1]);
-      g_autofree char *z = df_format_number (xyz[2]);
+      g_autofree char *x = df_format_number (df_du_length (&du, xyz[0]));
+      g_autofree char *y = df_format_number (df_du_length (&du, xyz[1]));
+      g_autofree char *z = df_format_number (df_du_length (&du, xyz[2]));
       where = g_strdup_printf ("  (%s, %s, %s) %s", x, y, z, units);
     }
   if (surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
@@ -76,9 +81,14 @@ show_coords (DfWindow *self,
     }
   else
     {
-      g_autofree char *b = df_format_number (v);
-      g_autofree char *zn = where != NULL ? df_format_number (xyz[2]) : NULL;
+      /* A height field's chart is its plan: x, y of the point in space, so all three show in
+       * the display unit. */
+      g_autofree char *b = NULL;
+      g_autofree char *zn = where != NULL ? df_format_number (df_du_length (&du, xyz[2])) : NULL;
 
+      g_free (a);
+      a = df_format_number (df_du_length (&du, u));
+      b = df_format_number (df_du_length (&du, v));
       if (zn != NULL)
         text = g_strdup_printf ("x = %s, y = %s, z = %s %s", a, b, zn, units);
       else
@@ -306,6 +316,7 @@ _df_window_tools_surface_changed (DfWindow *self)
   _df_window_clear_paths (self);
   df_surface_view_set_marker (self->view, NULL, NULL);
   df_probe_panel_clear (self->probe_panel);
+  self->probe_shown = FALSE;
   /* The pointer's coordinates were of the old surface. */
   gtk_label_set_text (self->coords_label, "");
   _df_window_update_typed_hints (self);

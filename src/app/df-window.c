@@ -38,6 +38,7 @@ df_startup_clear (DfStartup *startup)
   g_clear_pointer (&startup->tool, g_free);
   g_clear_pointer (&startup->view, g_free);
   g_clear_pointer (&startup->shading, g_free);
+  g_clear_pointer (&startup->units, g_free);
   g_clear_pointer (&startup->export_samples, g_free);
   g_clear_pointer (&startup->export_summary, g_free);
   g_clear_pointer (&startup->export_png, g_free);
@@ -294,6 +295,7 @@ df_window_init (DfWindow *self)
   _df_window_data_init (self);
   _df_window_decide_init (self);
   _df_window_drape_init (self);
+  _df_window_units_init (self);
   _df_window_actions_update (self);
   /* The menus read these actions' states while the template was built, before the fields
    * above were set: tell them, or the colouring radio and the iso-lines check start wrong. */
@@ -445,6 +447,7 @@ df_window_start (DfWindow        *self,
   self->startup.tool = g_strdup (startup->tool);
   self->startup.view = g_strdup (startup->view);
   self->startup.shading = g_strdup (startup->shading);
+  self->startup.units = g_strdup (startup->units);
   self->startup.export_samples = g_strdup (startup->export_samples);
   self->startup.export_summary = g_strdup (startup->export_summary);
   self->startup.export_png = g_strdup (startup->export_png);
@@ -543,6 +546,7 @@ df_window_start (DfWindow        *self,
         g_printerr ("driftframe: --view: unknown view '%s' (iso, top, front, side)\n",
                     startup->view);
     }
+  _df_window_units_start (self);
   if (startup->report_events)
     {
       g_signal_connect (self->document, "loop-changed", G_CALLBACK (report_loop_cb), self);

@@ -17,6 +17,7 @@ typedef struct
   char    *tool;            /* look, sketch, probe, geodesic, paths */
   char    *view;            /* iso, top, front, side */
   char    *shading;         /* plain, gaussian, mean */
+  char    *units;           /* display units "LENGTH[,CURVATURE]" (mm, cm, m, in), set as an edit */
   char    *export_samples;  /* export the selected loop's samples once measured, then quit */
   char    *export_summary;  /* export the loops summary once all are measured, then quit */
   char    *export_png;      /* export the view once everything is drawn, then quit */

@@ -1,0 +1,370 @@
+/* test-app-units.c: end-to-end tests of the app's display units (issue 9, items 6 and 7), driven
+ * under Xvfb with --units, xdotool and the app's --report-events lines (harness in
+ * df-test-app.c): the demo shown in metres against the CLI's `report --units m` and the exact
+ * factor 1000; the choice undone, redone, saved as [units] length=m and read back by the CLI
+ * and by the app on reopening; inches (25.4 mm exactly) with Gaussian curvature per square
+ * metre, for a loop, a probe and a typed geodesic length. Skips (with the reason) when Xvfb or
+ * xdotool is missing. */
+#include <gio/gio.h>
+#include <glib/gstdio.h>
+#include <json-glib/json-glib.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "df-glib.h"
+#include "df-test.h"
+#include "df-test-app.h"
+
+/* The international inch: 25.4 mm exactly (1959 agreement; NIST SP 811, appendix B). */
+#define MM_PER_INCH 25.4
+
+static GSubprocess *
+start_app (Xserver           *x,
+           GDataInputStream **out,
+           const char        *first,
+           ...)
+{
+  g_autoptr(GSubprocessLauncher) launcher = app_launcher (x);
+  g_autoptr(GPtrArray) args = g_ptr_array_new ();
+  g_autoptr(GError) error = NULL;
+  GSubprocess *app;
+  va_list ap;
+
+  g_ptr_array_add (args, (char *) DF_APP_PATH);
+  va_start (ap, first);
+  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
+    g_ptr_array_add (args, (char *) a);
+  va_end (ap);
+  g_ptr_array_add (args, (char *) "--report-view-geometry");
+  g_ptr_array_add (args, (char *) "--report-events");
+  g_ptr_array_add (args, NULL);
+  app = g_subprocess_launcher_spawnv (launcher, (const char *const *) args->pdata, &error);
+  g_assert_no_error (error);
+  *out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  return app;
+}
+
+static void
+stop_app (GSubprocess *app)
+{
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+}
+
+/* The CLI's JSON output of args (NULL-terminated, after the command name), parsed. */
+static JsonObject *
+cli_json (JsonParser *parser,
+          const char *first,
+          ...)
+{
+  g_autoptr(GPtrArray) args = g_ptr_array_new ();
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GBytes) bytes = NULL;
+  va_list ap;
+
+  g_ptr_array_add (args, (char *) DF_CLI_PATH);
+  va_start (ap, first);
+  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
+    g_ptr_array_add (args, (char *) a);
+  va_end (ap);
+  g_ptr_array_add (args, (char *) "--json");
+  g_ptr_array_add (args, NULL);
+  cli = g_subprocess_newv ((const char *const *) args->pdata, G_SUBPROCESS_FLAGS_STDOUT_PIPE,
+                           &error);
+  g_assert_no_error (error);
+  g_subprocess_communicate (cli, NULL, NULL, &bytes, NULL, &error);
+  g_assert_no_error (error);
+  json_parser_load_from_data (parser, g_bytes_get_data (bytes, NULL),
+                              (gssize) g_bytes_get_size (bytes), &error);
+  g_assert_no_error (error);
+  return json_node_get_object (json_parser_get_root (parser));
+}
+
+/* The loop named name in `report --json` (with --units unit when not NULL). */
+static JsonObject *
+cli_report_loop (JsonParser *parser,
+                 const char *project,
+                 const char *unit,
+                 const char *name)
+{
+  JsonObject *root = unit != NULL
+                     ? cli_json (parser, "report", "--project", project, "--units", unit, NULL)
+                     : cli_json (parser, "report", "--project", project, NULL);
+  JsonArray *loops = json_object_get_array_member (root, "loops");
+
+  for (guint i = 0; i < json_array_get_length (loops); i++)
+    {
+      JsonObject *loop = json_array_get_object_element (loops, i);
+
+      if (g_str_equal (json_object_get_string_member (loop, "name"), name))
+        return loop;
+    }
+  g_assert_not_reached ();
+}
+
+typedef struct
+{
+  char  *name;
+  char  *unit;
+  double length, area, steering;
+} Shown;
+
+static void
+shown_clear (Shown *s)
+{
+  g_free (s->name);
+  g_free (s->unit);
+}
+
+/* "loop-shown NAME UNIT LENGTH AREA STEERING" (the values the details show, in full). */
+static void
+read_shown (GDataInputStream *out,
+            Shown            *s)
+{
+  g_autofree char *line = read_until (out, "loop-shown ");
+  g_auto(GStrv) parts = NULL;
+
+  g_assert_nonnull (line);
+  parts = g_strsplit (line, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 6);
+  s->name = g_strdup (parts[1]);
+  s->unit = g_strdup (parts[2]);
+  s->length = g_ascii_strtod (parts[3], NULL);
+  s->area = g_ascii_strtod (parts[4], NULL);
+  s->steering = g_ascii_strtod (parts[5], NULL);
+}
+
+static void
+expect_line (GDataInputStream *out,
+             const char       *prefix,
+             const char       *want)
+{
+  g_autofree char *line = read_until (out, prefix);
+
+  g_assert_nonnull (line);
+  g_assert_cmpstr (line, ==, want);
+}
+
+/* Keyboard focus on the 3D view (a click in Look mode changes nothing), so that Ctrl+Z goes to
+ * the window and not to a text field. */
+static void
+focus_view (Xserver  *x,
+            char    **geometry)
+{
+  g_autofree char *cx = g_strdup_printf ("%d", atoi (geometry[4]) / 2);
+  g_autofree char *cy = g_strdup_printf ("%d", atoi (geometry[5]) - 20);
+
+  focus_main (x);
+  xdotool_va (x, "key", "ctrl+1", "sleep", "0.5", "mousemove", "--window", geometry[1], cx, cy,
+              "click", "1", "sleep", "0.5", NULL);
+}
+
+/* (a) The demo (mm) in metres: the selected loop's length and steering radius as the details
+ * show them equal the CLI's `report --units m` (another front end over the same conversion)
+ * and the CLI's millimetres divided by 1000 (the definition of the millimetre). */
+static void
+test_demo_in_metres (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(JsonParser) p_m = json_parser_new ();
+  g_autoptr(JsonParser) p_mm = json_parser_new ();
+  g_autofree char *demo = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  JsonObject *m, *mm;
+  Shown s = { 0 };
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--demo", "--units", "m", NULL);
+  /* Opening the project shows it in its own units; --units is then applied as an edit. */
+  expect_line (out, "units ", "units mm mm");
+  expect_line (out, "units ", "units m m");
+  read_shown (out, &s);
+  g_assert_cmpstr (s.unit, ==, "m");
+  m = cli_report_loop (p_m, demo, "m", "Rim band");
+  mm = cli_report_loop (p_mm, demo, NULL, "Rim band");
+  g_assert_cmpstr (s.name, ==, "Rim_band");
+  df_assert_close (s.length, json_object_get_double_member (m, "length"), 1e-12, 0);
+  df_assert_close (s.length, json_object_get_double_member (mm, "length") / 1000, 1e-12, 0);
+  df_assert_close (s.steering, json_object_get_double_member (m, "min_steering_radius"), 1e-12, 0);
+  df_assert_close (s.steering, json_object_get_double_member (mm, "min_steering_radius") / 1000,
+                   1e-12, 0);
+  /* The rim band goes round the axis: it bounds no disc, so no area is shown (not a number). */
+  g_assert_true (isnan (s.area));
+  g_assert_true (json_object_get_null_member (m, "area"));
+  shown_clear (&s);
+  stop_app (app);
+  xserver_stop (&x);
+}
+
+/* (b) The choice is an edit: undone and redone, saved as [units] length=m (the key the CLI
+ * reads: `check` on the saved file answers in m), and the reopened project shows metres again
+ * without being asked. */
+static void
+test_units_saved (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(GKeyFile) saved = g_key_file_new ();
+  g_autoptr(JsonParser) parser = json_parser_new ();
+  g_autoptr(GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("df-units-XXXXXX", NULL);
+  g_autofree char *path = g_build_filename (dir, "shade.dfproj", NULL);
+  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *demo = NULL, *line = NULL, *want = NULL, *length = NULL;
+  g_auto(GStrv) geometry = NULL;
+  JsonObject *check;
+  Shown first = { 0 }, again = { 0 };
+
+  if (!xserver_start (&x))
+    return;
+  g_file_get_contents (demo_path, &demo, NULL, &error);
+  g_assert_no_error (error);
+  g_assert_null (strstr (demo, "[units]"));
+  g_file_set_contents (path, demo, -1, &error);
+  g_assert_no_error (error);
+
+  app = start_app (&x, &out, path, "--units", "m", NULL);
+  expect_line (out, "units ", "units mm mm");
+  expect_line (out, "units ", "units m m");
+  read_shown (out, &first);
+  g_assert_cmpstr (first.unit, ==, "m");
+  geometry = read_view_geometry (out);
+  focus_view (&x, geometry);
+  xdotool_va (&x, "key", "ctrl+z", NULL);
+  expect_line (out, "units ", "units mm mm");
+  xdotool_va (&x, "key", "ctrl+shift+z", NULL);
+  expect_line (out, "units ", "units m m");
+  xdotool_va (&x, "key", "ctrl+s", NULL);
+  line = read_until (out, "saved ");
+  g_assert_nonnull (line);
+  g_assert_cmpstr (line + strlen ("saved "), ==, path);
+  stop_app (app);
+  g_clear_object (&app);
+  g_clear_object (&out);
+
+  g_key_file_load_from_file (saved, path, G_KEY_FILE_NONE, &error);
+  g_assert_no_error (error);
+  length = g_key_file_get_string (saved, "units", "length", &error);
+  g_assert_no_error (error);
+  g_assert_cmpstr (length, ==, "m");
+  /* Curvature follows the lengths: nothing more is written. */
+  g_assert_false (g_key_file_has_key (saved, "units", "curvature", NULL));
+  check = cli_json (parser, "check", "--project", path, NULL);
+  g_assert_cmpstr (json_object_get_string_member (check, "units"), ==, "m");
+
+  app = start_app (&x, &out, path, NULL);
+  expect_line (out, "units ", "units m m");
+  read_shown (out, &again);
+  g_assert_cmpstr (again.unit, ==, "m");
+  g_assert_cmpfloat (again.length, ==, first.length);
+  shown_clear (&first);
+  shown_clear (&again);
+  stop_app (app);
+  xserver_stop (&x);
+  g_remove (path);
+  g_rmdir (dir);
+}
+
+/* (c) Inches for lengths, K per square metre: the loop's length is the CLI's millimetres over
+ * 25.4; a typed probe's point is in inches and its K in 1/m^2 as `probe --units in` and
+ * `--units m` give them; a geodesic length typed as 2 (inches) is shot as 50.8 mm. */
+static void
+test_inches_curvature_per_m2 (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(JsonParser) p_mm = json_parser_new ();
+  g_autoptr(JsonParser) p_in = json_parser_new ();
+  g_autoptr(JsonParser) p_m = json_parser_new ();
+  g_autofree char *demo = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *line = NULL;
+  g_auto(GStrv) parts = NULL;
+  char at[64], v[G_ASCII_DTOSTR_BUF_SIZE];
+  JsonObject *mm, *probe_in, *probe_m;
+  JsonArray *point;
+  Shown s = { 0 };
+  double ended = 0;
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, "--demo", "--units", "in,m", NULL);
+  expect_line (out, "units ", "units mm mm");
+  expect_line (out, "units ", "units in m");
+  read_shown (out, &s);
+  g_assert_cmpstr (s.unit, ==, "in");
+  mm = cli_report_loop (p_mm, demo, NULL, "Rim band");
+  df_assert_close (s.length, json_object_get_double_member (mm, "length") / MM_PER_INCH, 1e-12,
+                   0);
+  shown_clear (&s);
+
+  /* Probe at t = 90 mm, phi = 30 degrees (typed as the app takes it). */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+3", "sleep", "0.5", "key", "ctrl+t", NULL);
+  type_field (&x, "90, 30");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "probe-shown ");
+  g_assert_nonnull (line);
+  parts = g_strsplit (line, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 8);
+  g_assert_cmpstr (parts[1], ==, "in");
+  g_assert_cmpstr (parts[2], ==, "m");
+  g_snprintf (at, sizeof at, "90,%s", g_ascii_dtostr (v, sizeof v, 30 * G_PI / 180));
+  probe_in = cli_json (p_in, "probe", "--surface", demo, "--at", at, "--units", "in", NULL);
+  probe_m = cli_json (p_m, "probe", "--surface", demo, "--at", at, "--units", "m", NULL);
+  point = json_object_get_array_member (probe_in, "point");
+  for (int k = 0; k < 3; k++)
+    df_assert_close (g_ascii_strtod (parts[3 + k], NULL),
+                     json_array_get_double_element (point, k), 1e-12, 1e-15);
+  df_assert_close (g_ascii_strtod (parts[6], NULL),
+                   json_object_get_double_member (probe_m, "gaussian_curvature"), 1e-12, 0);
+  /* H per length: per inch, as the CLI's probe --units in. */
+  df_assert_close (g_ascii_strtod (parts[7], NULL),
+                   json_object_get_double_member (probe_in, "mean_curvature"), 1e-12, 0);
+  g_clear_pointer (&line, g_free);
+
+  /* A geodesic typed with length 2: the field is in inches. The project's own geodesic (120
+   * mm) is shot again at start and after the change of units; the typed one comes after. */
+  xdotool_va (&x, "key", "ctrl+4", "sleep", "0.5", "key", "ctrl+t", NULL);
+  type_field (&x, "90, 30");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "0");
+  xdotool_va (&x, "key", "Tab", NULL);
+  type_field (&x, "2");
+  xdotool_va (&x, "key", "Return", NULL);
+  do
+    {
+      g_auto(GStrv) end = NULL;
+
+      g_clear_pointer (&line, g_free);
+      line = read_until (out, "geodesic-end ");
+      g_assert_nonnull (line);
+      end = g_strsplit (line, " ", -1);
+      g_assert_cmpuint (g_strv_length (end), ==, 4);
+      ended = g_ascii_strtod (end[3], NULL);
+    }
+  while (ended == 120);
+  df_assert_close (ended, 2 * MM_PER_INCH, 1e-9, 0);
+  stop_app (app);
+  xserver_stop (&x);
+}
+
+int
+main (int   argc,
+      char *argv[])
+{
+  df_core_init ();
+  /* The XDG Base Directory default when unset. */
+  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
+                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
+  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+  g_test_add_func ("/app/units/demo-in-metres", test_demo_in_metres);
+  g_test_add_func ("/app/units/saved", test_units_saved);
+  g_test_add_func ("/app/units/inches-curvature-per-m2", test_inches_curvature_per_m2);
+  return g_test_run ();
+}
