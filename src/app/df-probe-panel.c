@@ -297,6 +297,14 @@ df_probe_panel_show (DfProbePanel            *self,
   gtk_box_append (self->content_box, heading ("Metric g<sub>ij</sub>"));
   gtk_label_set_use_markup (GTK_LABEL (gtk_widget_get_last_child (GTK_WIDGET (self->content_box))),
                             TRUE);
+  if (df_du_converts (du))
+    {
+      g_autofree char *text = g_strdup_printf ("The chart's tensors below are in its own "
+                                               "coordinates, the surface's %s, not in %s.",
+                                               units, shown);
+
+      gtk_box_append (self->content_box, note (text));
+    }
   table = table_new ();
   row = 0;
   scale = 0.0;

@@ -33,8 +33,11 @@ sync_from_document (UnitsDialog *d)
 
   df_document_get_display_units (d->document, &du);
   d->syncing = TRUE;
-  gtk_drop_down_set_selected (GTK_DROP_DOWN (d->length), du.units.length);
-  gtk_drop_down_set_selected (GTK_DROP_DOWN (d->curvature), du.units.curvature);
+  /* Nothing chosen when nothing can be: the surface's label is none of the four. */
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (d->length),
+                              du.known ? du.units.length : GTK_INVALID_LIST_POSITION);
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (d->curvature),
+                              du.known ? du.units.curvature : GTK_INVALID_LIST_POSITION);
   d->syncing = FALSE;
   if (!du.known)
     why = g_strdup_printf ("The surface's units are “%s”, not mm, cm, m or in: its values "
@@ -126,6 +129,8 @@ df_units_dialog_present (GtkWindow  *parent,
   gtk_window_set_transient_for (GTK_WINDOW (window), parent);
   gtk_window_set_destroy_with_parent (GTK_WINDOW (window), TRUE);
   gtk_window_set_resizable (GTK_WINDOW (window), FALSE);
+  /* Its own title bar with a close button, like the app's other tool windows. */
+  gtk_window_set_titlebar (GTK_WINDOW (window), gtk_header_bar_new ());
   g_object_set_data_full (G_OBJECT (window), "df-dialog", d, units_dialog_free);
   g_object_set_data (G_OBJECT (parent), "df-units-dialog", window);
   g_signal_connect (window, "destroy", G_CALLBACK (window_destroy_cb), parent);

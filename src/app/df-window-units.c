@@ -1,5 +1,6 @@
 /* df-window-units.c: the window's side of the display units: the Display Units action
- * (Ctrl+Shift+U, in the View menu), --units, and what every change of units redraws in the
+ * (Ctrl+Shift+K, in the View menu; not Ctrl+Shift+U, which text fields
+ * keep for typing a character by its code), --units, and what every change of units redraws in the
  * window itself (title, legend, status line; the panels listen to the document on their own).
  * --report-events adds "units LENGTH CURVATURE" after each change. */
 #include <stdio.h>
@@ -70,6 +71,9 @@ units_changed_cb (DfDocument *document,
         _df_window_probe_at (self, self->probe_uv[0], self->probe_uv[1]);
       _df_window_show_extras (self);
       _df_window_data_sync (self);
+      _df_window_status (self, FALSE, "Shown in %s, Gaussian curvature per %s² (the surface "
+                         "stays in %s; Ctrl+Z undoes the change).", df_du_length_unit (&du),
+                         df_du_curvature_unit (&du), du.label);
     }
   if (self->startup.report_events)
     {
@@ -92,7 +96,7 @@ _df_window_units_init (DfWindow *self)
   gtk_shortcut_controller_set_scope (GTK_SHORTCUT_CONTROLLER (shortcuts),
                                      GTK_SHORTCUT_SCOPE_GLOBAL);
   gtk_shortcut_controller_add_shortcut (GTK_SHORTCUT_CONTROLLER (shortcuts),
-                                        gtk_shortcut_new (gtk_shortcut_trigger_parse_string ("<Control><Shift>u"),
+                                        gtk_shortcut_new (gtk_shortcut_trigger_parse_string ("<Control><Shift>k"),
                                                           gtk_named_action_new ("win.display-units")));
   gtk_widget_add_controller (GTK_WIDGET (self), shortcuts);
   /* After df-window-sync's handler (connected first), which redraws the tools. */
