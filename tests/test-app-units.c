@@ -354,6 +354,67 @@ test_inches_curvature_per_m2 (void)
   xserver_stop (&x);
 }
 
+/* The loops summary exported by the app with --units m has the columns and numbers of the
+ * CLI's `report --units m --summary` on the same project (the CLI converts with the same
+ * factors; both are checked against the millimetre values times 1/1000 above). */
+static void
+test_summary_csv_metres (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("df-units-XXXXXX", NULL);
+  g_autofree char *app_csv = g_build_filename (dir, "app.csv", NULL);
+  g_autofree char *cli_csv = g_build_filename (dir, "cli.csv", NULL);
+  g_autofree char *demo = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autoptr(GPtrArray) a_rows = NULL;
+  g_autoptr(GPtrArray) c_rows = NULL;
+  g_auto(GStrv) a_head = NULL;
+  g_auto(GStrv) c_head = NULL;
+  const char *columns[] = { "length_m", "area_m2", "min_steering_radius_m", "holonomy_rad" };
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--demo", "--units", "m",
+                                     "--export-summary", app_csv, NULL);
+  g_assert_no_error (error);
+  g_assert_true (app_wait (app));
+  g_assert_true (g_subprocess_get_successful (app));
+  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_SILENCE, &error, DF_CLI_PATH, "report",
+                          "--project", demo, "--units", "m", "--summary", cli_csv, NULL);
+  g_assert_no_error (error);
+  g_assert_true (g_subprocess_wait_check (cli, NULL, &error));
+  g_assert_no_error (error);
+  a_rows = read_csv (app_csv, &a_head);
+  c_rows = read_csv (cli_csv, &c_head);
+  g_assert_cmpuint (g_strv_length (a_head), ==, g_strv_length (c_head));
+  for (guint k = 0; a_head[k] != NULL; k++)
+    g_assert_cmpstr (a_head[k], ==, c_head[k]);
+  g_assert_cmpuint (a_rows->len, ==, c_rows->len);
+  g_assert_cmpuint (a_rows->len, ==, 3);
+  for (guint r = 0; r < a_rows->len; r++)
+    for (guint k = 0; k < G_N_ELEMENTS (columns); k++)
+      {
+        int col = column_of (a_head, columns[k]);
+        char **a_fields = g_ptr_array_index (a_rows, r);
+        char **c_fields = g_ptr_array_index (c_rows, r);
+
+        g_assert_cmpint (col, >=, 0);
+        /* A value that does not exist (the rim band's area) is an empty field in both. */
+        if (c_fields[col][0] == '\0')
+          g_assert_cmpstr (a_fields[col], ==, "");
+        else
+          df_assert_close (field (a_rows, r, col), field (c_rows, r, col), 1e-12, 0);
+      }
+  xserver_stop (&x);
+  g_remove (app_csv);
+  g_remove (cli_csv);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -366,5 +427,6 @@ main (int   argc,
   g_test_add_func ("/app/units/demo-in-metres", test_demo_in_metres);
   g_test_add_func ("/app/units/saved", test_units_saved);
   g_test_add_func ("/app/units/inches-curvature-per-m2", test_inches_curvature_per_m2);
+  g_test_add_func ("/app/units/summary-csv-metres", test_summary_csv_metres);
   return g_test_run ();
 }

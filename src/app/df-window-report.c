@@ -71,7 +71,7 @@ number_text (char *buf, gsize len, double v)
 
 /* The legend on a backdrop, bottom left: always readable over the surface. */
 static void
-draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
+draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs, gboolean model)
 {
   DfShading shading = df_surface_view_get_shading (self->view);
   DfDisplayUnits du;
@@ -85,7 +85,10 @@ draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
     return;
   df_surface_view_get_shading_range (self->view, &lo, &hi);
   /* The window legend's numbers (df-legend-bar.c): the range shown in the display units. */
-  df_document_get_display_units (self->document, &du);
+  if (model)
+    df_du_identity (&du, df_document_get_units (self->document));
+  else
+    df_document_get_display_units (self->document, &du);
   if (shading == DF_SHADING_GAUSSIAN)
     {
       lo = df_du_gaussian (&du, lo);
@@ -198,7 +201,7 @@ draw_loop_names (DfWindow *self, cairo_t *cr, int w, int h, double fs)
 }
 
 static void
-draw_caption (DfWindow *self, cairo_t *cr, int w, double fs)
+draw_caption (DfWindow *self, cairo_t *cr, int w, double fs, gboolean model)
 {
   g_autofree char *file_title = df_document_get_title (self->document);
   const df_project *meta = df_document_get_meta (self->document);
@@ -209,7 +212,10 @@ draw_caption (DfWindow *self, cairo_t *cr, int w, double fs)
   DfDisplayUnits du;
   g_autofree char *text = NULL;
 
-  df_document_get_display_units (self->document, &du);
+  if (model)
+    df_du_identity (&du, df_document_get_units (self->document));
+  else
+    df_document_get_display_units (self->document, &du);
   text = g_strdup_printf (
     "%s \xe2\x80\x94 %s \xe2\x80\x94 lengths in %s \xe2\x80\x94 %s", title,
     s != NULL && df_surface_get_kind (s) == DF_SURFACE_REVOLUTION ? "surface of revolution"
@@ -223,9 +229,11 @@ draw_caption (DfWindow *self, cairo_t *cr, int w, double fs)
   show_text (cr, fs * 0.6, fs * 0.35, text, fs, FALSE, FALSE, NULL, NULL);
 }
 
-/* The view with its legend, loop names and caption, as an image of w x h pixels. */
+/* The view with its legend, loop names and caption, as an image of w x h pixels; in the
+ * display units, or the surface's own (model) for the PDF, whose text says its picture is in
+ * them. */
 static cairo_surface_t *
-annotated_image (DfWindow *self, int w, int h, GError **error)
+annotated_image (DfWindow *self, int w, int h, gboolean model, GError **error)
 {
   cairo_surface_t *img = df_surface_view_render_image (self->view, w, h, error);
   cairo_t *cr;
@@ -237,9 +245,9 @@ annotated_image (DfWindow *self, int w, int h, GError **error)
   h = cairo_image_surface_get_height (img);
   fs = MAX (11.0, MIN (w, h) / 45.0);
   cr = cairo_create (img);
-  draw_caption (self, cr, w, fs);
+  draw_caption (self, cr, w, fs, model);
   draw_loop_names (self, cr, w, h, fs);
-  draw_legend (self, cr, w, h, fs);
+  draw_legend (self, cr, w, h, fs, model);
   cairo_destroy (cr);
   return img;
 }
@@ -258,7 +266,7 @@ _df_window_export_png_annotated (DfWindow    *self,
                                  int          height,
                                  GError     **error)
 {
-  cairo_surface_t *img = annotated_image (self, width, height, error);
+  cairo_surface_t *img = annotated_image (self, width, height, FALSE, error);
   g_autoptr (GByteArray) bytes = g_byte_array_new ();
   cairo_status_t cs;
 
@@ -307,7 +315,7 @@ _df_window_export_report (DfWindow    *self,
   if (!df_paper_from_name (paper != NULL ? paper : "a4", &report.paper))
     report.paper = DF_PAPER_A4;
   /* The picture as the user sees it, at print resolution for a 180 mm wide figure. */
-  picture = annotated_image (self, 1600, 1000, error);
+  picture = annotated_image (self, 1600, 1000, TRUE, error);
   if (picture == NULL)
     {
       g_prefix_error (error, "Cannot write %s: ", path);
