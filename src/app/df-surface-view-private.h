@@ -76,13 +76,14 @@ typedef struct
 {
   GLuint surface_program, lines_program, solid_program;
   GLuint surface_vao, surface_vbo, surface_ibo, surface_ibo_coarse;
-  GLuint lines_vao, lines_vbo;
+  GLuint lines_vao, lines_vbo, lines_ibo;
   GLuint solid_vao, solid_vbo;
   GLuint fbo, fbo_colour, fbo_depth;
   struct { GLint view, proj, shading, inv_range, offset, ramp, plain, iso, iso_step, back_shade; } su;
   struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
   struct { GLint view, proj, bias, alpha; } ou;
-  GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
+  /* line_indices: 6 per segment, each segment drawn as a quad of 4 corner vertices */
+  GLsizei surface_indices, surface_indices_coarse, line_indices, solid_vertices;
 } ViewGl;
 
 /* Data points over a fitted surface (df-surface-view-points.c): position and colour per point,
