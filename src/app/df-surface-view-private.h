@@ -104,11 +104,15 @@ typedef struct
   guint    n_frames;
   GArray  *stamps;      /* gint64 monotonic times of each render */
   GArray  *render_us;   /* gint64 time spent inside render, GL work finished */
+  GArray  *work_us;     /* gint64 from each frame's update phase to the end of its paint */
+  GdkFrameClock *clock; /* whose phases are timed (a reference) */
+  gulong   update_handler, paint_handler;
+  gint64   update_t0;
   guint    tick_id;
   float    yaw0;
-  void   (*done) (double median_ms, double p95_ms, gpointer user);
+  void   (*done) (double median_ms, double p95_ms, double work_ms, gpointer user);
   gpointer user;
-  double   median_ms, p95_ms;
+  double   median_ms, p95_ms, work_ms;
 } Benchmark;
 
 struct _DfSurfaceView
