@@ -396,11 +396,12 @@ static void
 conventions (flow *f)
 {
   const char *u = f->report->units ? f->report->units : "units";
+  const char *ku = f->report->curvature_units ? f->report->curvature_units : u;
   const char *mu = f->report->model_units;
-  g_autofree char *units_note = mu != NULL && strcmp (mu, u) != 0
+  g_autofree char *units_note = mu != NULL && (strcmp (mu, u) != 0 || strcmp (mu, ku) != 0)
     ? g_strdup_printf (" The surface is defined in %s: its inputs above and the picture's "
                        "curvature scale (1/%s\xc2\xb2) are in %s; every figure below is "
-                       "converted to %s.", mu, mu, mu, u)
+                       "converted (lengths to %s, K to 1/%s\xc2\xb2).", mu, mu, mu, u, ku)
     : g_strdup ("");
   g_autofree char *text = g_strdup_printf (
     "Lengths are in %s, areas in %s\xc2\xb2, curvature K in 1/%s\xc2\xb2 and geodesic "
@@ -415,7 +416,7 @@ conventions (flow *f)
     "(their difference, wrapped) measures the numerical agreement. A cone apex contributes "
     "its concentrated curvature 2\xcf\x80(1 \xe2\x88\x92 sin \xce\xb1) when the disc contains "
     "it. The steering radius is 1/|k_g|.%s",
-    u, u, u, u, units_note);
+    u, u, ku, u, units_note);
 
   heading (f, "Conventions");
   paragraph (f, BODY_FONT, text, FALSE, 6);
@@ -649,6 +650,10 @@ loop_section (flow *f, gsize i)
                                           res->disc_on_left ? "left" : "right"));
           ADD ("Gauss\xe2\x80\x93" "Bonnet residual", FMT ("%s rad", num (f, res->residual_rad, 3)));
           ADD ("Disc area", FMT ("%s %s\xc2\xb2", num (f, res->area, 7), u));
+          if (res->has_mean_K)
+            ADD ("Mean Gaussian curvature",
+                 FMT ("%s 1/%s\xc2\xb2 (enclosed curvature / area)", num (f, res->mean_K, 6),
+                      r->curvature_units ? r->curvature_units : u));
           if (res->concentrated_rad != 0)
             ADD ("Cone apex inside", FMT ("%s rad of it concentrated at the apex",
                                           num (f, res->concentrated_rad, 8)));
