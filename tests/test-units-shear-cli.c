@@ -170,8 +170,8 @@ pdf_text (const char *pdf)
 }
 
 /* report with [units] length=in, curvature=1/m^2: JSON curvature_units and mean K 100 1/m^2
- * (1/R^2, R = 100 mm), the summary CSV's mean_K_per_m2 column, and the PDF: mean K in 1/m^2
- * and the verdict lines in inches (1 in = 25.4 mm), the figures `check` gives. */
+ * (1/R^2, R = 100 mm), the summary CSV's mean_K_per_m2 column, and the PDF: mean K and the
+ * picture's legend in 1/m^2 and the verdict lines in inches (1 in = 25.4 mm), the figures `check` gives. */
 static void
 test_report_units (void)
 {
@@ -242,6 +242,8 @@ test_report_units (void)
     g_test_message ("%s", pdf_words);
     g_assert_nonnull (strstr (pdf_words, "curvature K in 1/m\xc2\xb2"));
     g_assert_nonnull (strstr (pdf_words, "100 1/m\xc2\xb2 (enclosed curvature / area)"));
+    /* The picture's K legend too (the sphere's K is 1/R^2 = 100 1/m^2 everywhere). */
+    g_assert_nonnull (strstr (pdf_words, "Gaussian curvature K, 1/m\xc2\xb2"));
     want = g_strdup_printf ("Steering radius: within \xe2\x80\x94 worst %.5g in against the "
                             "limit 1 in", radius_in);
     g_assert_nonnull (strstr (pdf_words, want));
