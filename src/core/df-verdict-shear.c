@@ -59,6 +59,11 @@ default_start (const double (*poly)[2], size_t n, double start[2], bool *moved)
     {
       start[0] = cx / (3 * a);
       start[1] = cy / (3 * a);
+      /* A symmetric loop's centre on an axis comes out as round-off (phi = 9e-18): that is 0,
+       * and the start is printed and saved as such. */
+      for (int c = 0; c < 2; c++)
+        if (fabs (start[c]) < 1e-12 * (hi[c] - lo[c] + fabs (hi[c]) + fabs (lo[c])))
+          start[c] = 0;
       if (inside (poly, n, start[0], start[1]))
         return true;
     }
