@@ -335,6 +335,20 @@ focus_main (Xserver *x)
               NULL);
 }
 
+/* Puts the keyboard focus on the 3D view (a click in Look mode changes nothing), so that
+ * Ctrl+Z reaches the window and not a text field's own undo. */
+void
+focus_view (Xserver  *x,
+            char    **geometry)
+{
+  g_autofree char *cx = g_strdup_printf ("%d", atoi (geometry[4]) / 2);
+  g_autofree char *cy = g_strdup_printf ("%d", atoi (geometry[5]) - 20);
+
+  focus_main (x);
+  xdotool_va (x, "key", "ctrl+1", "sleep", "0.5", "mousemove", "--window", geometry[1], cx, cy,
+              "click", "1", "sleep", "0.5", NULL);
+}
+
 /* The view's geometry line, split: "view-geometry XID X Y WIDTH HEIGHT". */
 char **
 read_view_geometry (GDataInputStream *out)

@@ -41,6 +41,9 @@ void xdotool_va (Xserver *x, const char *first, ...);
 void answer_dialog (Xserver *x, const char *title, const char *key);
 /* Gives the main window the keyboard focus. */
 void focus_main (Xserver *x);
+/* Puts the keyboard focus on the 3D view (a click near its bottom in Look mode), so that
+ * Ctrl+Z reaches the window and not a text field's own undo. geometry: read_view_geometry's. */
+void focus_view (Xserver *x, char **geometry);
 /* "view-geometry XID X Y WIDTH HEIGHT", split. */
 char **read_view_geometry (GDataInputStream *out);
 /* Drags a counter-clockwise circle of radius px round the view's centre. */

@@ -293,6 +293,90 @@ test_key_and_pick (void)
   g_rmdir (dir);
 }
 
+/* A shown drape follows the limits: the Belly patch draped at the demo's 5 degrees (no cell
+ * past it), then the locking angle set to 1 degree in the limits editor: the drape runs
+ * again by itself with the same start, and its flagged cells are the CLI's at 1 degree; set
+ * back to 5 degrees, no cell is flagged again. (Undo replaces the whole project and clears
+ * the drape instead.) */
+static void
+test_limits_redrape (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
+  g_autofree char *loop_csv = NULL;
+  g_autofree char *loop_csv_1 = NULL;
+  g_autofree char *project = write_project (dir, "5", &loop_csv);
+  g_autofree char *dir_1 = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
+  g_autofree char *project_1 = write_project (dir_1, "1", &loop_csv_1);
+  g_autofree char *line = NULL;
+  g_autofree char *again = NULL;
+  g_autofree char *undone = NULL;
+  Drape a, c;
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
+                                     "--drape", "Belly patch;90;5;10;4", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  line = read_until (out, "draped ");
+  g_assert_nonnull (line);
+  parse_draped (line, &a);
+  g_assert_cmpfloat (a.over, ==, 0);
+
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+shift+l", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Material and Process Limits",
+              "windowfocus", "sleep", "0.5", "key", "alt+l", NULL);
+  type_field (&x, "1");
+  xdotool_va (&x, "key", "Return", NULL);
+  /* Other edits may re-run it first (the loops measured after start-up): the first drape
+   * with a cell flagged is the one after the change. */
+  do
+    {
+      g_free (again);
+      again = read_until (out, "draped ");
+      g_assert_nonnull (again);
+      parse_draped (again, &a);
+    }
+  while (a.over == 0);
+  cli_drape (project_1, loop_csv_1, 90, 5 * G_PI / 180, "10", "4", NULL, &c);
+  assert_same (&a, &c);
+  g_assert_cmpfloat (a.over, >, 0);
+
+  /* And back to 5 degrees: no cell flagged again. */
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+shift+l", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Material and Process Limits",
+              "windowfocus", "sleep", "0.5", "key", "alt+l", NULL);
+  type_field (&x, "5");
+  xdotool_va (&x, "key", "Return", NULL);
+  do
+    {
+      g_free (undone);
+      undone = read_until (out, "draped ");
+      g_assert_nonnull (undone);
+      parse_draped (undone, &a);
+    }
+  while (a.over > 0);
+  g_assert_cmpfloat (a.over, ==, 0);
+
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+  g_remove (loop_csv);
+  g_remove (project);
+  g_remove (loop_csv_1);
+  g_remove (project_1);
+  g_rmdir (dir);
+  g_rmdir (dir_1);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -302,5 +386,6 @@ main (int argc, char **argv)
   g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
   g_test_add_func ("/app/drape/typed", test_typed);
   g_test_add_func ("/app/drape/key-and-pick", test_key_and_pick);
+  g_test_add_func ("/app/drape/limits-redrape", test_limits_redrape);
   return g_test_run ();
 }

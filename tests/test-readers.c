@@ -173,6 +173,12 @@ test_spec_malformed (void)
       DF_IO_ERROR_FORMAT, "t-min: not a key of a graph" },
     { "[surface]\nkind=graph\nz=\nx-min=0\nx-max=1\ny-min=0\ny-max=1\n", DF_IO_ERROR_FORMAT,
       "z: the formula is empty" },
+    { "[surface]\nkind=graph\nz=x\nx-min=0\nx-max=1\ny-min=0\ny-max=1\nt-units=rad\n",
+      DF_IO_ERROR_FORMAT, "t-units: only for a surface of revolution" },
+    { "[surface]\nkind=revolution\nr=1\nz=t\nt-min=0\nt-max=1\nt-units=\n", DF_IO_ERROR_VALUE,
+      "t-units: a short label" },
+    { "[surface]\nkind=revolution\nr=1\nz=t\nt-min=0\nt-max=1\nt-units=millimetres of arc\n",
+      DF_IO_ERROR_VALUE, "t-units: a short label" },
   };
 
   for (gsize i = 0; i < G_N_ELEMENTS (cases); i++)
@@ -184,6 +190,85 @@ test_spec_malformed (void)
       g_test_message ("case %zu", i);
       g_assert_null (spec);
       assert_error_names (error, cases[i].code, "bad.surface", cases[i].needle);
+    }
+}
+
+/* What t is measured in: stated by t-units, kept through a save, "length" following the
+ * surface's units. */
+static void
+test_spec_t_units (void)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *path = write_tmp ("t.surface", "[surface]\nkind=revolution\nr=2 + sin(t)\n"
+                                     "z=t\nt-min=0\nt-max=1\nunits=cm\nt-units=length\n");
+  g_autoptr (df_surface_spec) spec = df_surface_spec_load (path, &error);
+  g_autoptr (df_surface_spec) back = NULL;
+  g_autoptr (df_surface_spec) graph = df_surface_spec_new_preset ("saddle", &error);
+
+  g_assert_no_error (error);
+  g_assert_cmpstr (df_surface_spec_t_units (spec), ==, "cm");
+  g_free (spec->units);
+  spec->units = g_strdup ("in");
+  g_assert_cmpstr (df_surface_spec_t_units (spec), ==, "in");
+  g_free (spec->t_units);
+  spec->t_units = g_strdup ("deg");
+  g_assert_true (df_surface_spec_save (spec, path, &error));
+  back = df_surface_spec_load (path, &error);
+  g_assert_no_error (error);
+  g_assert_cmpstr (df_surface_spec_t_units (back), ==, "deg");
+  g_assert_null (df_surface_spec_t_units (graph));
+}
+
+/* A preset's t unit checked by dimensions (scaling, from memory): doubling every length
+ * parameter doubles a t that is a length and leaves an angle or a pure number alone, so the
+ * end of the t range doubles exactly when the preset says t is a length. */
+static void
+test_presets_t_units (void)
+{
+  const df_preset_info *list = df_presets_list ();
+
+  for (gsize i = 0; list[i].name != NULL; i++)
+    {
+      g_autoptr (GError) error = NULL;
+      g_autoptr (df_surface_spec) spec = df_surface_spec_new_preset (list[i].name, &error);
+      g_autoptr (df_surface_spec) big = df_surface_spec_copy (spec);
+      g_autoptr (df_surface) s1 = NULL;
+      g_autoptr (df_surface) s2 = NULL;
+      double u0, u1, v0, v1, w0, w1, unused0, unused1;
+      const char *unit;
+
+      g_assert_no_error (error);
+      if (spec->kind != DF_SURFACE_REVOLUTION)
+        {
+          g_assert_null (df_surface_spec_t_units (spec));
+          continue;
+        }
+      for (guint k = 0; k < df_params_count (spec->params); k++)
+        {
+          const char *name = df_params_name (spec->params, k);
+          g_autofree char *text = g_strdup_printf ("%.17g", 2 * df_params_value (spec->params, k));
+
+          /* Derived parameters (the dome's R) follow from the others; the cone's angle is
+           * no length. */
+          if (g_str_equal (name, "alpha_deg") || (g_str_equal (list[i].name, "dome")
+                                                  && g_str_equal (name, "R")))
+            continue;
+          g_assert_true (df_surface_spec_set_param (big, name, text, &error));
+          g_assert_no_error (error);
+        }
+      s1 = df_surface_spec_build (spec, &error);
+      g_assert_no_error (error);
+      s2 = df_surface_spec_build (big, &error);
+      g_assert_no_error (error);
+      df_surface_get_domain (s1, &u0, &u1, &unused0, &unused1);
+      df_surface_get_domain (s2, &w0, &w1, &v0, &v1);
+      unit = df_surface_spec_t_units (spec);
+      g_test_message ("%s: t in %s, range %g..%g -> %g..%g", list[i].name,
+                      unit != NULL ? unit : "(no unit)", u0, u1, w0, w1);
+      if (g_strcmp0 (unit, spec->units) == 0)
+        df_assert_close (w1 - w0, 2 * (u1 - u0), 1e-12, 0.0);
+      else
+        df_assert_close (w1 - w0, u1 - u0, 1e-12, 0.0);
     }
 }
 
@@ -581,6 +666,8 @@ main (int argc, char **argv)
   g_test_add_func ("/io/spec/graph-round-trip", test_spec_graph_round_trip);
   g_test_add_func ("/io/spec/malformed", test_spec_malformed);
   g_test_add_func ("/io/spec/missing-file", test_spec_missing_file);
+  g_test_add_func ("/io/spec/t-units", test_spec_t_units);
+  g_test_add_func ("/io/presets/t-units", test_presets_t_units);
   g_test_add_func ("/io/spec/geometry-error", test_spec_build_geometry_error);
   g_test_add_func ("/io/presets/list", test_presets_list);
   g_test_add_func ("/io/presets/outward", test_presets_outward);

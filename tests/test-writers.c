@@ -225,14 +225,14 @@ test_summary_csv (void)
                                         "holonomy_rad,enclosed_curvature_rad,"
                                         "gauss_bonnet_residual_rad,total_geodesic_curvature_rad,"
                                         "area_in2,length_in,min_steering_radius_in,bounds_disc,"
-                                        "note", ",", -1);
+                                        "note,mean_K_per_in2", ",", -1);
 
     g_assert_true (g_strv_equal ((const char *const *) rows->pdata[0],
                                  (const char *const *) header));
   }
 
   row = rows->pdata[1];
-  g_assert_cmpuint (g_strv_length (row), ==, 14);
+  g_assert_cmpuint (g_strv_length (row), ==, 15);
   g_assert_cmpstr (row[0], ==, names[0]);
   g_assert_cmpstr (row[1], ==, "measured");
   g_assert_cmpstr (row[2], ==, "dome.surface");
@@ -242,19 +242,22 @@ test_summary_csv (void)
    * do Carmo, Differential Geometry of Curves and Surfaces, sec. 4-5 (from memory). */
   df_assert_close (parse_double (row[6]), 2 * G_PI * (1 - cos (1.0)), 0.0, 1e-8);
   g_assert_cmpstr (row[12], ==, "true");
+  /* The disc's mean K: K = 1/R^2 everywhere on the preset's sphere of R = 100. */
+  df_assert_close (parse_double (row[14]), 1e-4, 1e-8, 0.0);
 
   row = rows->pdata[2];
-  g_assert_cmpuint (g_strv_length (row), ==, 14);
+  g_assert_cmpuint (g_strv_length (row), ==, 15);
   g_assert_cmpstr (row[0], ==, names[1]);
   g_assert_cmpstr (row[6], ==, "");
   g_assert_cmpstr (row[7], ==, "");
   g_assert_cmpstr (row[9], ==, "");
   g_assert_cmpstr (row[11], ==, "");   /* no steering radius */
   g_assert_cmpstr (row[12], ==, "false");
+  g_assert_cmpstr (row[14], ==, "");   /* no disc, no mean K */
   df_assert_close (parse_double (row[5]), 0.5, 0.0, 0.0);
 
   row = rows->pdata[3];
-  g_assert_cmpuint (g_strv_length (row), ==, 14);
+  g_assert_cmpuint (g_strv_length (row), ==, 15);
   g_assert_cmpstr (row[0], ==, "Broken ply");
   g_assert_cmpstr (row[1], ==, "not measured");
   g_assert_cmpstr (row[4], ==, "");

@@ -68,13 +68,12 @@ compile (GLenum type, const char *path, GError **error)
 }
 
 gboolean
-df_gl_program_build_full (GLuint      *program,
-                          const char  *vert_path,
-                          const char  *geom_path,
-                          const char  *frag_path,
-                          GError     **error)
+df_gl_program_build (GLuint      *program,
+                     const char  *vert_path,
+                     const char  *frag_path,
+                     GError     **error)
 {
-  GLuint vert = 0, geom = 0, frag = 0, prog;
+  GLuint vert = 0, frag = 0, prog;
   GLint ok = GL_FALSE;
 
   g_return_val_if_fail (program != NULL, FALSE);
@@ -84,60 +83,31 @@ df_gl_program_build_full (GLuint      *program,
   vert = compile (GL_VERTEX_SHADER, vert_path, error);
   if (vert == 0)
     return FALSE;
-  if (geom_path != NULL)
-    {
-      geom = compile (GL_GEOMETRY_SHADER, geom_path, error);
-      if (geom == 0)
-        {
-          glDeleteShader (vert);
-          return FALSE;
-        }
-    }
   frag = compile (GL_FRAGMENT_SHADER, frag_path, error);
   if (frag == 0)
     {
       glDeleteShader (vert);
-      if (geom != 0)
-        glDeleteShader (geom);
       return FALSE;
     }
 
   prog = glCreateProgram ();
   glAttachShader (prog, vert);
-  if (geom != 0)
-    glAttachShader (prog, geom);
   glAttachShader (prog, frag);
   glLinkProgram (prog);
   glGetProgramiv (prog, GL_LINK_STATUS, &ok);
   /* Shaders are flagged for deletion now; they go when the program does. */
   glDetachShader (prog, vert);
   glDeleteShader (vert);
-  if (geom != 0)
-    {
-      glDetachShader (prog, geom);
-      glDeleteShader (geom);
-    }
   glDetachShader (prog, frag);
   glDeleteShader (frag);
   if (!ok)
     {
       g_autofree char *log = program_log (prog);
       g_set_error (error, DF_GL_PROGRAM_ERROR, DF_GL_PROGRAM_ERROR_LINK,
-                   "Shader program %s + %s%s%s does not link:\n%s", vert_path,
-                   geom_path != NULL ? geom_path : "", geom_path != NULL ? " + " : "", frag_path,
-                   log);
+                   "Shader program %s + %s does not link:\n%s", vert_path, frag_path, log);
       glDeleteProgram (prog);
       return FALSE;
     }
   *program = prog;
   return TRUE;
-}
-
-gboolean
-df_gl_program_build (GLuint      *program,
-                     const char  *vert_path,
-                     const char  *frag_path,
-                     GError     **error)
-{
-  return df_gl_program_build_full (program, vert_path, NULL, frag_path, error);
 }

@@ -24,10 +24,3 @@ gboolean df_gl_program_build       (GLuint      *program,
                                     const char  *vert_path,
                                     const char  *frag_path,
                                     GError     **error);
-
-/* The same with a geometry shader between them. */
-gboolean df_gl_program_build_full  (GLuint      *program,
-                                    const char  *vert_path,
-                                    const char  *geom_path,
-                                    const char  *frag_path,
-                                    GError     **error);

@@ -25,7 +25,7 @@ static const struct
   [DF_LIMIT_MAX_FIBRE_DEVIATION] = { "Largest fibre _deviation",
                                      "How far the fibre direction may turn away from the one "
                                      "laid at the start of a loop" },
-  [DF_LIMIT_MAX_SHEAR] = { "Fabric locking _angle",
+  [DF_LIMIT_MAX_SHEAR] = { "Fabric _locking angle",
                            "Shear angle at which the user's woven fabric locks; also the "
                            "largest dart each may close" },
   [DF_LIMIT_FRICTION] = { "Tow–mandrel _friction",

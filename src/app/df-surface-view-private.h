@@ -76,13 +76,14 @@ typedef struct
 {
   GLuint surface_program, lines_program, solid_program;
   GLuint surface_vao, surface_vbo, surface_ibo, surface_ibo_coarse;
-  GLuint lines_vao, lines_vbo;
+  GLuint lines_vao, lines_vbo, lines_ibo;
   GLuint solid_vao, solid_vbo;
   GLuint fbo, fbo_colour, fbo_depth;
   struct { GLint view, proj, shading, inv_range, offset, ramp, plain, iso, iso_step, back_shade; } su;
   struct { GLint view, proj, bias, viewport, alpha, px_scale; } lu;
   struct { GLint view, proj, bias, alpha; } ou;
-  GLsizei surface_indices, surface_indices_coarse, line_vertices, solid_vertices;
+  /* line_indices: 6 per segment, each segment drawn as a quad of 4 corner vertices */
+  GLsizei surface_indices, surface_indices_coarse, line_indices, solid_vertices;
 } ViewGl;
 
 /* Data points over a fitted surface (df-surface-view-points.c): position and colour per point,
@@ -103,11 +104,15 @@ typedef struct
   guint    n_frames;
   GArray  *stamps;      /* gint64 monotonic times of each render */
   GArray  *render_us;   /* gint64 time spent inside render, GL work finished */
+  GArray  *work_us;     /* gint64 from each frame's update phase to the end of its paint */
+  GdkFrameClock *clock; /* whose phases are timed (a reference) */
+  gulong   update_handler, paint_handler;
+  gint64   update_t0;
   guint    tick_id;
   float    yaw0;
-  void   (*done) (double median_ms, double p95_ms, gpointer user);
+  void   (*done) (double median_ms, double p95_ms, double work_ms, gpointer user);
   gpointer user;
-  double   median_ms, p95_ms;
+  double   median_ms, p95_ms, work_ms;
 } Benchmark;
 
 struct _DfSurfaceView

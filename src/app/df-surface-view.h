@@ -168,12 +168,15 @@ void        df_surface_view_get_shading_clipped (DfSurfaceView    *self,
                                                  gboolean         *above);
 
 /* Runs n frames of orbit animation (one full turn) and reports the frame-to-frame times through
- * the callback when done (median and 95th percentile in ms), for a benchmark mode. The camera
- * returns to where it was. */
+ * the callback when done (median and 95th percentile in ms), with the median time the window
+ * spent making each frame (from the frame clock's update phase to the end of its paint: what is
+ * left of a frame is waiting for the clock), for a benchmark mode. The camera returns to where
+ * it was. */
 void        df_surface_view_run_orbit_benchmark (DfSurfaceView    *self,
                                                  guint             n_frames,
                                                  void            (*done) (double   median_ms,
                                                                           double   p95_ms,
+                                                                          double   work_ms,
                                                                           gpointer user),
                                                  gpointer          user);
 

@@ -15,6 +15,7 @@
 #include "df-verdict.h"
 #include "df-verdict-curves.h"
 #include "df-verdict-region.h"
+#include "df-verdict-shear.h"
 
 #define NAME "check"
 #define DEFAULT_SAMPLES 2000
@@ -36,6 +37,9 @@ typedef struct
   df_darts        darts;
   int             least_darts;   /* 0 when max-shear-deg is not set */
   char            strain_note[240];  /* why max-strain-percent was not checked, or "" */
+  df_shear_used   shear;             /* the drape max-shear-deg was checked with */
+  gboolean        shear_checked;
+  char            shear_note[320];   /* why max-shear-deg was not checked, or "" */
 } loop_check;
 
 /* A geodesic or a path route of the project, checked. */
@@ -115,6 +119,23 @@ check_loop (const df_surface *surface, const df_project_loop *loop, const df_lim
       st = df_verdict_strain (curve, &out->result, limits, 0, NULL, &out->verdicts, &checked,
                               out->strain_note, sizeof out->strain_note, &diag);
     }
+  if (st == DF_OK)
+    {
+      bool checked = false;
+
+      /* The woven ply's locking angle, by a drape of the loop (df-verdict-shear.h). */
+      st = df_verdict_shear (curve, loop->n, &out->result, limits, &loop->drape,
+                             &out->verdicts, &out->shear, &checked, out->shear_note,
+                             sizeof out->shear_note, &diag);
+      out->shear_checked = checked;
+      if (st != DF_OK)
+        {
+          df_status_to_gerror (st, &diag, error);
+          g_prefix_error (error, "max-shear-deg: the drape (drape-start, drape-warp-deg, "
+                          "drape-cell): ");
+          return FALSE;
+        }
+    }
   if (st == DF_OK && out->result.bounds_disc && out->result.area > 0.0)
     {
       st = df_darts_compute (out->result.enclosed_curvature_rad, out->result.area, 1,
@@ -160,15 +181,46 @@ quantity_name (df_limit_id id)
       return "|k_g/k_n|";
     case DF_LIMIT_MAX_STRAIN:
       return "rim strain";
+    case DF_LIMIT_MAX_SHEAR:
+      return "cell shear";
     default:
       return df_limit_key (id);
     }
 }
 
+/* The drape behind a max-shear-deg verdict: what it was draped with and where the worst is. */
+static void
+print_shear (const df_verdict *v, const df_shear_used *sh, const df_display_units *du,
+             const char *un, const char *vn)
+{
+  char b1[40], b2[40], b3[40], b4[40], b5[40], b6[40];
+
+  printf (" over the enclosed region: %zu of %zu cells past it, worst at (%s = %s, %s = %s) "
+          "where the crossing angle %s; draped from (%s = %s, %s = %s) with warp %s deg%s and "
+          "cell %s %s%s",
+          sh->n_cells_over, sh->n_cells, un, df_cli_num (b1, sizeof b1, v->u_worst, 6), vn,
+          df_cli_num (b2, sizeof b2, v->v_worst, 6),
+          v->signed_value >= 0 ? "closes" : "opens", un,
+          df_cli_num (b3, sizeof b3, sh->start[0], 6), vn,
+          df_cli_num (b4, sizeof b4, sh->start[1], 6),
+          df_cli_num (b5, sizeof b5, sh->warp_deg, 4), sh->warp_default ? " (default)" : "",
+          df_cli_num (b6, sizeof b6, df_unit_length (sh->cell, du->model, du->length), 4),
+          df_unit_name (du->length),
+          sh->cell_default ? " (default: the loop's length / "
+                             G_STRINGIFY (DF_SHEAR_CELLS_PER_LENGTH) ")" : "");
+  if (sh->start_default)
+    printf ("; the start is %s", sh->start_moved ? "the loop's first point moved inward (its "
+                                                   "chart centroid lies outside it)"
+                                                 : "the loop's chart centroid");
+  if (sh->n_nodes_lost > 0)
+    printf ("; %zu pins could not be placed", sh->n_nodes_lost);
+}
+
 /* The lines of one curve's verdicts; returns how many are exceeded. */
 static guint
 print_verdicts (const df_verdict_list *list, const df_limits *limits,
-                const df_display_units *du, const char *un, const char *vn)
+                const df_display_units *du, const char *un, const char *vn,
+                const df_shear_used *shear)
 {
   const char *ln = df_unit_name (du->length);
   guint exceeded = 0;
@@ -186,7 +238,9 @@ print_verdicts (const df_verdict_list *list, const df_limits *limits,
               *units && v->has_value ? " " : "", v->has_value ? units : "", df_cli_num (b2, sizeof b2, threshold, 5), units);
       if (v->exact)
         printf (" (a geodesic: k_g = 0)");
-      if (v->region)
+      if (v->region && v->limit == DF_LIMIT_MAX_SHEAR && shear != NULL)
+        print_shear (v, shear, du, un, vn);
+      else if (v->region)
         printf (" over the enclosed region, flat discs of radius %s %s; worst at (%s = %s, "
                 "%s = %s), the flat rim must %s",
                 df_cli_num (b3, sizeof b3, df_unit_length (limits->patch_size.model_value,
@@ -245,9 +299,11 @@ print_text (const check_options *o, const df_project *project, const df_surface 
       printf ("%s (length %s %s)\n", loop->name,
               df_cli_num (b1, sizeof b1, df_unit_length (c->result.length, du->model,
                                                          du->length), 7), ln);
-      exceeded += print_verdicts (&c->verdicts, project->limits, du, un, vn);
+      exceeded += print_verdicts (&c->verdicts, project->limits, du, un, vn, &c->shear);
       if (c->strain_note[0] != '\0')
         printf ("  not checked: max-strain-percent: %s\n", c->strain_note);
+      if (c->shear_note[0] != '\0')
+        printf ("  not checked: max-shear-deg: %s\n", c->shear_note);
       if (c->has_darts)
         {
           printf ("  darts    enclosed curvature %s deg: one %s of that angle",
@@ -272,7 +328,7 @@ print_text (const check_options *o, const df_project *project, const df_surface 
       if (curves[i].verdicts.kind == DF_VERDICT_GEODESIC && curves[i].verdicts.n > 0)
         printf ("  (fibre deviation of a geodesic: its heading against the u lines, from its "
                 "start heading)\n");
-      exceeded += print_verdicts (&curves[i].verdicts, project->limits, du, un, vn);
+      exceeded += print_verdicts (&curves[i].verdicts, project->limits, du, un, vn, NULL);
     }
   printf ("\n%s\n", exceeded ? "Some limits are exceeded (exit status 3)."
                              : "Everything is within the limits given.");
@@ -282,7 +338,7 @@ print_text (const check_options *o, const df_project *project, const df_surface 
 static void
 add_verdict (JsonBuilder *b, const char *loop_name, guint index, df_verdict_curve kind,
              int route, const df_verdict *v, const df_limits *limits,
-             const df_display_units *du)
+             const df_display_units *du, const df_shear_used *shear)
 {
   double value, threshold;
   const char *units = display (v, du, &value, &threshold);
@@ -344,6 +400,35 @@ add_verdict (JsonBuilder *b, const char *loop_name, guint index, df_verdict_curv
   if (v->limit == DF_LIMIT_MIN_STEERING_RADIUS)
     df_json_add_double_or_null (b, "tow_compression_percent", v->has_tow,
                                 100.0 * v->tow_compression);
+  if (v->limit == DF_LIMIT_MAX_SHEAR && v->region && shear != NULL)
+    {
+      /* The drape behind the verdict, so it can be rerun with `drape` (lengths converted). */
+      df_json_add_double (b, "signed_value", v->signed_value);
+      json_builder_set_member_name (b, "cells");
+      json_builder_add_int_value (b, (gint64) shear->n_cells);
+      json_builder_set_member_name (b, "cells_over_limit");
+      json_builder_add_int_value (b, (gint64) shear->n_cells_over);
+      json_builder_set_member_name (b, "drape");
+      json_builder_begin_object (b);
+      json_builder_set_member_name (b, "start");
+      json_builder_begin_array (b);
+      df_json_add_double_value (b, shear->start[0]);
+      df_json_add_double_value (b, shear->start[1]);
+      json_builder_end_array (b);
+      df_json_add_double (b, "warp_deg", shear->warp_deg);
+      df_json_add_double (b, "cell", df_unit_length (shear->cell, du->model, du->length));
+      json_builder_set_member_name (b, "start_default");
+      json_builder_add_string_value (b, !shear->start_default ? "given"
+                                        : shear->start_moved ? "first point moved inward"
+                                                             : "chart centroid");
+      json_builder_set_member_name (b, "warp_default");
+      json_builder_add_boolean_value (b, shear->warp_default);
+      json_builder_set_member_name (b, "cell_default");
+      json_builder_add_boolean_value (b, shear->cell_default);
+      json_builder_set_member_name (b, "pins_lost");
+      json_builder_add_int_value (b, (gint64) shear->n_nodes_lost);
+      json_builder_end_object (b);
+    }
   json_builder_set_member_name (b, "caution");
   json_builder_add_string_value (b, DF_DECIDE_CAUTION);
   json_builder_end_object (b);
@@ -394,7 +479,7 @@ print_json (const check_options *o, const df_project *project, const loop_check 
 
       for (size_t k = 0; k < checks[i].verdicts.n; k++)
         add_verdict (b, loop->name, i, DF_VERDICT_LOOP, 0, &checks[i].verdicts.items[k],
-                     project->limits, du);
+                     project->limits, du, &checks[i].shear);
     }
   for (guint i = 0, gi = 0, pi = 0; i < n_curves; i++)
     {
@@ -407,11 +492,34 @@ print_json (const check_options *o, const df_project *project, const loop_check 
 
       for (size_t k = 0; k < c->verdicts.n; k++)
         add_verdict (b, name, geo ? gi : pi, c->verdicts.kind, c->route, &c->verdicts.items[k],
-                     project->limits, du);
+                     project->limits, du, NULL);
       if (geo)
         gi++;
       else if (c->route == 'b')
         pi++;
+    }
+  json_builder_end_array (b);
+  /* Limits set but not checked on a loop, with why. */
+  json_builder_set_member_name (b, "not_checked");
+  json_builder_begin_array (b);
+  for (guint i = 0; i < project->loops->len; i++)
+    {
+      const df_project_loop *loop = g_ptr_array_index (project->loops, i);
+      const char *notes[2] = { checks[i].strain_note, checks[i].shear_note };
+      const df_limit_id ids[2] = { DF_LIMIT_MAX_STRAIN, DF_LIMIT_MAX_SHEAR };
+
+      for (int k = 0; k < 2; k++)
+        if (notes[k][0] != '\0')
+          {
+            json_builder_begin_object (b);
+            json_builder_set_member_name (b, "loop");
+            json_builder_add_string_value (b, loop->name);
+            json_builder_set_member_name (b, "limit");
+            json_builder_add_string_value (b, df_limit_key (ids[k]));
+            json_builder_set_member_name (b, "note");
+            json_builder_add_string_value (b, notes[k]);
+            json_builder_end_object (b);
+          }
     }
   json_builder_end_array (b);
   json_builder_set_member_name (b, "darts");
@@ -485,7 +593,7 @@ run (check_options *o)
       g_prefix_error (&error, "%s: ", o->project_path);
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
-  if (!df_cli_project_units (project, o->project_path, o->units_text, &du, &error))
+  if (!df_cli_project_units (project, o->project_path, o->units_text, NULL, &du, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
   for (int i = 0; i < DF_N_LIMITS; i++)
     any_limit = any_limit || project->limits->item[i].set;
@@ -583,7 +691,11 @@ df_cli_check (int argc, char **argv)
                                 "[limits] group (min-steering-radius with tow-width, "
                                 "max-fibre-deviation-deg, friction; max-strain-percent over "
                                 "each loop's enclosed region at [limits] patch-size; "
-                                "max-shear-deg sets the least dart count) and lists every stretch where one is "
+                                "max-shear-deg against the worst cell shear of a drape of each "
+                                "loop, from its drape-start, drape-warp-deg and drape-cell or "
+                                "else from its chart centroid, warp 0 and cells of the loop's "
+                                "length / " G_STRINGIFY (DF_SHEAR_CELLS_PER_LENGTH) ", and the "
+                                "least dart count) and lists every stretch where one is "
                                 "exceeded. A path's fibre deviation is against its start "
                                 "tangent carried parallel; a geodesic's against its start "
                                 "heading held to the u lines (k_g = 0 on a geodesic).\n\nExit status: 0 everything within the limits, 3 a "

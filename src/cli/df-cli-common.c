@@ -10,6 +10,7 @@
 
 #include "df-json-out.h"
 #include "df-limits.h"
+#include "df-units-convert.h"
 
 void
 df_cli_add_surface_options (GOptionContext *context, DfCliSurfaceOptions *o)
@@ -244,10 +245,60 @@ df_cli_csv_context (const df_surface_spec *spec, const df_surface *surface, cons
   return c;
 }
 
+/* One unit option: an unknown name fails naming the option. */
+static gboolean
+unit_option (const char *option, const char *text, df_unit *out, GError **error)
+{
+  if (df_unit_from_name (text, out))
+    return TRUE;
+  g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+               "%s: unknown unit '%s' (known: mm, cm, m, in)", option, text);
+  return FALSE;
+}
+
+static gboolean
+model_known (const char *option, const char *surface_units, df_unit *model, GError **error)
+{
+  if (df_unit_from_name (surface_units, model))
+    return TRUE;
+  g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "%s: the surface's units '%s' are not mm, "
+               "cm, m or in, so nothing can be converted", option,
+               surface_units != NULL ? surface_units : "");
+  return FALSE;
+}
+
+gboolean
+df_cli_display_units (const char *units_text, const char *curvature_text,
+                      const char *surface_units, df_display_units *out, GError **error)
+{
+  df_unit model;
+
+  if (!df_unit_from_name (surface_units, &model))
+    {
+      /* An unknown label: numbers stay unconverted, unless a conversion is asked for. */
+      if (units_text != NULL)
+        return model_known ("--units", surface_units, &model, error);
+      if (curvature_text != NULL)
+        return model_known ("--curvature-units", surface_units, &model, error);
+      model = DF_UNIT_MM;
+    }
+  df_display_units_init (out, model);
+  if (units_text != NULL && !unit_option ("--units", units_text, &out->length, error))
+    return FALSE;
+  out->curvature = out->length;
+  if (curvature_text != NULL
+      && !unit_option ("--curvature-units", curvature_text, &out->curvature, error))
+    return FALSE;
+  return TRUE;
+}
+
 gboolean
 df_cli_project_units (const df_project *project, const char *project_path,
-                      const char *units_text, df_display_units *out, GError **error)
+                      const char *units_text, const char *curvature_text,
+                      df_display_units *out, GError **error)
 {
+  df_unit model;
+
   if (!df_limits_display_units (project->limits, project->spec->units, out))
     {
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "%s: [units]: the surface's units "
@@ -257,23 +308,44 @@ df_cli_project_units (const df_project *project, const char *project_path,
     }
   if (units_text != NULL)
     {
-      df_unit model;
-
-      if (!df_unit_from_name (project->spec->units, &model))
-        {
-          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "--units: the surface's units "
-                       "'%s' are not mm, cm, m or in, so nothing can be converted",
-                       project->spec->units);
-          return FALSE;
-        }
-      if (!df_unit_from_name (units_text, &out->length))
-        {
-          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
-                       "--units: unknown unit '%s' (known: mm, cm, m, in)", units_text);
-          return FALSE;
-        }
+      if (!model_known ("--units", project->spec->units, &model, error)
+          || !unit_option ("--units", units_text, &out->length, error))
+        return FALSE;
+      /* K follows the length unit unless the project or the option says otherwise. */
+      if (!project->limits->has_curvature_unit)
+        out->curvature = out->length;
     }
+  if (curvature_text != NULL
+      && (!model_known ("--curvature-units", project->spec->units, &model, error)
+          || !unit_option ("--curvature-units", curvature_text, &out->curvature, error)))
+    return FALSE;
   return TRUE;
+}
+
+/* An unconverted surface whose label is no known unit keeps its label. */
+static gboolean
+label_only (const df_display_units *du, const char *surface_units)
+{
+  df_unit model;
+
+  return !df_unit_from_name (surface_units, &model) && du->length == du->model
+         && du->curvature == du->model;
+}
+
+char *
+df_cli_gaussian_units (const df_display_units *du, const char *surface_units)
+{
+  if (label_only (du, surface_units))
+    return g_strdup_printf ("1/%s^2", surface_units != NULL ? surface_units : "unit");
+  return g_strdup (df_display_units_gaussian_label (du));
+}
+
+char *
+df_cli_curvature_units (const df_display_units *du, const char *surface_units)
+{
+  if (label_only (du, surface_units))
+    return g_strdup_printf ("1/%s", surface_units != NULL ? surface_units : "unit");
+  return g_strdup (df_display_units_curvature_label (du));
 }
 
 void

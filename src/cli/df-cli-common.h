@@ -94,12 +94,26 @@ void      df_cli_print_fit           (const df_surface *surface, const char *uni
 gboolean  df_cli_units               (const char *units_text, const char *surface_units,
                                       int *model, int *display, GError **error);
 
-/* A project's display units for check and report: its [units] group, the length overridden by
- * units_text (--units) when given. Errors name the project file or the option: a conversion
- * asked of a surface whose label is no known unit, or an unknown unit. */
-gboolean  df_cli_project_units       (const df_project *project, const char *project_path,
-                                      const char *units_text, df_display_units *out,
+/* --units with --curvature-units: the model unit, the length unit (units_text, else the
+ * model's) and the unit Gaussian curvature is given per square of (curvature_text, else the
+ * length unit). Errors name the option, as df_cli_units. */
+gboolean  df_cli_display_units       (const char *units_text, const char *curvature_text,
+                                      const char *surface_units, df_display_units *out,
                                       GError **error);
+
+/* A project's display units for check and report: its [units] group, the length overridden by
+ * units_text (--units) and the curvature unit by curvature_text (--curvature-units) when given
+ * (a project without [units] curvature= has K follow the length unit, --units included).
+ * Errors name the project file or the option: a conversion asked of a surface whose label is
+ * no known unit, or an unknown unit. */
+gboolean  df_cli_project_units       (const df_project *project, const char *project_path,
+                                      const char *units_text, const char *curvature_text,
+                                      df_display_units *out, GError **error);
+
+/* The labels of K ("1/m^2") and of H, k1, k2 ("1/m") in text and JSON; a surface whose label
+ * is no known unit (nothing converted) keeps its own: "1/LABEL^2". Newly allocated. */
+char     *df_cli_gaussian_units      (const df_display_units *du, const char *surface_units);
+char     *df_cli_curvature_units     (const df_display_units *du, const char *surface_units);
 
 /* Prints a finished JSON document (builder's root) on stdout. */
 void      df_cli_print_json          (JsonBuilder *builder);

@@ -19,6 +19,7 @@ typedef struct
   char    *tolerance_text;
   char    *fair_text;
   char    *units_text;
+  char    *curvature_text;
   int      count;
   gboolean json;
 } measure_options;
@@ -78,7 +79,7 @@ fit_sensitivity (const df_surface_spec *spec, const df_surface *surface, const d
 
 static void
 print_json (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            const char *units, const df_loop_result *r, double tol, const df_fair_info *fair,
+            const char *units, const char *k_units, const df_loop_result *r, double tol, const df_fair_info *fair,
             gsize n_points, gboolean has_sens, double sens)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
@@ -94,13 +95,9 @@ print_json (const measure_options *o, const df_surface_spec *spec, const df_surf
   json_builder_add_string_value (b, df_surface_normal_side (surface));
   json_builder_set_member_name (b, "units");
   json_builder_add_string_value (b, units);
-  /* Curvature follows the length unit (df-units-convert.h). */
+  /* Of mean_gaussian_curvature: --curvature-units, else the length unit's. */
   json_builder_set_member_name (b, "curvature_units");
-  {
-    g_autofree char *cu = g_strdup_printf ("1/%s^2", units);
-
-    json_builder_add_string_value (b, cu);
-  }
+  json_builder_add_string_value (b, k_units);
   df_json_add_double (b, "tolerance", tol);
   df_json_add_fit (b, surface);
   if (spec->data_key != NULL)
@@ -122,7 +119,7 @@ print_angle_line (const char *label, double rad)
 
 static void
 print_text (const measure_options *o, const df_surface_spec *spec, const df_surface *surface,
-            const char *un, gsize n_points, const df_loop_result *r, double tol,
+            const char *un, const char *k_units, gsize n_points, const df_loop_result *r, double tol,
             const df_fair_info *fair, gboolean has_sens, double sens)
 {
   char a[40], b[40];
@@ -164,6 +161,9 @@ print_text (const measure_options *o, const df_surface_spec *spec, const df_surf
               df_cli_num (a, sizeof a, r->residual_rad, 3));
       printf ("%-38s %s %s^2 (%s of the loop)\n", "Enclosed area:",
               df_cli_num (a, sizeof a, r->area, 9), un, r->disc_on_left ? "left" : "right");
+      if (r->has_mean_K)
+        printf ("%-38s %s %s (enclosed curvature / area)\n", "Mean Gaussian curvature:",
+                df_cli_num (a, sizeof a, r->mean_K, 6), k_units);
       if (r->has_other_disc)
         {
           print_angle_line ("The cap on the other side:", r->other_enclosed_curvature_rad);
@@ -285,26 +285,28 @@ run (measure_options *o)
     gboolean has_sens = fit_sensitivity (spec, surface, (const double (*)[2]) uv, n, &lopt,
                                          result.holonomy_rad, &sens);
     const char *units = spec->units;
+    g_autofree char *k_units = NULL;
+    df_display_units du;
 
+    if (!df_cli_display_units (o->units_text, o->curvature_text, spec->units, &du, &error))
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    /* One path for every conversion (a no-op when nothing is asked). */
+    df_loop_result_convert_display (&result, &du);
     if (o->units_text != NULL)
       {
-        int model, display;
-
-        if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
-          return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
-        df_loop_result_convert (&result, (df_unit) model, (df_unit) display);
         if (o->fair_text != NULL)
           {
-            fair.tolerance = df_unit_length (fair.tolerance, model, display);
-            fair.max_deviation = df_unit_length (fair.max_deviation, model, display);
+            fair.tolerance = df_unit_length (fair.tolerance, du.model, du.length);
+            fair.max_deviation = df_unit_length (fair.max_deviation, du.model, du.length);
           }
-        units = df_unit_name ((df_unit) display);
+        units = df_unit_name (du.length);
       }
+    k_units = df_cli_gaussian_units (&du, spec->units);
     if (o->json)
-      print_json (o, spec, surface, units, &result, lopt.rel_tol, o->fair_text ? &fair : NULL,
-                  n, has_sens, sens);
+      print_json (o, spec, surface, units, k_units, &result, lopt.rel_tol,
+                  o->fair_text ? &fair : NULL, n, has_sens, sens);
     else
-      print_text (o, spec, surface, units, n, &result, lopt.rel_tol,
+      print_text (o, spec, surface, units, k_units, n, &result, lopt.rel_tol,
                   o->fair_text ? &fair : NULL, has_sens, sens);
   }
   return DF_CLI_EXIT_OK;
@@ -334,6 +336,9 @@ df_cli_measure (int argc, char **argv)
       "Show lengths in mm, cm, m or in (areas in their square, curvature per length or "
       "squared length alike; default: the surface's units). Chart coordinates, angles and the "
       "--samples file stay as the surface defines them", "UNIT" },
+    { "curvature-units", 0, 0, G_OPTION_ARG_STRING, &o.curvature_text,
+      "Show the mean Gaussian curvature per square of mm, cm, m or in (default: the length "
+      "unit), e.g. lengths in mm with K in 1/m^2", "UNIT" },
     { NULL },
   };
 
@@ -357,5 +362,6 @@ df_cli_measure (int argc, char **argv)
   g_free (o.tolerance_text);
   g_free (o.fair_text);
   g_free (o.units_text);
+  g_free (o.curvature_text);
   return code;
 }

@@ -11,7 +11,7 @@
 
 typedef gboolean (*write_pdf_fn) (const char *, const df_project *, const df_surface *,
                                   const df_loop_result *, const char *const *, const char *,
-                                  df_unit, df_unit, const char *, GError **);
+                                  const df_display_units *, const char *, GError **);
 
 static GModule *
 open_module (GError **error)
@@ -56,8 +56,8 @@ open_module (GError **error)
 gboolean
 df_cli_report_write_pdf (const char *project_path, const df_project *project,
                          const df_surface *surface, const df_loop_result *results,
-                         const char *const *failures, const char *paper, df_unit model,
-                         df_unit display, const char *out_path, GError **error)
+                         const char *const *failures, const char *paper,
+                         const df_display_units *du, const char *out_path, GError **error)
 {
   GModule *m = open_module (error);
   gpointer sym = NULL;
@@ -75,8 +75,8 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
     }
   /* Resident: pango and cairo register GLib types, which must never be unloaded. */
   g_module_make_resident (m);
-  ok = ((write_pdf_fn) sym) (project_path, project, surface, results, failures, paper, model,
-                             display, out_path, error);
+  ok = ((write_pdf_fn) sym) (project_path, project, surface, results, failures, paper, du,
+                             out_path, error);
   return ok;
 }
 

@@ -17,11 +17,20 @@ typedef struct
   DfCliSurfaceOptions surface;
   char    *at_text;
   char    *units_text;
+  char    *curvature_text;
   gboolean json;
 } probe_options;
 
+/* What the figures are in: lengths, and the curvatures' labels. */
+typedef struct
+{
+  const char *length;
+  char       *gaussian;     /* "1/m^2" */
+  char       *curvature;    /* "1/m" */
+} probe_units;
+
 static void
-print_json (const probe_options *o, const char *units, const df_surface *surface,
+print_json (const probe_options *o, const probe_units *units, const df_surface *surface,
             const df_point_geometry *g)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
@@ -35,32 +44,31 @@ print_json (const probe_options *o, const char *units, const df_surface *surface
   /* The fit a data surface's curvature rests on (in the surface's own units). */
   df_json_add_fit (b, surface);
   json_builder_set_member_name (b, "units");
-  json_builder_add_string_value (b, units);
-  /* Curvature follows the length unit, as in measure (df-units-convert.h). */
+  json_builder_add_string_value (b, units->length);
+  /* K per the curvature unit squared, H, k1, k2 per it (--curvature-units, else the length
+   * unit; df-units-convert.h). */
   json_builder_set_member_name (b, "curvature_units");
-  {
-    g_autofree char *cu = g_strdup_printf ("1/%s^2", units);
-
-    json_builder_add_string_value (b, cu);
-  }
+  json_builder_add_string_value (b, units->gaussian);
+  json_builder_set_member_name (b, "mean_curvature_units");
+  json_builder_add_string_value (b, units->curvature);
   json_builder_end_object (b);
   df_cli_print_json (b);
 }
 
 static void
-print_text (const probe_options *o, const df_surface_spec *spec, const char *units,
+print_text (const probe_options *o, const df_surface_spec *spec, const probe_units *units,
             const df_surface *surface, const df_point_geometry *g)
 {
-  const char *un = units, *names[2];
+  const char *un = units->length, *names[2];
   char a[40], b[40], c[40], d[40];
 
   df_cli_chart_names (surface, &names[0], &names[1]);
   printf ("Surface: %s (%s, lengths in %s)\n", o->surface.label, df_cli_kind_text (surface),
           spec->units);
-  if (strcmp (un, spec->units) != 0)
-    printf ("Shown in: %s (the point and the curvatures; the chart point, metric, Christoffel "
+  if (strcmp (un, spec->units) != 0 || strcmp (units->curvature + 2, spec->units) != 0)
+    printf ("Shown in: %s, curvatures in %s and %s (the chart point, metric, Christoffel "
             "symbols and Riemann tensor stay in the chart's own coordinates, in %s)\n", un,
-            spec->units);
+            units->gaussian, units->curvature, spec->units);
   /* A data surface's K is a second derivative of a fit: its quality goes first. */
   df_cli_print_fit (surface, spec->units);
   printf ("Chart point: %s = %s, %s = %s\n", names[0], df_cli_num (a, sizeof a, g->u, 12),
@@ -104,10 +112,12 @@ print_text (const probe_options *o, const df_surface_spec *spec, const char *uni
       printf ("Principal curvatures:  none here\n");
       return;
     }
-  printf ("\nGaussian curvature K:  %s 1/%s^2\n", df_cli_num (a, sizeof a, g->K, 10), un);
-  printf ("Mean curvature H:      %s 1/%s\n", df_cli_num (a, sizeof a, g->H, 10), un);
-  printf ("Principal curvatures:  k1 = %s, k2 = %s 1/%s\n", df_cli_num (a, sizeof a, g->k1, 10),
-          df_cli_num (b, sizeof b, g->k2, 10), un);
+  printf ("\nGaussian curvature K:  %s %s\n", df_cli_num (a, sizeof a, g->K, 10),
+          units->gaussian);
+  printf ("Mean curvature H:      %s %s\n", df_cli_num (a, sizeof a, g->H, 10),
+          units->curvature);
+  printf ("Principal curvatures:  k1 = %s, k2 = %s %s\n", df_cli_num (a, sizeof a, g->k1, 10),
+          df_cli_num (b, sizeof b, g->k2, 10), units->curvature);
 }
 
 static int
@@ -145,20 +155,23 @@ run (probe_options *o)
       return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
     }
   {
-    const char *units = spec->units;
-    int model, display;
+    df_display_units du;
+    probe_units pu = { spec->units, NULL, NULL };
 
+    if (!df_cli_display_units (o->units_text, o->curvature_text, spec->units, &du, &error))
+      return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
+    /* One path for every conversion (a no-op when nothing is asked). */
+    df_point_geometry_convert_display (&g, &du);
     if (o->units_text != NULL)
-      {
-        if (!df_cli_units (o->units_text, spec->units, &model, &display, &error))
-          return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
-        df_point_geometry_convert (&g, (df_unit) model, (df_unit) display);
-        units = df_unit_name ((df_unit) display);
-      }
+      pu.length = df_unit_name (du.length);
+    pu.gaussian = df_cli_gaussian_units (&du, spec->units);
+    pu.curvature = df_cli_curvature_units (&du, spec->units);
     if (o->json)
-      print_json (o, units, surface, &g);
+      print_json (o, &pu, surface, &g);
     else
-      print_text (o, spec, units, surface, &g);
+      print_text (o, spec, &pu, surface, &g);
+    g_free (pu.gaussian);
+    g_free (pu.curvature);
   }
   return DF_CLI_EXIT_OK;
 }
@@ -177,6 +190,9 @@ df_cli_probe (int argc, char **argv)
       "Show the point in mm, cm, m or in and the curvatures per that unit (default: the "
       "surface's units); the chart point and the tensors stay in the chart's coordinates",
       "UNIT" },
+    { "curvature-units", 0, 0, G_OPTION_ARG_STRING, &o.curvature_text,
+      "Show K per square of mm, cm, m or in and H, k1, k2 per that unit (default: the length "
+      "unit), e.g. lengths in mm with K in 1/m^2", "UNIT" },
     { NULL },
   };
 
@@ -195,5 +211,6 @@ df_cli_probe (int argc, char **argv)
   df_cli_surface_options_clear (&o.surface);
   g_free (o.at_text);
   g_free (o.units_text);
+  g_free (o.curvature_text);
   return code;
 }

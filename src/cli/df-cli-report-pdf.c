@@ -59,7 +59,8 @@ add_curve (extras_out *x, const char *name, double r, double g, double b, double
  * project sets no curve limit). */
 static void
 verdict_fields (extras_out *x, GArray *fields, const df_verdict_list *list, df_status st,
-                df_diag *diag, const df_limits *limits, const char *u, const char *what)
+                df_diag *diag, const df_limits *limits, const df_display_units *du,
+                const char *what)
 {
   if (st != DF_OK)
     {
@@ -72,15 +73,16 @@ verdict_fields (extras_out *x, GArray *fields, const df_verdict_list *list, df_s
     }
   for (size_t k = 0; k < list->n; k++)
     field (fields, keep (x, g_strdup_printf ("Limit (%s)", what)),
-           keep (x, df_report_verdict_text (&list->items[k], limits, u)));
+           keep (x, df_report_verdict_text_display (&list->items[k], limits, du)));
   if (list->n > 0)
     field (fields, "Caution", DF_DECIDE_CAUTION);
 }
 
 static void
 geodesic_sections (extras_out *x, const df_project *project, const df_surface *surface,
-                   df_unit model, df_unit display)
+                const df_display_units *du)
 {
+  df_unit model = du->model, display = du->length;
   const char *u = df_unit_name (display);
 
   for (guint i = 0; i < project->extras.geodesics->len; i++)
@@ -139,7 +141,7 @@ geodesic_sections (extras_out *x, const df_project *project, const df_surface *s
             if (st == DF_OK)
               st = df_verdicts_geodesic (surface, &fine, g->heading_deg * G_PI / 180,
                                          project->limits, &list, &diag);
-            verdict_fields (x, fields, &list, st, &diag, project->limits, u, "geodesic");
+            verdict_fields (x, fields, &list, st, &diag, project->limits, du, "geodesic");
             df_verdict_list_clear (&list);
             df_geodesic_result_clear (&fine);
           }
@@ -159,8 +161,9 @@ open_curve (const df_surface *surface, const double (*uv)[2], gsize n, df_curve 
 
 static void
 paths_sections (extras_out *x, const df_project *project, const df_surface *surface,
-                df_unit model, df_unit display)
+                const df_display_units *du)
 {
+  df_unit model = du->model, display = du->length;
   const char *u = df_unit_name (display);
 
   for (guint i = 0; i < project->extras.paths->len; i++)
@@ -221,7 +224,7 @@ paths_sections (extras_out *x, const df_project *project, const df_surface *surf
 
               df_diag_clear (&diag);
               st = df_verdicts_path (k ? b : a, 2000, project->limits, &list, NULL, &diag);
-              verdict_fields (x, fields, &list, st, &diag, project->limits, u,
+              verdict_fields (x, fields, &list, st, &diag, project->limits, du,
                               k ? "route B" : "route A");
               df_verdict_list_clear (&list);
             }
@@ -234,9 +237,9 @@ paths_sections (extras_out *x, const df_project *project, const df_surface *surf
 
 static void
 probe_sections (extras_out *x, const df_project *project, const df_surface *surface,
-                df_unit model, df_unit display)
+                const df_display_units *du)
 {
-  const char *u = df_unit_name (display);
+  const char *u = df_unit_name (du->length), *ku = df_unit_name (du->curvature);
 
   for (guint i = 0; i < project->extras.probes->len; i++)
     {
@@ -259,18 +262,18 @@ probe_sections (extras_out *x, const df_project *project, const df_surface *surf
         }
       else
         {
-          df_point_geometry_convert (&geo, model, display);
+          df_point_geometry_convert_display (&geo, du);
           field (fields, "Point (space)",
                  keep (x, g_strdup_printf ("(%s, %s, %s) %s", num (x, geo.point[0], 8),
                                            num (x, geo.point[1], 8), num (x, geo.point[2], 8),
                                            u)));
           field (fields, "Gaussian curvature K",
-                 keep (x, g_strdup_printf ("%s 1/%s\xc2\xb2", num (x, geo.K, 8), u)));
+                 keep (x, g_strdup_printf ("%s 1/%s\xc2\xb2", num (x, geo.K, 8), ku)));
           field (fields, "Mean curvature H", keep (x, g_strdup_printf ("%s 1/%s", num (x, geo.H, 8),
-                                                                       u)));
+                                                                       ku)));
           field (fields, "Principal curvatures",
                  keep (x, g_strdup_printf ("k1 = %s, k2 = %s 1/%s", num (x, geo.k1, 8),
-                                           num (x, geo.k2, 8), u)));
+                                           num (x, geo.k2, 8), ku)));
         }
       add_section (x, keep (x, g_strdup_printf ("Probe %u: %s", i + 1, p->name)), fields);
     }
@@ -279,9 +282,10 @@ probe_sections (extras_out *x, const df_project *project, const df_surface *surf
 gboolean
 df_cli_report_write_pdf (const char *project_path, const df_project *project,
                          const df_surface *surface, const df_loop_result *results,
-                         const char *const *failures, const char *paper, df_unit model,
-                         df_unit display, const char *out_path, GError **error)
+                         const char *const *failures, const char *paper,
+                         const df_display_units *du, const char *out_path, GError **error)
 {
+  df_unit model = du->model, display = du->length;
   df_report report = { 0 };
   df_report_fields fields;
   g_autofree df_report_loop *loops = NULL;
@@ -318,10 +322,12 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
       loops[i].failure = failures[i];
       if (failures[i] == NULL)
         {
-          char **lines = df_report_verdict_lines (surface, (const double (*)[2]) pl->uv, pl->n,
-                                                  project->limits, project->spec->units,
-                                                  &loops[i].kg_limit, &loops[i].checked,
-                                                  &loops[i].n_exceeded);
+          /* In the display units, as the figures above them (the text and JSON are). */
+          char **lines = df_report_verdict_lines_display (surface,
+                                                          (const double (*)[2]) pl->uv, pl->n,
+                                                          project->limits, &pl->drape, du,
+                                                          &loops[i].kg_limit, &loops[i].checked,
+                                                          &loops[i].n_exceeded);
 
           if (lines != NULL)
             g_ptr_array_add (x.line_arrays, lines);
@@ -338,6 +344,8 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
   report.n_inputs = fields.fields->len;
   report.units = model == display ? project->spec->units : df_unit_name (display);
   report.model_units = project->spec->units;
+  report.curvature_units = model == display && du->curvature == model
+                             ? report.units : df_unit_name (du->curvature);
   report.surface = surface;
   report.loops = loops;
   report.n_loops = project->loops->len;
@@ -346,9 +354,9 @@ df_cli_report_write_pdf (const char *project_path, const df_project *project,
                                                  : DF_REPORT_DEFAULT_YAW_DEG;
   report.view_pitch_deg = project->extras.view.set ? project->extras.view.pitch_deg
                                                    : DF_REPORT_DEFAULT_PITCH_DEG;
-  geodesic_sections (&x, project, surface, model, display);
-  paths_sections (&x, project, surface, model, display);
-  probe_sections (&x, project, surface, model, display);
+  geodesic_sections (&x, project, surface, du);
+  paths_sections (&x, project, surface, du);
+  probe_sections (&x, project, surface, du);
   report.curves = (const df_report_curve *) x.curves->data;
   report.n_curves = x.curves->len;
   report.sections = (const df_report_section *) x.sections->data;

@@ -9,17 +9,16 @@
 #include "df-units.h"
 
 /* results[i] is loop i's measurement, valid where failures[i] is NULL, already in the display
- * unit; failures[i] is the reason a loop could not be measured. paper: "a4" or "letter". The
- * geodesics, paths and probes are computed in the surface's unit (model) and shown in
- * display. */
+ * units du; failures[i] is the reason a loop could not be measured. paper: "a4" or "letter".
+ * The geodesics, paths, probes and the loops' verdicts are computed in the surface's unit
+ * (du->model) and shown in du's (K per du->curvature squared). */
 gboolean df_cli_report_write_pdf (const char           *project_path,
                                   const df_project     *project,
                                   const df_surface     *surface,
                                   const df_loop_result *results,
                                   const char *const    *failures,
                                   const char           *paper,
-                                  df_unit               model,
-                                  df_unit               display,
+                                  const df_display_units *du,
                                   const char           *out_path,
                                   GError              **error);
 

@@ -25,6 +25,7 @@ typedef struct
   char    *pdf_path;
   char    *paper;
   char    *units_text;
+  char    *curvature_text;
   gboolean json;
 } report_options;
 
@@ -106,7 +107,8 @@ measure_all (const df_project *project, const df_surface *surface, df_loop_resul
 
 static void
 print_text (const report_options *o, const df_project *project, const df_surface *surface,
-            const char *un, const df_loop_result *results, const char *const *failures)
+            const char *un, const char *k_units, const df_loop_result *results,
+            const char *const *failures)
 {
   printf ("Project: %s (%s, lengths in %s)\n", o->project_path, df_cli_kind_text (surface),
           project->spec->units);
@@ -114,20 +116,20 @@ print_text (const report_options *o, const df_project *project, const df_surface
     printf ("Shown in: %s\n", un);
   df_cli_print_fit (surface, project->spec->units);
   printf ("Normal:  %s\n\n", df_surface_normal_side (surface));
-  printf ("%-24s %14s %14s %12s %12s %14s\n", "Loop", "holonomy deg", "enclosed deg",
-          "residual rad", "length", "min radius");
+  printf ("%-24s %14s %14s %12s %12s %14s %14s\n", "Loop", "holonomy deg", "enclosed deg",
+          "residual rad", "length", "min radius", "mean K");
   for (guint i = 0; i < project->loops->len; i++)
     {
       const df_project_loop *loop = g_ptr_array_index (project->loops, i);
       const df_loop_result *r = &results[i];
-      char h[40], e[40], res[40], len[40], rad[40];
+      char h[40], e[40], res[40], len[40], rad[40], mk[40];
 
       if (failures[i] != NULL)
         {
           printf ("%-24.24s not measured: %s\n", loop->name, failures[i]);
           continue;
         }
-      printf ("%-24.24s %14s %14s %12s %12s %14s\n", loop->name,
+      printf ("%-24.24s %14s %14s %12s %12s %14s %14s\n", loop->name,
               df_cli_num (h, sizeof h, r->holonomy_rad * 180.0 / G_PI, 8),
               !r->bounds_disc         ? "no disc"
               : !r->enclosed_available ? "n/a"
@@ -137,15 +139,19 @@ print_text (const report_options *o, const df_project *project, const df_surface
                 ? df_cli_num (res, sizeof res, r->residual_rad, 2) : "-",
               df_cli_num (len, sizeof len, r->length, 7),
               r->has_steering_radius ? df_cli_num (rad, sizeof rad, r->min_steering_radius, 6)
-                                     : "none");
+                                     : "none",
+              r->bounds_disc && r->enclosed_available && r->has_mean_K
+                ? df_cli_num (mk, sizeof mk, r->mean_K, 6) : "-");
     }
-  printf ("\nLengths and radii in %s; holonomy is anticlockwise about N.\n", un);
+  printf ("\nLengths and radii in %s; mean K (enclosed curvature / disc area) in %s; holonomy "
+          "is anticlockwise about N.\n", un, k_units);
   printf ("\nCaution: %s\n", DF_CLI_CAUTION);
 }
 
 static void
 print_json (const report_options *o, const df_project *project, const df_surface *surface,
-            const char *units, const df_loop_result *results, const char *const *failures)
+            const char *units, const char *k_units, const df_loop_result *results,
+            const char *const *failures)
 {
   g_autoptr (JsonBuilder) b = json_builder_new ();
 
@@ -154,12 +160,9 @@ print_json (const report_options *o, const df_project *project, const df_surface
   json_builder_add_string_value (b, o->project_path);
   json_builder_set_member_name (b, "units");
   json_builder_add_string_value (b, units);
+  /* Of mean_gaussian_curvature: [units] curvature= or --curvature-units, else the lengths'. */
   json_builder_set_member_name (b, "curvature_units");
-  {
-    g_autofree char *cu = g_strdup_printf ("1/%s^2", units);
-
-    json_builder_add_string_value (b, cu);
-  }
+  json_builder_add_string_value (b, k_units);
   json_builder_set_member_name (b, "normal_side");
   json_builder_add_string_value (b, df_surface_normal_side (surface));
   df_json_add_fit (b, surface);
@@ -204,8 +207,9 @@ run (report_options *o)
   g_auto (GStrv) failures = NULL;
   int code = DF_CLI_EXIT_OK;
   guint n, n_failed = 0;
-  df_unit model, display;
+  df_unit display;
   df_display_units du;
+  g_autofree char *k_units = NULL;
 
   if (!df_cli_require ("--project", o->project_path, &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
@@ -229,10 +233,11 @@ run (report_options *o)
     return df_cli_fail_msg (NAME, DF_CLI_EXIT_INPUT, "%s: the project has no loops",
                             o->project_path);
   /* As `check` reads them; a surface whose label is no known unit converts nothing. */
-  if (!df_cli_project_units (project, o->project_path, o->units_text, &du, &error))
+  if (!df_cli_project_units (project, o->project_path, o->units_text, o->curvature_text, &du,
+                             &error))
     return df_cli_fail (NAME, error, DF_CLI_EXIT_INPUT);
-  model = du.model;
   display = du.length;
+  k_units = df_cli_gaussian_units (&du, project->spec->units);
 
   results = g_new0 (df_loop_result, n);
   names = g_new0 (const char *, n);
@@ -249,16 +254,16 @@ run (report_options *o)
       ptrs[i] = &results[i];
     }
   n_failed = measure_all (project, surface, results, failures);
-  /* Every figure in the display unit from here on (the project's [units] length unless
-   * --units says otherwise); a surface whose label is no known unit stays as it is. */
+  /* Every figure in the display units from here on (the project's [units] unless --units or
+   * --curvature-units say otherwise); a surface whose label is no known unit stays as it is. */
   for (guint i = 0; i < n; i++)
     if (failures[i] == NULL)
-      df_loop_result_convert (&results[i], model, display);
+      df_loop_result_convert_display (&results[i], &du);
 
   if (code == DF_CLI_EXIT_OK && o->pdf_path != NULL
       && !df_cli_report_write_pdf (o->project_path, project, surface, results,
-                                   (const char *const *) failures, o->paper, model, display,
-                                   o->pdf_path, &error))
+                                   (const char *const *) failures, o->paper, &du, o->pdf_path,
+                                   &error))
     code = df_cli_fail (NAME, error,
                         error->code == DF_IO_ERROR_VALUE ? DF_CLI_EXIT_INPUT : DF_CLI_EXIT_OUTPUT);
   if (code == DF_CLI_EXIT_OK && o->summary_path != NULL)
@@ -270,17 +275,19 @@ run (report_options *o)
       for (guint i = 0; i < n; i++)
         if (failures[i] != NULL)
           ptrs[i] = NULL;
-      if (!df_loop_summary_write (o->summary_path, names, ptrs, (const char *const *) failures, n,
-                                  &csv, &error))
+      if (!df_loop_summary_write_k (o->summary_path, names, ptrs,
+                                    (const char *const *) failures, n, &csv,
+                                    du.curvature == du.model && du.length == du.model
+                                      ? NULL : df_unit_name (du.curvature), &error))
         code = df_cli_fail (NAME, error, DF_CLI_EXIT_OUTPUT);
     }
   if (code == DF_CLI_EXIT_OK)
     {
       if (o->json)
-        print_json (o, project, surface, df_unit_name (display), results,
+        print_json (o, project, surface, df_unit_name (display), k_units, results,
                     (const char *const *) failures);
       else
-        print_text (o, project, surface, df_unit_name (display), results,
+        print_text (o, project, surface, df_unit_name (display), k_units, results,
                     (const char *const *) failures);
     }
   for (guint i = 0; n_failed > 0 && i < n; i++)
@@ -320,6 +327,9 @@ df_cli_report (int argc, char **argv)
     { "units", 'u', 0, G_OPTION_ARG_STRING, &o.units_text,
       "Show lengths, areas and curvatures in mm, cm, m or in (default: the project's [units] "
       "length, else the surface's)", "UNIT" },
+    { "curvature-units", 0, 0, G_OPTION_ARG_STRING, &o.curvature_text,
+      "Show Gaussian curvature per square of mm, cm, m or in (default: the project's [units] "
+      "curvature, else the length unit)", "UNIT" },
     { "summary", 'o', 0, G_OPTION_ARG_FILENAME, &o.summary_path,
       "Write one CSV row per loop (name, holonomy, enclosed curvature, residual, ...)",
       "OUT.csv" },
@@ -345,5 +355,6 @@ df_cli_report (int argc, char **argv)
   g_free (o.pdf_path);
   g_free (o.paper);
   g_free (o.units_text);
+  g_free (o.curvature_text);
   return code;
 }

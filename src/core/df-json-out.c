@@ -76,6 +76,9 @@ df_json_add_loop_result (JsonBuilder *builder, const df_loop_result *r)
   df_json_add_double_or_null (builder, "concentrated_curvature_rad", disc, r->concentrated_rad);
   df_json_add_double_or_null (builder, "area", enclosed, r->area);
   df_json_add_double_or_null (builder, "gauss_bonnet_residual_rad", enclosed, r->residual_rad);
+  /* Enclosed curvature / area, per the square of the document's curvature_units. */
+  df_json_add_double_or_null (builder, "mean_gaussian_curvature", enclosed && r->has_mean_K,
+                              r->mean_K);
   /* The cap on the other side of a loop round a closed surface's axis (same sign rule). */
   df_json_add_double_or_null (builder, "other_cap_curvature_rad", r->has_other_disc,
                               r->other_enclosed_curvature_rad);

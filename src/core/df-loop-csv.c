@@ -532,13 +532,29 @@ char *
 df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *results,
                         const char *const *failures, gsize n, const df_csv_context *context)
 {
+  return df_loop_summary_to_csv_k (names, results, failures, n, context, NULL);
+}
+
+char *
+df_loop_summary_to_csv_k (const char *const *names, const df_loop_result *const *results,
+                          const char *const *failures, gsize n, const df_csv_context *context,
+                          const char *k_units)
+{
   g_autofree char *u = unit_suffix (context);
+  g_autofree char *k = NULL;
   GString *out = g_string_new (NULL);
 
+  {
+    df_csv_context kc = { 0 };
+
+    kc.units = k_units != NULL ? k_units : context != NULL ? context->units : NULL;
+    k = unit_suffix (&kc);
+  }
   g_string_append_printf (out, "name,status,surface,normal_side,holonomy_deg,holonomy_rad,"
                           "enclosed_curvature_rad,gauss_bonnet_residual_rad,"
                           "total_geodesic_curvature_rad,area_%s2,length_%s,"
-                          "min_steering_radius_%s,bounds_disc,note" CSV_EOL, u, u, u);
+                          "min_steering_radius_%s,bounds_disc,note,mean_K_per_%s2" CSV_EOL, u, u,
+                          u, k);
   for (gsize i = 0; i < n; i++)
     {
       const df_loop_result *r = results[i];
@@ -564,12 +580,15 @@ df_loop_summary_to_csv (const char *const *names, const df_loop_result *const *r
             }
           g_string_append_printf (out, ",%s,", r->bounds_disc ? "true" : "false");
           append_text_field (out, r->disc_note);
+          g_string_append_c (out, ',');
+          append_number (out, r->has_mean_K ? r->mean_K * disc : NAN);
         }
       else
         {
-          /* Eight empty figures and an empty bounds_disc, then the reason. */
+          /* Eight empty figures and an empty bounds_disc, then the reason, no mean K. */
           g_string_append (out, ",,,,,,,,,,");
           append_text_field (out, failures != NULL ? failures[i] : NULL);
+          g_string_append_c (out, ',');
         }
       g_string_append (out, CSV_EOL);
     }
@@ -581,7 +600,17 @@ df_loop_summary_write (const char *path, const char *const *names,
                        const df_loop_result *const *results, const char *const *failures,
                        gsize n, const df_csv_context *context, GError **error)
 {
-  g_autofree char *text = df_loop_summary_to_csv (names, results, failures, n, context);
+  return df_loop_summary_write_k (path, names, results, failures, n, context, NULL, error);
+}
+
+gboolean
+df_loop_summary_write_k (const char *path, const char *const *names,
+                         const df_loop_result *const *results, const char *const *failures,
+                         gsize n, const df_csv_context *context, const char *k_units,
+                         GError **error)
+{
+  g_autofree char *text = df_loop_summary_to_csv_k (names, results, failures, n, context,
+                                                    k_units);
 
   return df_write_file_atomic (path, text, -1, error);
 }

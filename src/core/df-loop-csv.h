@@ -55,7 +55,8 @@ gboolean df_loop_samples_write   (const char *path, const df_loop_result *result
 
 /* One row per loop: name,status,surface,normal_side,holonomy_deg,holonomy_rad,
  * enclosed_curvature_rad,gauss_bonnet_residual_rad,total_geodesic_curvature_rad,area_<u>2,
- * length_<u>,min_steering_radius_<u>,bounds_disc,note. A loop whose results[i] is NULL has
+ * length_<u>,min_steering_radius_<u>,bounds_disc,note,mean_K_per_<u>2 (the disc's enclosed
+ * curvature / area, last so that readers of the first fourteen columns are undisturbed). A loop whose results[i] is NULL has
  * status "not measured" and failures[i] (may be NULL) as its note; values that do not exist
  * are empty fields. */
 char    *df_loop_summary_to_csv  (const char *const *names, const df_loop_result *const *results,
@@ -65,6 +66,16 @@ gboolean df_loop_summary_write   (const char *path, const char *const *names,
                                   const df_loop_result *const *results,
                                   const char *const *failures, gsize n,
                                   const df_csv_context *context, GError **error);
+/* The same with mean K per the square of k_units ("m"; NULL: the context's units). The caller
+ * converts the figures (df_loop_result_convert_display); this only names them. */
+char    *df_loop_summary_to_csv_k (const char *const *names, const df_loop_result *const *results,
+                                   const char *const *failures, gsize n,
+                                   const df_csv_context *context, const char *k_units);
+gboolean df_loop_summary_write_k  (const char *path, const char *const *names,
+                                   const df_loop_result *const *results,
+                                   const char *const *failures, gsize n,
+                                   const df_csv_context *context, const char *k_units,
+                                   GError **error);
 
 /* Geodesic samples: s_<u>, the chart pair, x_<u>,y_<u>,z_<u>,tx,ty,tz (atomic). */
 gboolean df_geodesic_samples_write (const char *path, const df_geodesic_result *result,

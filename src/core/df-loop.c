@@ -715,6 +715,8 @@ df_loop_measure (const df_curve *curve, const df_loop_options *options, df_loop_
           out->residual_rad = df_wrap_angle (out->holonomy_rad - out->enclosed_curvature_rad);
           if ((st = other_cap (&ctx, out)) != DF_OK)
             goto done;
+          out->has_mean_K = out->area > 0.0;
+          out->mean_K = out->has_mean_K ? out->enclosed_curvature_rad / out->area : 0.0;
         }
     }
 

@@ -54,6 +54,11 @@ typedef struct
   double concentrated_rad;        /* cone-apex curvature included in it */
   double area;                    /* of the disc, positive */
   double residual_rad;            /* holonomy - enclosed, wrapped to (-pi, pi] */
+  /* The enclosed curvature per unit area of the disc, Omega / area (1/length^2): the disc's
+   * mean Gaussian curvature (a cone apex inside counts with its concentrated part). Set with
+   * enclosed_available and area > 0; else 0 and has_mean_K false. */
+  bool   has_mean_K;
+  double mean_K;
   bool   disc_on_left;            /* the disc lies left of the direction of travel */
   /* A simple loop on a closed surface of revolution (a pole at each end) bounds a disc
    * on each side. The second one, signed by the same rule (negative on the right): its value

@@ -110,7 +110,15 @@ static const preset_def preset_defs[] = {
     { { "A", "10", ANY }, { "W", "200", POSITIVE }, { "L", "150", POSITIVE } } },
 };
 
+/* What each preset's t is measured in, same order ("length": the surface's units; NULL for
+ * graphs and for the pure numbers of the hyperboloid's and the pseudosphere's t). */
+static const char *const preset_t_units[] = {
+  NULL, "rad", "rad", "rad", "rad", "length", "length", "length", "length", NULL, NULL,
+  NULL, NULL, NULL,
+};
+
 G_STATIC_ASSERT (G_N_ELEMENTS (preset_infos) == G_N_ELEMENTS (preset_defs) + 1);
+G_STATIC_ASSERT (G_N_ELEMENTS (preset_t_units) == G_N_ELEMENTS (preset_defs));
 
 static const preset_def *
 find_preset (const char *name)
@@ -201,6 +209,7 @@ df_surface_spec_new_preset (const char *name, GError **error)
     spec = df_surface_spec_new_graph (def->z, def->range[0], def->range[1], def->range[2],
                                       def->range[3]);
   spec->preset = g_strdup (name);
+  spec->t_units = g_strdup (preset_t_units[def - preset_defs]);
   for (gsize i = 0; i < G_N_ELEMENTS (def->params) && def->params[i].name != NULL; i++)
     if (!df_params_set (spec->params, def->params[i].name, def->params[i].value, error))
       {

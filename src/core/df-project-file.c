@@ -133,9 +133,71 @@ read_numbers (GKeyFile *key_file, const char *group, const char *key, const char
 static gboolean
 is_loop_key (const char *key)
 {
-  static const char *const keys[] = { "name", "colour", "frames", "u", "v", NULL };
+  static const char *const keys[] = { "name", "colour", "frames", "u", "v", "drape-start",
+                                      "drape-warp-deg", "drape-cell", NULL };
 
   return g_strv_contains (keys, key);
+}
+
+/* Exactly count numbers of a ';'-list key. */
+static gboolean
+read_count (GKeyFile *key_file, const char *group, const char *key, const char *source,
+            gsize count, double *out, GError **error)
+{
+  gsize n = 0;
+  g_autofree double *values = read_numbers (key_file, group, key, source, &n, error);
+
+  if (values == NULL)
+    return FALSE;
+  if (n != count)
+    {
+      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] %s: expected %s, found %"
+                   G_GSIZE_FORMAT " value%s", source, group, key,
+                   count == 1 ? "one number" : "two numbers u;v", n, n == 1 ? "" : "s");
+      return FALSE;
+    }
+  memcpy (out, values, count * sizeof *out);
+  return TRUE;
+}
+
+/* The loop's optional drape keys (the max-shear-deg check's start, warp and cell). */
+static gboolean
+read_drape (GKeyFile *key_file, const char *group, const char *source,
+            const df_surface *surface, df_shear_setup *d, GError **error)
+{
+  if (g_key_file_has_key (key_file, group, "drape-start", NULL))
+    {
+      if (!read_count (key_file, group, "drape-start", source, 2, d->start, error))
+        return FALSE;
+      if (surface != NULL && !df_surface_contains (surface, d->start[0], d->start[1]))
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_GEOMETRY,
+                       "%s: [%s] drape-start: (%.10g, %.10g) lies outside the surface", source,
+                       group, d->start[0], d->start[1]);
+          return FALSE;
+        }
+      d->has_start = true;
+    }
+  if (g_key_file_has_key (key_file, group, "drape-warp-deg", NULL))
+    {
+      if (!read_count (key_file, group, "drape-warp-deg", source, 1, &d->warp_deg, error))
+        return FALSE;
+      d->has_warp = true;
+    }
+  if (g_key_file_has_key (key_file, group, "drape-cell", NULL))
+    {
+      if (!read_count (key_file, group, "drape-cell", source, 1, &d->cell, error))
+        return FALSE;
+      if (!(d->cell > 0))
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                       "%s: [%s] drape-cell: %.10g is not a positive length", source, group,
+                       d->cell);
+          return FALSE;
+        }
+      d->has_cell = true;
+    }
+  return TRUE;
 }
 
 static df_project_loop *
@@ -151,12 +213,14 @@ read_loop (GKeyFile *key_file, const char *group, const char *source, const df_s
   g_autofree double *v = NULL;
   gsize nu = 0, nv = 0;
   df_project_loop *loop;
+  df_shear_setup drape = { 0 };
 
   for (gsize i = 0; keys != NULL && keys[i] != NULL; i++)
     if (!is_loop_key (keys[i]))
       {
         g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
-                     "%s: [%s] unknown key '%s' (known: name, colour, frames, u, v)", source,
+                     "%s: [%s] unknown key '%s' (known: name, colour, frames, u, v, "
+                     "drape-start, drape-warp-deg, drape-cell)", source,
                      group, keys[i]);
         return NULL;
       }
@@ -219,7 +283,11 @@ read_loop (GKeyFile *key_file, const char *group, const char *source, const df_s
         return NULL;
       }
 
+  if (!read_drape (key_file, group, source, surface, &drape, error))
+    return NULL;
+
   loop = g_new0 (df_project_loop, 1);
+  loop->drape = drape;
   loop->name = name != NULL ? g_steal_pointer (&name) : g_strdup (group);
   loop->colour = colour != NULL ? g_steal_pointer (&colour) : g_strdup (DEFAULT_COLOUR);
   loop->show_frames = frames == NULL || g_str_equal (frames, "true");
@@ -231,6 +299,26 @@ read_loop (GKeyFile *key_file, const char *group, const char *source, const df_s
       loop->uv[i][1] = v[i];
     }
   return loop;
+}
+
+/* Only the parts given, "%.17g" in the C locale so they reload bit for bit. */
+static void
+write_drape (GKeyFile *key_file, const char *group, const df_shear_setup *d)
+{
+  char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (d->has_start)
+    {
+      g_autofree char *text = g_strdup_printf ("%s;%s", g_ascii_dtostr (a, sizeof a, d->start[0]),
+                                               g_ascii_dtostr (b, sizeof b, d->start[1]));
+
+      g_key_file_set_string (key_file, group, "drape-start", text);
+    }
+  if (d->has_warp)
+    g_key_file_set_string (key_file, group, "drape-warp-deg",
+                           g_ascii_dtostr (a, sizeof a, d->warp_deg));
+  if (d->has_cell)
+    g_key_file_set_string (key_file, group, "drape-cell", g_ascii_dtostr (a, sizeof a, d->cell));
 }
 
 static const char *const record_keys[] = { "title", "part-number", "revision", "author", NULL };
@@ -445,6 +533,7 @@ df_project_to_data (const df_project *project)
       g_key_file_set_string (key_file, group, "frames", loop->show_frames ? "true" : "false");
       g_key_file_set_string (key_file, group, "u", u);
       g_key_file_set_string (key_file, group, "v", v);
+      write_drape (key_file, group, &loop->drape);
     }
   df_project_extras_write (&project->extras, key_file);
   return g_key_file_to_data (key_file, NULL, NULL);

@@ -14,6 +14,7 @@
 
 #include "df-project-extras.h"
 #include "df-limits.h"
+#include "df-verdict-shear.h"
 #include "df-surface-spec.h"
 
 typedef struct
@@ -23,6 +24,9 @@ typedef struct
   gboolean show_frames;
   double (*uv)[2];
   gsize    n;
+  /* The drape max-shear-deg is checked with (optional keys drape-start=U;V, drape-warp-deg=,
+   * drape-cell= in surface units; unset parts take df-verdict-shear.h's defaults). */
+  df_shear_setup drape;
 } df_project_loop;
 
 /* Title block of the design record, group [record] (each key optional):

@@ -503,11 +503,13 @@ df_report_draw_picture (cairo_t *cr, double x, double y, double w, double h, dou
                                           NULL, curves, n_curves, error);
 }
 
-gboolean
-df_report_draw_picture_coloured (cairo_t *cr, double x, double y, double w, double h,
-                                 double yaw_deg, double pitch_deg, const df_surface *surface,
-                                 const char *units, const df_picture_colouring *colouring,
-                                 const df_picture_curve *curves, gsize n_curves, GError **error)
+/* k_scale: the legend's K per the square of units is the surface's K times this (the shading
+ * is relative to the range, so only the legend's numbers change). */
+static gboolean
+draw_picture (cairo_t *cr, double x, double y, double w, double h, double yaw_deg,
+              double pitch_deg, const df_surface *surface, const char *units, double k_scale,
+              const df_picture_colouring *colouring, const df_picture_curve *curves,
+              gsize n_curves, GError **error)
 {
   double *values = NULL;
   df_mesh_options mo = { PICTURE_MAX_VERTICES, 0, 0 };
@@ -569,7 +571,28 @@ df_report_draw_picture_coloured (cairo_t *cr, double x, double y, double w, doub
   if (colouring != NULL)
     draw_legend_colouring (cr, x, y + ph, w, colouring);
   else
-    draw_legend (cr, x, y + ph, w, range, units != NULL ? units : "unit");
+    draw_legend (cr, x, y + ph, w, range * k_scale, units != NULL ? units : "unit");
   df_mesh_free (mesh);
   return TRUE;
+}
+
+gboolean
+df_report_draw_picture_coloured (cairo_t *cr, double x, double y, double w, double h,
+                                 double yaw_deg, double pitch_deg, const df_surface *surface,
+                                 const char *units, const df_picture_colouring *colouring,
+                                 const df_picture_curve *curves, gsize n_curves, GError **error)
+{
+  return draw_picture (cr, x, y, w, h, yaw_deg, pitch_deg, surface, units, 1.0, colouring,
+                       curves, n_curves, error);
+}
+
+gboolean
+df_report_draw_picture_k_scaled (cairo_t *cr, double x, double y, double w, double h,
+                                 double yaw_deg, double pitch_deg, const df_surface *surface,
+                                 const char *k_units, double k_scale,
+                                 const df_picture_curve *curves, gsize n_curves, GError **error)
+{
+  return draw_picture (cr, x, y, w, h, yaw_deg, pitch_deg, surface, k_units,
+                       isfinite (k_scale) && k_scale > 0 ? k_scale : 1.0, NULL, curves,
+                       n_curves, error);
 }

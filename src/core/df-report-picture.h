@@ -64,3 +64,19 @@ gboolean df_report_draw_picture_coloured (cairo_t                    *cr,
                                           const df_picture_curve     *curves,
                                           gsize                       n_curves,
                                           GError                    **error);
+
+/* df_report_draw_picture with the K legend in another unit: its numbers are the surface's K
+ * times k_scale (df_unit_gaussian (1, model, unit)), per the square of k_units ("m"). */
+gboolean df_report_draw_picture_k_scaled (cairo_t                *cr,
+                                          double                  x,
+                                          double                  y,
+                                          double                  w,
+                                          double                  h,
+                                          double                  yaw_deg,
+                                          double                  pitch_deg,
+                                          const df_surface       *surface,
+                                          const char             *k_units,
+                                          double                  k_scale,
+                                          const df_picture_curve *curves,
+                                          gsize                   n_curves,
+                                          GError                **error);

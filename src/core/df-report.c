@@ -13,6 +13,7 @@
 #include "df-io-error.h"
 #include "df-report-picture.h"
 #include "df-report-plot.h"
+#include "df-units.h"
 
 #define MARGIN        50.0     /* points: about 18 mm */
 #define HEADER_SPACE  28.0
@@ -392,15 +393,37 @@ title_block (flow *f)
   key_value_table (f, fields, G_N_ELEMENTS (fields));
 }
 
+/* The picture's K legend: in the record's curvature unit when both it and the surface's are
+ * known units (factor from df_unit_gaussian), else in the surface's own. */
+static double
+legend_k_scale (const df_report *r, const char **k_units)
+{
+  const char *mu = r->model_units ? r->model_units : r->units;
+  const char *ku = r->curvature_units ? r->curvature_units : r->units;
+  df_unit m, k;
+
+  *k_units = mu;
+  if (ku == NULL || mu == NULL || !df_unit_from_name (mu, &m) || !df_unit_from_name (ku, &k))
+    return 1.0;
+  *k_units = ku;
+  return df_unit_gaussian (1.0, m, k);
+}
+
 static void
 conventions (flow *f)
 {
   const char *u = f->report->units ? f->report->units : "units";
+  const char *ku = f->report->curvature_units ? f->report->curvature_units : u;
   const char *mu = f->report->model_units;
-  g_autofree char *units_note = mu != NULL && strcmp (mu, u) != 0
-    ? g_strdup_printf (" The surface is defined in %s: its inputs above and the picture's "
-                       "curvature scale (1/%s\xc2\xb2) are in %s; every figure below is "
-                       "converted to %s.", mu, mu, mu, u)
+  const char *lk = NULL;
+  g_autofree char *units_note = NULL;
+
+  legend_k_scale (f->report, &lk);
+  units_note = mu != NULL && (strcmp (mu, u) != 0 || strcmp (mu, ku) != 0)
+    ? g_strdup_printf (" The surface is defined in %s: its inputs above are in %s and the "
+                       "picture's curvature scale in 1/%s\xc2\xb2; every figure below is "
+                       "converted (lengths to %s, K to 1/%s\xc2\xb2).", mu, mu,
+                       lk != NULL ? lk : mu, u, ku)
     : g_strdup ("");
   g_autofree char *text = g_strdup_printf (
     "Lengths are in %s, areas in %s\xc2\xb2, curvature K in 1/%s\xc2\xb2 and geodesic "
@@ -415,7 +438,7 @@ conventions (flow *f)
     "(their difference, wrapped) measures the numerical agreement. A cone apex contributes "
     "its concentrated curvature 2\xcf\x80(1 \xe2\x88\x92 sin \xce\xb1) when the disc contains "
     "it. The steering radius is 1/|k_g|.%s",
-    u, u, u, u, units_note);
+    u, u, ku, u, units_note);
 
   heading (f, "Conventions");
   paragraph (f, BODY_FONT, text, FALSE, 6);
@@ -508,9 +531,13 @@ picture (flow *f)
           c.closed = FALSE;
           g_array_append_val (curves, c);
         }
-      if (!df_report_draw_picture (f->cr, MARGIN, f->y, w, h, r->view_yaw_deg, r->view_pitch_deg,
-                                   r->surface, r->model_units ? r->model_units : r->units,
-                                   (const df_picture_curve *) curves->data, curves->len, &error)
+      const char *k_units = NULL;
+      double k_scale = legend_k_scale (r, &k_units);
+
+      if (!df_report_draw_picture_k_scaled (f->cr, MARGIN, f->y, w, h, r->view_yaw_deg,
+                                            r->view_pitch_deg, r->surface, k_units, k_scale,
+                                            (const df_picture_curve *) curves->data,
+                                            curves->len, &error)
           && f->error == NULL)
         f->error = g_steal_pointer (&error);
       g_array_unref (curves);
@@ -649,6 +676,10 @@ loop_section (flow *f, gsize i)
                                           res->disc_on_left ? "left" : "right"));
           ADD ("Gauss\xe2\x80\x93" "Bonnet residual", FMT ("%s rad", num (f, res->residual_rad, 3)));
           ADD ("Disc area", FMT ("%s %s\xc2\xb2", num (f, res->area, 7), u));
+          if (res->has_mean_K)
+            ADD ("Mean Gaussian curvature",
+                 FMT ("%s 1/%s\xc2\xb2 (enclosed curvature / area)", num (f, res->mean_K, 6),
+                      r->curvature_units ? r->curvature_units : u));
           if (res->concentrated_rad != 0)
             ADD ("Cone apex inside", FMT ("%s rad of it concentrated at the apex",
                                           num (f, res->concentrated_rad, 8)));

@@ -83,6 +83,8 @@ typedef struct
   const char            *units;        /* length unit of the figures (the display unit) */
   const char            *model_units;  /* the surface's own unit, where the picture's scale
                                         * and the inputs are; NULL: the same as units */
+  const char            *curvature_units; /* Gaussian curvature K is per the square of this
+                                        * unit (mean K of a loop, probes); NULL: units */
   const df_surface      *surface;
   const df_report_loop  *loops;
   gsize                  n_loops;

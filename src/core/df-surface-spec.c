@@ -74,6 +74,7 @@ df_surface_spec_copy (const df_surface_spec *spec)
     copy->range_text[i] = g_strdup (spec->range_text[i]);
   copy->params = spec->params != NULL ? df_params_copy (spec->params) : df_params_new ();
   copy->units = g_strdup (spec->units);
+  copy->t_units = g_strdup (spec->t_units);
   copy->data_key = g_strdup (spec->data_key);
   copy->data_path = g_strdup (spec->data_path);
   copy->base_dir = g_strdup (spec->base_dir);
@@ -96,6 +97,7 @@ df_surface_spec_free (df_surface_spec *spec)
     g_free (spec->range_text[i]);
   df_params_free (spec->params);
   g_free (spec->units);
+  g_free (spec->t_units);
   g_free (spec->data_key);
   g_free (spec->data_path);
   g_free (spec->base_dir);
@@ -247,12 +249,23 @@ df_surface_spec_build (const df_surface_spec *spec, GError **error)
   return surface;
 }
 
+const char *
+df_surface_spec_t_units (const df_surface_spec *spec)
+{
+  g_return_val_if_fail (spec != NULL, NULL);
+  if (spec->kind != DF_SURFACE_REVOLUTION)
+    return NULL;
+  if (spec->data_key != NULL || g_strcmp0 (spec->t_units, "length") == 0)
+    return spec->units != NULL ? spec->units : "mm";
+  return spec->t_units;
+}
+
 /* The keys a [surface] group may have; anything else is a typo worth reporting. */
 static gboolean
 is_surface_key (const char *key)
 {
   static const char *const keys[] = { "kind", "preset", "r", "z", "t-min", "t-max", "x-min",
-                                      "x-max", "y-min", "y-max", "units", "profile", "heights",
+                                      "x-max", "y-min", "y-max", "units", "t-units", "profile", "heights",
                                       "mesh", "fit-tolerance", "data-sha256",
                                       "placement-rotate-deg", "placement-offset", NULL };
 
@@ -284,7 +297,8 @@ df_surface_spec_from_key_file (GKeyFile *key_file, const char *source, GError **
       {
         g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
                      "%s: [%s] unknown key '%s' (known: kind, preset, r, z, t-min, t-max, "
-                     "x-min, x-max, y-min, y-max, units, profile, heights, mesh, fit-tolerance, "
+                     "x-min, x-max, y-min, y-max, units, t-units, profile, heights, mesh, "
+                     "fit-tolerance, "
                      "data-sha256, placement-rotate-deg, placement-offset)", source,
                      GROUP_SURFACE, keys[i]);
         return NULL;
@@ -366,6 +380,31 @@ df_surface_spec_from_key_file (GKeyFile *key_file, const char *source, GError **
     }
   if (spec->data_key != NULL && !_df_surface_spec_check_data_units (spec, source, error))
     return NULL;
+  if (g_key_file_has_key (key_file, GROUP_SURFACE, "t-units", NULL))
+    {
+      g_free (spec->t_units);
+      spec->t_units = _df_key_file_get_text (key_file, GROUP_SURFACE, "t-units", TRUE, source,
+                                             error);
+      if (spec->t_units == NULL)
+        return NULL;
+      /* A fitted profile's t is its arc length; a graph has no t. */
+      if (type != DF_SURFACE_REVOLUTION || spec->data_key != NULL)
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT,
+                       "%s: [%s] t-units: only for a surface of revolution given by formulas "
+                       "(a fitted profile's t is its arc length, in units)", source,
+                       GROUP_SURFACE);
+          return NULL;
+        }
+      if (spec->t_units[0] == '\0' || strlen (spec->t_units) > 16
+          || !g_utf8_validate (spec->t_units, -1, NULL))
+        {
+          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
+                       "%s: [%s] t-units: a short label is expected (\"length\", \"rad\", "
+                       "\"deg\"...), at most 16 bytes", source, GROUP_SURFACE);
+          return NULL;
+        }
+    }
 
   if (g_key_file_has_group (key_file, GROUP_PARAMETERS))
     {
@@ -433,6 +472,8 @@ df_surface_spec_to_key_file (const df_surface_spec *spec, GKeyFile *key_file)
     g_key_file_set_string (key_file, GROUP_SURFACE, range_keys[spec->kind][i],
                            spec->range_text[i] ? spec->range_text[i] : "");
   g_key_file_set_string (key_file, GROUP_SURFACE, "units", spec->units ? spec->units : "mm");
+  if (rev && spec->data_key == NULL && spec->t_units != NULL)
+    g_key_file_set_string (key_file, GROUP_SURFACE, "t-units", spec->t_units);
 
   if (spec->params != NULL && df_params_count (spec->params) > 0)
     for (guint i = 0; i < df_params_count (spec->params); i++)

@@ -11,6 +11,8 @@
  *   t-min=0
  *   t-max=pi
  *   units=mm                   # optional, default mm
+ *   t-units=length             # optional (revolution): what t is measured in: "length" (the
+ *                              # surface's units, following them), or any label ("rad", "deg")
  *   [parameters]               # optional, in order; values may use earlier parameters
  *   R=120
  * A graph has z=f(x, y) and x-min, x-max, y-min, y-max. Range values are expressions too.
@@ -45,6 +47,9 @@ typedef struct
   char      *range_text[4]; /* t-min, t-max, (unused, unused)  or  x-min, x-max, y-min, y-max */
   df_params *params;
   char      *units;         /* "mm" unless given */
+  /* Revolution: what the profile parameter t is measured in, as key t-units states it
+   * ("length" = the surface's units; presets set it); NULL: not stated. */
+  char      *t_units;
   /* A surface from data: data_key "profile" or "heights" (NULL for formulas), data_path as
    * written, base_dir the folder of the file naming it (NULL: the working folder), and the
    * fit-tolerance text (NULL: chosen from the data). */
@@ -79,6 +84,10 @@ df_surface_spec *df_surface_spec_new_revolution (const char *r_text, const char 
 df_surface_spec *df_surface_spec_new_graph      (const char *z_text,
                                                  const char *x_min_text, const char *x_max_text,
                                                  const char *y_min_text, const char *y_max_text);
+/* The unit of t to show beside it: the surface's units for a profile fitted to data (t is its
+ * arc length) or t-units=length, else the t-units text; NULL when nothing says (t may then be
+ * an angle, a length or a pure number) and for graphs, whose x, y are in the surface's units. */
+const char      *df_surface_spec_t_units        (const df_surface_spec *spec);
 df_surface_spec *df_surface_spec_copy           (const df_surface_spec *spec);
 void             df_surface_spec_free           (df_surface_spec *spec);   /* NULL: no-op */
 

@@ -49,8 +49,13 @@ typedef struct
    * arc-length stretch (has_where false); the worst point is where the limit is exceeded most
    * (s_worst 0). */
   bool   region;
-  double signed_value;    /* region strain only: the worst strain with its sign, percent (> 0 a
-                           * flat rim must shrink, < 0 stretch) */
+  double signed_value;    /* region strain: the worst strain with its sign, percent (> 0 a
+                           * flat rim must shrink, < 0 stretch); region shear: the worst cell
+                           * shear with its sign, degrees (> 0 the crossing angle closes) */
+  /* Region shear only (df-verdict-shear.h): cells of the drape with a corner inside the loop,
+   * and how many of them are past the locking angle. */
+  size_t n_cells;
+  size_t n_cells_over;
   /* Set only by the geodesic verdicts: the value holds by construction (k_g = 0 exactly), not
    * from samples. */
   bool   exact;
