@@ -109,6 +109,8 @@ typedef struct
   char  *name;
   char  *unit;
   double length, area, steering;
+  char  *k_unit;
+  double mean_k;
 } Shown;
 
 static void
@@ -116,9 +118,11 @@ shown_clear (Shown *s)
 {
   g_free (s->name);
   g_free (s->unit);
+  g_free (s->k_unit);
 }
 
-/* "loop-shown NAME UNIT LENGTH AREA STEERING" (the values the details show, in full). */
+/* "loop-shown NAME UNIT LENGTH AREA STEERING K_UNIT MEAN_K" (the values the details show, in
+ * full). */
 static void
 read_shown (GDataInputStream *out,
             Shown            *s)
@@ -128,12 +132,14 @@ read_shown (GDataInputStream *out,
 
   g_assert_nonnull (line);
   parts = g_strsplit (line, " ", -1);
-  g_assert_cmpuint (g_strv_length (parts), ==, 6);
+  g_assert_cmpuint (g_strv_length (parts), ==, 8);
   s->name = g_strdup (parts[1]);
   s->unit = g_strdup (parts[2]);
   s->length = g_ascii_strtod (parts[3], NULL);
   s->area = g_ascii_strtod (parts[4], NULL);
   s->steering = g_ascii_strtod (parts[5], NULL);
+  s->k_unit = g_strdup (parts[6]);
+  s->mean_k = g_ascii_strtod (parts[7], NULL);
 }
 
 static void
@@ -145,20 +151,6 @@ expect_line (GDataInputStream *out,
 
   g_assert_nonnull (line);
   g_assert_cmpstr (line, ==, want);
-}
-
-/* Keyboard focus on the 3D view (a click in Look mode changes nothing), so that Ctrl+Z goes to
- * the window and not to a text field. */
-static void
-focus_view (Xserver  *x,
-            char    **geometry)
-{
-  g_autofree char *cx = g_strdup_printf ("%d", atoi (geometry[4]) / 2);
-  g_autofree char *cy = g_strdup_printf ("%d", atoi (geometry[5]) - 20);
-
-  focus_main (x);
-  xdotool_va (x, "key", "ctrl+1", "sleep", "0.5", "mousemove", "--window", geometry[1], cx, cy,
-              "click", "1", "sleep", "0.5", NULL);
 }
 
 /* (a) The demo (mm) in metres: the selected loop's length and steering radius as the details
@@ -270,9 +262,12 @@ test_units_saved (void)
   g_rmdir (dir);
 }
 
-/* (c) Inches for lengths, K per square metre: the loop's length is the CLI's millimetres over
- * 25.4; a typed probe's point is in inches and its K in 1/m^2 as `probe --units in` and
- * `--units m` give them; a geodesic length typed as 2 (inches) is shot as 50.8 mm. */
+/* (c) Inches for lengths, K per square metre, on the demo without its rim band (so the belly
+ * patch, which bounds a disc, is the loop shown): its length and area are the CLI's
+ * millimetres over 25.4 and 25.4², its mean K the CLI's per mm² times 1000² and what
+ * `report --units in --curvature-units m` gives; a typed probe's point is in inches and its K
+ * and H per m as `probe --units in` and `--curvature-units m` give them; a geodesic length
+ * typed as 2 (inches) is shot as 50.8 mm. */
 static void
 test_inches_curvature_per_m2 (void)
 {
@@ -282,25 +277,53 @@ test_inches_curvature_per_m2 (void)
   g_autoptr(JsonParser) p_mm = json_parser_new ();
   g_autoptr(JsonParser) p_in = json_parser_new ();
   g_autoptr(JsonParser) p_m = json_parser_new ();
-  g_autofree char *demo = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autoptr(JsonParser) p_shown = json_parser_new ();
+  g_autoptr(GKeyFile) key_file = g_key_file_new ();
+  g_autoptr(GError) error = NULL;
+  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *dir = g_dir_make_tmp ("df-units-XXXXXX", NULL);
+  g_autofree char *demo = g_build_filename (dir, "belly.dfproj", NULL);
   g_autofree char *line = NULL;
   g_auto(GStrv) parts = NULL;
   char at[64], v[G_ASCII_DTOSTR_BUF_SIZE];
-  JsonObject *mm, *probe_in, *probe_m;
+  JsonObject *mm, *shown, *probe_in, *probe_m;
   JsonArray *point;
   Shown s = { 0 };
   double ended = 0;
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--demo", "--units", "in,m", NULL);
+  g_key_file_load_from_file (key_file, demo_path, G_KEY_FILE_KEEP_COMMENTS, &error);
+  g_assert_no_error (error);
+  g_assert_true (g_key_file_remove_group (key_file, "loop 1", &error));
+  g_key_file_save_to_file (key_file, demo, &error);
+  g_assert_no_error (error);
+
+  app = start_app (&x, &out, demo, "--units", "in,m", NULL);
   expect_line (out, "units ", "units mm mm");
   expect_line (out, "units ", "units in m");
   read_shown (out, &s);
+  g_assert_cmpstr (s.name, ==, "Belly_patch");
   g_assert_cmpstr (s.unit, ==, "in");
-  mm = cli_report_loop (p_mm, demo, NULL, "Rim band");
+  g_assert_cmpstr (s.k_unit, ==, "m");
+  mm = cli_report_loop (p_mm, demo, NULL, "Belly patch");
   df_assert_close (s.length, json_object_get_double_member (mm, "length") / MM_PER_INCH, 1e-12,
                    0);
+  df_assert_close (s.area, json_object_get_double_member (mm, "area")
+                             / (MM_PER_INCH * MM_PER_INCH), 1e-12, 0);
+  /* 1/mm² = 10⁶ /m² (the definition of the millimetre). */
+  df_assert_close (s.mean_k, json_object_get_double_member (mm, "mean_gaussian_curvature") * 1e6,
+                   1e-12, 0);
+  {
+    JsonObject *root = cli_json (p_shown, "report", "--project", demo, "--units", "in",
+                                 "--curvature-units", "m", NULL);
+
+    shown = json_array_get_object_element (json_object_get_array_member (root, "loops"), 0);
+    g_assert_cmpstr (json_object_get_string_member (shown, "name"), ==, "Belly patch");
+    df_assert_close (s.length, json_object_get_double_member (shown, "length"), 1e-12, 0);
+    df_assert_close (s.mean_k, json_object_get_double_member (shown, "mean_gaussian_curvature"),
+                     1e-12, 0);
+  }
   shown_clear (&s);
 
   /* Probe at t = 90 mm, phi = 30 degrees (typed as the app takes it). */
@@ -323,9 +346,10 @@ test_inches_curvature_per_m2 (void)
                      json_array_get_double_element (point, k), 1e-12, 1e-15);
   df_assert_close (g_ascii_strtod (parts[6], NULL),
                    json_object_get_double_member (probe_m, "gaussian_curvature"), 1e-12, 0);
-  /* H per length: per inch, as the CLI's probe --units in. */
+  /* H per the curvature unit (per m), as the CLI's probe --curvature-units m, so that
+   * K = k1 k2 holds in the figures shown. */
   df_assert_close (g_ascii_strtod (parts[7], NULL),
-                   json_object_get_double_member (probe_in, "mean_curvature"), 1e-12, 0);
+                   json_object_get_double_member (probe_m, "mean_curvature"), 1e-12, 0);
   g_clear_pointer (&line, g_free);
 
   /* A geodesic typed with length 2: the field is in inches. The project's own geodesic (120
@@ -352,6 +376,8 @@ test_inches_curvature_per_m2 (void)
   df_assert_close (ended, 2 * MM_PER_INCH, 1e-9, 0);
   stop_app (app);
   xserver_stop (&x);
+  g_remove (demo);
+  g_rmdir (dir);
 }
 
 /* The loops summary exported by the app with --units m has the columns and numbers of the
@@ -373,7 +399,8 @@ test_summary_csv_metres (void)
   g_autoptr(GPtrArray) c_rows = NULL;
   g_auto(GStrv) a_head = NULL;
   g_auto(GStrv) c_head = NULL;
-  const char *columns[] = { "length_m", "area_m2", "min_steering_radius_m", "holonomy_rad" };
+  const char *columns[] = { "length_m", "area_m2", "min_steering_radius_m", "holonomy_rad",
+                            "mean_K_per_m2" };
 
   if (!xserver_start (&x))
     return;

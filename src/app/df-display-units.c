@@ -75,6 +75,12 @@ df_du_gaussian (const DfDisplayUnits *u, double model)
 }
 
 double
+df_du_per_curvature (const DfDisplayUnits *u, double model)
+{
+  return u->known ? df_unit_curvature (model, u->units.model, u->units.curvature) : model;
+}
+
+double
 df_du_to_model (const DfDisplayUnits *u, double shown)
 {
   return u->known ? df_unit_length (shown, u->units.length, u->units.model) : shown;
@@ -120,7 +126,7 @@ df_du_loop_result_copy (const DfDisplayUnits *u,
       memcpy (copy->samples, result->samples, result->n_samples * sizeof *result->samples);
     }
   if (u->known)
-    df_loop_result_convert (copy, u->units.model, u->units.length);
+    df_loop_result_convert_display (copy, &u->units);
   return copy;
 }
 
@@ -131,4 +137,10 @@ df_du_loop_result_free (df_loop_result *result)
     return;
   df_loop_result_clear (result);
   g_free (result);
+}
+
+char *
+df_du_format_per_curvature (const DfDisplayUnits *u, double model)
+{
+  return df_format_per_length (df_du_per_curvature (u, model), df_du_curvature_unit (u));
 }

@@ -41,18 +41,23 @@ double      df_du_length           (const DfDisplayUnits *u, double model);
 double      df_du_area             (const DfDisplayUnits *u, double model);
 double      df_du_per_length       (const DfDisplayUnits *u, double model);
 double      df_du_gaussian         (const DfDisplayUnits *u, double model);
+/* A surface curvature (H, k1, k2) per the curvature unit, as the CLI's probe gives it: K = k1 k2
+ * holds in the figures shown. (A curve's k_g stays per length unit: df_du_per_length.) */
+double      df_du_per_curvature    (const DfDisplayUnits *u, double model);
 /* A length typed in the display unit, in the surface's units. */
 double      df_du_to_model         (const DfDisplayUnits *u, double shown);
 
 /* df-format's forms of the converted values: "0.1234 m", "0.0123 m²", "8.1 1/m",
- * "69 1/m²" (never nan or inf: an em dash). */
+ * "69 1/m²" (never nan or inf: an em dash); per_curvature: "8.1 1/m" per the curvature unit. */
 char       *df_du_format_length    (const DfDisplayUnits *u, double model);
 char       *df_du_format_area      (const DfDisplayUnits *u, double model);
 char       *df_du_format_per_length (const DfDisplayUnits *u, double model);
 char       *df_du_format_gaussian  (const DfDisplayUnits *u, double model);
+char       *df_du_format_per_curvature (const DfDisplayUnits *u, double model);
 
-/* A measured loop in the display units, for an export (df_loop_result_convert: K per square
- * of the length unit there, as the CLI writes it); free with df_du_loop_result_free. */
+/* A measured loop in the display units, for an export (df_loop_result_convert_display, as the
+ * CLI's report converts: lengths and k_g per length unit, K per curvature unit squared); free
+ * with df_du_loop_result_free. */
 df_loop_result *df_du_loop_result_copy (const DfDisplayUnits *u, const df_loop_result *result);
 void        df_du_loop_result_free (df_loop_result *result);
 

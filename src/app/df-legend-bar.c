@@ -54,7 +54,7 @@ title_text (DfLegendBar *self)
       return g_strdup_printf ("Gaussian curvature K (1/%s\u00b2)",
                               df_du_curvature_unit (&self->du));
     case DF_SHADING_MEAN:
-      return g_strdup_printf ("Mean curvature H (1/%s)", df_du_length_unit (&self->du));
+      return g_strdup_printf ("Mean curvature H (1/%s)", df_du_curvature_unit (&self->du));
     case DF_SHADING_PLAIN:
     default:
       return g_strdup ("Plain shading: no curvature scale");
@@ -156,9 +156,9 @@ df_legend_bar_snapshot (GtkWidget   *widget,
   {
     /* The view's range is in the surface's units; shown in the display units. */
     double shown_lo = self->shading == DF_SHADING_GAUSSIAN ? df_du_gaussian (&self->du, self->lo)
-                                                           : df_du_per_length (&self->du, self->lo);
+                                                           : df_du_per_curvature (&self->du, self->lo);
     double shown_hi = self->shading == DF_SHADING_GAUSSIAN ? df_du_gaussian (&self->du, self->hi)
-                                                           : df_du_per_length (&self->du, self->hi);
+                                                           : df_du_per_curvature (&self->du, self->hi);
     g_autofree char *lo_value = self->lo == 0 ? g_strdup ("0")
                                 : df_format_number_as (shown_lo, shown_hi);
     g_autofree char *hi_value = self->hi == 0 ? g_strdup ("0")

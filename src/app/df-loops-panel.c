@@ -30,6 +30,7 @@ struct _DfLoopsPanel
   GtkLabel    *kg_value;
   GtkLabel    *steering_value;
   GtkLabel    *winding_value;
+  GtkLabel    *mean_k_value;   /* built in code, after the area: K in the curvature unit */
   GtkLabel    *note_label;
   GtkLabel    *error_label;
 
@@ -72,7 +73,7 @@ clear_values (DfLoopsPanel *self,
 {
   GtkLabel *labels[] = { self->holonomy_value, self->enclosed_value, self->residual_value,
                          self->area_value, self->length_value, self->kg_value,
-                         self->steering_value, self->winding_value };
+                         self->steering_value, self->winding_value, self->mean_k_value };
 
   for (guint i = 0; i < G_N_ELEMENTS (labels); i++)
     gtk_label_set_text (labels[i], placeholder);
@@ -135,6 +136,7 @@ update_details (DfLoopsPanel *self)
     }
 
   r = df_loop_item_get_result (item);
+  gtk_label_set_text (self->mean_k_value, "\u2014");  /* set below where the disc has one */
   {
     g_autofree char *angle = df_format_angle (r->holonomy_rad);
     const char *sense = r->holonomy_rad > 0 ? ", counter-clockwise about N"
@@ -152,6 +154,8 @@ update_details (DfLoopsPanel *self)
       set_value (self->enclosed_value, df_format_angle (r->enclosed_curvature_rad));
       set_value (self->residual_value, df_format_angle (r->residual_rad));
       set_value (self->area_value, df_du_format_area (&du, r->area));
+      if (r->has_mean_K)
+        set_value (self->mean_k_value, df_du_format_gaussian (&du, r->mean_K));
       if (r->concentrated_rad != 0.0)
         {
           g_autofree char *apex = df_format_angle (r->concentrated_rad);
@@ -216,10 +220,11 @@ update_details (DfLoopsPanel *self)
       /* The numbers the labels above were made from, in full, for test drivers. */
       g_autofree char *name = g_strdelimit (g_strdup (df_loop_item_get_name (item)), " ", '_');
 
-      printf ("loop-shown %s %s %.17g %.17g %.17g\n", name, df_du_length_unit (&du),
+      printf ("loop-shown %s %s %.17g %.17g %.17g %s %.17g\n", name, df_du_length_unit (&du),
               df_du_length (&du, r->length),
               r->bounds_disc && r->enclosed_available ? df_du_area (&du, r->area) : NAN,
-              r->has_steering_radius ? df_du_length (&du, r->min_steering_radius) : NAN);
+              r->has_steering_radius ? df_du_length (&du, r->min_steering_radius) : NAN,
+              df_du_curvature_unit (&du), r->has_mean_K ? df_du_gaussian (&du, r->mean_K) : NAN);
       fflush (stdout);
     }
 }
@@ -415,6 +420,30 @@ static void
 df_loops_panel_init (DfLoopsPanel *self)
 {
   gtk_widget_init_template (GTK_WIDGET (self));
+  {
+    /* Below the area (row 3 of the template's grid): the disc's mean Gaussian curvature, the
+     * enclosed curvature over the area, in the chosen curvature unit. */
+    const char *tip = "The enclosed curvature divided by the disc's area: its mean Gaussian "
+                      "curvature K";
+    GtkWidget *name = gtk_label_new ("Mean K over the disc");
+    GtkWidget *value = gtk_label_new ("\u2014");
+
+    gtk_label_set_xalign (GTK_LABEL (name), 0);
+    gtk_widget_set_tooltip_text (name, tip);
+    gtk_label_set_xalign (GTK_LABEL (value), 0);
+    gtk_label_set_selectable (GTK_LABEL (value), TRUE);
+    gtk_label_set_wrap (GTK_LABEL (value), TRUE);
+    gtk_widget_set_focusable (value, FALSE);
+    gtk_widget_set_hexpand (value, TRUE);
+    gtk_widget_set_tooltip_text (value, tip);
+    gtk_widget_add_css_class (value, "numeric");
+    gtk_accessible_update_property (GTK_ACCESSIBLE (value), GTK_ACCESSIBLE_PROPERTY_LABEL,
+                                    "Mean K over the disc", -1);
+    gtk_grid_insert_row (self->details_grid, 4);
+    gtk_grid_attach (self->details_grid, name, 0, 4, 1, 1);
+    gtk_grid_attach (self->details_grid, value, 1, 4, 1, 1);
+    self->mean_k_value = GTK_LABEL (value);
+  }
   self->verdict_details = df_verdict_details_new ();
   gtk_widget_insert_after (self->verdict_details,
                            gtk_widget_get_parent (GTK_WIDGET (self->error_label)),

@@ -22,8 +22,8 @@ void        df_loops_panel_start_rename  (DfLoopsPanel *self);
 void        df_loops_panel_select        (DfLoopsPanel *self, DfLoopItem *item);
 /* Text above the list while a loop is being sketched; NULL hides it. */
 void        df_loops_panel_set_live_text (DfLoopsPanel *self, const char *text);
-/* Prints "loop-shown NAME UNIT LENGTH AREA STEERING_RADIUS" (the values shown, converted to
- * the display units) each time a measured loop's details are shown. */
+/* Prints "loop-shown NAME UNIT LENGTH AREA STEERING_RADIUS CURVATURE_UNIT MEAN_K" (the values
+ * shown, converted to the display units) each time a measured loop's details are shown. */
 void        df_loops_panel_set_report_events (DfLoopsPanel *self, gboolean report);
 
 G_END_DECLS

@@ -243,7 +243,8 @@ df_probe_panel_show (DfProbePanel            *self,
   row = 0;
   {
     g_autofree char *per_area = g_strdup_printf ("1/%s²", df_du_curvature_unit (du));
-    g_autofree char *per_length = g_strdup_printf ("1/%s", shown);
+    /* H, k1, k2 per the curvature unit, as `probe --curvature-units` (K = k1 k2 as shown). */
+    g_autofree char *per_length = g_strdup_printf ("1/%s", df_du_curvature_unit (du));
 
     if (!g->curvature_defined)
       {
@@ -254,10 +255,10 @@ df_probe_panel_show (DfProbePanel            *self,
         return;
       }
     table_add_number (table, row++, "Gaussian K", df_du_gaussian (du, g->K), per_area);
-    table_add_number (table, row++, "Mean H", df_du_per_length (du, g->H), per_length);
-    table_add_number (table, row++, "Principal k<sub>1</sub>", df_du_per_length (du, g->k1),
+    table_add_number (table, row++, "Mean H", df_du_per_curvature (du, g->H), per_length);
+    table_add_number (table, row++, "Principal k<sub>1</sub>", df_du_per_curvature (du, g->k1),
                       per_length);
-    table_add_number (table, row++, "Principal k<sub>2</sub>", df_du_per_length (du, g->k2),
+    table_add_number (table, row++, "Principal k<sub>2</sub>", df_du_per_curvature (du, g->k2),
                       per_length);
     if (g->k1 != 0.0)
       table_add_number (table, row++, "Radius 1/k<sub>1</sub>", df_du_length (du, 1.0 / g->k1),

@@ -161,8 +161,9 @@ df_units_dialog_present (GtkWindow  *parent,
   gtk_grid_attach (GTK_GRID (grid), d->curvature, 1, 1, 1, 1);
   gtk_grid_attach (GTK_GRID (grid),
                    df_label_wrapped ("Saved with the project (its [units] group, read by the "
-                                     "command-line tool too); Ctrl+Z undoes a change. Curvatures "
-                                     "per length (k_g, H, k1, k2) follow the length unit.",
+                                     "command-line tool too); Ctrl+Z undoes a change. H, k1 and k2 "
+                                     "are per the curvature unit (K = k1 k2 as shown); a curve's "
+                                     "k_g is per length unit.",
                                      NULL, 44), 0, 2, 2, 1);
   gtk_grid_attach (GTK_GRID (grid), d->note, 0, 3, 2, 1);
   gtk_window_set_child (GTK_WINDOW (window), grid);

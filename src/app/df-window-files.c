@@ -583,9 +583,13 @@ _df_window_export_summary (DfWindow    *self,
       g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "there is no loop to export");
       return FALSE;
     }
-  ok = df_loop_summary_write (path, (const char *const *) names->pdata,
-                              (const df_loop_result *const *) results->pdata,
-                              (const char *const *) failures->pdata, n, &csv, error);
+  /* mean_K per the curvature unit squared, named as `report --summary` names it. */
+  ok = df_loop_summary_write_k (path, (const char *const *) names->pdata,
+                                (const df_loop_result *const *) results->pdata,
+                                (const char *const *) failures->pdata, n, &csv,
+                                du.known && (du.units.curvature != du.units.model
+                                             || du.units.length != du.units.model)
+                                  ? df_unit_name (du.units.curvature) : NULL, error);
   if (ok && unmeasured > 0)
     _df_window_status (self, TRUE, "Summary written; %u loop%s not measured, listed with the "
                        "reason.", unmeasured, unmeasured == 1 ? " is" : "s are");

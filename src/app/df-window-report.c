@@ -71,7 +71,7 @@ number_text (char *buf, gsize len, double v)
 
 /* The legend on a backdrop, bottom left: always readable over the surface. */
 static void
-draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs, gboolean model)
+draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs)
 {
   DfShading shading = df_surface_view_get_shading (self->view);
   DfDisplayUnits du;
@@ -85,10 +85,7 @@ draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs, gboolean mode
     return;
   df_surface_view_get_shading_range (self->view, &lo, &hi);
   /* The window legend's numbers (df-legend-bar.c): the range shown in the display units. */
-  if (model)
-    df_du_identity (&du, df_document_get_units (self->document));
-  else
-    df_document_get_display_units (self->document, &du);
+  df_document_get_display_units (self->document, &du);
   if (shading == DF_SHADING_GAUSSIAN)
     {
       lo = df_du_gaussian (&du, lo);
@@ -97,9 +94,9 @@ draw_legend (DfWindow *self, cairo_t *cr, int w, int h, double fs, gboolean mode
     }
   else
     {
-      lo = df_du_per_length (&du, lo);
-      hi = df_du_per_length (&du, hi);
-      u = df_du_length_unit (&du);
+      lo = df_du_per_curvature (&du, lo);
+      hi = df_du_per_curvature (&du, hi);
+      u = df_du_curvature_unit (&du);
     }
   title = g_strdup_printf ("%s, 1/%s%s",
                            shading == DF_SHADING_GAUSSIAN ? "Gaussian curvature K"
@@ -201,7 +198,7 @@ draw_loop_names (DfWindow *self, cairo_t *cr, int w, int h, double fs)
 }
 
 static void
-draw_caption (DfWindow *self, cairo_t *cr, int w, double fs, gboolean model)
+draw_caption (DfWindow *self, cairo_t *cr, int w, double fs)
 {
   g_autofree char *file_title = df_document_get_title (self->document);
   const df_project *meta = df_document_get_meta (self->document);
@@ -212,10 +209,7 @@ draw_caption (DfWindow *self, cairo_t *cr, int w, double fs, gboolean model)
   DfDisplayUnits du;
   g_autofree char *text = NULL;
 
-  if (model)
-    df_du_identity (&du, df_document_get_units (self->document));
-  else
-    df_document_get_display_units (self->document, &du);
+  df_document_get_display_units (self->document, &du);
   text = g_strdup_printf (
     "%s \xe2\x80\x94 %s \xe2\x80\x94 lengths in %s \xe2\x80\x94 %s", title,
     s != NULL && df_surface_get_kind (s) == DF_SURFACE_REVOLUTION ? "surface of revolution"
@@ -229,11 +223,10 @@ draw_caption (DfWindow *self, cairo_t *cr, int w, double fs, gboolean model)
   show_text (cr, fs * 0.6, fs * 0.35, text, fs, FALSE, FALSE, NULL, NULL);
 }
 
-/* The view with its legend, loop names and caption, as an image of w x h pixels; in the
- * display units, or the surface's own (model) for the PDF, whose text says its picture is in
- * them. */
+/* The view with its legend, loop names and caption, as an image of w x h pixels, in the
+ * display units (the PDF's picture too, as `report --pdf` draws its K legend). */
 static cairo_surface_t *
-annotated_image (DfWindow *self, int w, int h, gboolean model, GError **error)
+annotated_image (DfWindow *self, int w, int h, GError **error)
 {
   cairo_surface_t *img = df_surface_view_render_image (self->view, w, h, error);
   cairo_t *cr;
@@ -245,9 +238,9 @@ annotated_image (DfWindow *self, int w, int h, gboolean model, GError **error)
   h = cairo_image_surface_get_height (img);
   fs = MAX (11.0, MIN (w, h) / 45.0);
   cr = cairo_create (img);
-  draw_caption (self, cr, w, fs, model);
+  draw_caption (self, cr, w, fs);
   draw_loop_names (self, cr, w, h, fs);
-  draw_legend (self, cr, w, h, fs, model);
+  draw_legend (self, cr, w, h, fs);
   cairo_destroy (cr);
   return img;
 }
@@ -266,7 +259,7 @@ _df_window_export_png_annotated (DfWindow    *self,
                                  int          height,
                                  GError     **error)
 {
-  cairo_surface_t *img = annotated_image (self, width, height, FALSE, error);
+  cairo_surface_t *img = annotated_image (self, width, height, error);
   g_autoptr (GByteArray) bytes = g_byte_array_new ();
   cairo_status_t cs;
 
@@ -315,7 +308,7 @@ _df_window_export_report (DfWindow    *self,
   if (!df_paper_from_name (paper != NULL ? paper : "a4", &report.paper))
     report.paper = DF_PAPER_A4;
   /* The picture as the user sees it, at print resolution for a 180 mm wide figure. */
-  picture = annotated_image (self, 1600, 1000, TRUE, error);
+  picture = annotated_image (self, 1600, 1000, error);
   if (picture == NULL)
     {
       g_prefix_error (error, "Cannot write %s: ", path);
@@ -329,8 +322,8 @@ _df_window_export_report (DfWindow    *self,
     df_report_fields_add (&fields, "Project file", "not saved yet");
   df_report_fields_add_spec (&fields, df_document_get_spec (self->document), surface);
 
-  /* The figures in the display units, the picture and the inputs in the surface's, as
-   * `report --pdf` writes them. */
+  /* The figures, the picture's legend and the verdict lines in the display units, the inputs
+   * in the surface's, as `report --pdf` writes them. */
   df_document_get_display_units (self->document, &du);
   for (guint i = 0; i < n; i++)
     {
@@ -351,11 +344,12 @@ _df_window_export_report (DfWindow    *self,
 
           g_ptr_array_add (shown, converted);
           rl[i].result = converted;
-          v = df_report_verdict_lines (surface, rl[i].uv, rl[i].n,
-                                              df_document_get_limits (self->document),
-                                              df_document_get_units (self->document),
-                                              &rl[i].kg_limit, &rl[i].checked,
-                                              &rl[i].n_exceeded);
+          /* The loop's drape for max-shear-deg: the defaults (the app keeps no per-loop drape
+           * setting yet), as df_report_verdict_lines uses. */
+          v = df_report_verdict_lines_display (surface, rl[i].uv, rl[i].n,
+                                               df_document_get_limits (self->document), NULL,
+                                               &du.units, &rl[i].kg_limit, &rl[i].checked,
+                                               &rl[i].n_exceeded);
 
           if (v != NULL)
             g_ptr_array_add (lines, v);
@@ -371,6 +365,7 @@ _df_window_export_report (DfWindow    *self,
   report.n_inputs = fields.fields->len;
   report.units = df_du_length_unit (&du);
   report.model_units = du.label;
+  report.curvature_units = df_du_curvature_unit (&du);
   report.surface = surface;
   report.loops = rl;
   report.n_loops = n;

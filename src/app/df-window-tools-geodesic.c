@@ -55,7 +55,7 @@ _df_window_probe_at (DfWindow *self,
               df_du_curvature_unit (&du), df_du_length (&du, geometry.point[0]),
               df_du_length (&du, geometry.point[1]), df_du_length (&du, geometry.point[2]),
               geometry.curvature_defined ? df_du_gaussian (&du, geometry.K) : NAN,
-              geometry.curvature_defined ? df_du_per_length (&du, geometry.H) : NAN);
+              geometry.curvature_defined ? df_du_per_curvature (&du, geometry.H) : NAN);
       fflush (stdout);
     }
 }
