@@ -492,17 +492,21 @@ export_item (DfWindow *self)
 }
 
 /* What the exported CSV says about itself; label names the project (it must outlive the
- * context). */
+ * context). display: in the display unit (the summary, as `report --units --summary`), else
+ * in the surface's (the samples, as `measure --samples`, which --units leaves as they are). */
 static df_csv_context
 export_csv_context (DfWindow   *self,
-                    const char *label)
+                    const char *label,
+                    gboolean    display)
 {
   const df_surface *surface = df_document_get_surface (self->document);
   DfDisplayUnits du;
   df_csv_context c;
 
-  /* In the display unit, as `report --summary` and `measure --samples` write with --units. */
-  df_document_get_display_units (self->document, &du);
+  if (display)
+    df_document_get_display_units (self->document, &du);
+  else
+    df_du_identity (&du, df_document_get_units (self->document));
   c = (df_csv_context) { df_du_length_unit (&du),
                        surface != NULL ? df_surface_get_kind (surface) : DF_SURFACE_GRAPH,
                        label, surface != NULL ? df_surface_normal_side (surface) : NULL };
@@ -534,16 +538,11 @@ _df_window_export_samples (DfWindow    *self,
     }
   {
     g_autofree char *title = df_document_get_title (self->document);
-    df_csv_context csv = export_csv_context (self, title);
-    DfDisplayUnits du;
-    df_loop_result *shown;
-    gboolean ok;
+    df_csv_context csv = export_csv_context (self, title, FALSE);
 
-    df_document_get_display_units (self->document, &du);
-    shown = df_du_loop_result_copy (&du, result);
-    ok = df_loop_samples_write (path, shown, &csv, error);
-    df_du_loop_result_free (shown);
-    return ok;
+    /* The samples as the surface defines them (chart points, K per its unit squared), as
+     * `measure --samples` writes them whatever --units says. */
+    return df_loop_samples_write (path, result, &csv, error);
   }
 }
 
@@ -558,7 +557,7 @@ _df_window_export_summary (DfWindow    *self,
   g_autoptr(GPtrArray) results = g_ptr_array_new_with_free_func ((GDestroyNotify) df_du_loop_result_free);
   g_autoptr(GPtrArray) failures = g_ptr_array_new ();
   g_autofree char *title = df_document_get_title (self->document);
-  df_csv_context csv = export_csv_context (self, title);
+  df_csv_context csv = export_csv_context (self, title, TRUE);
   guint unmeasured = 0;
   gboolean ok;
   DfDisplayUnits du;
