@@ -7,6 +7,7 @@
  * (with the reason) when Xvfb or xdotool is missing. */
 #include <gio/gio.h>
 #include <glib/gstdio.h>
+#include <json-glib/json-glib.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -442,6 +443,102 @@ test_data_import_typed_path (void)
   g_rmdir (dir);
 }
 
+/* `check --json` on a project (the reference: the CLI reads the file the app wrote) as the
+ * max-shear-deg verdict's drape of one loop: warp, cell and start, into out[4]. */
+static void
+cli_shear_drape (const char *project,
+                 const char *loop,
+                 double      out[4])
+{
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GBytes) bytes = NULL;
+  g_autoptr(JsonParser) parser = json_parser_new ();
+  JsonArray *verdicts;
+  gboolean found = FALSE;
+
+  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE | G_SUBPROCESS_FLAGS_STDERR_SILENCE,
+                          &error, DF_CLI_PATH, "check", "--project", project, "--json", NULL);
+  g_assert_no_error (error);
+  g_subprocess_communicate (cli, NULL, NULL, &bytes, NULL, &error);
+  g_assert_no_error (error);
+  json_parser_load_from_data (parser, g_bytes_get_data (bytes, NULL),
+                              (gssize) g_bytes_get_size (bytes), &error);
+  g_assert_no_error (error);
+  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
+                                           "verdicts");
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+      JsonObject *d;
+      JsonArray *start;
+
+      if (g_strcmp0 (json_object_get_string_member (v, "loop"), loop) != 0
+          || g_strcmp0 (json_object_get_string_member (v, "limit"), "max-shear-deg") != 0)
+        continue;
+      d = json_object_get_object_member (v, "drape");
+      start = json_object_get_array_member (d, "start");
+      out[0] = json_object_get_double_member (d, "warp_deg");
+      out[1] = json_object_get_double_member (d, "cell");
+      out[2] = json_array_get_double_element (start, 0);
+      out[3] = json_array_get_double_element (start, 1);
+      found = TRUE;
+    }
+  g_assert_true (found);
+}
+
+/* A loop's drape keys (drape-start, drape-warp-deg, drape-cell) survive a save from the app:
+ * the saved file gives check's shear verdict the same drape as the file opened. */
+static void
+test_drape_keys_saved (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
+  g_autofree char *opened = g_build_filename (dir, "keys.dfproj", NULL);
+  g_autofree char *saved = g_build_filename (dir, "keys-saved.dfproj", NULL);
+  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *demo = NULL;
+  g_autofree char *text = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autofree char *line = NULL;
+  double before[4], after[4];
+
+  g_assert_true (g_file_get_contents (demo_path, &demo, NULL, &error));
+  g_assert_nonnull (strstr (demo, "name=Belly patch\n"));
+  {
+    g_auto(GStrv) halves = g_strsplit (demo, "name=Belly patch\n", 2);
+
+    text = g_strconcat (halves[0], "name=Belly patch\ndrape-start=92;0.05\n"
+                        "drape-warp-deg=30\ndrape-cell=6\n", halves[1], NULL);
+  }
+  g_assert_true (g_file_set_contents (opened, text, -1, &error));
+  cli_shear_drape (opened, "Belly patch", before);
+  g_assert_cmpfloat (before[0], ==, 30);
+  g_assert_cmpfloat (before[1], ==, 6);
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, &out, opened, NULL);
+  g_strfreev (read_view_geometry (out));
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+shift+s", NULL);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
+              "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", saved, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  line = read_until (out, "saved ");
+  g_assert_nonnull (line);
+  stop_app (app, &x);
+
+  cli_shear_drape (saved, "Belly patch", after);
+  for (int k = 0; k < 4; k++)
+    g_assert_cmpfloat (after[k], ==, before[k]);
+  g_remove (opened);
+  g_remove (saved);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -459,5 +556,6 @@ main (int   argc,
   g_test_add_func ("/app/edits/one-signed-range", test_one_signed_range);
   g_test_add_func ("/app/edits/save-as-title", test_save_as_title);
   g_test_add_func ("/app/edits/data-import-typed-path", test_data_import_typed_path);
+  g_test_add_func ("/app/edits/drape-keys-saved", test_drape_keys_saved);
   return g_test_run ();
 }

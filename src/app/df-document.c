@@ -153,6 +153,8 @@ df_document_to_project (DfDocument *self)
       uv = df_loop_item_get_points (item, &n_points);
       df_project_add_loop (project, df_loop_item_get_name (item), df_loop_item_get_colour (item),
                            df_loop_item_get_show_frames (item), uv, n_points);
+      ((df_project_loop *) g_ptr_array_index (project->loops, project->loops->len - 1))->drape
+        = *df_loop_item_get_drape (item);
     }
   return project;
 }
@@ -340,8 +342,11 @@ replace_state (DfDocument  *self,
   for (guint i = 0; i < project->loops->len; i++)
     {
       df_project_loop *loop = g_ptr_array_index (project->loops, i);
-      g_ptr_array_add (items, df_loop_item_new (loop->name, loop->colour, loop->show_frames,
-                                                (const double (*)[2]) loop->uv, loop->n));
+      DfLoopItem *item = df_loop_item_new (loop->name, loop->colour, loop->show_frames,
+                                           (const double (*)[2]) loop->uv, loop->n);
+
+      df_loop_item_set_drape (item, &loop->drape);
+      g_ptr_array_add (items, item);
     }
   g_list_store_splice (self->loops, 0, g_list_model_get_n_items (G_LIST_MODEL (self->loops)),
                        items->pdata, items->len);

@@ -17,6 +17,7 @@ struct _DfLoopItem
   gboolean        show_frames;
   double        (*uv)[2];
   gsize           n;
+  df_shear_setup  drape;
   DfLoopState     state;
   df_loop_result *result;
   char           *error;
@@ -346,6 +347,25 @@ df_loop_item_set_points (DfLoopItem    *self,
   g_free (self->uv);
   self->uv = g_memdup2 (uv, n * sizeof *uv);
   self->n = n;
+  /* New chart points (the loop carried onto another surface): a drape start in the old chart
+   * would name another place; the warp and the cell still mean what they did. */
+  self->drape.has_start = FALSE;
+}
+
+const df_shear_setup *
+df_loop_item_get_drape (DfLoopItem *self)
+{
+  g_return_val_if_fail (DF_IS_LOOP_ITEM (self), NULL);
+  return &self->drape;
+}
+
+void
+df_loop_item_set_drape (DfLoopItem           *self,
+                        const df_shear_setup *drape)
+{
+  g_return_if_fail (DF_IS_LOOP_ITEM (self));
+  g_return_if_fail (drape != NULL);
+  self->drape = *drape;
 }
 
 void

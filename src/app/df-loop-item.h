@@ -7,6 +7,7 @@
 #include <gdk/gdk.h>
 
 #include "df-glib.h"
+#include "df-verdict-shear.h"
 
 G_BEGIN_DECLS
 
@@ -36,6 +37,10 @@ void                  df_loop_item_get_rgba     (DfLoopItem *self, GdkRGBA *rgba
 gboolean              df_loop_item_get_show_frames (DfLoopItem *self);
 void                  df_loop_item_set_show_frames (DfLoopItem *self, gboolean show);
 const double        (*df_loop_item_get_points   (DfLoopItem *self, gsize *n))[2];
+/* The drape max-shear-deg is checked with (the project's drape-start, drape-warp-deg and
+ * drape-cell keys of the loop; nothing set by default), kept so that saving loses none. */
+const df_shear_setup *df_loop_item_get_drape    (DfLoopItem *self);
+void                  df_loop_item_set_drape    (DfLoopItem *self, const df_shear_setup *drape);
 
 DfLoopState           df_loop_item_get_state    (DfLoopItem *self);
 /* The measurement, or NULL unless the state is MEASURED. */

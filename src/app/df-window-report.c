@@ -344,10 +344,11 @@ _df_window_export_report (DfWindow    *self,
 
           g_ptr_array_add (shown, converted);
           rl[i].result = converted;
-          /* The loop's drape for max-shear-deg: the defaults (the app keeps no per-loop drape
-           * setting yet), as df_report_verdict_lines uses. */
+          /* max-shear-deg by a drape of the loop with its own keys (defaults where unset),
+           * as `report` does. */
           v = df_report_verdict_lines_display (surface, rl[i].uv, rl[i].n,
-                                               df_document_get_limits (self->document), NULL,
+                                               df_document_get_limits (self->document),
+                                               df_loop_item_get_drape (item),
                                                &du.units, &rl[i].kg_limit, &rl[i].checked,
                                                &rl[i].n_exceeded);
 
