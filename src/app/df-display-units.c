@@ -2,6 +2,7 @@
  * units (see df-display-units.h); the factors are the core's (df-units). */
 #include "df-display-units.h"
 
+#include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -19,6 +20,7 @@ df_du_identity (DfDisplayUnits *out,
   out->known = df_unit_from_name (surface_units, &model);
   df_display_units_init (&out->units, model);
   g_strlcpy (out->label, surface_units, sizeof out->label);
+  out->t_unit[0] = '\0';
 }
 
 void
@@ -143,4 +145,27 @@ char *
 df_du_format_per_curvature (const DfDisplayUnits *u, double model)
 {
   return df_format_per_length (df_du_per_curvature (u, model), df_du_curvature_unit (u));
+}
+
+char *
+df_du_format_chart_point (const DfDisplayUnits *u,
+                          gboolean              revolution,
+                          double                cu,
+                          double                cv)
+{
+  g_autofree char *a = df_format_number (cu);
+  g_autofree char *b = NULL;
+
+  if (revolution)
+    {
+      b = df_format_number (remainder (cv, 2 * G_PI) * 180.0 / G_PI);
+      return g_strdup_printf ("t = %s%s%s, φ = %s°", a, u->t_unit[0] != '\0' ? " " : "",
+                              u->t_unit, b);
+    }
+  /* A height field's chart is its plan: x and y are lengths in space, shown in the display
+   * unit like the point's z. */
+  g_free (a);
+  a = df_format_number (df_du_length (u, cu));
+  b = df_format_number (df_du_length (u, cv));
+  return g_strdup_printf ("x = %s, y = %s %s", a, b, df_du_length_unit (u));
 }

@@ -19,6 +19,10 @@ typedef struct
   df_display_units units;    /* model (the surface's), length, curvature */
   gboolean         known;    /* the surface's label is a known unit: a choice is possible */
   char             label[32]; /* the surface's own label, shown when nothing converts */
+  /* What a profile's t is measured in (df_surface_spec_t_units: "mm", "rad"...), "" when
+   * nothing says; set by df_document_get_display_units. Chart coordinates stay in the
+   * surface's own units: this only labels them. */
+  char             t_unit[24];
 } DfDisplayUnits;
 
 /* From the project's limits (may be NULL) and the surface's units label (NULL: "mm"). */
@@ -54,6 +58,12 @@ char       *df_du_format_area      (const DfDisplayUnits *u, double model);
 char       *df_du_format_per_length (const DfDisplayUnits *u, double model);
 char       *df_du_format_gaussian  (const DfDisplayUnits *u, double model);
 char       *df_du_format_per_curvature (const DfDisplayUnits *u, double model);
+
+/* A chart point: "t = 90 mm, φ = 5°" on a surface of revolution (t as the surface defines it,
+ * with its unit when known; φ in degrees wrapped to (−180°, 180°]), "x = 0.012, y = −0.003 m"
+ * on a graph (its plan coordinates, lengths in space, in the display unit). */
+char       *df_du_format_chart_point (const DfDisplayUnits *u, gboolean revolution, double cu,
+                                      double cv);
 
 /* A measured loop in the display units, for an export (df_loop_result_convert_display, as the
  * CLI's report converts: lengths and k_g per length unit, K per curvature unit squared); free

@@ -10,6 +10,8 @@ df_document_get_display_units (DfDocument     *self,
 {
   g_return_if_fail (DF_IS_DOCUMENT (self));
   df_du_resolve (out, self->limits, df_document_get_units (self));
+  if (self->spec != NULL && df_surface_spec_t_units (self->spec) != NULL)
+    g_strlcpy (out->t_unit, df_surface_spec_t_units (self->spec), sizeof out->t_unit);
 }
 
 gboolean

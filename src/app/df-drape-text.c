@@ -20,22 +20,14 @@ df_drape_text_chart_names (const df_surface *surface,
 }
 
 char *
-df_drape_text_point (const df_surface *surface,
-                     double            u,
-                     double            v)
+df_drape_text_point (const DfDisplayUnits *du,
+                     const df_surface     *surface,
+                     double                u,
+                     double                v)
 {
-  g_autofree char *a = df_format_number (u);
-  g_autofree char *b = NULL;
-  const char *un, *vn;
-
-  df_drape_text_chart_names (surface, &un, &vn);
-  if (surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
-    {
-      b = df_format_number (remainder (v, 2 * G_PI) * DEG);
-      return g_strdup_printf ("%s = %s, %s = %s°", un, a, vn, b);
-    }
-  b = df_format_number (v);
-  return g_strdup_printf ("%s = %s, %s = %s", un, a, vn, b);
+  return df_du_format_chart_point (du, surface != NULL
+                                       && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION,
+                                   u, v);
 }
 
 char *
@@ -46,11 +38,11 @@ df_drape_text_figures (const DfDrapeResult *r,
 {
   const df_drape_summary *s = df_drape_get_summary (r->drape);
   GString *t = g_string_new (NULL);
-  g_autofree char *at = df_drape_text_point (surface, s->max_shear_u, s->max_shear_v);
+  g_autofree char *at = df_drape_text_point (du, surface, s->max_shear_u, s->max_shear_v);
   g_autofree char *shear = df_format_number (s->max_shear_rad * DEG);
   g_autofree char *cshear = df_format_number (s->max_cell_shear_rad * DEG);
   g_autofree char *dev = df_format_number (s->max_warp_deviation_rad * DEG);
-  g_autofree char *dev_at = df_drape_text_point (surface, s->max_warp_deviation_u,
+  g_autofree char *dev_at = df_drape_text_point (du, surface, s->max_warp_deviation_u,
                                                  s->max_warp_deviation_v);
   g_autofree char *enclosed = df_format_number (s->enclosed_curvature_rad);
   g_autofree char *ms = df_format_number (r->elapsed_ms);
@@ -98,6 +90,7 @@ source_of (const df_limit *l)
 char *
 df_drape_text_flags (const DfDrapeResult *r,
                      const df_surface    *surface,
+                     const DfDisplayUnits *du,
                      const df_limits     *limits)
 {
   const df_drape_summary *s = df_drape_get_summary (r->drape);
@@ -117,7 +110,7 @@ df_drape_text_flags (const DfDrapeResult *r,
       else
         {
           g_autofree char *worst = df_format_number (r->worst_shear_rad * DEG);
-          g_autofree char *at = df_drape_text_point (surface, r->worst_u, r->worst_v);
+          g_autofree char *at = df_drape_text_point (du, surface, r->worst_u, r->worst_v);
 
           g_string_append_printf (t, "%zu cell%s past it (crossed in the view and shaded in "
                                   "the flat pattern); the worst %s° at cell (%d, %d), %s.",

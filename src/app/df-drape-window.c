@@ -202,10 +202,11 @@ show_result (DfDrapeWindow *self,
   const df_drape_summary *s = df_drape_get_summary (r->drape);
   DfDisplayUnits du;
   g_autofree char *figures = NULL;
-  g_autofree char *flags = df_drape_text_flags (r, surface, limits);
+  g_autofree char *flags = NULL;
   gboolean has_limit = shear != NULL && shear->set;
 
   df_document_get_display_units (self->document, &du);
+  flags = df_drape_text_flags (r, surface, &du, limits);
   figures = df_drape_text_figures (r, surface, &du, final);
   /* The flat view borrows the drape: hand it the new one before freeing the old. */
   df_surface_view_set_net (self->view, r->net, r->n_net);

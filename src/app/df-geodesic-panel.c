@@ -58,21 +58,17 @@ describe_point (const df_surface         *surface,
 {
   /* The chart point as the surface defines it; the point in space in the display units. */
   const char *units = df_du_length_unit (du);
-  g_autofree char *a = df_format_number (sample->u);
   g_autofree char *x = df_format_number (df_du_length (du, sample->point[0]));
   g_autofree char *y = df_format_number (df_du_length (du, sample->point[1]));
   g_autofree char *z = df_format_number (df_du_length (du, sample->point[2]));
 
-  if (df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
-    {
-      g_autofree char *phi = df_format_number (sample->v * 180.0 / G_PI);
-      return g_strdup_printf ("t = %s, φ = %s°\n(%s, %s, %s) %s", a, phi, x, y, z, units);
-    }
-  else
-    {
-      g_autofree char *b = df_format_number (sample->v);
-      return g_strdup_printf ("x = %s, y = %s\n(%s, %s, %s) %s", a, b, x, y, z, units);
-    }
+  {
+    g_autofree char *chart = df_du_format_chart_point (du, df_surface_get_kind (surface)
+                                                          == DF_SURFACE_REVOLUTION,
+                                                      sample->u, sample->v);
+
+    return g_strdup_printf ("%s\n(%s, %s, %s) %s", chart, x, y, z, units);
+  }
 }
 
 static void

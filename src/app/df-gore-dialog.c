@@ -470,8 +470,12 @@ df_gore_dialog_present (GtkWindow  *parent,
     g_autofree char *a = df_format_number (u0);
     g_autofree char *b = df_format_number (u1);
     g_autofree char *seam_units = g_strdup_printf ("%s (0: none)", df_unit_name (d->display));
+    DfDisplayUnits du;
 
-    g_snprintf (range, sizeof range, "profile t from %s to %s", a, b);
+    /* t as the profile defines it (in its own unit, not the display's), named when known. */
+    df_document_get_display_units (document, &du);
+    g_snprintf (range, sizeof range, "profile t from %s to %s%s%s", a, b,
+                du.t_unit[0] != '\0' ? " " : "", du.t_unit);
     gtk_grid_attach (GTK_GRID (grid), df_label_field ("_From t", d->t0), 0, row, 1, 1);
     gtk_grid_attach (GTK_GRID (grid), d->t0, 1, row, 1, 1);
     gtk_grid_attach (GTK_GRID (grid), df_label_wrapped (range, "dim-label", 60), 2, row++, 1, 2);

@@ -219,10 +219,7 @@ df_probe_panel_show (DfProbePanel            *self,
     g_autofree char *normal = g_strdup_printf ("(%s, %s, %s)", nx, ny, nz);
 
     if (rev)
-      {
-        g_autofree char *deg = df_format_number (g->v * 180.0 / G_PI);
-        chart = g_strdup_printf ("t = %s, φ = %s°", a, deg);
-      }
+      chart = df_du_format_chart_point (du, TRUE, g->u, g->v);
     else
       chart = g_strdup_printf ("x = %s %s, y = %s %s", a, units, b, units);
     table_add (table, row++, "Chart", chart);

@@ -65,6 +65,8 @@ struct _DfSurfacePanel
   /* owned */
   df_surface_spec *spec;
   FormulaField     rev_fields[4];
+  GtkDropDown     *t_units_dropdown;   /* what t is measured in (revolution formulas) */
+  GtkStringList   *t_units_names;
   FormulaField     graph_fields[5];
   GArray          *param_rows;  /* of ParamRow */
   guint            debounce_id;
@@ -265,6 +267,77 @@ formula_changed_cb (GtkEditable    *editable,
     schedule_changed (self);
   else
     g_clear_handle_id (&self->debounce_id, g_source_remove);
+}
+
+/* What t is measured in (the surface's t-units key): shown beside t wherever it is read out.
+ * The choices and their key values; a label of the file's own is added as a last entry. */
+static const struct { const char *title, *key; } t_unit_choices[] = {
+  { "not stated", NULL },
+  { "a length (the length unit)", "length" },
+  { "an angle in radians", "rad" },
+  { "an angle in degrees", "deg" },
+};
+
+static void
+fill_t_units (DfSurfacePanel *self)
+{
+  const char *key = self->spec->t_units;
+  guint n = g_list_model_get_n_items (G_LIST_MODEL (self->t_units_names));
+  guint pick = 0;
+
+  if (n > G_N_ELEMENTS (t_unit_choices))
+    gtk_string_list_remove (self->t_units_names, G_N_ELEMENTS (t_unit_choices));
+  for (guint i = 1; i < G_N_ELEMENTS (t_unit_choices) && key != NULL; i++)
+    if (g_str_equal (key, t_unit_choices[i].key))
+      pick = i;
+  if (key != NULL && pick == 0)
+    {
+      g_autofree char *own = g_strdup_printf ("as the file says: %s", key);
+
+      gtk_string_list_append (self->t_units_names, own);
+      pick = G_N_ELEMENTS (t_unit_choices);
+    }
+  gtk_drop_down_set_selected (self->t_units_dropdown, pick);
+}
+
+static void
+t_units_selected_cb (GtkDropDown    *dropdown,
+                     GParamSpec     *pspec,
+                     DfSurfacePanel *self)
+{
+  guint i = gtk_drop_down_get_selected (dropdown);
+
+  if (self->updating || i >= G_N_ELEMENTS (t_unit_choices))
+    return;   /* the file's own label stays as it is */
+  if (g_strcmp0 (self->spec->t_units, t_unit_choices[i].key) == 0)
+    return;
+  g_free (self->spec->t_units);
+  self->spec->t_units = g_strdup (t_unit_choices[i].key);
+  schedule_changed (self);
+}
+
+static void
+build_t_units (DfSurfacePanel *self)
+{
+  GtkWidget *label = gtk_label_new ("t in");
+  int row = 2 * (int) G_N_ELEMENTS (self->rev_fields);
+
+  self->t_units_names = gtk_string_list_new (NULL);
+  for (guint i = 0; i < G_N_ELEMENTS (t_unit_choices); i++)
+    gtk_string_list_append (self->t_units_names, t_unit_choices[i].title);
+  self->t_units_dropdown = GTK_DROP_DOWN (gtk_drop_down_new (
+    G_LIST_MODEL (g_object_ref (self->t_units_names)), NULL));
+  gtk_label_set_xalign (GTK_LABEL (label), 1.0);
+  gtk_widget_set_tooltip_text (GTK_WIDGET (self->t_units_dropdown),
+                               "What the profile's parameter t is measured in: shown beside t "
+                               "in the status line, the probe and the verdicts (a label: t is "
+                               "not converted)");
+  gtk_accessible_update_property (GTK_ACCESSIBLE (self->t_units_dropdown),
+                                  GTK_ACCESSIBLE_PROPERTY_LABEL, "t measured in", -1);
+  gtk_grid_attach (self->revolution_grid, label, 0, row, 1, 1);
+  gtk_grid_attach (self->revolution_grid, GTK_WIDGET (self->t_units_dropdown), 1, row, 1, 1);
+  g_signal_connect (self->t_units_dropdown, "notify::selected",
+                    G_CALLBACK (t_units_selected_cb), self);
 }
 
 static void
@@ -572,6 +645,7 @@ fill_all (DfSurfacePanel *self)
   fill_fields (self);
   gtk_editable_set_text (GTK_EDITABLE (self->units_entry),
                          self->spec->units != NULL ? self->spec->units : "mm");
+  fill_t_units (self);
   rebuild_params (self);
   clear_errors (self);
   self->updating = FALSE;
@@ -738,6 +812,7 @@ df_surface_panel_finalize (GObject *object)
 
   df_surface_spec_free (self->spec);
   g_array_unref (self->param_rows);
+  g_clear_object (&self->t_units_names);
   G_OBJECT_CLASS (df_surface_panel_parent_class)->finalize (object);
 }
 
@@ -789,6 +864,7 @@ df_surface_panel_init (DfSurfacePanel *self)
   memcpy (self->rev_fields, rev_template, sizeof rev_template);
   memcpy (self->graph_fields, graph_template, sizeof graph_template);
   build_fields (self, self->revolution_grid, self->rev_fields, G_N_ELEMENTS (self->rev_fields));
+  build_t_units (self);
   build_fields (self, self->graph_grid, self->graph_fields, G_N_ELEMENTS (self->graph_fields));
 
   for (guint i = 0; presets[i].name != NULL; i++)

@@ -111,6 +111,25 @@ sync_details (DfVerdictDetails *self)
               if (v->within != (pass == 1))
                 continue;
               text = df_verdict_describe (v, limits, &du, revolution);
+              if (v->limit == DF_LIMIT_MAX_SHEAR && check->shear_checked)
+                {
+                  /* What the drape behind it was: its start, warp and cell, given or not. */
+                  const df_shear_used *sh = &check->shear;
+                  g_autofree char *from = df_du_format_chart_point (&du, revolution,
+                                                                    sh->start[0], sh->start[1]);
+                  g_autofree char *warp = df_format_number (sh->warp_deg);
+                  g_autofree char *cell = df_du_format_length (&du, sh->cell);
+                  g_autofree char *with = g_strdup_printf (
+                    "%s %zu of %zu cells past it; draped from %s%s, warp %s°%s, cell %s%s.",
+                    text, sh->n_cells_over, sh->n_cells, from,
+                    sh->start_default ? " (the loop's centre)" : "", warp,
+                    sh->warp_default ? " (default)" : "", cell,
+                    sh->cell_default ? " (default: the loop's length / "
+                                       G_STRINGIFY (DF_SHEAR_CELLS_PER_LENGTH) ")" : "");
+
+                  g_free (text);
+                  text = g_steal_pointer (&with);
+                }
               gtk_box_append (GTK_BOX (self->list),
                               verdict_line (v->within ? "object-select-symbolic"
                                                       : "dialog-warning-symbolic",
@@ -152,6 +171,11 @@ sync_details (DfVerdictDetails *self)
                           verdict_line ("dialog-information-symbolic",
                                         df_verdict_limit_title (DF_LIMIT_MAX_STRAIN),
                                         check->strain_note, FALSE));
+        if (check->shear_note != NULL)
+          gtk_box_append (GTK_BOX (self->list),
+                          verdict_line ("dialog-information-symbolic",
+                                        df_verdict_limit_title (DF_LIMIT_MAX_SHEAR),
+                                        check->shear_note, FALSE));
       }
       break;
     case DF_VERDICTS_NONE:

@@ -81,7 +81,13 @@ df_verdict_describe (const df_verdict *v,
   g_autofree char *threshold = with_units (df_verdict_shown (v->limit, du, v->threshold), u);
   GString *t = g_string_new (NULL);
 
-  if (v->region)
+  if (v->region && v->limit == DF_LIMIT_MAX_SHEAR)
+    /* check's drape of the loop as a woven ply (df-verdict-shear.h). */
+    g_string_append_printf (t, "%s: worst cell shear %s of the ply draped over the loop (the "
+                            "crossing angle %s there), limit %s",
+                            v->within ? "Within" : "Exceeded", value,
+                            v->signed_value >= 0 ? "closes" : "opens", threshold);
+  else if (v->region)
     g_string_append_printf (t, "%s: worst %s of a flat disc forced onto the surface (%s), "
                             "limit %s",
                             v->within ? "Within" : "Exceeded", value,
@@ -103,11 +109,9 @@ df_verdict_describe (const df_verdict *v,
     }
   if (v->region || v->has_where || !v->within)
     {
-      g_autofree char *uw = df_format_number (v->u_worst);
-      g_autofree char *vw = df_format_number (v->v_worst);
+      g_autofree char *at = df_du_format_chart_point (du, revolution, v->u_worst, v->v_worst);
 
-      g_string_append_printf (t, revolution ? " (worst at t = %s, φ = %s rad)"
-                                            : " (worst at x = %s, y = %s)", uw, vw);
+      g_string_append_printf (t, " (worst at %s)", at);
     }
   if (v->has_tow && isfinite (v->tow_compression))
     {

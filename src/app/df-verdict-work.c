@@ -19,6 +19,7 @@ typedef struct
   double    (*uv)[2];
   gsize       n;
   df_limits  *limits;
+  df_shear_setup drape;
 } CheckData;
 
 static void
@@ -39,6 +40,7 @@ df_loop_check_free (DfLoopCheck *check)
     return;
   df_verdict_list_clear (&check->list);
   g_free (check->strain_note);
+  g_free (check->shear_note);
   g_free (check->s);
   g_free (check->kg);
   g_free (check->ratio);
@@ -123,6 +125,31 @@ check_guarded (gpointer user_data)
     }
   check->strain_checked = checked;
   check->strain_note = note[0] != '\0' ? g_strdup (note) : NULL;
+  if (work->limits->item[DF_LIMIT_MAX_SHEAR].set
+      && !g_cancellable_is_cancelled (g_task_get_cancellable (g->task)))
+    {
+      /* The woven ply's locking angle, by a drape of the loop as check drapes it. A drape that
+       * fails costs only this verdict. */
+      char shear_note[240] = "";
+      bool shear_checked = false;
+      df_diag shear_diag;
+      df_status shear;
+
+      df_diag_clear (&shear_diag);
+      shear = df_verdict_shear (curve, work->n, &result, work->limits, &work->drape,
+                                &check->list, &check->shear, &shear_checked, shear_note,
+                                sizeof shear_note, &shear_diag);
+      if (shear != DF_OK)
+        {
+          g_autoptr(GError) error = NULL;
+
+          df_status_to_gerror (shear, &shear_diag, &error);
+          g_snprintf (shear_note, sizeof shear_note, "not checked: %s", error->message);
+          shear_checked = false;
+        }
+      check->shear_checked = shear_checked;
+      check->shear_note = shear_note[0] != '\0' ? g_strdup (shear_note) : NULL;
+    }
   check->length = result.length;
   check->n = result.n_samples;
   check->s = g_new (double, check->n);
@@ -180,6 +207,7 @@ df_work_check_loop_async (const df_surface   *surface,
                           const double      (*uv)[2],
                           gsize               n,
                           const df_limits    *limits,
+                          const df_shear_setup *drape,
                           GCancellable       *cancellable,
                           GAsyncReadyCallback callback,
                           gpointer            user_data)
@@ -194,6 +222,8 @@ df_work_check_loop_async (const df_surface   *surface,
   work->uv = g_memdup2 (uv, n * sizeof *uv);
   work->n = n;
   work->limits = df_limits_copy (limits);
+  if (drape != NULL)
+    work->drape = *drape;
   task = g_task_new (NULL, cancellable, callback, user_data);
   g_task_set_source_tag (task, df_work_check_loop_async);
   g_task_set_task_data (task, work, check_data_free);

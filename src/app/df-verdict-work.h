@@ -10,6 +10,7 @@
 #include "df-glib.h"
 #include "df-gores.h"
 #include "df-verdict.h"
+#include "df-verdict-shear.h"
 
 G_BEGIN_DECLS
 
@@ -18,6 +19,11 @@ typedef struct
   df_verdict_list list;          /* the verdicts, loop and region */
   gboolean        strain_checked;
   char           *strain_note;   /* why the region's strain was not checked, or NULL */
+  /* max-shear-deg by a drape of the loop (df_verdict_shear, as check does): what it used, or
+   * why it was not checked (NULL when it was, or when the limit is not set). */
+  gboolean        shear_checked;
+  df_shear_used   shear;
+  char           *shear_note;
   double          length;
   /* Darts for a flat sheet over the enclosed region (df_darts_compute), when the loop bounds a
    * disc: one of the whole enclosed curvature, and the least count each closing at most
@@ -38,11 +44,13 @@ typedef struct
 void         df_loop_check_free           (DfLoopCheck *check);
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (DfLoopCheck, df_loop_check_free)
 
-/* Checks the closed loop through uv[0..n-1] (copied) against limits (copied, resolved). */
+/* Checks the closed loop through uv[0..n-1] (copied) against limits (copied, resolved); its
+ * drape for max-shear-deg as drape says (copied; NULL: the defaults). */
 void         df_work_check_loop_async     (const df_surface   *surface,
                                            const double      (*uv)[2],
                                            gsize               n,
                                            const df_limits    *limits,
+                                           const df_shear_setup *drape,
                                            GCancellable       *cancellable,
                                            GAsyncReadyCallback callback,
                                            gpointer            user_data);

@@ -393,7 +393,8 @@ check_item (DfWindow   *self,
   job = g_new0 (CheckJob, 1);
   job->window = g_object_ref (self);
   job->item = g_object_ref (item);
-  df_work_check_loop_async (surface, uv, n, limits, cancellable, check_done_cb, job);
+  df_work_check_loop_async (surface, uv, n, limits, df_loop_item_get_drape (item), cancellable,
+                            check_done_cb, job);
 }
 
 static void

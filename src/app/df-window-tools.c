@@ -75,9 +75,9 @@ show_coords (DfWindow *self,
     }
   if (surface != NULL && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
     {
-      double phi = remainder (v, 2 * G_PI);
-      g_autofree char *b = df_format_number (phi * 180.0 / G_PI);
-      text = g_strdup_printf ("t = %s, φ = %s°%s", a, b, where != NULL ? where : "");
+      g_autofree char *chart = df_du_format_chart_point (&du, TRUE, u, v);
+
+      text = g_strdup_printf ("%s%s", chart, where != NULL ? where : "");
     }
   else
     {
