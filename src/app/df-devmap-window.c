@@ -520,7 +520,7 @@ df_devmap_window_init (DfDevmapWindow *self)
   self->compute = gtk_button_new_with_mnemonic ("_Compute");
   gtk_widget_add_css_class (self->compute, "suggested-action");
   self->cancel = gtk_button_new_with_mnemonic ("_Stop");
-  self->off = gtk_button_new_with_mnemonic ("Back to the _curvature colouring");
+  self->off = gtk_button_new_with_mnemonic ("_Back to the curvature colouring");
   gtk_box_append (GTK_BOX (buttons), self->compute);
   gtk_box_append (GTK_BOX (buttons), self->cancel);
   gtk_box_append (GTK_BOX (buttons), self->off);
@@ -532,7 +532,7 @@ df_devmap_window_init (DfDevmapWindow *self)
   gtk_box_append (GTK_BOX (box), self->status);
   self->png = gtk_button_new_with_mnemonic ("Export _PNG…");
   gtk_widget_set_tooltip_text (self->png, "The view as it shows the map");
-  self->csv = gtk_button_new_with_mnemonic ("Export CSV _grid…");
+  self->csv = gtk_button_new_with_mnemonic ("Export the grid as CS_V…");
   gtk_widget_set_tooltip_text (self->csv, "Every grid point's disc: enclosed curvature, strain, "
                                "circumference, area");
   gtk_box_append (GTK_BOX (exports), self->png);

@@ -388,7 +388,7 @@ static const struct
   { "title", "_Project name" },
   { "part-number", "Part _number" },
   { "revision", "_Revision" },
-  { "author", "_Author" },
+  { "author", "A_uthor" },
 };
 
 static void
