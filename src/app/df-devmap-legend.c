@@ -22,7 +22,9 @@ struct _DfDevmapLegend
 
 G_DEFINE_FINAL_TYPE (DfDevmapLegend, df_devmap_legend, GTK_TYPE_DRAWING_AREA)
 
-static void
+/* Draws text (one or more lines) at (x, y), aligned by align of its width; returns its height
+ * in pixels. */
+static int
 text_at (cairo_t    *cr,
          double      x,
          double      y,
@@ -40,6 +42,7 @@ text_at (cairo_t    *cr,
   cairo_move_to (cr, x - align * w, y);
   pango_cairo_show_layout (cr, layout);
   g_object_unref (layout);
+  return h;
 }
 
 static void
@@ -50,7 +53,7 @@ draw_cb (GtkDrawingArea *area,
          gpointer        user_data)
 {
   DfDevmapLegend *self = DF_DEVMAP_LEGEND (area);
-  double x0 = 10, x1 = width - 10, bar_y = 24, bar_h = 14;
+  double x0 = 10, x1 = width - 10, bar_y, bar_h = 14;
   cairo_pattern_t *grad;
   g_autofree char *hi = NULL, *lo = NULL;
 
@@ -60,7 +63,8 @@ draw_cb (GtkDrawingArea *area,
   cairo_rectangle (cr, 0, 0, width, height);
   cairo_fill (cr);
   cairo_set_source_rgb (cr, 0.1, 0.1, 0.1);
-  text_at (cr, x0, 4, self->title != NULL ? self->title : "", 0);
+  /* The bar goes below the title, however many lines it has. */
+  bar_y = 4 + text_at (cr, x0, 4, self->title != NULL ? self->title : "", 0) + 6;
 
   grad = cairo_pattern_create_linear (x0, 0, x1, 0);
   for (int i = 0; i <= 8; i++)
@@ -178,6 +182,14 @@ df_devmap_legend_set (DfDevmapLegend *self,
   self->range = range;
   self->limit = limit;
   self->limit_source = g_strdup (limit_source);
+  {
+    /* A line more of title (the drape's "(+ closes)..."), a line more of height. */
+    int extra = 0;
+
+    for (const char *c = title; c != NULL && *c != '\0'; c++)
+      extra += *c == '\n';
+    gtk_drawing_area_set_content_height (GTK_DRAWING_AREA (self), 92 + 14 * extra);
+  }
   gtk_accessible_update_property (GTK_ACCESSIBLE (self), GTK_ACCESSIBLE_PROPERTY_LABEL,
                                   title != NULL ? title : "", -1);
   gtk_widget_queue_draw (GTK_WIDGET (self));

@@ -87,21 +87,29 @@ update_labels (DfDrapeWindow *self)
   g_autofree char *v = NULL;
   g_autofree char *hint = NULL;
 
+  DfDisplayUnits du;
+
+  df_document_get_display_units (self->document, &du);
   df_drape_text_chart_names (df_document_get_surface (self->document), &un, &vn);
-  u = g_strdup_printf ("Start %s", un);
-  v = is_revolution (self) ? g_strdup_printf ("Start %s (°)", vn)
-                           : g_strdup_printf ("Start %s", vn);
+  /* The start is typed in the chart's own coordinates: t in its unit (when the surface says
+   * it), a graph's x, y in the surface's unit. */
+  if (is_revolution (self))
+    {
+      u = du.t_unit[0] != '\0' ? g_strdup_printf ("Start %s (%s)", un, du.t_unit)
+                               : g_strdup_printf ("Start %s", un);
+      v = g_strdup_printf ("Start %s (°)", vn);
+    }
+  else
+    {
+      u = g_strdup_printf ("Start %s (%s)", un, du.label);
+      v = g_strdup_printf ("Start %s (%s)", vn, du.label);
+    }
   hint = g_strdup_printf ("0° = along +%s, anticlockwise about N; the weft at +90°", un);
   gtk_label_set_text (GTK_LABEL (self->u_label), u);
   gtk_label_set_text (GTK_LABEL (self->v_label), v);
   gtk_label_set_text (GTK_LABEL (self->warp_hint), hint);
-  {
-    DfDisplayUnits du;
-
-    /* The cell is typed in the display unit, as `drape --units` takes --cell. */
-    df_document_get_display_units (self->document, &du);
-    gtk_label_set_text (GTK_LABEL (self->cell_units), df_du_length_unit (&du));
-  }
+  /* The cell is typed in the display unit, as `drape --units` takes --cell. */
+  gtk_label_set_text (GTK_LABEL (self->cell_units), df_du_length_unit (&du));
 }
 
 static DfLoopItem *

@@ -202,11 +202,12 @@ draw_one (DfVerdictPlot     *self,
 
       title = g_strdup_printf ("%s: limit %s%s%s dashed%s", spec->title,
                                spec->symmetric ? "±" : "", l, spec->y_units,
-                               any ? ", beyond it hatched" : "");
+                               any ? ", hatched beyond" : "");
     }
   else
     title = g_strdup_printf ("%s: no limit set", spec->title);
-  text_at (cr, px, top, title, 0, 0);
+  /* From the left edge, not the plot's: the axis labels' margin would cut a long title. */
+  text_at (cr, 4, top, title, 0, 0);
   if (clipped)
     text_at (cr, px + pw - 3, py + 2, "↑ higher values cut off", 1, 0);
   {
