@@ -1145,6 +1145,55 @@ test_geodesic_verdicts (void)
   g_rmdir (dir);
 }
 
+/* The woven ply's locking angle in the app's loop verdicts, by a drape of each ply as check
+ * drapes it: at 1 degree the Belly patch's cells shear past it and the Top seam ply's do not
+ * (its worst is about 0.6 degrees), the same verdicts as `driftframe-cli check` on the same
+ * project (whose drape is tested against closed forms in test-drape and test-units-shear). */
+static void
+test_shear_verdicts (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
+  g_autofree char *project = g_build_filename (dir, "demo-1deg.dfproj", NULL);
+  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  g_autofree char *demo = NULL, *edited = NULL;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  gboolean belly = TRUE, seam = FALSE;
+
+  g_file_get_contents (demo_path, &demo, NULL, &error);
+  g_assert_no_error (error);
+  g_assert_nonnull (strstr (demo, "max-shear-deg=5\n"));
+  {
+    g_auto(GStrv) halves = g_strsplit (demo, "max-shear-deg=5\n", 2);
+
+    edited = g_strconcat (halves[0], "max-shear-deg=1\n", halves[1], NULL);
+  }
+  g_file_set_contents (project, edited, -1, &error);
+  g_assert_no_error (error);
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
+                                     NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  read_two_verdicts (out, "Belly_patch", "Top_seam_ply", "max-shear-deg", &belly, &seam);
+  g_assert_cmpint (belly, ==, cli_within (project, "Belly patch", "max-shear-deg"));
+  g_assert_cmpint (seam, ==, cli_within (project, "Top seam ply", "max-shear-deg"));
+  g_assert_false (belly);
+  g_assert_true (seam);
+
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+  g_remove (project);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -1165,5 +1214,6 @@ main (int   argc,
   g_test_add_func ("/app/e2e/data-import", test_data_import);
   g_test_add_func ("/app/e2e/limit-verdict-gores", test_limit_verdict_gores);
   g_test_add_func ("/app/e2e/geodesic-verdicts", test_geodesic_verdicts);
+  g_test_add_func ("/app/e2e/shear-verdicts", test_shear_verdicts);
   return g_test_run ();
 }
