@@ -4,6 +4,7 @@
  * headings of two shots.
  * Plain C + libm + GSL; no GLib. */
 #include "df-drape-private.h"
+#include "df-polygon.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -34,20 +35,6 @@ _df_drape_valid_node (const df_drape *d, int i, int j)
   return valid_node (d, i, j);
 }
 
-bool
-_df_drape_point_in_polygon (const double (*poly)[2], size_t n, double u, double v)
-{
-  bool in = false;
-
-  /* Crossing number in the chart (even-odd rule). */
-  for (size_t a = 0, b = n - 1; a < n; b = a++)
-    if ((poly[a][1] > v) != (poly[b][1] > v)
-        && u < (poly[b][0] - poly[a][0]) * (v - poly[a][1]) / (poly[b][1] - poly[a][1])
-                 + poly[a][0])
-      in = !in;
-  return in;
-}
-
 /* Evaluates the node's frame, metric and Christoffel symbols at uv. */
 bool
 _df_drape_node_fill (df_drape *d, net_node *nd, const double uv[2])
@@ -74,7 +61,7 @@ _df_drape_node_fill (df_drape *d, net_node *nd, const double uv[2])
     nd->n[k] /= len;
   nd->sqrt_det = len;
   nd->valid = true;
-  nd->inside = _df_drape_point_in_polygon ((const double (*)[2]) d->outline, d->n_outline,
+  nd->inside = df_polygon_contains ((const double (*)[2]) d->outline, d->n_outline,
                                            uv[0], uv[1]);
   return true;
 }

@@ -185,7 +185,6 @@ bool      _df_drape_choose_stepper  (df_drape *d, shooter *sh, const net_node *s
 size_t    _df_drape_generator       (df_drape *d, shooter *sh, const net_node *start,
                                      double theta, size_t cap, double (*uv)[2],
                                      double (*vel)[2], bool *hit_edge);
-bool      _df_drape_point_in_polygon (const double (*poly)[2], size_t n, double u, double v);
 /* Fills the pin's frame, metric and Christoffel symbols at uv; false at a singular point. */
 bool      _df_drape_node_fill       (df_drape *d, net_node *nd, const double uv[2]);
 void      _df_drape_note_lost       (df_drape *d, int i, int j, const char *why);

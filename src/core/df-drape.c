@@ -23,6 +23,7 @@
  *
  * Plain C + libm + GSL; no GLib. */
 #include "df-drape.h"
+#include "df-polygon.h"
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
@@ -141,7 +142,7 @@ drape_build (const df_surface *surface, const double (*outline)[2], size_t n_out
         d->outline[k][1] = outline[k][1] + shift;
       }
   }
-  if (!_df_drape_point_in_polygon ((const double (*)[2]) d->outline, n_outline, u, v))
+  if (!df_polygon_contains ((const double (*)[2]) d->outline, n_outline, u, v))
     {
       st = df_diag_fail_at (diag, DF_E_INPUT, -1, u, v, "the start point lies outside the ply "
                             "outline");

@@ -163,28 +163,6 @@ check_keys (GKeyFile *kf, const char *group, const char *source, const char *con
   return TRUE;
 }
 
-/* One finite number (count 1) or a pair "U;V" (count 2). */
-static gboolean
-read_fixed (GKeyFile *kf, const char *group, const char *key, const char *source, gsize count,
-            double *out, GError **error)
-{
-  gsize n = 0;
-  g_autofree double *values = _df_key_file_get_numbers (kf, group, key, source, &n, error);
-
-  if (values == NULL && error != NULL && *error != NULL)
-    return FALSE;
-  if (n != count)
-    {
-      g_clear_error (error);
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_FORMAT, "%s: [%s] %s: expected %s, found %"
-                   G_GSIZE_FORMAT " value%s", source, group, key,
-                   count == 1 ? "one number" : "two numbers u;v", n, n == 1 ? "" : "s");
-      return FALSE;
-    }
-  memcpy (out, values, count * sizeof *out);
-  return TRUE;
-}
-
 /* A point list from two keys of equal length, at least min points. */
 static double (*read_points (GKeyFile *kf, const char *group, const char *ku, const char *kv,
                              const char *source, gsize min, gsize *n_out, GError **error))[2]
@@ -233,9 +211,9 @@ read_geodesic (df_project_extras *x, GKeyFile *kf, const char *group, const char
   if (!check_keys (kf, group, source, known, "name, start, heading-deg, length", error))
     return FALSE;
   name = _df_key_file_get_text (kf, group, "name", FALSE, source, error);
-  if (!read_fixed (kf, group, "start", source, 2, start, error)
-      || !read_fixed (kf, group, "heading-deg", source, 1, &heading, error)
-      || !read_fixed (kf, group, "length", source, 1, &length, error))
+  if (!_df_key_file_get_fixed (kf, group, "start", source, 2, start, error)
+      || !_df_key_file_get_fixed (kf, group, "heading-deg", source, 1, &heading, error)
+      || !_df_key_file_get_fixed (kf, group, "length", source, 1, &length, error))
     return FALSE;
   if (!(length > 0))
     {
@@ -283,7 +261,7 @@ read_probe (df_project_extras *x, GKeyFile *kf, const char *group, const char *s
   if (!check_keys (kf, group, source, known, "name, at", error))
     return FALSE;
   name = _df_key_file_get_text (kf, group, "name", FALSE, source, error);
-  if (!read_fixed (kf, group, "at", source, 2, at, error))
+  if (!_df_key_file_get_fixed (kf, group, "at", source, 2, at, error))
     return FALSE;
   df_project_extras_add_probe (x, name != NULL ? name : group, at[0], at[1]);
   return TRUE;
@@ -308,9 +286,9 @@ read_view (df_project_extras *x, GKeyFile *kf, const char *source, GError **erro
       return FALSE;
     }
   if ((g_key_file_has_key (kf, VIEW_GROUP, "yaw-deg", NULL)
-       && !read_fixed (kf, VIEW_GROUP, "yaw-deg", source, 1, &yaw, error))
+       && !_df_key_file_get_fixed (kf, VIEW_GROUP, "yaw-deg", source, 1, &yaw, error))
       || (g_key_file_has_key (kf, VIEW_GROUP, "pitch-deg", NULL)
-          && !read_fixed (kf, VIEW_GROUP, "pitch-deg", source, 1, &pitch, error)))
+          && !_df_key_file_get_fixed (kf, VIEW_GROUP, "pitch-deg", source, 1, &pitch, error)))
     return FALSE;
   if (fabs (pitch) > 90)
     {

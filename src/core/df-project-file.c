@@ -139,9 +139,9 @@ is_loop_key (const char *key)
   return g_strv_contains (keys, key);
 }
 
-/* Exactly count numbers of a ';'-list key. */
-static gboolean
-read_count (GKeyFile *key_file, const char *group, const char *key, const char *source,
+/* Exactly count numbers of a ';'-list key (df-surface-spec-private.h). */
+gboolean
+_df_key_file_get_fixed (GKeyFile *key_file, const char *group, const char *key, const char *source,
             gsize count, double *out, GError **error)
 {
   gsize n = 0;
@@ -167,7 +167,7 @@ read_drape (GKeyFile *key_file, const char *group, const char *source,
 {
   if (g_key_file_has_key (key_file, group, "drape-start", NULL))
     {
-      if (!read_count (key_file, group, "drape-start", source, 2, d->start, error))
+      if (!_df_key_file_get_fixed (key_file, group, "drape-start", source, 2, d->start, error))
         return FALSE;
       if (surface != NULL && !df_surface_contains (surface, d->start[0], d->start[1]))
         {
@@ -180,13 +180,13 @@ read_drape (GKeyFile *key_file, const char *group, const char *source,
     }
   if (g_key_file_has_key (key_file, group, "drape-warp-deg", NULL))
     {
-      if (!read_count (key_file, group, "drape-warp-deg", source, 1, &d->warp_deg, error))
+      if (!_df_key_file_get_fixed (key_file, group, "drape-warp-deg", source, 1, &d->warp_deg, error))
         return FALSE;
       d->has_warp = true;
     }
   if (g_key_file_has_key (key_file, group, "drape-cell", NULL))
     {
-      if (!read_count (key_file, group, "drape-cell", source, 1, &d->cell, error))
+      if (!_df_key_file_get_fixed (key_file, group, "drape-cell", source, 1, &d->cell, error))
         return FALSE;
       if (!(d->cell > 0))
         {

@@ -50,6 +50,15 @@ double   *_df_key_file_get_numbers   (GKeyFile   *key_file,
                                       const char *source,
                                       gsize      *n_out,
                                       GError    **error);
+/* Exactly count (1 or 2) numbers of such a list: one number, or a pair "U;V"; the message
+ * says how many were found. */
+gboolean  _df_key_file_get_fixed     (GKeyFile   *key_file,
+                                      const char *group,
+                                      const char *key,
+                                      const char *source,
+                                      gsize       count,
+                                      double     *out,
+                                      GError    **error);
 /* A preset's parameters within the range where the preset means what it says (a cone's
  * half-angle in (0, 90) degrees, a radius above 0); TRUE for a spec that is not an unedited
  * preset. The message names the parameter and its valid range. */

@@ -3,6 +3,7 @@
  * points inside the polygon of its samples, a geodesic disc at each.
  * Plain C + libm + GSL; no GLib. */
 #include "df-verdict-region.h"
+#include "df-polygon.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -10,19 +11,6 @@
 #include <string.h>
 
 #include "df-verdict-private.h"
-
-/* Even-odd rule: a plain ray cast is all a sampled simple loop needs. */
-static bool
-inside (const double (*poly)[2], size_t n, double x, double y)
-{
-  bool in = false;
-
-  for (size_t i = 0, j = n - 1; i < n; j = i++)
-    if ((poly[i][1] > y) != (poly[j][1] > y)
-        && x < poly[j][0] + (y - poly[j][1]) * (poly[i][0] - poly[j][0]) / (poly[i][1] - poly[j][1]))
-      in = !in;
-  return in;
-}
 
 df_status
 df_verdict_strain (const df_curve *loop, const df_loop_result *result, const df_limits *limits,
@@ -85,7 +73,7 @@ df_verdict_strain (const df_curve *loop, const df_loop_result *result, const df_
         double u = x, v = y, r;
         df_devmap_point p;
 
-        if (!inside ((const double (*)[2]) poly, n, x, y))
+        if (!df_polygon_contains ((const double (*)[2]) poly, n, x, y))
           continue;
         if (coords != DF_COORDS_CHART)
           {

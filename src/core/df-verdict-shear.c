@@ -3,6 +3,7 @@
  * closure check, the worst cell and the cells past the locking angle.
  * Plain C + libm + GSL; no GLib. */
 #include "df-verdict-shear.h"
+#include "df-polygon.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -13,18 +14,6 @@
 #include "df-verdict-private.h"
 
 /* Even-odd rule, as the region verdicts use. */
-static bool
-inside (const double (*poly)[2], size_t n, double x, double y)
-{
-  bool in = false;
-
-  for (size_t i = 0, j = n - 1; i < n; j = i++)
-    if ((poly[i][1] > y) != (poly[j][1] > y)
-        && x < poly[j][0] + (y - poly[j][1]) * (poly[i][0] - poly[j][0]) / (poly[i][1] - poly[j][1]))
-      in = !in;
-  return in;
-}
-
 size_t
 df_shear_outline (const df_curve *loop, size_t n_points, double (**out)[2])
 {
@@ -64,7 +53,7 @@ default_start (const double (*poly)[2], size_t n, double start[2], bool *moved)
       for (int c = 0; c < 2; c++)
         if (fabs (start[c]) < 1e-12 * (hi[c] - lo[c] + fabs (hi[c]) + fabs (lo[c])))
           start[c] = 0;
-      if (inside (poly, n, start[0], start[1]))
+      if (df_polygon_contains (poly, n, start[0], start[1]))
         return true;
     }
   {
@@ -79,7 +68,7 @@ default_start (const double (*poly)[2], size_t n, double start[2], bool *moved)
       {
         start[0] = poly[0][0] - side * ty / len * d;
         start[1] = poly[0][1] + side * tx / len * d;
-        if (inside (poly, n, start[0], start[1]))
+        if (df_polygon_contains (poly, n, start[0], start[1]))
           {
             *moved = true;
             return true;
