@@ -349,6 +349,54 @@ focus_view (Xserver  *x,
               "click", "1", "sleep", "0.5", NULL);
 }
 
+GSubprocess *
+start_app (Xserver           *x,
+           const char        *app_path,
+           GDataInputStream **out,
+           const char        *first,
+           ...)
+{
+  g_autoptr(GSubprocessLauncher) launcher = app_launcher (x);
+  g_autoptr(GPtrArray) args = g_ptr_array_new ();
+  g_autoptr(GError) error = NULL;
+  GSubprocess *app;
+  va_list ap;
+
+  g_ptr_array_add (args, (char *) app_path);
+  va_start (ap, first);
+  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
+    g_ptr_array_add (args, (char *) a);
+  va_end (ap);
+  g_ptr_array_add (args, (char *) "--report-view-geometry");
+  g_ptr_array_add (args, (char *) "--report-events");
+  g_ptr_array_add (args, NULL);
+  app = g_subprocess_launcher_spawnv (launcher, (const char *const *) args->pdata, &error);
+  g_assert_no_error (error);
+  *out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  return app;
+}
+
+void
+write_demo_with (const char *examples_dir,
+                 const char *path,
+                 const char *line,
+                 const char *replacement)
+{
+  g_autofree char *demo_path = g_build_filename (examples_dir, "demo.dfproj", NULL);
+  g_autofree char *demo = NULL;
+  g_autofree char *edited = NULL;
+  g_autoptr(GError) error = NULL;
+  g_auto(GStrv) halves = NULL;
+
+  g_file_get_contents (demo_path, &demo, NULL, &error);
+  g_assert_no_error (error);
+  g_assert_nonnull (strstr (demo, line));
+  halves = g_strsplit (demo, line, 2);
+  edited = g_strconcat (halves[0], replacement, halves[1], NULL);
+  g_file_set_contents (path, edited, -1, &error);
+  g_assert_no_error (error);
+}
+
 /* The view's geometry line, split: "view-geometry XID X Y WIDTH HEIGHT". */
 char **
 read_view_geometry (GDataInputStream *out)

@@ -24,6 +24,10 @@ gboolean wait_for (gboolean *done, int seconds);
 /* Starts Xvfb on a free display; FALSE (the test skipped) when the tools are missing. */
 gboolean xserver_start (Xserver *x);
 GSubprocessLauncher *app_launcher (Xserver *x);
+/* Runs the app at app_path with the arguments (NULL-terminated) and --report-view-geometry
+ * --report-events; *out reads its output. */
+GSubprocess *start_app (Xserver *x, const char *app_path, GDataInputStream **out,
+                        const char *first, ...) G_GNUC_NULL_TERMINATED;
 /* The app's next output line starting with prefix (g_free); NULL at its end or on timeout. */
 char *read_until (GDataInputStream *out, const char *prefix);
 char *read_until_either (GDataInputStream *out, const char *a, const char *b);
@@ -44,6 +48,10 @@ void focus_main (Xserver *x);
 /* Puts the keyboard focus on the 3D view (a click near its bottom in Look mode), so that
  * Ctrl+Z reaches the window and not a text field's own undo. geometry: read_view_geometry's. */
 void focus_view (Xserver *x, char **geometry);
+/* The demo project (examples_dir/demo.dfproj) written to path with its first occurrence of
+ * line (which must be there) replaced by replacement: a limit changed, a key added. */
+void write_demo_with (const char *examples_dir, const char *path, const char *line,
+                      const char *replacement);
 /* "view-geometry XID X Y WIDTH HEIGHT", split. */
 char **read_view_geometry (GDataInputStream *out);
 /* Drags a counter-clockwise circle of radius px round the view's centre. */

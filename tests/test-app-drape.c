@@ -293,6 +293,23 @@ test_key_and_pick (void)
   g_rmdir (dir);
 }
 
+/* Reads "draped " lines until one with cells past the limit (flagged) or with none, into d;
+ * fails the test when the app ends first. */
+static void
+read_drape_flagged (GDataInputStream *out,
+                    gboolean          flagged,
+                    Drape            *d)
+{
+  do
+    {
+      g_autofree char *line = read_until (out, "draped ");
+
+      g_assert_nonnull (line);
+      parse_draped (line, d);
+    }
+  while ((d->over > 0) != flagged);
+}
+
 /* A shown drape follows the limits: the Belly patch draped at the demo's 5 degrees (no cell
  * past it), then the locking angle set to 1 degree in the limits editor: the drape runs
  * again by itself with the same start, and its flagged cells are the CLI's at 1 degree; set
@@ -313,8 +330,6 @@ test_limits_redrape (void)
   g_autofree char *dir_1 = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
   g_autofree char *project_1 = write_project (dir_1, "1", &loop_csv_1);
   g_autofree char *line = NULL;
-  g_autofree char *again = NULL;
-  g_autofree char *undone = NULL;
   Drape a, c;
 
   if (!xserver_start (&x))
@@ -337,14 +352,7 @@ test_limits_redrape (void)
   xdotool_va (&x, "key", "Return", NULL);
   /* Other edits may re-run it first (the loops measured after start-up): the first drape
    * with a cell flagged is the one after the change. */
-  do
-    {
-      g_free (again);
-      again = read_until (out, "draped ");
-      g_assert_nonnull (again);
-      parse_draped (again, &a);
-    }
-  while (a.over == 0);
+  read_drape_flagged (out, TRUE, &a);
   cli_drape (project_1, loop_csv_1, 90, 5 * G_PI / 180, "10", "4", NULL, &c);
   assert_same (&a, &c);
   g_assert_cmpfloat (a.over, >, 0);
@@ -356,15 +364,7 @@ test_limits_redrape (void)
               "windowfocus", "sleep", "0.5", "key", "alt+l", NULL);
   type_field (&x, "5");
   xdotool_va (&x, "key", "Return", NULL);
-  do
-    {
-      g_free (undone);
-      undone = read_until (out, "draped ");
-      g_assert_nonnull (undone);
-      parse_draped (undone, &a);
-    }
-  while (a.over > 0);
-  g_assert_cmpfloat (a.over, ==, 0);
+  read_drape_flagged (out, FALSE, &a);
 
   g_subprocess_force_exit (app);
   g_subprocess_wait (app, NULL, NULL);

@@ -955,7 +955,7 @@ test_limit_verdict_gores (void)
   g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
   g_autofree char *svg_path = g_build_filename (dir, "shade-gores.svg", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-18mm.dfproj", NULL);
-  g_autofree char *demo = NULL, *svg = NULL, *edited = NULL, *w_unit = NULL, *h_unit = NULL;
+  g_autofree char *svg = NULL, *w_unit = NULL, *h_unit = NULL;
   g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(GError) error = NULL;
@@ -992,16 +992,7 @@ test_limit_verdict_gores (void)
   read_two_verdicts (out, "Belly_patch", "Top_seam_ply", "min-steering-radius", &belly, &seam);
 
   /* The same limit written into the demo's project text, checked by the CLI. */
-  g_file_get_contents (demo_path, &demo, NULL, &error);
-  g_assert_no_error (error);
-  g_assert_nonnull (strstr (demo, "min-steering-radius=25 mm\n"));
-  {
-    g_auto(GStrv) halves = g_strsplit (demo, "min-steering-radius=25 mm\n", 2);
-
-    edited = g_strconcat (halves[0], "min-steering-radius=18 mm\n", halves[1], NULL);
-  }
-  g_file_set_contents (project, edited, -1, &error);
-  g_assert_no_error (error);
+  write_demo_with (DF_EXAMPLES_DIR, project, "min-steering-radius=25 mm\n", "min-steering-radius=18 mm\n");
   g_assert_cmpint (belly, ==, cli_within (project, "Belly patch", "min-steering-radius"));
   g_assert_cmpint (seam, ==, cli_within (project, "Top seam ply", "min-steering-radius"));
   /* The limit moved the verdict: one ply now within, the other still beyond it. */
@@ -1083,8 +1074,7 @@ test_geodesic_verdicts (void)
   Xserver x;
   g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-2deg.dfproj", NULL);
-  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
-  g_autofree char *demo = NULL, *edited = NULL, *line = NULL;
+  g_autofree char *line = NULL;
   g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(JsonParser) parser = json_parser_new ();
@@ -1094,16 +1084,7 @@ test_geodesic_verdicts (void)
   JsonArray *verdicts;
   double app_s0, app_s1, cli_s0 = -1, cli_s1 = -1;
 
-  g_file_get_contents (demo_path, &demo, NULL, &error);
-  g_assert_no_error (error);
-  g_assert_nonnull (strstr (demo, "max-fibre-deviation-deg=30\n"));
-  {
-    g_auto(GStrv) halves = g_strsplit (demo, "max-fibre-deviation-deg=30\n", 2);
-
-    edited = g_strconcat (halves[0], "max-fibre-deviation-deg=2\n", halves[1], NULL);
-  }
-  g_file_set_contents (project, edited, -1, &error);
-  g_assert_no_error (error);
+  write_demo_with (DF_EXAMPLES_DIR, project, "max-fibre-deviation-deg=30\n", "max-fibre-deviation-deg=2\n");
 
   verdicts = cli_check_verdicts (project, parser);
   for (guint i = 0; i < json_array_get_length (verdicts); i++)
@@ -1155,24 +1136,13 @@ test_shear_verdicts (void)
   Xserver x;
   g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-1deg.dfproj", NULL);
-  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
-  g_autofree char *demo = NULL, *edited = NULL;
   g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   gboolean belly = TRUE, seam = FALSE;
 
-  g_file_get_contents (demo_path, &demo, NULL, &error);
-  g_assert_no_error (error);
-  g_assert_nonnull (strstr (demo, "max-shear-deg=5\n"));
-  {
-    g_auto(GStrv) halves = g_strsplit (demo, "max-shear-deg=5\n", 2);
-
-    edited = g_strconcat (halves[0], "max-shear-deg=1\n", halves[1], NULL);
-  }
-  g_file_set_contents (project, edited, -1, &error);
-  g_assert_no_error (error);
+  write_demo_with (DF_EXAMPLES_DIR, project, "max-shear-deg=5\n", "max-shear-deg=1\n");
 
   if (!xserver_start (&x))
     return;

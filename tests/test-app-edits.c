@@ -19,32 +19,6 @@
 /* The sphere preset (src/core/df-presets.c): R = 100, chart t = polar angle, phi = longitude. */
 #define R_SPHERE 100.0
 
-static GSubprocess *
-start_app (Xserver           *x,
-           GDataInputStream **out,
-           const char        *first,
-           ...)
-{
-  g_autoptr(GSubprocessLauncher) launcher = app_launcher (x);
-  g_autoptr(GPtrArray) args = g_ptr_array_new ();
-  g_autoptr(GError) error = NULL;
-  GSubprocess *app;
-  va_list ap;
-
-  g_ptr_array_add (args, (char *) DF_APP_PATH);
-  va_start (ap, first);
-  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
-    g_ptr_array_add (args, (char *) a);
-  va_end (ap);
-  g_ptr_array_add (args, (char *) "--report-view-geometry");
-  g_ptr_array_add (args, (char *) "--report-events");
-  g_ptr_array_add (args, NULL);
-  app = g_subprocess_launcher_spawnv (launcher, (const char *const *) args->pdata, &error);
-  g_assert_no_error (error);
-  *out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
-  return app;
-}
-
 static void
 stop_app (GSubprocess *app,
           Xserver     *x)
@@ -52,6 +26,21 @@ stop_app (GSubprocess *app,
   g_subprocess_force_exit (app);
   g_subprocess_wait (app, NULL, NULL);
   xserver_stop (x);
+}
+
+/* Save As from the main window to path (typed into the file chooser): the app's "saved "
+ * line (g_free), NULL when none came. */
+static char *
+save_as (Xserver          *x,
+         GDataInputStream *out,
+         const char       *path)
+{
+  focus_main (x);
+  xdotool_va (x, "key", "ctrl+shift+s", NULL);
+  xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
+              "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", path, NULL);
+  xdotool_va (x, "sleep", "0.5", "key", "Return", NULL);
+  return read_until (out, "saved ");
 }
 
 static void
@@ -83,7 +72,7 @@ test_undo_geodesic (void)
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--preset", "sphere", "--tool", "geodesic", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", "--tool", "geodesic", NULL);
   geometry = read_view_geometry (out);
   focus_main (&x);
   xdotool_va (&x, "key", "ctrl+t", NULL);
@@ -186,7 +175,7 @@ test_paths_from_csv (void)
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--preset", "sphere", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", NULL);
   geometry = read_view_geometry (out);
   focus_main (&x);
   xdotool_va (&x, "key", "ctrl+alt+a", NULL);
@@ -243,7 +232,7 @@ test_bad_loop_project (void)
   g_assert_no_error (error);
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, path, NULL);
+  app = start_app (&x, DF_APP_PATH, &out, path, NULL);
   skipped = read_until (out, "loop-skipped ");
   g_assert_nonnull (skipped);
   g_assert_nonnull (strstr (skipped, "part.dfproj"));
@@ -282,7 +271,7 @@ test_typed_loop_latitude (void)
     wrapped -= 2 * G_PI;
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--preset", "sphere", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", NULL);
   geometry = read_view_geometry (out);
   focus_main (&x);
   xdotool_va (&x, "key", "ctrl+shift+t", NULL);
@@ -337,7 +326,7 @@ test_one_signed_range (void)
   g_assert_no_error (error);
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, surface, "--colouring", "mean", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, surface, "--colouring", "mean", NULL);
   /* The first report may come before the mesh (an empty range). */
   while (hi == 0)
     {
@@ -374,14 +363,9 @@ test_save_as_title (void)
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--demo", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, "--demo", NULL);
   g_strfreev (read_view_geometry (out));
-  focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+s", NULL);
-  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
-              "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", path, NULL);
-  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
-  line = read_until (out, "saved ");
+  line = save_as (&x, out, path);
   g_assert_cmpstr (line, ==, expect);
   g_assert_true (g_file_test (path, G_FILE_TEST_IS_REGULAR));
   /* Fails (xdotool exits 1) when no window has this title. */
@@ -422,7 +406,7 @@ test_data_import_typed_path (void)
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--preset", "sphere", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", NULL);
   g_free (read_until (out, "view-geometry "));
   focus_main (&x);
   xdotool_va (&x, "key", "ctrl+shift+p", NULL);
@@ -496,38 +480,23 @@ test_drape_keys_saved (void)
   g_autofree char *dir = g_dir_make_tmp ("df-edits-XXXXXX", NULL);
   g_autofree char *opened = g_build_filename (dir, "keys.dfproj", NULL);
   g_autofree char *saved = g_build_filename (dir, "keys-saved.dfproj", NULL);
-  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
-  g_autofree char *demo = NULL;
-  g_autofree char *text = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   g_autoptr(GError) error = NULL;
   g_autofree char *line = NULL;
   double before[4], after[4];
 
-  g_assert_true (g_file_get_contents (demo_path, &demo, NULL, &error));
-  g_assert_nonnull (strstr (demo, "name=Belly patch\n"));
-  {
-    g_auto(GStrv) halves = g_strsplit (demo, "name=Belly patch\n", 2);
-
-    text = g_strconcat (halves[0], "name=Belly patch\ndrape-start=92;0.05\n"
-                        "drape-warp-deg=30\ndrape-cell=6\n", halves[1], NULL);
-  }
-  g_assert_true (g_file_set_contents (opened, text, -1, &error));
+  write_demo_with (DF_EXAMPLES_DIR, opened, "name=Belly patch\n",
+                   "name=Belly patch\ndrape-start=92;0.05\ndrape-warp-deg=30\ndrape-cell=6\n");
   cli_shear_drape (opened, "Belly patch", before);
   g_assert_cmpfloat (before[0], ==, 30);
   g_assert_cmpfloat (before[1], ==, 6);
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, opened, NULL);
+  app = start_app (&x, DF_APP_PATH, &out, opened, NULL);
   g_strfreev (read_view_geometry (out));
-  focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+s", NULL);
-  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
-              "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", saved, NULL);
-  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
-  line = read_until (out, "saved ");
+  line = save_as (&x, out, saved);
   g_assert_nonnull (line);
   stop_app (app, &x);
 

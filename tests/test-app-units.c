@@ -19,32 +19,6 @@
 /* The international inch: 25.4 mm exactly (1959 agreement; NIST SP 811, appendix B). */
 #define MM_PER_INCH 25.4
 
-static GSubprocess *
-start_app (Xserver           *x,
-           GDataInputStream **out,
-           const char        *first,
-           ...)
-{
-  g_autoptr(GSubprocessLauncher) launcher = app_launcher (x);
-  g_autoptr(GPtrArray) args = g_ptr_array_new ();
-  g_autoptr(GError) error = NULL;
-  GSubprocess *app;
-  va_list ap;
-
-  g_ptr_array_add (args, (char *) DF_APP_PATH);
-  va_start (ap, first);
-  for (const char *a = first; a != NULL; a = va_arg (ap, const char *))
-    g_ptr_array_add (args, (char *) a);
-  va_end (ap);
-  g_ptr_array_add (args, (char *) "--report-view-geometry");
-  g_ptr_array_add (args, (char *) "--report-events");
-  g_ptr_array_add (args, NULL);
-  app = g_subprocess_launcher_spawnv (launcher, (const char *const *) args->pdata, &error);
-  g_assert_no_error (error);
-  *out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
-  return app;
-}
-
 static void
 stop_app (GSubprocess *app)
 {
@@ -170,7 +144,7 @@ test_demo_in_metres (void)
 
   if (!xserver_start (&x))
     return;
-  app = start_app (&x, &out, "--demo", "--units", "m", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, "--demo", "--units", "m", NULL);
   /* Opening the project shows it in its own units; --units is then applied as an edit. */
   expect_line (out, "units ", "units mm mm");
   expect_line (out, "units ", "units m m");
@@ -220,7 +194,7 @@ test_units_saved (void)
   g_file_set_contents (path, demo, -1, &error);
   g_assert_no_error (error);
 
-  app = start_app (&x, &out, path, "--units", "m", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, path, "--units", "m", NULL);
   expect_line (out, "units ", "units mm mm");
   expect_line (out, "units ", "units m m");
   read_shown (out, &first);
@@ -249,7 +223,7 @@ test_units_saved (void)
   check = cli_json (parser, "check", "--project", path, NULL);
   g_assert_cmpstr (json_object_get_string_member (check, "units"), ==, "m");
 
-  app = start_app (&x, &out, path, NULL);
+  app = start_app (&x, DF_APP_PATH, &out, path, NULL);
   expect_line (out, "units ", "units m m");
   read_shown (out, &again);
   g_assert_cmpstr (again.unit, ==, "m");
@@ -299,7 +273,7 @@ test_inches_curvature_per_m2 (void)
   g_key_file_save_to_file (key_file, demo, &error);
   g_assert_no_error (error);
 
-  app = start_app (&x, &out, demo, "--units", "in,m", NULL);
+  app = start_app (&x, DF_APP_PATH, &out, demo, "--units", "in,m", NULL);
   expect_line (out, "units ", "units mm mm");
   expect_line (out, "units ", "units in m");
   read_shown (out, &s);
