@@ -14,6 +14,7 @@
 #include <sys/prctl.h>
 #endif
 
+#include "df-status.h"
 #include "df-test-app.h"
 
 /* XDG_DATA_DIRS before g_test_init isolated it: the app's file dialogs need the system's
@@ -395,6 +396,17 @@ write_demo_with (const char *examples_dir,
   edited = g_strconcat (halves[0], replacement, halves[1], NULL);
   g_file_set_contents (path, edited, -1, &error);
   g_assert_no_error (error);
+}
+
+void
+app_test_init (int    *argc,
+               char ***argv)
+{
+  df_core_init ();
+  /* Before g_test_init isolates it; the XDG Base Directory default when unset. */
+  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
+                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
+  g_test_init (argc, argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
 }
 
 /* The view's geometry line, split: "view-geometry XID X Y WIDTH HEIGHT". */

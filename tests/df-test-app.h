@@ -13,6 +13,10 @@
  * system's GSettings schemas and MIME database from there. */
 extern char *system_data_dirs;
 
+/* A test program's start: the core, system_data_dirs, then g_test_init with isolated
+ * folders. */
+void app_test_init (int *argc, char ***argv);
+
 typedef struct
 {
   GSubprocess *server;

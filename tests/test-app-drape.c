@@ -380,10 +380,7 @@ test_limits_redrape (void)
 int
 main (int argc, char **argv)
 {
-  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL ? g_getenv ("XDG_DATA_DIRS")
-                               : "/usr/local/share:/usr/share");
-  df_core_init ();
-  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+  app_test_init (&argc, &argv);
   g_test_add_func ("/app/drape/typed", test_typed);
   g_test_add_func ("/app/drape/key-and-pick", test_key_and_pick);
   g_test_add_func ("/app/drape/limits-redrape", test_limits_redrape);

@@ -1168,11 +1168,7 @@ int
 main (int   argc,
       char *argv[])
 {
-  df_core_init ();
-  /* The XDG Base Directory default when unset. */
-  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
-                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
-  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+  app_test_init (&argc, &argv);
 
   g_test_add_func ("/app/e2e/sketch-pole-loop", test_sketch_pole_loop);
   g_test_add_func ("/app/e2e/screenshot", test_screenshot);

@@ -512,11 +512,7 @@ int
 main (int   argc,
       char *argv[])
 {
-  df_core_init ();
-  /* The XDG Base Directory default when unset. */
-  system_data_dirs = g_strdup (g_getenv ("XDG_DATA_DIRS") != NULL && g_getenv ("XDG_DATA_DIRS")[0]
-                               ? g_getenv ("XDG_DATA_DIRS") : "/usr/local/share:/usr/share");
-  g_test_init (&argc, &argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
+  app_test_init (&argc, &argv);
 
   g_test_add_func ("/app/edits/undo-geodesic", test_undo_geodesic);
   g_test_add_func ("/app/edits/paths-from-csv", test_paths_from_csv);
