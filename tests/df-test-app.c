@@ -293,13 +293,25 @@ xdotool_run (Xserver    *x,
   g_autoptr(GSubprocess) driver = NULL;
   g_autoptr(GError) error = NULL;
 
+  g_autofree char *what = NULL;
+
   g_ptr_array_insert (args, 0, g_strdup ("xdotool"));
   g_ptr_array_add (args, NULL);
+  what = g_strjoinv (" ", (char **) args->pdata);
+  /* `search --sync` waits for ever for a window that never shows (a key press lost on a
+   * loaded machine): coreutils' timeout ends it, and the test fails saying what it waited
+   * for instead of hanging until the suite's own limit. */
+  g_ptr_array_insert (args, 0, g_strdup_printf ("%d", STEP_TIMEOUT_S));
+  g_ptr_array_insert (args, 0, g_strdup ("timeout"));
   g_subprocess_launcher_setenv (xl, "DISPLAY", x->display, TRUE);
   driver = g_subprocess_launcher_spawnv (xl, (const char *const *) args->pdata, &error);
   g_assert_no_error (error);
-  g_assert_true (g_subprocess_wait_check (driver, NULL, &error));
+  g_subprocess_wait (driver, NULL, &error);
   g_assert_no_error (error);
+  if (!g_subprocess_get_if_exited (driver) || g_subprocess_get_exit_status (driver) != 0)
+    g_error ("%s: %s", what, g_subprocess_get_if_exited (driver)
+                             && g_subprocess_get_exit_status (driver) == 124
+                             ? "timed out" : "failed");
 }
 
 void
