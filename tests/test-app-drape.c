@@ -377,6 +377,93 @@ test_limits_redrape (void)
   g_rmdir (dir_1);
 }
 
+/* The shown drape kept for the loop's shear check (Alt+K), then the project saved (Ctrl+S):
+ * `driftframe-cli check` on the saved file drapes the Belly patch from the same start, warp
+ * and cell, and its verdict is the app's loop verdict (exceeded at 1 degree). */
+static void
+test_keep_for_check (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autoptr(JsonParser) parser = json_parser_new ();
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GBytes) bytes = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
+  g_autofree char *loop_csv = NULL;
+  g_autofree char *project = write_project (dir, "1", &loop_csv);
+  g_autofree char *line = NULL;
+  g_autofree char *kept = NULL;
+  g_autofree char *saved = NULL;
+  g_auto(GStrv) parts = NULL;
+  JsonArray *verdicts;
+  gboolean found = FALSE;
+  Drape a;
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
+                                     "--drape", "Belly patch;90;5;10;4", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  line = read_until (out, "draped ");
+  g_assert_nonnull (line);
+  parse_draped (line, &a);
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Woven-Ply Drape",
+              "windowfocus", "sleep", "0.5", "key", "alt+k", NULL);
+  kept = read_until (out, "drape-kept ");
+  g_assert_nonnull (kept);
+  parts = g_strsplit (kept, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 5);
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+s", NULL);
+  saved = read_until (out, "saved ");
+  g_assert_nonnull (saved);
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+
+  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "check",
+                          "--project", project, "--json", NULL);
+  g_assert_no_error (error);
+  g_subprocess_communicate (cli, NULL, NULL, &bytes, NULL, &error);
+  g_assert_no_error (error);
+  json_parser_load_from_data (parser, g_bytes_get_data (bytes, NULL),
+                              (gssize) g_bytes_get_size (bytes), &error);
+  g_assert_no_error (error);
+  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
+                                           "verdicts");
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+      JsonObject *d;
+      JsonArray *start;
+
+      if (g_strcmp0 (json_object_get_string_member (v, "loop"), "Belly patch") != 0
+          || g_strcmp0 (json_object_get_string_member (v, "limit"), "max-shear-deg") != 0)
+        continue;
+      found = TRUE;
+      d = json_object_get_object_member (v, "drape");
+      start = json_object_get_array_member (d, "start");
+      /* Typed as t = 90, phi = 5 degrees, warp 10 degrees, 4 mm cells. */
+      df_assert_close (json_array_get_double_element (start, 0), 90, 1e-12, 0);
+      df_assert_close (json_array_get_double_element (start, 1), 5 * G_PI / 180, 1e-12, 0);
+      df_assert_close (json_object_get_double_member (d, "warp_deg"), 10, 1e-12, 0);
+      df_assert_close (json_object_get_double_member (d, "cell"), 4, 1e-12, 0);
+      g_assert_false (json_object_get_boolean_member (d, "warp_default"));
+      /* The drape window saw cells past 1 degree; so does check with the same drape. */
+      g_assert_cmpfloat (a.over, >, 0);
+      g_assert_false (json_object_get_boolean_member (v, "within"));
+    }
+  g_assert_true (found);
+  g_remove (loop_csv);
+  g_remove (project);
+  g_rmdir (dir);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -384,5 +471,6 @@ main (int argc, char **argv)
   g_test_add_func ("/app/drape/typed", test_typed);
   g_test_add_func ("/app/drape/key-and-pick", test_key_and_pick);
   g_test_add_func ("/app/drape/limits-redrape", test_limits_redrape);
+  g_test_add_func ("/app/drape/keep-for-check", test_keep_for_check);
   return g_test_run ();
 }

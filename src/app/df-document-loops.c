@@ -163,6 +163,22 @@ df_document_set_loop_colour (DfDocument *self,
 }
 
 void
+df_document_set_loop_drape (DfDocument           *self,
+                            DfLoopItem           *item,
+                            const df_shear_setup *drape)
+{
+  g_return_if_fail (DF_IS_DOCUMENT (self));
+  g_return_if_fail (DF_IS_LOOP_ITEM (item));
+  g_return_if_fail (drape != NULL);
+
+  _df_document_push_history (self, "drape for the shear check");
+  df_loop_item_set_drape (item, drape);
+  /* Its verdicts are checked again (df-window-decide.c listens). */
+  g_signal_emit (self, _df_document_signals[LOOP_CHANGED], 0, item);
+  _df_document_update_modified (self);
+}
+
+void
 df_document_set_loop_frames (DfDocument *self,
                              DfLoopItem *item,
                              gboolean    show)

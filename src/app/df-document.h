@@ -134,6 +134,10 @@ void                  df_document_set_loop_colour  (DfDocument *self, DfLoopItem
                                                     const char *colour);
 void                  df_document_set_loop_frames  (DfDocument *self, DfLoopItem *item,
                                                     gboolean show);
+/* The drape the loop's max-shear-deg check uses (its drape-start, drape-warp-deg, drape-cell
+ * keys); an undoable edit. */
+void                  df_document_set_loop_drape   (DfDocument *self, DfLoopItem *item,
+                                                    const df_shear_setup *drape);
 /* Reads a loop CSV (df-loop-csv.h) and adds it named after the file. */
 DfLoopItem           *df_document_import_loop_csv  (DfDocument  *self,
                                                     const char  *path,

@@ -27,7 +27,7 @@ struct _DfDrapeWindow
   GtkWindow parent_instance;
 
   /* children */
-  GtkWidget *loop, *start_u, *start_v, *warp, *cell, *pick, *run, *clear;
+  GtkWidget *loop, *start_u, *start_v, *warp, *cell, *pick, *run, *clear, *keep;
   GtkWidget *u_label, *v_label, *warp_hint, *cell_units, *status, *figures, *flags, *flat;
   GtkWidget *svg, *pins, *outline;
 
@@ -197,6 +197,7 @@ clear_result (DfDrapeWindow *self)
   gtk_widget_set_sensitive (self->svg, FALSE);
   gtk_widget_set_sensitive (self->pins, FALSE);
   gtk_widget_set_sensitive (self->outline, FALSE);
+  gtk_widget_set_sensitive (self->keep, FALSE);
 }
 
 static void
@@ -234,6 +235,7 @@ show_result (DfDrapeWindow *self,
   gtk_widget_set_sensitive (self->svg, TRUE);
   gtk_widget_set_sensitive (self->pins, TRUE);
   gtk_widget_set_sensitive (self->outline, TRUE);
+  gtk_widget_set_sensitive (self->keep, final);
   set_status (self, final ? "Draped." : "Dragging: release to check every cell's closure.",
               FALSE);
   if (final && self->report_events)
@@ -394,6 +396,37 @@ run_cb (GtkButton     *button,
 
   if (typed_start (self, uv))
     start_job (self, uv[0], uv[1], TRUE);
+}
+
+/* The shown drape's start, warp and cell become the loop's own for its max-shear-deg check
+ * (saved with the project, read by `check`), instead of the defaults. */
+static void
+keep_cb (GtkButton     *button,
+         DfDrapeWindow *self)
+{
+  DfLoopItem *item = chosen_loop (self);
+  const df_drape_options *o;
+  df_shear_setup setup = { 0 };
+
+  if (item == NULL || self->result == NULL || !self->result_final || !self->have_start)
+    return;
+  o = df_drape_get_options (self->result->drape);
+  setup.has_start = TRUE;
+  setup.start[0] = self->start[0];
+  setup.start[1] = self->start[1];
+  setup.has_warp = TRUE;
+  setup.warp_deg = o->warp_rad * DEG;
+  setup.has_cell = TRUE;
+  setup.cell = o->cell;
+  df_document_set_loop_drape (self->document, item, &setup);
+  set_status (self, "The loop's fabric-shear check now drapes it from this start, warp and "
+              "cell (saved with the project; Ctrl+Z undoes it).", FALSE);
+  if (self->report_events)
+    {
+      printf ("drape-kept %.17g %.17g %.17g %.17g\n", setup.start[0], setup.start[1],
+              setup.warp_deg, setup.cell);
+      fflush (stdout);
+    }
 }
 
 static void
@@ -763,8 +796,14 @@ df_drape_window_init (DfDrapeWindow *self)
   self->run = gtk_button_new_with_mnemonic ("_Drape");
   gtk_widget_add_css_class (self->run, "suggested-action");
   self->clear = gtk_button_new_with_mnemonic ("C_lear");
+  self->keep = gtk_button_new_with_mnemonic ("_Keep for the shear check");
+  gtk_widget_set_tooltip_text (self->keep, "Check this loop against the locking angle with this "
+                               "drape (start, warp, cell) instead of the defaults: the loop's "
+                               "details and `driftframe-cli check` then use it");
+  gtk_widget_set_sensitive (self->keep, FALSE);
   gtk_box_append (GTK_BOX (buttons), self->run);
   gtk_box_append (GTK_BOX (buttons), self->clear);
+  gtk_box_append (GTK_BOX (buttons), self->keep);
   gtk_box_append (GTK_BOX (box), buttons);
   self->status = wrapped ("", NULL, 44);
   gtk_box_append (GTK_BOX (box), self->status);
@@ -804,6 +843,7 @@ df_drape_window_init (DfDrapeWindow *self)
 
   g_signal_connect (self->run, "clicked", G_CALLBACK (run_cb), self);
   g_signal_connect (self->clear, "clicked", G_CALLBACK (clear_cb), self);
+  g_signal_connect (self->keep, "clicked", G_CALLBACK (keep_cb), self);
   g_signal_connect (self->pick, "toggled", G_CALLBACK (pick_toggled_cb), self);
   g_signal_connect (self->svg, "clicked", G_CALLBACK (export_cb), self);
   g_signal_connect (self->pins, "clicked", G_CALLBACK (export_cb), self);
