@@ -284,34 +284,68 @@ field (GPtrArray *rows,
   return value;
 }
 
-/* Runs xdotool with args (NULL-terminated) on the test's display and waits for it. */
-void
-xdotool_run (Xserver    *x,
-             GPtrArray  *args)
+/* Runs xdotool with args on the test's display for at most seconds; its exit status (124
+ * when it ran out of time), what it ran in *what (g_free). */
+static int
+xdotool_try (Xserver   *x,
+             GPtrArray *args,
+             int        seconds,
+             char     **what)
 {
   g_autoptr(GSubprocessLauncher) xl = g_subprocess_launcher_new (G_SUBPROCESS_FLAGS_NONE);
   g_autoptr(GSubprocess) driver = NULL;
   g_autoptr(GError) error = NULL;
 
-  g_autofree char *what = NULL;
-
   g_ptr_array_insert (args, 0, g_strdup ("xdotool"));
   g_ptr_array_add (args, NULL);
-  what = g_strjoinv (" ", (char **) args->pdata);
+  *what = g_strjoinv (" ", (char **) args->pdata);
   /* `search --sync` waits for ever for a window that never shows (a key press lost on a
-   * loaded machine): coreutils' timeout ends it, and the test fails saying what it waited
-   * for instead of hanging until the suite's own limit. */
-  g_ptr_array_insert (args, 0, g_strdup_printf ("%d", STEP_TIMEOUT_S));
+   * loaded machine): coreutils' timeout ends it. */
+  g_ptr_array_insert (args, 0, g_strdup_printf ("%d", seconds));
   g_ptr_array_insert (args, 0, g_strdup ("timeout"));
   g_subprocess_launcher_setenv (xl, "DISPLAY", x->display, TRUE);
   driver = g_subprocess_launcher_spawnv (xl, (const char *const *) args->pdata, &error);
   g_assert_no_error (error);
   g_subprocess_wait (driver, NULL, &error);
   g_assert_no_error (error);
-  if (!g_subprocess_get_if_exited (driver) || g_subprocess_get_exit_status (driver) != 0)
-    g_error ("%s: %s", what, g_subprocess_get_if_exited (driver)
-                             && g_subprocess_get_exit_status (driver) == 124
-                             ? "timed out" : "failed");
+  return g_subprocess_get_if_exited (driver) ? g_subprocess_get_exit_status (driver) : -1;
+}
+
+/* Runs xdotool with args (NULL-terminated) on the test's display and waits for it; the test
+ * fails saying what it ran when xdotool fails or runs past the step timeout. */
+void
+xdotool_run (Xserver    *x,
+             GPtrArray  *args)
+{
+  g_autofree char *what = NULL;
+  int status = xdotool_try (x, args, STEP_TIMEOUT_S, &what);
+
+  if (status != 0)
+    g_error ("%s: %s", what, status == 124 ? "timed out" : "failed");
+}
+
+void
+open_by_key (Xserver    *x,
+             const char *key,
+             const char *title)
+{
+  for (int attempt = 0; attempt < 3; attempt++)
+    {
+      g_autoptr(GPtrArray) args = g_ptr_array_new_with_free_func (g_free);
+      g_autofree char *what = NULL;
+
+      focus_main (x);
+      xdotool_va (x, "key", key, NULL);
+      g_ptr_array_add (args, g_strdup ("search"));
+      g_ptr_array_add (args, g_strdup ("--sync"));
+      g_ptr_array_add (args, g_strdup ("--onlyvisible"));
+      g_ptr_array_add (args, g_strdup ("--name"));
+      g_ptr_array_add (args, g_strdup (title));
+      if (xdotool_try (x, args, STEP_TIMEOUT_S / 3, &what) == 0)
+        return;
+      g_test_message ("%s: no window after %s, pressing it again", title, key);
+    }
+  g_error ("the window \"%s\" did not open on %s", title, key);
 }
 
 void

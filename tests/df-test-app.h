@@ -45,6 +45,9 @@ double field (GPtrArray *rows, guint row, int column);
 void xdotool_run (Xserver *x, GPtrArray *args);
 /* Runs xdotool with the NULL-terminated arguments on the test's display. */
 void xdotool_va (Xserver *x, const char *first, ...);
+/* Presses key in the main window until a window titled title shows (three tries: a key press
+ * can be lost on a loaded machine); fails the test when none does. */
+void open_by_key (Xserver *x, const char *key, const char *title);
 /* Focuses the dialog titled title and presses key. */
 void answer_dialog (Xserver *x, const char *title, const char *key);
 /* Gives the main window the keyboard focus. */

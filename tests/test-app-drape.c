@@ -242,7 +242,7 @@ test_key_and_pick (void)
   g_assert_nonnull (geometry);
   g_assert_cmpuint (g_strv_length (geometry), ==, 6);
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+w", NULL);
+  open_by_key (&x, "ctrl+shift+w", "Woven-Ply Drape");
   /* The window shows (search --sync waits for it); moved off the view (no window manager). */
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Woven-Ply Drape",
               "windowmove", "1000", "0", "windowfocus", "sleep", "0.5", NULL);
@@ -345,7 +345,7 @@ test_limits_redrape (void)
   g_assert_cmpfloat (a.over, ==, 0);
 
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+l", NULL);
+  open_by_key (&x, "ctrl+shift+l", "Material and Process Limits");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Material and Process Limits",
               "windowfocus", "sleep", "0.5", "key", "alt+l", NULL);
   type_field (&x, "1");
@@ -359,7 +359,7 @@ test_limits_redrape (void)
 
   /* And back to 5 degrees: no cell flagged again. */
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+l", NULL);
+  open_by_key (&x, "ctrl+shift+l", "Material and Process Limits");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Material and Process Limits",
               "windowfocus", "sleep", "0.5", "key", "alt+l", NULL);
   type_field (&x, "5");

@@ -759,7 +759,7 @@ test_data_import (void)
 
   /* A bad table through the dialog: refused with its line, the fitted surface kept. */
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+p", NULL);
+  open_by_key (&x, "ctrl+shift+p", "Surface from Measured Data");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Surface from Measured Data",
               "windowfocus", "sleep", "1", "type", "--delay", "20", bad_path, NULL);
   xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
@@ -984,7 +984,7 @@ test_limit_verdict_gores (void)
 
   /* The user sets 18 mm in the limits editor (first field) and applies it. */
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+l", NULL);
+  open_by_key (&x, "ctrl+shift+l", "Material and Process Limits");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Material and Process Limits",
               "windowfocus", "sleep", "0.5", NULL);
   type_field (&x, "18 mm");
@@ -1002,7 +1002,7 @@ test_limit_verdict_gores (void)
   /* The gore tool on the whole shade (t from 0 to 180, 8 gores, no seam: its defaults) and
    * its SVG export through the file chooser. */
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+g", NULL);
+  open_by_key (&x, "ctrl+shift+g", "Gore Pattern");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Gore Pattern", "windowfocus",
               "sleep", "0.5", "key", "alt+s", NULL);
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Export Gore Pattern",

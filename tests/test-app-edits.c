@@ -36,7 +36,7 @@ save_as (Xserver          *x,
          const char       *path)
 {
   focus_main (x);
-  xdotool_va (x, "key", "ctrl+shift+s", NULL);
+  open_by_key (x, "ctrl+shift+s", "Save Project");
   xdotool_va (x, "search", "--sync", "--onlyvisible", "--name", "Save Project", "windowfocus",
               "sleep", "1", "key", "ctrl+a", "type", "--delay", "20", path, NULL);
   xdotool_va (x, "sleep", "0.5", "key", "Return", NULL);
@@ -178,12 +178,12 @@ test_paths_from_csv (void)
   app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", NULL);
   geometry = read_view_geometry (out);
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+alt+a", NULL);
+  open_by_key (&x, "ctrl+alt+a", "Import Path A");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Import Path A",
               "windowfocus", "sleep", "1", "type", "--delay", "20", a_path, NULL);
   xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+alt+b", NULL);
+  open_by_key (&x, "ctrl+alt+b", "Import Path B");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Import Path B",
               "windowfocus", "sleep", "1", "type", "--delay", "20", b_path, NULL);
   xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
@@ -274,7 +274,7 @@ test_typed_loop_latitude (void)
   app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", NULL);
   geometry = read_view_geometry (out);
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+t", NULL);
+  open_by_key (&x, "ctrl+shift+t", "Loop from Typed Points");
   /* The dialog opens with the header "u,v" and the cursor on the next row. */
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Loop from Typed Points",
               "windowfocus", "sleep", "1", NULL);
@@ -409,7 +409,7 @@ test_data_import_typed_path (void)
   app = start_app (&x, DF_APP_PATH, &out, "--preset", "sphere", NULL);
   g_free (read_until (out, "view-geometry "));
   focus_main (&x);
-  xdotool_va (&x, "key", "ctrl+shift+p", NULL);
+  open_by_key (&x, "ctrl+shift+p", "Surface from Measured Data");
   xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Surface from Measured Data",
               "windowfocus", "sleep", "1", "type", "--delay", "20", csv, NULL);
   xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
