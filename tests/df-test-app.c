@@ -455,6 +455,44 @@ app_test_init (int    *argc,
   g_test_init (argc, argv, G_TEST_OPTION_ISOLATE_DIRS, NULL);
 }
 
+JsonArray *
+cli_check_verdicts (const char *cli_path,
+                    const char *project,
+                    JsonParser *parser)
+{
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GBytes) stdout_bytes = NULL;
+
+  /* Exit status 3 (a limit exceeded) is an answer here, not a failure. */
+  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, cli_path, "check",
+                          "--project", project, "--json", NULL);
+  g_assert_no_error (error);
+  g_subprocess_communicate (cli, NULL, NULL, &stdout_bytes, NULL, &error);
+  g_assert_no_error (error);
+  json_parser_load_from_data (parser, g_bytes_get_data (stdout_bytes, NULL),
+                              (gssize) g_bytes_get_size (stdout_bytes), &error);
+  g_assert_no_error (error);
+  return json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
+                                       "verdicts");
+}
+
+JsonObject *
+find_verdict (JsonArray  *verdicts,
+              const char *loop,
+              const char *limit)
+{
+  for (guint i = 0; i < json_array_get_length (verdicts); i++)
+    {
+      JsonObject *v = json_array_get_object_element (verdicts, i);
+
+      if (g_strcmp0 (json_object_get_string_member (v, "loop"), loop) == 0
+          && g_strcmp0 (json_object_get_string_member (v, "limit"), limit) == 0)
+        return v;
+    }
+  return NULL;
+}
+
 /* The view's geometry line, split: "view-geometry XID X Y WIDTH HEIGHT". */
 char **
 read_view_geometry (GDataInputStream *out)

@@ -5,6 +5,7 @@
 
 #include <gdk-pixbuf/gdk-pixbuf.h>
 #include <gio/gio.h>
+#include <json-glib/json-glib.h>
 
 /* Generous: the software rasterizer and a cold start are slow on a loaded machine. */
 #define STEP_TIMEOUT_S 90
@@ -59,6 +60,10 @@ void focus_view (Xserver *x, char **geometry);
  * line (which must be there) replaced by replacement: a limit changed, a key added. */
 void write_demo_with (const char *examples_dir, const char *path, const char *line,
                       const char *replacement);
+/* `check --json` of the CLI at cli_path on project: its "verdicts" array, owned by parser. */
+JsonArray *cli_check_verdicts (const char *cli_path, const char *project, JsonParser *parser);
+/* The first verdict of loop against limit in such an array, or NULL. */
+JsonObject *find_verdict (JsonArray *verdicts, const char *loop, const char *limit);
 /* "view-geometry XID X Y WIDTH HEIGHT", split. */
 char **read_view_geometry (GDataInputStream *out);
 /* Drags a counter-clockwise circle of radius px round the view's centre. */

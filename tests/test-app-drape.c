@@ -389,8 +389,6 @@ test_keep_for_check (void)
   g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   g_autoptr(JsonParser) parser = json_parser_new ();
-  g_autoptr(GSubprocess) cli = NULL;
-  g_autoptr(GBytes) bytes = NULL;
   g_autofree char *dir = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
   g_autofree char *loop_csv = NULL;
   g_autofree char *project = write_project (dir, "1", &loop_csv);
@@ -398,8 +396,6 @@ test_keep_for_check (void)
   g_autofree char *kept = NULL;
   g_autofree char *saved = NULL;
   g_auto(GStrv) parts = NULL;
-  JsonArray *verdicts;
-  gboolean found = FALSE;
   Drape a;
 
   if (!xserver_start (&x))
@@ -426,39 +422,25 @@ test_keep_for_check (void)
   g_subprocess_wait (app, NULL, NULL);
   xserver_stop (&x);
 
-  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "check",
-                          "--project", project, "--json", NULL);
-  g_assert_no_error (error);
-  g_subprocess_communicate (cli, NULL, NULL, &bytes, NULL, &error);
-  g_assert_no_error (error);
-  json_parser_load_from_data (parser, g_bytes_get_data (bytes, NULL),
-                              (gssize) g_bytes_get_size (bytes), &error);
-  g_assert_no_error (error);
-  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
-                                           "verdicts");
-  for (guint i = 0; i < json_array_get_length (verdicts); i++)
-    {
-      JsonObject *v = json_array_get_object_element (verdicts, i);
-      JsonObject *d;
-      JsonArray *start;
+  {
+    JsonObject *v = find_verdict (cli_check_verdicts (DF_CLI_PATH, project, parser),
+                                  "Belly patch", "max-shear-deg");
+    JsonObject *d;
+    JsonArray *start;
 
-      if (g_strcmp0 (json_object_get_string_member (v, "loop"), "Belly patch") != 0
-          || g_strcmp0 (json_object_get_string_member (v, "limit"), "max-shear-deg") != 0)
-        continue;
-      found = TRUE;
-      d = json_object_get_object_member (v, "drape");
-      start = json_object_get_array_member (d, "start");
-      /* Typed as t = 90, phi = 5 degrees, warp 10 degrees, 4 mm cells. */
-      df_assert_close (json_array_get_double_element (start, 0), 90, 1e-12, 0);
-      df_assert_close (json_array_get_double_element (start, 1), 5 * G_PI / 180, 1e-12, 0);
-      df_assert_close (json_object_get_double_member (d, "warp_deg"), 10, 1e-12, 0);
-      df_assert_close (json_object_get_double_member (d, "cell"), 4, 1e-12, 0);
-      g_assert_false (json_object_get_boolean_member (d, "warp_default"));
-      /* The drape window saw cells past 1 degree; so does check with the same drape. */
-      g_assert_cmpfloat (a.over, >, 0);
-      g_assert_false (json_object_get_boolean_member (v, "within"));
-    }
-  g_assert_true (found);
+    g_assert_nonnull (v);
+    d = json_object_get_object_member (v, "drape");
+    start = json_object_get_array_member (d, "start");
+    /* Typed as t = 90, phi = 5 degrees, warp 10 degrees, 4 mm cells. */
+    df_assert_close (json_array_get_double_element (start, 0), 90, 1e-12, 0);
+    df_assert_close (json_array_get_double_element (start, 1), 5 * G_PI / 180, 1e-12, 0);
+    df_assert_close (json_object_get_double_member (d, "warp_deg"), 10, 1e-12, 0);
+    df_assert_close (json_object_get_double_member (d, "cell"), 4, 1e-12, 0);
+    g_assert_false (json_object_get_boolean_member (d, "warp_default"));
+    /* The drape window saw cells past 1 degree; so does check with the same drape. */
+    g_assert_cmpfloat (a.over, >, 0);
+    g_assert_false (json_object_get_boolean_member (v, "within"));
+  }
   g_remove (loop_csv);
   g_remove (project);
   g_rmdir (dir);

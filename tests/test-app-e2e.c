@@ -872,27 +872,6 @@ read_two_verdicts (GDataInputStream *out,
     }
 }
 
-/* The CLI's `check --json` on a project: its "verdicts" array, owned by parser. */
-static JsonArray *
-cli_check_verdicts (const char *project,
-                    JsonParser *parser)
-{
-  g_autoptr(GSubprocess) cli = NULL;
-  g_autoptr(GError) error = NULL;
-  g_autoptr(GBytes) stdout_bytes = NULL;
-
-  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE, &error, DF_CLI_PATH, "check",
-                          "--project", project, "--json", NULL);
-  g_assert_no_error (error);
-  g_subprocess_communicate (cli, NULL, NULL, &stdout_bytes, NULL, &error);
-  g_assert_no_error (error);
-  json_parser_load_from_data (parser, g_bytes_get_data (stdout_bytes, NULL),
-                              (gssize) g_bytes_get_size (stdout_bytes), &error);
-  g_assert_no_error (error);
-  return json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
-                                       "verdicts");
-}
-
 /* The CLI's `check --json` on a project: is limit within for the loop named name (all its
  * stretches)? */
 static gboolean
@@ -901,7 +880,7 @@ cli_within (const char *project,
             const char *limit)
 {
   g_autoptr(JsonParser) parser = json_parser_new ();
-  JsonArray *verdicts = cli_check_verdicts (project, parser);
+  JsonArray *verdicts = cli_check_verdicts (DF_CLI_PATH, project, parser);
   gboolean within = TRUE, seen = FALSE;
 
   for (guint i = 0; i < json_array_get_length (verdicts); i++)
@@ -1086,7 +1065,7 @@ test_geodesic_verdicts (void)
 
   write_demo_with (DF_EXAMPLES_DIR, project, "max-fibre-deviation-deg=30\n", "max-fibre-deviation-deg=2\n");
 
-  verdicts = cli_check_verdicts (project, parser);
+  verdicts = cli_check_verdicts (DF_CLI_PATH, project, parser);
   for (guint i = 0; i < json_array_get_length (verdicts); i++)
     {
       JsonObject *v = json_array_get_object_element (verdicts, i);

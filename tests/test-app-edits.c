@@ -434,41 +434,19 @@ cli_shear_drape (const char *project,
                  const char *loop,
                  double      out[4])
 {
-  g_autoptr(GSubprocess) cli = NULL;
-  g_autoptr(GError) error = NULL;
-  g_autoptr(GBytes) bytes = NULL;
   g_autoptr(JsonParser) parser = json_parser_new ();
-  JsonArray *verdicts;
-  gboolean found = FALSE;
+  JsonObject *v = find_verdict (cli_check_verdicts (DF_CLI_PATH, project, parser), loop,
+                                "max-shear-deg");
+  JsonObject *d;
+  JsonArray *start;
 
-  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_PIPE | G_SUBPROCESS_FLAGS_STDERR_SILENCE,
-                          &error, DF_CLI_PATH, "check", "--project", project, "--json", NULL);
-  g_assert_no_error (error);
-  g_subprocess_communicate (cli, NULL, NULL, &bytes, NULL, &error);
-  g_assert_no_error (error);
-  json_parser_load_from_data (parser, g_bytes_get_data (bytes, NULL),
-                              (gssize) g_bytes_get_size (bytes), &error);
-  g_assert_no_error (error);
-  verdicts = json_object_get_array_member (json_node_get_object (json_parser_get_root (parser)),
-                                           "verdicts");
-  for (guint i = 0; i < json_array_get_length (verdicts); i++)
-    {
-      JsonObject *v = json_array_get_object_element (verdicts, i);
-      JsonObject *d;
-      JsonArray *start;
-
-      if (g_strcmp0 (json_object_get_string_member (v, "loop"), loop) != 0
-          || g_strcmp0 (json_object_get_string_member (v, "limit"), "max-shear-deg") != 0)
-        continue;
-      d = json_object_get_object_member (v, "drape");
-      start = json_object_get_array_member (d, "start");
-      out[0] = json_object_get_double_member (d, "warp_deg");
-      out[1] = json_object_get_double_member (d, "cell");
-      out[2] = json_array_get_double_element (start, 0);
-      out[3] = json_array_get_double_element (start, 1);
-      found = TRUE;
-    }
-  g_assert_true (found);
+  g_assert_nonnull (v);
+  d = json_object_get_object_member (v, "drape");
+  start = json_object_get_array_member (d, "start");
+  out[0] = json_object_get_double_member (d, "warp_deg");
+  out[1] = json_object_get_double_member (d, "cell");
+  out[2] = json_array_get_double_element (start, 0);
+  out[3] = json_array_get_double_element (start, 1);
 }
 
 /* A loop's drape keys (drape-start, drape-warp-deg, drape-cell) survive a save from the app:
