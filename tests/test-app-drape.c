@@ -446,6 +446,96 @@ test_keep_for_check (void)
   g_rmdir (dir);
 }
 
+/* The pins and flat-outline CSVs exported from the app with the display unit m are the CLI's
+ * `drape --units m --nodes --flat` of the same drape, byte for byte (one writer); then a new
+ * surface (measured data typed into the import dialog) clears the drape. */
+static void
+test_csv_exports_and_surface_change (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GSubprocess) cli = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *dir = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
+  g_autofree char *loop_csv = NULL;
+  g_autofree char *project = write_project (dir, "5", &loop_csv);
+  g_autofree char *app_pins = g_build_filename (dir, "app-pins.csv", NULL);
+  g_autofree char *app_flat = g_build_filename (dir, "app-flat.csv", NULL);
+  g_autofree char *cli_pins = g_build_filename (dir, "cli-pins.csv", NULL);
+  g_autofree char *cli_flat = g_build_filename (dir, "cli-flat.csv", NULL);
+  g_autofree char *profile = g_build_filename (dir, "cap.csv", NULL);
+  g_autofree char *line = NULL;
+  g_autofree char *a_text = NULL, *c_text = NULL, *af_text = NULL, *cf_text = NULL;
+  g_autoptr(GString) cap = g_string_new ("r,z\n");
+  char start[64];
+
+  for (int i = 0; i <= 20; i++)
+    g_string_append_printf (cap, "%.17g,%.17g\n", 50 * sin (G_PI / 2 * i / 20),
+                            50 * cos (G_PI / 2 * i / 20));
+  g_assert_true (g_file_set_contents (profile, cap->str, -1, NULL));
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  /* The cell typed in the display unit: 4 mm = 0.004 m. */
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
+                                     "--units", "m", "--drape", "Belly patch;90;5;10;0.004",
+                                     NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  line = read_until (out, "draped ");
+  g_assert_nonnull (line);
+  for (int k = 0; k < 2; k++)
+    {
+      const char *key = k == 0 ? "alt+n" : "alt+o";
+      const char *title = k == 0 ? "Export Drape Pins" : "Export Flat Outline";
+      g_autofree char *exported = NULL;
+
+      xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Woven-Ply Drape",
+                  "windowfocus", "sleep", "0.5", "key", key, NULL);
+      xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", title, "windowfocus",
+                  "sleep", "0.5", NULL);
+      type_field (&x, k == 0 ? app_pins : app_flat);
+      xdotool_va (&x, "key", "Return", NULL);
+      exported = read_until (out, "drape-exported ");
+      g_assert_nonnull (exported);
+    }
+
+  g_snprintf (start, sizeof start, "90,%.17g", 5 * G_PI / 180);
+  cli = g_subprocess_new (G_SUBPROCESS_FLAGS_STDOUT_SILENCE, &error, DF_CLI_PATH, "drape",
+                          "--project", project, "--loop", loop_csv, "--start", start,
+                          "--warp-deg", "10", "--cell", "0.004", "--units", "m", "--nodes",
+                          cli_pins, "--flat", cli_flat, NULL);
+  g_assert_no_error (error);
+  g_assert_true (g_subprocess_wait_check (cli, NULL, &error));
+  g_assert_true (g_file_get_contents (app_pins, &a_text, NULL, NULL));
+  g_assert_true (g_file_get_contents (cli_pins, &c_text, NULL, NULL));
+  g_assert_true (g_file_get_contents (app_flat, &af_text, NULL, NULL));
+  g_assert_true (g_file_get_contents (cli_flat, &cf_text, NULL, NULL));
+  g_assert_cmpuint (strlen (a_text), >, 1000);
+  g_assert_cmpstr (a_text, ==, c_text);
+  g_assert_cmpstr (af_text, ==, cf_text);
+
+  /* A new surface: the drape goes (its pins were of the old one). */
+  open_by_key (&x, "ctrl+shift+p", "Surface from Measured Data");
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Surface from Measured Data",
+              "windowfocus", "sleep", "1", "type", "--delay", "20", profile, NULL);
+  xdotool_va (&x, "sleep", "0.5", "key", "Return", NULL);
+  g_free (line);
+  line = read_until (out, "drape-cleared ");
+  g_assert_cmpstr (line, ==, "drape-cleared surface");
+
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+  for (const char *const *p = (const char *const[]) { loop_csv, project, app_pins, app_flat,
+                                                      cli_pins, cli_flat, profile, NULL };
+       *p != NULL; p++)
+    g_remove (*p);
+  g_rmdir (dir);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -454,5 +544,6 @@ main (int argc, char **argv)
   g_test_add_func ("/app/drape/key-and-pick", test_key_and_pick);
   g_test_add_func ("/app/drape/limits-redrape", test_limits_redrape);
   g_test_add_func ("/app/drape/keep-for-check", test_keep_for_check);
+  g_test_add_func ("/app/drape/csv-exports-surface-change", test_csv_exports_and_surface_change);
   return g_test_run ();
 }

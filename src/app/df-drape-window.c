@@ -530,15 +530,20 @@ export_response_cb (GtkNativeDialog *chooser,
   if (path != NULL && self->result != NULL && self->document != NULL)
     {
       const df_drape *d = self->result->drape;
+      DfDisplayUnits du;
+      double f;
       gboolean ok;
 
-      /* The core's writers, atomic (df-drape-out.c), the same as drape --svg/--nodes/--flat. */
+      /* The core's writers, atomic (df-drape-out.c), as `drape --units --svg/--nodes/--flat`:
+       * the CSVs' lengths in the display unit, the SVG at true scale in the surface's. */
+      df_document_get_display_units (self->document, &du);
+      f = df_du_length (&du, 1.0);
       if (g_str_equal (choice->what, "svg"))
         ok = df_drape_svg_write (path, d, df_document_get_units (self->document), &error);
       else if (g_str_equal (choice->what, "csv"))
-        ok = df_drape_nodes_write (path, d, &error);
+        ok = df_drape_nodes_write_scaled (path, d, f, &error);
       else
-        ok = df_drape_flat_write (path, d, &error);
+        ok = df_drape_flat_write_scaled (path, d, f, &error);
       if (ok)
         {
           g_autofree char *text = g_strdup_printf ("Written %s.", path);
@@ -595,6 +600,11 @@ surface_changed_cb (DfDocument    *document,
   clear_result (self);
   update_labels (self);
   set_status (self, "The surface changed: drape again.", FALSE);
+  if (self->report_events)
+    {
+      printf ("drape-cleared surface\n");
+      fflush (stdout);
+    }
 }
 
 /* The cell typed stays the same length, written in the new unit (the "changed" that follows
