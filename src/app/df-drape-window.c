@@ -7,7 +7,7 @@
 #include "df-document-units.h"
 #include "df-export-chooser.h"
 #include "df-labels.h"
-#include "df-drape-window.h"
+#include "df-drape-window-private.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -20,48 +20,12 @@
 #include "df-format.h"
 #include "df-loop-item.h"
 
-#define DEG (180.0 / G_PI)
-
-struct _DfDrapeWindow
-{
-  GtkWindow parent_instance;
-
-  /* children */
-  GtkWidget *loop, *start_u, *start_v, *warp, *cell, *pick, *run, *clear, *keep;
-  GtkWidget *u_label, *v_label, *warp_hint, *cell_units, *status, *figures, *flags, *flat;
-  GtkWidget *svg, *pins, *outline;
-
-  /* owned */
-  DfDocument    *document;
-  DfSurfaceView *view;
-  GtkWidget     *legend;       /* in the view's overlay; a reference of ours */
-  GtkStringList *names;        /* the loops' names, in the document's order */
-  GCancellable  *cancellable;  /* every job of the current surface */
-  DfDrapeResult *result;       /* shown */
-  gboolean       result_final;
-  gboolean       report_events;
-  DfDisplayUnits du;           /* what the cell field is typed in */
-  /* The running job and the one waiting (a drag's newest pick). */
-  gboolean       running;
-  gboolean       pending;
-  double         pending_uv[2];
-  gboolean       pending_final;
-  gboolean       running_final;
-  /* What the shown (or running) drape was asked with, for re-running on a limits change. */
-  double         start[2];
-  gboolean       have_start;
-  void         (*shown_cb) (gboolean final, double drape_ms, double ms, gpointer user);
-  void         (*picking_cb) (gboolean on, gpointer user);
-  gpointer       picking_user;
-  gpointer       shown_user;
-};
-
 G_DEFINE_FINAL_TYPE (DfDrapeWindow, df_drape_window, GTK_TYPE_WINDOW)
 
-static void
-set_status (DfDrapeWindow *self,
-            const char    *text,
-            gboolean       error)
+void
+_df_drape_window_set_status (DfDrapeWindow *self,
+                             const char    *text,
+                             gboolean       error)
 {
   gtk_label_set_text (GTK_LABEL (self->status), text);
   if (error)
@@ -112,8 +76,8 @@ update_labels (DfDrapeWindow *self)
   gtk_label_set_text (GTK_LABEL (self->cell_units), df_du_length_unit (&du));
 }
 
-static DfLoopItem *
-chosen_loop (DfDrapeWindow *self)
+DfLoopItem *
+_df_drape_window_chosen_loop (DfDrapeWindow *self)
 {
   GListModel *loops = df_document_get_loops (self->document);
   guint k = gtk_drop_down_get_selected (GTK_DROP_DOWN (self->loop));
@@ -236,8 +200,9 @@ show_result (DfDrapeWindow *self,
   gtk_widget_set_sensitive (self->pins, TRUE);
   gtk_widget_set_sensitive (self->outline, TRUE);
   gtk_widget_set_sensitive (self->keep, final);
-  set_status (self, final ? "Draped." : "Dragging: release to check every cell's closure.",
-              FALSE);
+  _df_drape_window_set_status (self, final ? "Draped."
+                                           : "Dragging: release to check every cell's closure.",
+                               FALSE);
   if (final && self->report_events)
     {
       printf ("drape-start %.17g %.17g\n", self->start[0], self->start[1]);
@@ -279,7 +244,7 @@ job_done_cb (GObject      *source,
     show_result (self, r, final);
   else
     {
-      set_status (self, error->message, TRUE);
+      _df_drape_window_set_status (self, error->message, TRUE);
       if (final && self->report_events)
         {
           printf ("drape-failed %s\n", error->message);
@@ -302,7 +267,7 @@ start_job (DfDrapeWindow *self,
 {
   const df_surface *surface = df_document_get_surface (self->document);
   const df_limits *limits = df_document_get_limits (self->document);
-  DfLoopItem *item = chosen_loop (self);
+  DfLoopItem *item = _df_drape_window_chosen_loop (self);
   g_autoptr(GString) problems = g_string_new (NULL);
   const double (*uv)[2];
   double warp = 0, cell = 0;
@@ -320,8 +285,9 @@ start_job (DfDrapeWindow *self,
     }
   if (surface == NULL || item == NULL)
     {
-      set_status (self, surface == NULL ? "No surface." : "Choose a loop as the ply outline "
-                  "(sketch or import one first).", TRUE);
+      _df_drape_window_set_status (self, surface == NULL ? "No surface."
+                                         : "Choose a loop as the ply outline (sketch or import "
+                                           "one first).", TRUE);
       return;
     }
   df_document_get_display_units (self->document, &du);
@@ -332,7 +298,7 @@ start_job (DfDrapeWindow *self,
   cell = df_du_to_model (&du, cell);
   if (problems->len > 0)
     {
-      set_status (self, problems->str, TRUE);
+      _df_drape_window_set_status (self, problems->str, TRUE);
       if (final && self->report_events)
         {
           printf ("drape-failed %s\n", problems->str);
@@ -355,7 +321,7 @@ start_job (DfDrapeWindow *self,
   self->running = TRUE;
   if (self->cancellable == NULL)
     self->cancellable = g_cancellable_new ();
-  set_status (self, "Draping…", FALSE);
+  _df_drape_window_set_status (self, "Draping…", FALSE);
   self->running_final = final;
   df_drape_job_start (surface, uv, n, u, v, &opt, self->cancellable, job_done_cb,
                       g_object_ref (self));
@@ -375,7 +341,7 @@ typed_start (DfDrapeWindow *self,
   if (problems->len > 0)
     {
       g_string_prepend (problems, "Start: ");
-      set_status (self, problems->str, TRUE);
+      _df_drape_window_set_status (self, problems->str, TRUE);
       if (self->report_events)
         {
           printf ("drape-failed %s\n", problems->str);
@@ -398,44 +364,13 @@ run_cb (GtkButton     *button,
     start_job (self, uv[0], uv[1], TRUE);
 }
 
-/* The shown drape's start, warp and cell become the loop's own for its max-shear-deg check
- * (saved with the project, read by `check`), instead of the defaults. */
-static void
-keep_cb (GtkButton     *button,
-         DfDrapeWindow *self)
-{
-  DfLoopItem *item = chosen_loop (self);
-  const df_drape_options *o;
-  df_shear_setup setup = { 0 };
-
-  if (item == NULL || self->result == NULL || !self->result_final || !self->have_start)
-    return;
-  o = df_drape_get_options (self->result->drape);
-  setup.has_start = TRUE;
-  setup.start[0] = self->start[0];
-  setup.start[1] = self->start[1];
-  setup.has_warp = TRUE;
-  setup.warp_deg = o->warp_rad * DEG;
-  setup.has_cell = TRUE;
-  setup.cell = o->cell;
-  df_document_set_loop_drape (self->document, item, &setup);
-  set_status (self, "The loop's fabric-shear check now drapes it from this start, warp and "
-              "cell (saved with the project; Ctrl+Z undoes it).", FALSE);
-  if (self->report_events)
-    {
-      printf ("drape-kept %.17g %.17g %.17g %.17g\n", setup.start[0], setup.start[1],
-              setup.warp_deg, setup.cell);
-      fflush (stdout);
-    }
-}
-
 static void
 clear_cb (GtkButton     *button,
           DfDrapeWindow *self)
 {
   self->pending = FALSE;
   clear_result (self);
-  set_status (self, "", FALSE);
+  _df_drape_window_set_status (self, "", FALSE);
 }
 
 static void
@@ -452,7 +387,7 @@ fill_start (DfDrapeWindow *self,
 static void
 guess_values (DfDrapeWindow *self)
 {
-  DfLoopItem *item = chosen_loop (self);
+  DfLoopItem *item = _df_drape_window_chosen_loop (self);
   const df_loop_result *r;
   const double (*uv)[2];
   double mean[2] = { 0, 0 }, length = 0;
@@ -505,87 +440,9 @@ pick_toggled_cb (GtkToggleButton *button,
   /* The main window switches the view between orbiting and picking (it knows the tool). */
   if (self->picking_cb != NULL)
     self->picking_cb (on, self->picking_user);
-  set_status (self, on ? "Click on the surface inside the ply for the start pin; drag to move "
-                         "it (the net follows)." : "", FALSE);
-}
-
-typedef struct
-{
-  DfDrapeWindow *self;
-  const char    *what;
-} ExportChoice;
-
-static void
-export_response_cb (GtkNativeDialog *chooser,
-                    int              response,
-                    gpointer         user_data)
-{
-  ExportChoice *choice = user_data;
-  DfDrapeWindow *self = choice->self;
-  g_autoptr(GFile) file = response == GTK_RESPONSE_ACCEPT
-                          ? gtk_file_chooser_get_file (GTK_FILE_CHOOSER (chooser)) : NULL;
-  g_autofree char *path = file != NULL ? g_file_get_path (file) : NULL;
-  g_autoptr(GError) error = NULL;
-
-  if (path != NULL && self->result != NULL && self->document != NULL)
-    {
-      const df_drape *d = self->result->drape;
-      DfDisplayUnits du;
-      double f;
-      gboolean ok;
-
-      /* The core's writers, atomic (df-drape-out.c), as `drape --units --svg/--nodes/--flat`:
-       * the CSVs' lengths in the display unit, the SVG at true scale in the surface's. */
-      df_document_get_display_units (self->document, &du);
-      f = df_du_length (&du, 1.0);
-      if (g_str_equal (choice->what, "svg"))
-        ok = df_drape_svg_write (path, d, df_document_get_units (self->document), &error);
-      else if (g_str_equal (choice->what, "csv"))
-        ok = df_drape_nodes_write_scaled (path, d, f, &error);
-      else
-        ok = df_drape_flat_write_scaled (path, d, f, &error);
-      if (ok)
-        {
-          g_autofree char *text = g_strdup_printf ("Written %s.", path);
-
-          set_status (self, text, FALSE);
-          if (self->report_events)
-            {
-              printf ("drape-exported %s %s\n", choice->what, path);
-              fflush (stdout);
-            }
-        }
-      else
-        set_status (self, error->message, TRUE);
-    }
-  g_object_unref (self);
-  g_free (choice);
-  g_object_unref (chooser);
-}
-
-static void
-export_cb (GtkButton     *button,
-           DfDrapeWindow *self)
-{
-  GtkWidget *w = GTK_WIDGET (button);
-  const char *what = w == self->svg ? "svg" : w == self->pins ? "csv" : "flat";
-  gboolean svg = w == self->svg;
-  GtkFileChooserNative *chooser;
-  ExportChoice *choice = g_new0 (ExportChoice, 1);
-
-  chooser = df_export_chooser_new (GTK_WINDOW (self),
-                                   svg ? "Export Flat Pattern (SVG)"
-                                   : w == self->pins ? "Export Drape Pins (CSV)"
-                                   : "Export Flat Outline (CSV)",
-                                   svg ? "SVG image (*.svg)" : "CSV (*.csv)",
-                                   svg ? "*.svg" : "*.csv",
-                                   svg ? "flat-pattern.svg" : w == self->pins
-                                   ? "drape-pins.csv" : "flat-outline.csv",
-                                   df_document_get_path (self->document));
-  choice->self = g_object_ref (self);
-  choice->what = what;
-  g_signal_connect (chooser, "response", G_CALLBACK (export_response_cb), choice);
-  gtk_native_dialog_show (GTK_NATIVE_DIALOG (chooser));
+  _df_drape_window_set_status (self, on ? "Click on the surface inside the ply for the start "
+                                           "pin; drag to move it (the net follows)." : "",
+                               FALSE);
 }
 
 /* A new surface makes the drape stale; jobs still running are dropped when they land. */
@@ -599,7 +456,7 @@ surface_changed_cb (DfDocument    *document,
   self->running = self->pending = FALSE;
   clear_result (self);
   update_labels (self);
-  set_status (self, "The surface changed: drape again.", FALSE);
+  _df_drape_window_set_status (self, "The surface changed: drape again.", FALSE);
   if (self->report_events)
     {
       printf ("drape-cleared surface\n");
@@ -853,11 +710,11 @@ df_drape_window_init (DfDrapeWindow *self)
 
   g_signal_connect (self->run, "clicked", G_CALLBACK (run_cb), self);
   g_signal_connect (self->clear, "clicked", G_CALLBACK (clear_cb), self);
-  g_signal_connect (self->keep, "clicked", G_CALLBACK (keep_cb), self);
+  g_signal_connect (self->keep, "clicked", G_CALLBACK (_df_drape_window_keep_cb), self);
   g_signal_connect (self->pick, "toggled", G_CALLBACK (pick_toggled_cb), self);
-  g_signal_connect (self->svg, "clicked", G_CALLBACK (export_cb), self);
-  g_signal_connect (self->pins, "clicked", G_CALLBACK (export_cb), self);
-  g_signal_connect (self->outline, "clicked", G_CALLBACK (export_cb), self);
+  g_signal_connect (self->svg, "clicked", G_CALLBACK (_df_drape_window_export_cb), self);
+  g_signal_connect (self->pins, "clicked", G_CALLBACK (_df_drape_window_export_cb), self);
+  g_signal_connect (self->outline, "clicked", G_CALLBACK (_df_drape_window_export_cb), self);
   g_signal_connect (self->loop, "notify::selected", G_CALLBACK (loop_selected_cb), self);
   g_signal_connect (self, "close-request", G_CALLBACK (close_request_cb), self);
   gtk_widget_set_sensitive (self->svg, FALSE);
@@ -985,7 +842,7 @@ df_drape_window_set_typed (DfDrapeWindow *self,
     {
       g_autofree char *msg = g_strdup_printf ("No loop is named '%s'.", loop_name);
 
-      set_status (self, msg, TRUE);
+      _df_drape_window_set_status (self, msg, TRUE);
       if (self->report_events)
         {
           printf ("drape-failed %s\n", msg);
