@@ -322,6 +322,53 @@ test_shear_verdicts (void)
   g_rmdir (dir);
 }
 
+/* With lengths shown in m, a bare number typed in the limits editor is in m: 0.018 is the 18 mm
+ * of the test above, so the Belly patch comes within and the Top seam ply stays beyond, as
+ * `check` says for 18 mm (0.018 mm would let both pass). */
+static void
+test_bare_limit_in_display_unit (void)
+{
+  Xserver x;
+  g_autofree char *dir = g_dir_make_tmp ("df-decide-XXXXXX", NULL);
+  g_autofree char *project = g_build_filename (dir, "demo-18mm.dfproj", NULL);
+  g_autoptr(GSubprocessLauncher) launcher = NULL;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GError) error = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
+  gboolean belly = FALSE, seam = TRUE;
+
+  if (!xserver_start (&x))
+    return;
+  launcher = app_launcher (&x);
+  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, demo_path, "--units", "m",
+                                     "--report-events", NULL);
+  g_assert_no_error (error);
+  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  read_two_verdicts (out, "Belly_patch", "Top_seam_ply", "min-steering-radius", &belly, &seam);
+  g_assert_false (belly);
+
+  open_by_key (&x, "ctrl+shift+l", "Material and Process Limits");
+  xdotool_va (&x, "search", "--sync", "--onlyvisible", "--name", "Material and Process Limits",
+              "windowfocus", "sleep", "0.5", NULL);
+  type_field (&x, "0.018");
+  xdotool_va (&x, "key", "Return", NULL);
+  read_two_verdicts (out, "Belly_patch", "Top_seam_ply", "min-steering-radius", &belly, &seam);
+
+  write_demo_with (DF_EXAMPLES_DIR, project, "min-steering-radius=25 mm\n",
+                   "min-steering-radius=18 mm\n");
+  g_assert_cmpint (belly, ==, cli_within (project, "Belly patch", "min-steering-radius"));
+  g_assert_cmpint (seam, ==, cli_within (project, "Top seam ply", "min-steering-radius"));
+  g_assert_true (belly);
+  g_assert_false (seam);
+
+  g_subprocess_force_exit (app);
+  g_subprocess_wait (app, NULL, NULL);
+  xserver_stop (&x);
+  g_remove (project);
+  g_rmdir (dir);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -330,5 +377,6 @@ main (int   argc,
   g_test_add_func ("/app/decide/limit-verdict-gores", test_limit_verdict_gores);
   g_test_add_func ("/app/decide/geodesic-verdicts", test_geodesic_verdicts);
   g_test_add_func ("/app/decide/shear-verdicts", test_shear_verdicts);
+  g_test_add_func ("/app/decide/bare-limit-in-display-unit", test_bare_limit_in_display_unit);
   return g_test_run ();
 }

@@ -8,6 +8,7 @@
 
 #include "df-decide-out.h"
 #include "df-document-limits.h"
+#include "df-document-units.h"
 #include "df-limits-file.h"
 
 /* How the editor names each limit, with a line on what it means. The keys stay the file's. */
@@ -48,7 +49,48 @@ typedef struct
   GtkWidget  *mark[DF_N_LIMITS];
   GtkWidget  *patch;
   GtkWidget  *error_label;
+  /* The unit a bare number of a length is typed in: the display unit (so "0.025" with lengths
+   * shown in m means 25 mm), written out with the value; "" when nothing converts, and a bare
+   * number then is in the surface's units as in the project file. */
+  char        bare_unit[8];
+  char        model_unit[32];
 } LimitsDialog;
+
+/* A bare number (no unit) as the user typed it? */
+static gboolean
+is_bare_number (const char *text)
+{
+  char *end = NULL;
+
+  g_ascii_strtod (text, &end);
+  return end != text && end != NULL && *end == '\0';
+}
+
+/* A length's entry text as the reader takes it: a bare number gets the display unit. */
+static char *
+length_text (const LimitsDialog *d,
+             const char         *value)
+{
+  if (d->bare_unit[0] != '\0' && is_bare_number (value))
+    return g_strdup_printf ("%s %s", value, d->bare_unit);
+  return g_strdup (value);
+}
+
+/* A length as the entry shows it: with the surface's unit when the file gave none and a bare
+ * number would now read in the display unit. */
+static char *
+shown_length (const LimitsDialog *d,
+              char               *text)
+{
+  if (d->bare_unit[0] != '\0' && is_bare_number (text))
+    {
+      char *with = g_strdup_printf ("%s %s", text, d->model_unit);
+
+      g_free (text);
+      return with;
+    }
+  return text;
+}
 
 static void
 limits_dialog_free (gpointer data)
@@ -132,7 +174,13 @@ read_entries (LimitsDialog *d,
       g_autofree char *source = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (d->source[i]))));
       const char *key = df_limit_key ((df_limit_id) i);
 
-      if (value[0] != '\0')
+      if (value[0] != '\0' && df_limit_kind_of ((df_limit_id) i) == DF_LIMIT_KIND_LENGTH)
+        {
+          g_autofree char *with = length_text (d, value);
+
+          g_key_file_set_string (key_file, DF_LIMITS_GROUP, key, with);
+        }
+      else if (value[0] != '\0')
         g_key_file_set_string (key_file, DF_LIMITS_GROUP, key, value);
       if (value[0] != '\0' && source[0] != '\0')
         {
@@ -143,7 +191,11 @@ read_entries (LimitsDialog *d,
     }
   patch = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (d->patch))));
   if (patch[0] != '\0')
-    g_key_file_set_string (key_file, DF_LIMITS_GROUP, "patch-size", patch);
+    {
+      g_autofree char *with = length_text (d, patch);
+
+      g_key_file_set_string (key_file, DF_LIMITS_GROUP, "patch-size", with);
+    }
   limits = df_limits_from_key_file (key_file, "Limits", df_document_get_units (d->document),
                                     error);
   if (limits != NULL && old != NULL)
@@ -219,14 +271,14 @@ small_label (const char *text,
 
 static const char *
 units_text (df_limit_id id,
-            const char *surface_units,
+            const char *bare_units,
             char       *buf,
             gsize       len)
 {
   switch (df_limit_kind_of (id))
     {
     case DF_LIMIT_KIND_LENGTH:
-      g_snprintf (buf, len, "%s, or with a unit", surface_units);
+      g_snprintf (buf, len, "%s, or with a unit", bare_units);
       return buf;
     case DF_LIMIT_KIND_DEGREES:
       return "degrees";
@@ -256,6 +308,16 @@ df_limits_dialog_present (GtkWindow  *parent,
 
   d = g_new0 (LimitsDialog, 1);
   d->document = g_object_ref (document);
+  {
+    DfDisplayUnits du;
+
+    df_document_get_display_units (document, &du);
+    g_strlcpy (d->model_unit, units, sizeof d->model_unit);
+    if (du.known && du.units.length != du.units.model)
+      g_strlcpy (d->bare_unit, df_du_length_unit (&du), sizeof d->bare_unit);
+    /* The Units column names what a bare number means. */
+    units = d->bare_unit[0] != '\0' ? d->bare_unit : units;
+  }
   dialog = gtk_dialog_new_with_buttons ("Material and Process Limits", parent,
                                         GTK_DIALOG_MODAL | GTK_DIALOG_DESTROY_WITH_PARENT
                                           | GTK_DIALOG_USE_HEADER_BAR,
@@ -310,6 +372,8 @@ df_limits_dialog_present (GtkWindow  *parent,
         {
           g_autofree char *text = df_limit_value_text (l);
 
+          if (df_limit_kind_of ((df_limit_id) i) == DF_LIMIT_KIND_LENGTH)
+            text = shown_length (d, text);
           gtk_editable_set_text (GTK_EDITABLE (d->value[i]), text);
           gtk_editable_set_text (GTK_EDITABLE (d->source[i]), l->source != NULL ? l->source : "");
         }
@@ -342,7 +406,8 @@ df_limits_dialog_present (GtkWindow  *parent,
                                  "checked with: your choice, not material data");
     if (limits != NULL && limits->patch_size.set)
       {
-        g_autofree char *text = df_length_setting_text (&limits->patch_size);
+        g_autofree char *text = shown_length (d, df_length_setting_text (&limits->patch_size));
+
         gtk_editable_set_text (GTK_EDITABLE (d->patch), text);
       }
     gtk_grid_attach (GTK_GRID (grid), label, 0, row, 1, 1);
