@@ -5,6 +5,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "df-document-units.h"
 #include "df-project.h"
 
 #include "df-window-private.h"
@@ -215,12 +216,21 @@ _df_window_type_loop_dialog (DfWindow *self)
   gtk_widget_set_margin_end (box, 12);
   gtk_widget_set_margin_top (box, 12);
   gtk_widget_set_margin_bottom (box, 12);
-  hint_text = g_strdup_printf ("One point a row, as in a loop CSV file: first the header "
-                               "“u,v” (chart: %s) or “x,y,z” (a point in space in the surface's own units, %s, placed "
-                               "at its closest surface point), then the rows. The loop closes "
-                               "itself. Ctrl+Return adds it.",
-                               revolution ? "t, then φ in radians" : "x, y",
-                               df_document_get_units (self->document));
+  {
+    DfDisplayUnits du;
+    g_autofree char *chart = NULL;
+
+    /* The loop CSV's rule: chart coordinates as the surface defines them, t in its own unit. */
+    df_document_get_display_units (self->document, &du);
+    chart = revolution ? g_strdup_printf ("t%s%s, then φ in radians",
+                                          du.t_unit[0] != '\0' ? " in " : "", du.t_unit)
+                       : g_strdup ("x, y");
+    hint_text = g_strdup_printf ("One point a row, as in a loop CSV file: first the header "
+                                 "“u,v” (chart: %s) or “x,y,z” (a point in space in the "
+                                 "surface's own units, %s, placed at its closest surface "
+                                 "point), then the rows. The loop closes itself. Ctrl+Return "
+                                 "adds it.", chart, df_document_get_units (self->document));
+  }
   hint = gtk_label_new (hint_text);
   gtk_label_set_wrap (GTK_LABEL (hint), TRUE);
   gtk_label_set_xalign (GTK_LABEL (hint), 0);
