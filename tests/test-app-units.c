@@ -416,6 +416,44 @@ test_summary_csv_metres (void)
   g_rmdir (dir);
 }
 
+/* On a graph the chart is the plan: x, y typed with lengths shown in m are in m. The saddle
+ * z = (x^2 - y^2) / (2R), R = 200 mm (the preset's closed form), probed at x = 0.05 m,
+ * y = 0.02 m: the point shown is (0.05, 0.02, 0.00525) m, and K = -1 / (R^2 (1 + |grad f|^2)^2)
+ * (the graph's Gaussian curvature, from memory) per m^2. */
+static void
+test_graph_plan_typed_in_metres (void)
+{
+  Xserver x;
+  g_autoptr(GSubprocess) app = NULL;
+  g_autoptr(GDataInputStream) out = NULL;
+  g_autofree char *line = NULL;
+  g_auto(GStrv) parts = NULL;
+  const double R = 200, px = 50, py = 20;
+  double fx = px / R, fy = -py / R, w = 1 + fx * fx + fy * fy;
+
+  if (!xserver_start (&x))
+    return;
+  app = start_app (&x, DF_APP_PATH, &out, "--preset", "saddle", "--units", "m", NULL);
+  g_strfreev (read_view_geometry (out));
+  focus_main (&x);
+  xdotool_va (&x, "key", "ctrl+3", "sleep", "0.5", "key", "ctrl+t", NULL);
+  type_field (&x, "0.05, 0.02");
+  xdotool_va (&x, "key", "Return", NULL);
+  line = read_until (out, "probe-shown ");
+  g_assert_nonnull (line);
+  parts = g_strsplit (line, " ", -1);
+  g_assert_cmpuint (g_strv_length (parts), ==, 8);
+  g_assert_cmpstr (parts[1], ==, "m");
+  df_assert_close (g_ascii_strtod (parts[3], NULL), px / 1000, 1e-12, 0);
+  df_assert_close (g_ascii_strtod (parts[4], NULL), py / 1000, 1e-12, 0);
+  df_assert_close (g_ascii_strtod (parts[5], NULL), (px * px - py * py) / (2 * R) / 1000, 1e-12,
+                   0);
+  /* K per m^2 is 10^6 times K per mm^2 (1 m = 1000 mm). */
+  df_assert_close (g_ascii_strtod (parts[6], NULL), -1e6 / (R * R * w * w), 1e-9, 0);
+  stop_app (app);
+  xserver_stop (&x);
+}
+
 int
 main (int   argc,
       char *argv[])
@@ -425,5 +463,6 @@ main (int   argc,
   g_test_add_func ("/app/units/saved", test_units_saved);
   g_test_add_func ("/app/units/inches-curvature-per-m2", test_inches_curvature_per_m2);
   g_test_add_func ("/app/units/summary-csv-metres", test_summary_csv_metres);
+  g_test_add_func ("/app/units/graph-plan-typed-in-metres", test_graph_plan_typed_in_metres);
   return g_test_run ();
 }

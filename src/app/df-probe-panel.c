@@ -207,8 +207,6 @@ df_probe_panel_show (DfProbePanel            *self,
   table = table_new ();
   {
     g_autofree char *chart = NULL;
-    g_autofree char *a = df_format_number (g->u);
-    g_autofree char *b = df_format_number (g->v);
     g_autofree char *x = df_format_number (df_du_length (du, g->point[0]));
     g_autofree char *y = df_format_number (df_du_length (du, g->point[1]));
     g_autofree char *z = df_format_number (df_du_length (du, g->point[2]));
@@ -218,16 +216,14 @@ df_probe_panel_show (DfProbePanel            *self,
     g_autofree char *nz = df_format_number (g->normal[2]);
     g_autofree char *normal = g_strdup_printf ("(%s, %s, %s)", nx, ny, nz);
 
-    if (rev)
-      chart = df_du_format_chart_point (du, TRUE, g->u, g->v);
-    else
-      chart = g_strdup_printf ("x = %s %s, y = %s %s", a, units, b, units);
+    chart = df_du_format_chart_point (du, rev, g->u, g->v);
     table_add (table, row++, "Chart", chart);
     if (df_du_converts (du))
       gtk_widget_set_tooltip_text (gtk_widget_get_last_child (table),
-                                   "Chart coordinates are the surface's own parameters, in its "
-                                   "own units, as the project file and the command line take "
-                                   "them.");
+                                   "t is the profile's own parameter, in its own unit (a "
+                                   "graph's x, y are shown in the display unit); the tensors "
+                                   "below are in the chart's own coordinates and the surface's "
+                                   "units, as the project file and the command line take them.");
     table_add (table, row++, "Position", space);
     table_add (table, row++, "Unit normal N", normal);
   }

@@ -84,13 +84,22 @@ typed_point (DfWindow    *self,
   df_document_get_display_units (self->document, &du);
   if (surface == NULL || !parse_numbers (text, field, 2, 3, x, &n, error))
     return FALSE;
-  if (n == 2)
+  if (n == 2 && df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION)
     {
+      /* t as the profile defines it (its own unit), φ in degrees. */
       *u = x[0];
-      *v = df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION ? x[1] * G_PI / 180.0 : x[1];
+      *v = x[1] * G_PI / 180.0;
       return TRUE;
     }
-  /* A point in space is typed in the display unit (chart coordinates are the chart's). */
+  if (n == 2)
+    {
+      /* A graph's x, y are its plan, lengths in space: typed in the display unit, as the
+       * status line and the readouts show them. */
+      *u = df_du_to_model (&du, x[0]);
+      *v = df_du_to_model (&du, x[1]);
+      return TRUE;
+    }
+  /* A point in space is typed in the display unit. */
   for (int k = 0; k < 3; k++)
     x[k] = df_du_to_model (&du, x[k]);
   df_diag_clear (&diag);
@@ -180,9 +189,12 @@ _df_window_update_typed_hints (DfWindow *self)
   g_autofree char *hint = NULL;
 
   df_document_get_display_units (self->document, &du);
-  hint = g_strdup_printf (revolution ? "t, φ° on the surface or x, y, z in %s"
-                                     : "x, y on the surface or x, y, z in %s",
-                          df_du_length_unit (&du));
+  if (revolution)
+    hint = g_strdup_printf ("t%s%s%s, φ° on the surface or x, y, z in %s",
+                            du.t_unit[0] != '\0' ? " (" : "", du.t_unit,
+                            du.t_unit[0] != '\0' ? ")" : "", df_du_length_unit (&du));
+  else
+    hint = g_strdup_printf ("x, y on the surface or x, y, z (all in %s)", df_du_length_unit (&du));
   df_probe_panel_set_placeholder (self->probe_panel, hint);
   df_geodesic_panel_set_chart (self->geodesic_panel, revolution ? "t, φ°  or  x, y, z" :
                                                                   "x, y  or  x, y, z",
