@@ -55,8 +55,8 @@ update_labels (DfDrapeWindow *self)
 
   df_document_get_display_units (self->document, &du);
   df_drape_text_chart_names (df_document_get_surface (self->document), &un, &vn);
-  /* The start is typed in the chart's own coordinates: t in its unit (when the surface says
-   * it), a graph's x, y in the surface's unit. */
+  /* The start is typed as the chart is shown: t in its own unit (when the surface says it),
+   * φ in degrees, a graph's x, y (its plan) in the display unit. */
   if (is_revolution (self))
     {
       u = du.t_unit[0] != '\0' ? g_strdup_printf ("Start %s (%s)", un, du.t_unit)
@@ -65,8 +65,8 @@ update_labels (DfDrapeWindow *self)
     }
   else
     {
-      u = g_strdup_printf ("Start %s (%s)", un, du.label);
-      v = g_strdup_printf ("Start %s (%s)", vn, du.label);
+      u = g_strdup_printf ("Start %s (%s)", un, df_du_length_unit (&du));
+      v = g_strdup_printf ("Start %s (%s)", vn, df_du_length_unit (&du));
     }
   hint = g_strdup_printf ("0° = along +%s, anticlockwise about N; the weft at +90°", un);
   gtk_label_set_text (GTK_LABEL (self->u_label), u);
@@ -351,6 +351,15 @@ typed_start (DfDrapeWindow *self,
     }
   if (is_revolution (self))
     uv[1] /= DEG;
+  else
+    {
+      /* A graph's plan, typed in the display unit like every length shown. */
+      DfDisplayUnits du;
+
+      df_document_get_display_units (self->document, &du);
+      uv[0] = df_du_to_model (&du, uv[0]);
+      uv[1] = df_du_to_model (&du, uv[1]);
+    }
   return TRUE;
 }
 
@@ -378,8 +387,19 @@ fill_start (DfDrapeWindow *self,
             double         u,
             double         v)
 {
-  set_number (self->start_u, u);
-  set_number (self->start_v, is_revolution (self) ? remainder (v, 2 * G_PI) * DEG : v);
+  DfDisplayUnits du;
+
+  df_document_get_display_units (self->document, &du);
+  if (is_revolution (self))
+    {
+      set_number (self->start_u, u);
+      set_number (self->start_v, remainder (v, 2 * G_PI) * DEG);
+    }
+  else
+    {
+      set_number (self->start_u, df_du_length (&du, u));
+      set_number (self->start_v, df_du_length (&du, v));
+    }
 }
 
 /* A first guess for a loop just chosen: the mean of its chart points as the start (inside a
@@ -474,12 +494,17 @@ units_changed_cb (DfDocument    *document,
   DfDisplayUnits du;
   double cell = 0;
 
+  df_document_get_display_units (document, &du);
   if (parse_field (self->cell, "Cell size", &cell, problems) && cell > 0)
+    set_number (self->cell, df_du_length (&du, df_du_to_model (&self->du, cell)));
+  /* A graph's start is a plan point in the display unit too. */
+  for (int k = 0; k < 2 && !is_revolution (self); k++)
     {
-      double model = df_du_to_model (&self->du, cell);
+      GtkWidget *field = k == 0 ? self->start_u : self->start_v;
+      double x = 0;
 
-      df_document_get_display_units (document, &du);
-      set_number (self->cell, df_du_length (&du, model));
+      if (parse_field (field, "Start", &x, problems))
+        set_number (field, df_du_length (&du, df_du_to_model (&self->du, x)));
     }
   df_document_get_display_units (document, &self->du);
   update_labels (self);
