@@ -71,8 +71,18 @@ print_text (const probe_options *o, const df_surface_spec *spec, const probe_uni
             units->gaussian, units->curvature, spec->units);
   /* A data surface's K is a second derivative of a fit: its quality goes first. */
   df_cli_print_fit (surface, spec->units);
-  printf ("Chart point: %s = %s, %s = %s\n", names[0], df_cli_num (a, sizeof a, g->u, 12),
-          names[1], df_cli_num (b, sizeof b, g->v, 12));
+  {
+    /* Each chart coordinate with its unit where the surface says it: t's own (t-units), phi
+     * in radians; a graph's x, y in the surface's units. */
+    gboolean rev = df_surface_get_kind (surface) == DF_SURFACE_REVOLUTION;
+    const char *t_unit = df_surface_spec_t_units (spec);
+    const char *u_unit = rev ? t_unit : spec->units;
+
+    printf ("Chart point: %s = %s%s%s, %s = %s %s\n", names[0],
+            df_cli_num (a, sizeof a, g->u, 12), u_unit != NULL ? " " : "",
+            u_unit != NULL ? u_unit : "", names[1], df_cli_num (b, sizeof b, g->v, 12),
+            rev ? "rad" : spec->units);
+  }
   printf ("Point:   (%s, %s, %s) %s\n", df_cli_num (a, sizeof a, g->point[0], 10),
           df_cli_num (b, sizeof b, g->point[1], 10), df_cli_num (c, sizeof c, g->point[2], 10),
           un);
