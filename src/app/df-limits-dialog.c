@@ -49,40 +49,22 @@ typedef struct
   GtkWidget  *mark[DF_N_LIMITS];
   GtkWidget  *patch;
   GtkWidget  *error_label;
-  /* The unit a bare number of a length is typed in: the display unit (so "0.025" with lengths
-   * shown in m means 25 mm), written out with the value; "" when nothing converts, and a bare
-   * number then is in the surface's units as in the project file. */
-  char        bare_unit[8];
+  /* With lengths shown in another unit than the surface's, a bare number of a length is
+   * typed in that display unit (so "0.018" with lengths shown in m means 18 mm) and is stored
+   * with it; otherwise a bare number is in the surface's units, as in the project file. */
+  gboolean    bare_in_display;
+  df_unit     display;
   char        model_unit[32];
 } LimitsDialog;
 
-/* A bare number (no unit) as the user typed it? */
-static gboolean
-is_bare_number (const char *text)
-{
-  char *end = NULL;
-
-  g_ascii_strtod (text, &end);
-  return end != text && end != NULL && *end == '\0';
-}
-
-/* A length's entry text as the reader takes it: a bare number gets the display unit. */
-static char *
-length_text (const LimitsDialog *d,
-             const char         *value)
-{
-  if (d->bare_unit[0] != '\0' && is_bare_number (value))
-    return g_strdup_printf ("%s %s", value, d->bare_unit);
-  return g_strdup (value);
-}
-
-/* A length as the entry shows it: with the surface's unit when the file gave none and a bare
- * number would now read in the display unit. */
+/* A length as the entry shows it: with the surface's unit when the file gave none, since a
+ * bare number in the entry now reads in the display unit. */
 static char *
 shown_length (const LimitsDialog *d,
+              gboolean            has_unit,
               char               *text)
 {
-  if (d->bare_unit[0] != '\0' && is_bare_number (text))
+  if (d->bare_in_display && !has_unit)
     {
       char *with = g_strdup_printf ("%s %s", text, d->model_unit);
 
@@ -174,13 +156,7 @@ read_entries (LimitsDialog *d,
       g_autofree char *source = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (d->source[i]))));
       const char *key = df_limit_key ((df_limit_id) i);
 
-      if (value[0] != '\0' && df_limit_kind_of ((df_limit_id) i) == DF_LIMIT_KIND_LENGTH)
-        {
-          g_autofree char *with = length_text (d, value);
-
-          g_key_file_set_string (key_file, DF_LIMITS_GROUP, key, with);
-        }
-      else if (value[0] != '\0')
+      if (value[0] != '\0')
         g_key_file_set_string (key_file, DF_LIMITS_GROUP, key, value);
       if (value[0] != '\0' && source[0] != '\0')
         {
@@ -191,13 +167,37 @@ read_entries (LimitsDialog *d,
     }
   patch = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (d->patch))));
   if (patch[0] != '\0')
-    {
-      g_autofree char *with = length_text (d, patch);
-
-      g_key_file_set_string (key_file, DF_LIMITS_GROUP, "patch-size", with);
-    }
+    g_key_file_set_string (key_file, DF_LIMITS_GROUP, "patch-size", patch);
   limits = df_limits_from_key_file (key_file, "Limits", df_document_get_units (d->document),
                                     error);
+  if (limits != NULL && d->bare_in_display)
+    {
+      /* The reader took bare lengths in the surface's units: they were typed in the display
+       * unit, which they now carry (and are written with). */
+      df_diag diag;
+      df_status st;
+
+      for (int i = 0; i < DF_N_LIMITS; i++)
+        if (limits->item[i].set && !limits->item[i].has_unit
+            && df_limit_kind_of ((df_limit_id) i) == DF_LIMIT_KIND_LENGTH)
+          {
+            limits->item[i].has_unit = true;
+            limits->item[i].unit = d->display;
+          }
+      if (limits->patch_size.set && !limits->patch_size.has_unit)
+        {
+          limits->patch_size.has_unit = true;
+          limits->patch_size.unit = d->display;
+        }
+      df_diag_clear (&diag);
+      st = df_limits_resolve (limits, df_document_get_units (d->document), &diag);
+      if (st != DF_OK)
+        {
+          df_status_to_gerror (st, &diag, error);
+          g_clear_pointer (&limits, df_limits_free);
+          return NULL;
+        }
+    }
   if (limits != NULL && old != NULL)
     {
       limits->has_length_unit = old->has_length_unit;
@@ -313,10 +313,11 @@ df_limits_dialog_present (GtkWindow  *parent,
 
     df_document_get_display_units (document, &du);
     g_strlcpy (d->model_unit, units, sizeof d->model_unit);
-    if (du.known && du.units.length != du.units.model)
-      g_strlcpy (d->bare_unit, df_du_length_unit (&du), sizeof d->bare_unit);
+    d->bare_in_display = du.known && du.units.length != du.units.model;
+    d->display = du.units.length;
     /* The Units column names what a bare number means. */
-    units = d->bare_unit[0] != '\0' ? d->bare_unit : units;
+    if (d->bare_in_display)
+      units = df_unit_name (d->display);
   }
   dialog = gtk_dialog_new_with_buttons ("Material and Process Limits", parent,
                                         GTK_DIALOG_MODAL | GTK_DIALOG_DESTROY_WITH_PARENT
@@ -373,7 +374,7 @@ df_limits_dialog_present (GtkWindow  *parent,
           g_autofree char *text = df_limit_value_text (l);
 
           if (df_limit_kind_of ((df_limit_id) i) == DF_LIMIT_KIND_LENGTH)
-            text = shown_length (d, text);
+            text = shown_length (d, l->has_unit, text);
           gtk_editable_set_text (GTK_EDITABLE (d->value[i]), text);
           gtk_editable_set_text (GTK_EDITABLE (d->source[i]), l->source != NULL ? l->source : "");
         }
@@ -406,7 +407,8 @@ df_limits_dialog_present (GtkWindow  *parent,
                                  "checked with: your choice, not material data");
     if (limits != NULL && limits->patch_size.set)
       {
-        g_autofree char *text = shown_length (d, df_length_setting_text (&limits->patch_size));
+        g_autofree char *text = shown_length (d, limits->patch_size.has_unit,
+                                              df_length_setting_text (&limits->patch_size));
 
         gtk_editable_set_text (GTK_EDITABLE (d->patch), text);
       }
