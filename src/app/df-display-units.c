@@ -153,19 +153,14 @@ df_du_format_chart_point (const DfDisplayUnits *u,
                           double                cu,
                           double                cv)
 {
-  g_autofree char *a = df_format_number (cu);
-  g_autofree char *b = NULL;
-
-  if (revolution)
-    {
-      b = df_format_number (remainder (cv, 2 * G_PI) * 180.0 / G_PI);
-      return g_strdup_printf ("t = %s%s%s, φ = %s°", a, u->t_unit[0] != '\0' ? " " : "",
-                              u->t_unit, b);
-    }
   /* A height field's chart is its plan: x and y are lengths in space, shown in the display
    * unit like the point's z. */
-  g_free (a);
-  a = df_format_number (df_du_length (u, cu));
-  b = df_format_number (df_du_length (u, cv));
+  g_autofree char *a = df_format_number (revolution ? cu : df_du_length (u, cu));
+  g_autofree char *b = df_format_number (revolution ? remainder (cv, 2 * G_PI) * 180.0 / G_PI
+                                                    : df_du_length (u, cv));
+
+  if (revolution)
+    return g_strdup_printf ("t = %s%s%s, φ = %s°", a, u->t_unit[0] != '\0' ? " " : "",
+                            u->t_unit, b);
   return g_strdup_printf ("x = %s, y = %s %s", a, b, df_du_length_unit (u));
 }

@@ -57,6 +57,21 @@ typedef struct
   GError      *error;
 } Guarded;
 
+/* A region verdict that could not be made costs only itself: its note says why. */
+static void
+region_failed (df_status      status,
+               const df_diag *diag,
+               char          *note,
+               gsize          note_len,
+               bool          *checked)
+{
+  g_autoptr(GError) error = NULL;
+
+  df_status_to_gerror (status, diag, &error);
+  g_snprintf (note, note_len, "not checked: %s", error->message);
+  *checked = false;
+}
+
 static void
 check_guarded (gpointer user_data)
 {
@@ -92,13 +107,7 @@ check_guarded (gpointer user_data)
       strain = df_verdict_strain (curve, &result, work->limits, 0, NULL, &check->list, &checked,
                                   note, sizeof note, &strain_diag);
       if (strain != DF_OK)
-        {
-          g_autoptr(GError) error = NULL;
-
-          df_status_to_gerror (strain, &strain_diag, &error);
-          g_snprintf (note, sizeof note, "not checked: %s", error->message);
-          checked = false;
-        }
+        region_failed (strain, &strain_diag, note, sizeof note, &checked);
     }
   if (status != DF_OK)
     {
@@ -140,13 +149,7 @@ check_guarded (gpointer user_data)
                                 &check->list, &check->shear, &shear_checked, shear_note,
                                 sizeof shear_note, &shear_diag);
       if (shear != DF_OK)
-        {
-          g_autoptr(GError) error = NULL;
-
-          df_status_to_gerror (shear, &shear_diag, &error);
-          g_snprintf (shear_note, sizeof shear_note, "not checked: %s", error->message);
-          shear_checked = false;
-        }
+        region_failed (shear, &shear_diag, shear_note, sizeof shear_note, &shear_checked);
       check->shear_checked = shear_checked;
       check->shear_note = shear_note[0] != '\0' ? g_strdup (shear_note) : NULL;
     }
