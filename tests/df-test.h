@@ -21,6 +21,23 @@
   G_STMT_END
 
 #include "df-glib.h"
+#include <glib/gstdio.h>
+
+/* Removes a test's temporary folder and the files in it (no subfolders). */
+static inline void
+df_test_remove_dir (const char *dir)
+{
+  g_autoptr (GDir) d = g_dir_open (dir, 0, NULL);
+  const char *name;
+
+  while (d != NULL && (name = g_dir_read_name (d)) != NULL)
+    {
+      g_autofree char *p = g_build_filename (dir, name, NULL);
+
+      g_remove (p);
+    }
+  g_rmdir (dir);
+}
 
 /* Surfaces from formula text, for tests; abort the test with the reader's message on error. */
 static inline df_surface *

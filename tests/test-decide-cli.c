@@ -332,18 +332,7 @@ main (int argc, char **argv)
   g_test_add_func ("/decide-cli/devmap", test_devmap_cli);
   g_test_add_func ("/decide-cli/devmap-png", test_devmap_png);
   code = g_test_run ();
-  {
-    g_autoptr (GDir) d = g_dir_open (tmp_dir, 0, NULL);
-    const char *name;
-
-    while (d != NULL && (name = g_dir_read_name (d)) != NULL)
-      {
-        g_autofree char *p = g_build_filename (tmp_dir, name, NULL);
-
-        g_remove (p);
-      }
-  }
-  g_rmdir (tmp_dir);
+  df_test_remove_dir (tmp_dir);
   g_free (tmp_dir);
   return code;
 }

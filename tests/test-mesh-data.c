@@ -224,21 +224,6 @@ tmp_dir (void)
 }
 
 static void
-remove_dir (const char *dir)
-{
-  g_autoptr (GDir) d = g_dir_open (dir, 0, NULL);
-  const char *name;
-
-  while (d != NULL && (name = g_dir_read_name (d)) != NULL)
-    {
-      g_autofree char *p = g_build_filename (dir, name, NULL);
-
-      g_remove (p);
-    }
-  g_rmdir (dir);
-}
-
-static void
 test_stl_binary_cap (void)
 {
   g_autofree char *dir = tmp_dir ();
@@ -258,7 +243,7 @@ test_stl_binary_cap (void)
   df_assert_close (df_wrap_angle (graph_latitude (s, R_CAP, LOOP_DEG, NULL)
                                   - cap_curvature (LOOP_DEG)), 0.0, 0.0, MESH_TOL);
   tri_mesh_clear (&m);
-  remove_dir (dir);
+  df_test_remove_dir (dir);
 }
 
 static void
@@ -276,7 +261,7 @@ check_format (void (*writer) (const tri_mesh *, const char *), const char *name)
   df_assert_close (df_wrap_angle (graph_latitude (s, R_CAP, LOOP_DEG, NULL)
                                   - cap_curvature (LOOP_DEG)), 0.0, 0.0, MESH_TOL);
   tri_mesh_clear (&m);
-  remove_dir (dir);
+  df_test_remove_dir (dir);
 }
 
 static void
@@ -343,7 +328,7 @@ test_revolution_sphere (void)
   /* Either orientation of the parallel: |holonomy| is the smaller cap's curvature. */
   df_assert_close (fabs (df_wrap_angle (h)), cap_curvature (theta), 0.0, MESH_TOL);
   tri_mesh_clear (&m);
-  remove_dir (dir);
+  df_test_remove_dir (dir);
 }
 
 /* x stretched by 1 + eps: at distance rho from the axis the radius is
@@ -372,7 +357,7 @@ test_revolution_out_of_round (void)
   g_assert_cmpfloat (info.symmetry_rms, <, info.symmetry_max / sqrt (2.0) * 1.05);
   g_assert_cmpfloat (info.symmetry_rms, >, 0.2 * info.symmetry_max);
   tri_mesh_clear (&m);
-  remove_dir (dir);
+  df_test_remove_dir (dir);
 }
 
 /* Placement: the cap turned and moved away, brought back by the surface file, measures as the
@@ -413,7 +398,7 @@ test_placement (void)
   df_assert_close (df_wrap_angle (graph_latitude (s, R_CAP, LOOP_DEG, NULL)
                                   - cap_curvature (LOOP_DEG)), 0.0, 0.0, MESH_TOL);
   tri_mesh_clear (&m);
-  remove_dir (dir);
+  df_test_remove_dir (dir);
 }
 
 /* units=m: the same cap in metres measures the same holonomy, and its enclosed area is the
@@ -447,7 +432,7 @@ test_units (void)
   g_assert_nonnull (strstr (error->message, "furlong"));
   tri_mesh_clear (&a);
   tri_mesh_clear (&b);
-  remove_dir (dir);
+  df_test_remove_dir (dir);
 }
 
 /* A ramp whose x runs forward, back and forward again: the middle third faces the other way

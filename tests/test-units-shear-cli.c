@@ -419,18 +419,7 @@ main (int argc, char **argv)
   g_test_add_func ("/units-shear/shear-sphere", test_shear_sphere);
   g_test_add_func ("/units-shear/shear-keys", test_shear_keys);
   code = g_test_run ();
-  {
-    g_autoptr (GDir) d = g_dir_open (tmp_dir, 0, NULL);
-    const char *name;
-
-    while (d != NULL && (name = g_dir_read_name (d)) != NULL)
-      {
-        g_autofree char *p = g_build_filename (tmp_dir, name, NULL);
-
-        g_remove (p);
-      }
-  }
-  g_rmdir (tmp_dir);
+  df_test_remove_dir (tmp_dir);
   g_free (tmp_dir);
   return code;
 }
