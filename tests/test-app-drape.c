@@ -144,10 +144,8 @@ test_typed (void)
   for (guint k = 0; k < G_N_ELEMENTS (limits); k++)
     {
       Xserver x;
-      g_autoptr(GSubprocessLauncher) launcher = NULL;
-      g_autoptr(GSubprocess) app = NULL;
-      g_autoptr(GError) error = NULL;
-      g_autoptr(GDataInputStream) out = NULL;
+          g_autoptr(GSubprocess) app = NULL;
+          g_autoptr(GDataInputStream) out = NULL;
       g_autofree char *loop_csv = NULL;
       g_autofree char *project = write_project (dir, limits[k], &loop_csv);
       g_autofree char *start = NULL;
@@ -157,12 +155,8 @@ test_typed (void)
 
       if (!xserver_start (&x))
         return;
-      launcher = app_launcher (&x);
-      app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project,
-                                         "--report-events", "--drape",
-                                         "Belly patch;90;5;10;4", NULL);
-      g_assert_no_error (error);
-      out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+      app = start_app (&x, DF_APP_PATH, &out, project, "--drape", "Belly patch;90;5;10;4",
+                       NULL);
       start = read_until (out, "drape-start ");
       g_assert_nonnull (start);
       line = read_until (out, "draped ");
@@ -319,9 +313,7 @@ static void
 test_limits_redrape (void)
 {
   Xserver x;
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
-  g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   g_autofree char *dir = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
   g_autofree char *loop_csv = NULL;
@@ -334,11 +326,7 @@ test_limits_redrape (void)
 
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
-                                     "--drape", "Belly patch;90;5;10;4", NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, project, "--drape", "Belly patch;90;5;10;4", NULL);
   line = read_until (out, "draped ");
   g_assert_nonnull (line);
   parse_draped (line, &a);
@@ -384,9 +372,7 @@ static void
 test_keep_for_check (void)
 {
   Xserver x;
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
-  g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   g_autoptr(JsonParser) parser = json_parser_new ();
   g_autofree char *dir = g_dir_make_tmp ("df-drape-XXXXXX", NULL);
@@ -400,11 +386,7 @@ test_keep_for_check (void)
 
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
-                                     "--drape", "Belly patch;90;5;10;4", NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, project, "--drape", "Belly patch;90;5;10;4", NULL);
   line = read_until (out, "draped ");
   g_assert_nonnull (line);
   parse_draped (line, &a);
@@ -453,7 +435,6 @@ static void
 test_csv_exports_and_surface_change (void)
 {
   Xserver x;
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(GSubprocess) cli = NULL;
   g_autoptr(GError) error = NULL;
@@ -477,13 +458,9 @@ test_csv_exports_and_surface_change (void)
   g_assert_true (g_file_set_contents (profile, cap->str, -1, NULL));
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
   /* The cell typed in the display unit: 4 mm = 0.004 m. */
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
-                                     "--units", "m", "--drape", "Belly patch;90;5;10;0.004",
-                                     NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, project, "--units", "m", "--drape",
+                   "Belly patch;90;5;10;0.004", NULL);
   line = read_until (out, "draped ");
   g_assert_nonnull (line);
   for (int k = 0; k < 2; k++)
