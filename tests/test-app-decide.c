@@ -114,7 +114,6 @@ test_limit_verdict_gores (void)
   g_autofree char *svg_path = g_build_filename (dir, "shade-gores.svg", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-18mm.dfproj", NULL);
   g_autofree char *svg = NULL, *w_unit = NULL, *h_unit = NULL;
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
@@ -127,11 +126,7 @@ test_limit_verdict_gores (void)
 
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, "--demo", "--report-events",
-                                     NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, "--demo", NULL);
 
   /* The demo's 25 mm: both plies bend tighter somewhere. The reference is the CLI's `check`
    * on the demo file (another front end over the same core). */
@@ -233,10 +228,8 @@ test_geodesic_verdicts (void)
   g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-2deg.dfproj", NULL);
   g_autofree char *line = NULL;
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
   g_autoptr(JsonParser) parser = json_parser_new ();
-  g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   g_auto(GStrv) parts = NULL;
   JsonArray *verdicts;
@@ -262,11 +255,7 @@ test_geodesic_verdicts (void)
 
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
-                                     NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, project, NULL);
   /* The project's geodesic is traced, and checked, as the project opens. */
   line = read_until (out, "geodesic-verdict max-fibre-deviation-deg ");
   g_assert_nonnull (line);
@@ -294,9 +283,7 @@ test_shear_verdicts (void)
   Xserver x;
   g_autofree char *dir = g_dir_make_tmp ("df-e2e-XXXXXX", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-1deg.dfproj", NULL);
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
-  g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   gboolean belly = TRUE, seam = FALSE;
 
@@ -304,11 +291,7 @@ test_shear_verdicts (void)
 
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, project, "--report-events",
-                                     NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, project, NULL);
   read_two_verdicts (out, "Belly_patch", "Top_seam_ply", "max-shear-deg", &belly, &seam);
   g_assert_cmpint (belly, ==, cli_within (project, "Belly patch", "max-shear-deg"));
   g_assert_cmpint (seam, ==, cli_within (project, "Top seam ply", "max-shear-deg"));
@@ -331,20 +314,14 @@ test_bare_limit_in_display_unit (void)
   Xserver x;
   g_autofree char *dir = g_dir_make_tmp ("df-decide-XXXXXX", NULL);
   g_autofree char *project = g_build_filename (dir, "demo-18mm.dfproj", NULL);
-  g_autoptr(GSubprocessLauncher) launcher = NULL;
   g_autoptr(GSubprocess) app = NULL;
-  g_autoptr(GError) error = NULL;
   g_autoptr(GDataInputStream) out = NULL;
   g_autofree char *demo_path = g_build_filename (DF_EXAMPLES_DIR, "demo.dfproj", NULL);
   gboolean belly = FALSE, seam = TRUE;
 
   if (!xserver_start (&x))
     return;
-  launcher = app_launcher (&x);
-  app = g_subprocess_launcher_spawn (launcher, &error, DF_APP_PATH, demo_path, "--units", "m",
-                                     "--report-events", NULL);
-  g_assert_no_error (error);
-  out = g_data_input_stream_new (g_subprocess_get_stdout_pipe (app));
+  app = start_app (&x, DF_APP_PATH, &out, demo_path, "--units", "m", NULL);
   read_two_verdicts (out, "Belly_patch", "Top_seam_ply", "min-steering-radius", &belly, &seam);
   g_assert_false (belly);
 
