@@ -388,28 +388,12 @@ gboolean
 df_cli_units (const char *units_text, const char *surface_units, int *model, int *display,
               GError **error)
 {
-  df_unit m, d;
+  df_display_units du;
 
-  if (!df_unit_from_name (surface_units, &m))
-    {
-      if (units_text != NULL)
-        {
-          g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE, "--units: the surface's units "
-                       "'%s' are not mm, cm, m or in, so nothing can be converted",
-                       surface_units != NULL ? surface_units : "");
-          return FALSE;
-        }
-      /* An unknown label: numbers stay unconverted. */
-      m = DF_UNIT_MM;
-    }
-  d = m;
-  if (units_text != NULL && !df_unit_from_name (units_text, &d))
-    {
-      g_set_error (error, DF_IO_ERROR, DF_IO_ERROR_VALUE,
-                   "--units: unknown unit '%s' (known: mm, cm, m, in)", units_text);
-      return FALSE;
-    }
-  *model = (int) m;
-  *display = (int) d;
+  /* The same rule and messages as with a curvature unit, without one. */
+  if (!df_cli_display_units (units_text, NULL, surface_units, &du, error))
+    return FALSE;
+  *model = (int) du.model;
+  *display = (int) du.length;
   return TRUE;
 }
